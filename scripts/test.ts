@@ -1,0 +1,65 @@
+// `npm test`: the same set-up as `npm start` (own database), then the whole suite —
+// unit, integration over HTTP against PostgreSQL, and end-to-end in headless Chromium.
+import { spawnSync, execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { runMigrations } from '../server/db/migrate';
+import { buildClientIfChanged } from './lib/build';
+import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './lib/postgres';
+
+const root = resolve(import.meta.dirname, '..');
+
+function ensureChromium() {
+  if (existsSync('/usr/bin/chromium')) return;
+  if (process.getuid?.() !== 0) {
+    throw new Error('Chromium is needed for the browser tests. Install it with: sudo apt-get install -y chromium');
+  }
+  console.log('[porewise] installing Chromium from Debian packages (apt-get) …');
+  execFileSync('apt-get', ['update'], { stdio: 'inherit' });
+  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], {
+    stdio: 'inherit',
+    env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+  });
+}
+
+async function main() {
+  const startedCluster = startCluster();
+  let status = 1;
+  try {
+    ensureDatabase('porewise_test', { fresh: true });
+    await runMigrations(databaseUrl('porewise_test'));
+    ensureChromium();
+    buildClientIfChanged();
+
+    const tmp = join(root, '.data', 'tmp');
+    rmSync(tmp, { recursive: true, force: true });
+    mkdirSync(tmp, { recursive: true });
+    const report = join(root, '.data', 'vitest.json');
+    rmSync(report, { force: true });
+    const extra = process.argv.slice(2);
+    const run = spawnSync(
+      join(root, 'node_modules/.bin/vitest'),
+      ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...extra],
+      {
+        cwd: root,
+        stdio: 'inherit',
+        env: { ...process.env, NODE_ENV: 'test', TMPDIR: tmp, POREWISE_TEST_DB_READY: '1' },
+      },
+    );
+    status = run.status ?? 1;
+    if (existsSync(report)) {
+      const { numPassedTests, numFailedTests } = JSON.parse(readFileSync(report, 'utf8'));
+      console.log(`\n${numPassedTests} passed, ${numFailedTests} failed`);
+    } else {
+      console.log('\n0 passed, 1 failed (the test runner did not write its report)');
+    }
+  } finally {
+    if (startedCluster) stopCluster();
+  }
+  process.exit(status);
+}
+
+main().catch((error) => {
+  console.error(`[porewise] ${error instanceof Error ? error.stack : error}`);
+  process.exit(1);
+});

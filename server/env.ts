@@ -1,0 +1,52 @@
+import { z } from 'zod';
+
+const bool = z
+  .enum(['true', 'false', '1', '0'])
+  .transform((v) => v === 'true' || v === '1')
+  .optional();
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DATABASE_URL: z.string().url(),
+  APP_URL: z.string().url().optional(),
+  ALLOWED_ORIGINS: z.string().optional(),
+  SECURE_COOKIES: bool,
+  RATE_LIMIT_SCALE: z.coerce.number().positive().default(1),
+  SMTP_HOST: z.string().optional(),
+  SMTP_PORT: z.coerce.number().int().positive().default(587),
+  SMTP_SECURE: bool,
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAIL_FROM: z.string().default('Porewise <no-reply@porewise.test>'),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_BUCKET: z.string().default('porewise-attachments'),
+  S3_ACCESS_KEY_ID: z.string().default('S3RVER'),
+  S3_SECRET_ACCESS_KEY: z.string().default('S3RVER'),
+  FAKE_SERVICES_DIR: z.string().default('.data'),
+  CLIENT_DIR: z.string().default('dist/client'),
+});
+
+export type Env = z.infer<typeof envSchema> & { appUrl: string; secureCookies: boolean; allowedOrigins: string[] };
+
+/** Parses process.env once, with clear messages for anything missing or malformed. */
+export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const result = envSchema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join('\n')}`);
+  }
+  const env = result.data;
+  const appUrl = (env.APP_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/$/, '');
+  const host = new URL(appUrl).hostname;
+  const local = host === '127.0.0.1' || host === 'localhost' || host === '::1';
+  if (env.NODE_ENV === 'production' && !env.SMTP_HOST) throw new Error('SMTP_HOST is required in production.');
+  if (env.NODE_ENV === 'production' && !env.S3_ENDPOINT && env.S3_ACCESS_KEY_ID === 'S3RVER') {
+    throw new Error('S3 settings (S3_BUCKET, S3_ACCESS_KEY_ID, S3_SECRET_ACCESS_KEY) are required in production.');
+  }
+  const allowedOrigins = (env.ALLOWED_ORIGINS ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+  if (local) allowedOrigins.push(appUrl.replace('127.0.0.1', 'localhost'), appUrl.replace('localhost', '127.0.0.1'));
+  return { ...env, appUrl, secureCookies: env.SECURE_COOKIES ?? !local, allowedOrigins };
+}

@@ -1,0 +1,34 @@
+import type { RequestHandler } from 'express';
+import type { z, ZodError, ZodType } from 'zod';
+import { badRequest } from '../lib/errors';
+
+/** Field path → first message, the shape clients show beside each field. */
+export function zodFieldMessages(error: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+export function parseOrThrow<S extends ZodType>(schema: S, value: unknown): z.output<S> {
+  const result = schema.safeParse(value);
+  if (!result.success) throw badRequest('Check the highlighted fields.', zodFieldMessages(result.error));
+  return result.data;
+}
+
+/** Validates `req.body` with a shared zod schema and stores the parsed value in `res.locals.body`. */
+export function validateBody<S extends ZodType>(schema: S): RequestHandler {
+  return (req, res, next) => {
+    res.locals.body = parseOrThrow(schema, req.body ?? {});
+    next();
+  };
+}
+
+export function validateQuery<S extends ZodType>(schema: S): RequestHandler {
+  return (req, res, next) => {
+    res.locals.query = parseOrThrow(schema, req.query ?? {});
+    next();
+  };
+}

@@ -1,0 +1,50 @@
+import { Router } from 'express';
+import {
+  passwordResetConfirmInputSchema,
+  passwordResetRequestInputSchema,
+  signInInputSchema,
+  signUpInputSchema,
+} from '../../../shared/schemas/auth';
+import type { Auth } from '../../lib/auth';
+import { authOf } from '../../middleware/authenticate';
+import type { createAuthRateLimits } from '../../middleware/rate-limit';
+import { validateBody } from '../../middleware/validate';
+import type { AuthService } from './auth.service';
+
+export function authRoutes(deps: { auth: Auth; service: AuthService; limits: ReturnType<typeof createAuthRateLimits> }) {
+  const { auth, service, limits } = deps;
+  const router = Router();
+  const setSession = (res: import('express').Response, sessionId: string) =>
+    res.append('Set-Cookie', auth.createSessionCookie(sessionId).serialize());
+
+  router.post('/sign-up', ...limits.signUp, validateBody(signUpInputSchema), async (_req, res) => {
+    const session = await service.signUp(res.locals.body);
+    setSession(res, session.id);
+    res.status(201).json({ ok: true });
+  });
+
+  router.post('/sign-in', ...limits.signIn, validateBody(signInInputSchema), async (_req, res) => {
+    const session = await service.signIn(res.locals.body);
+    setSession(res, session.id);
+    res.json({ ok: true });
+  });
+
+  router.post('/sign-out', async (_req, res) => {
+    if (res.locals.auth) await auth.invalidateSession(authOf(res).session.id);
+    res.append('Set-Cookie', auth.createBlankSessionCookie().serialize());
+    res.status(204).end();
+  });
+
+  router.post('/password-reset/request', ...limits.passwordReset, validateBody(passwordResetRequestInputSchema), async (req, res) => {
+    await service.requestPasswordReset(res.locals.body.email).catch((err) => req.log?.error({ err }, 'reset mail failed'));
+    res.status(202).json({ ok: true });
+  });
+
+  router.post('/password-reset/confirm', ...limits.passwordResetConfirm, validateBody(passwordResetConfirmInputSchema), async (_req, res) => {
+    const session = await service.confirmPasswordReset(res.locals.body);
+    setSession(res, session.id);
+    res.json({ ok: true });
+  });
+
+  return router;
+}

@@ -1,0 +1,84 @@
+import { generateIdFromEntropySize } from 'lucia';
+import type { PasswordResetConfirmInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth';
+import type { Database } from '../../db/client';
+import type { Auth } from '../../lib/auth';
+import { conflict, gone, HttpError } from '../../lib/errors';
+import type { Mailer } from '../../lib/mail';
+import { dummyPasswordHash, hashPassword, verifyPassword } from '../../lib/passwords';
+import { createToken, hashToken } from '../../lib/tokens';
+import { createAuthRepository } from './auth.repository';
+
+export const RESET_TOKEN_MINUTES = 60;
+
+type Deps = { db: Database; auth: Auth; mailer: Mailer; appUrl: string };
+
+export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
+  const repo = createAuthRepository(db);
+
+  return {
+    /** Creates the person, their winery and their owner membership in one transaction; opens a session. */
+    async signUp(input: SignUpInput) {
+      const passwordHash = await hashPassword(input.password);
+      const userId = generateIdFromEntropySize(10);
+      await db.transaction(async (tx) => {
+        const txRepo = createAuthRepository(tx);
+        if (await txRepo.findUserByEmail(input.email)) {
+          throw conflict('An account with this e-mail already exists. Sign in instead.', 'email_taken');
+        }
+        const winery = await txRepo.insertWinery(input.wineryName);
+        const user = await txRepo.insertUser({ id: userId, email: input.email, name: input.name, passwordHash, activeWineryId: winery.id });
+        if (!user) throw conflict('An account with this e-mail already exists. Sign in instead.', 'email_taken');
+        await txRepo.insertMembership({ wineryId: winery.id, userId, role: 'owner' });
+      });
+      return auth.createSession(userId, {});
+    },
+
+    /** Same answer for an unknown e-mail and a wrong password. */
+    async signIn(input: SignInInput) {
+      const user = await repo.findUserByEmail(input.email);
+      const valid = user
+        ? await verifyPassword(user.passwordHash, input.password)
+        : (await verifyPassword(await dummyPasswordHash(), input.password), false);
+      if (!user || !valid) throw new HttpError(401, 'bad_credentials', 'The e-mail or password is not right.');
+      return auth.createSession(user.id, {});
+    },
+
+    /** Always succeeds from the caller's view; mails a link only when the account exists. */
+    async requestPasswordReset(email: string, now = new Date()) {
+      const user = await repo.findUserByEmail(email);
+      if (!user) return;
+      const token = createToken();
+      await repo.insertPasswordReset({
+        tokenHash: await hashToken(token),
+        userId: user.id,
+        expiresAt: new Date(now.getTime() + RESET_TOKEN_MINUTES * 60_000),
+      });
+      const link = `${appUrl}/reset-password?token=${encodeURIComponent(token)}`;
+      await mailer.send({
+        to: user.email,
+        subject: 'Reset your Porewise password',
+        text:
+          `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset the password of your Porewise account.\n` +
+          `Open this link within ${RESET_TOKEN_MINUTES} minutes to choose a new one:\n\n${link}\n\n` +
+          `If you did not ask for this, ignore this message; your password stays as it is.\n`,
+      });
+    },
+
+    /** Single use; ends every session of the person, then opens a fresh one. */
+    async confirmPasswordReset(input: PasswordResetConfirmInput, now = new Date()) {
+      const passwordHash = await hashPassword(input.password);
+      const tokenHash = await hashToken(input.token);
+      const userId = await db.transaction(async (tx) => {
+        const txRepo = createAuthRepository(tx);
+        const reset = await txRepo.consumePasswordReset(tokenHash, now);
+        if (!reset) throw gone('This reset link has expired or was already used. Ask for a new one.');
+        await txRepo.setPassword(reset.userId, passwordHash);
+        return reset.userId;
+      });
+      await auth.invalidateUserSessions(userId);
+      return auth.createSession(userId, {});
+    },
+  };
+}
+
+export type AuthService = ReturnType<typeof createAuthService>;

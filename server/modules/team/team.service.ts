@@ -1,0 +1,149 @@
+import { generateIdFromEntropySize, type User } from 'lucia';
+import { roleLabels, type Role } from '../../../shared/permissions';
+import { INVITATION_DAYS, type AcceptInvitationInput, type CreateInvitationInput } from '../../../shared/schemas/team';
+import type { InvitationPreviewDto, TeamDto } from '../../../shared/types/api';
+import type { Database } from '../../db/client';
+import type { Auth } from '../../lib/auth';
+import { badRequest, conflict, forbidden, gone, notFound } from '../../lib/errors';
+import type { Mailer } from '../../lib/mail';
+import { hashPassword } from '../../lib/passwords';
+import { createToken, hashToken } from '../../lib/tokens';
+import type { TenantContext } from '../../middleware/authorize';
+import { createAuthRepository } from '../auth/auth.repository';
+import { presentInvitation, presentMember } from './team.presenter';
+import { createTeamRepository } from './team.repository';
+
+type Deps = { db: Database; auth: Auth; mailer: Mailer; appUrl: string };
+
+const lastOwnerMessage = 'A winery needs at least one owner. Make someone else an owner first.';
+
+export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
+  const repo = createTeamRepository(db);
+
+  async function findInvitation(token: string, now: Date) {
+    const found = await repo.invitationByTokenHash(await hashToken(token));
+    if (!found || found.invitation.revokedAt) throw notFound('Invitation');
+    return found;
+  }
+
+  return {
+    async team(tenant: TenantContext, opts: { includeInvitations: boolean }, now = new Date()): Promise<TeamDto> {
+      const [members, invitations] = await Promise.all([
+        repo.members(tenant.wineryId),
+        opts.includeInvitations ? repo.pendingInvitations(tenant.wineryId, now) : Promise.resolve([]),
+      ]);
+      return { members: members.map(presentMember), invitations: invitations.map(presentInvitation) };
+    },
+
+    /** Invites by e-mail. Inviting the same address again renews the one pending invitation (idempotent). */
+    async invite(tenant: TenantContext, inviter: User, input: CreateInvitationInput, now = new Date()) {
+      const token = createToken();
+      const tokenHash = await hashToken(token);
+      const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
+      const { invitation, wineryName } = await db.transaction(async (tx) => {
+        const txRepo = createTeamRepository(tx);
+        if (await txRepo.memberByEmail(tenant.wineryId, input.email)) {
+          throw conflict(`${input.email} is already a member of this winery.`, 'already_member');
+        }
+        const pending = await txRepo.pendingInvitationFor(tenant.wineryId, input.email, now);
+        const invitation = pending
+          ? await txRepo.renewInvitation(pending.id, { tokenHash, role: input.role, expiresAt, invitedBy: inviter.id })
+          : await txRepo.insertInvitation({ wineryId: tenant.wineryId, email: input.email, role: input.role, tokenHash, invitedBy: inviter.id, expiresAt });
+        return { invitation, wineryName: await txRepo.wineryName(tenant.wineryId) };
+      });
+      const link = `${appUrl}/invitation?token=${encodeURIComponent(token)}`;
+      await mailer.send({
+        to: input.email,
+        subject: `${inviter.name} invited you to ${wineryName} on Porewise`,
+        text:
+          `Hello,\n\n${inviter.name} invited you to join ${wineryName} on Porewise as ${roleLabels[input.role].toLowerCase()}.\n` +
+          `Open this link within ${INVITATION_DAYS} days to accept:\n\n${link}\n\n` +
+          `If you did not expect this, you can ignore this message.\n`,
+      });
+      return presentInvitation({ ...invitation, invitedBy: inviter.name });
+    },
+
+    async revokeInvitation(tenant: TenantContext, invitationId: string, now = new Date()) {
+      if (!(await repo.revokeInvitation(tenant.wineryId, invitationId, now))) throw notFound('Invitation');
+    },
+
+    async changeRole(tenant: TenantContext, userId: string, role: Role) {
+      await db.transaction(async (tx) => {
+        const txRepo = createTeamRepository(tx);
+        const member = await txRepo.member(tenant.wineryId, userId);
+        if (!member) throw notFound('Member');
+        if (member.role === 'owner' && role !== 'owner' && (await txRepo.ownerCount(tenant.wineryId)) <= 1) {
+          throw conflict(lastOwnerMessage, 'last_owner');
+        }
+        await txRepo.setRole(tenant.wineryId, userId, role);
+      });
+    },
+
+    async removeMember(tenant: TenantContext, userId: string) {
+      await db.transaction(async (tx) => {
+        const txRepo = createTeamRepository(tx);
+        const member = await txRepo.member(tenant.wineryId, userId);
+        if (!member) throw notFound('Member');
+        if (member.role === 'owner' && (await txRepo.ownerCount(tenant.wineryId)) <= 1) {
+          throw conflict(lastOwnerMessage, 'last_owner');
+        }
+        await txRepo.removeMember(tenant.wineryId, userId);
+      });
+    },
+
+    async preview(token: string, now = new Date()): Promise<InvitationPreviewDto> {
+      const { invitation, wineryName } = await findInvitation(token, now);
+      if (invitation.acceptedAt) throw gone('This invitation has already been used.');
+      if (invitation.expiresAt <= now) throw gone('This invitation has expired. Ask the owner to invite you again.');
+      const accountExists = Boolean(await createAuthRepository(db).findUserByEmail(invitation.email));
+      return { wineryName, role: invitation.role, email: invitation.email, accountExists, expiresAt: invitation.expiresAt.toISOString() };
+    },
+
+    /**
+     * Accepts an invitation. Signed in: the invited address must be theirs. Not signed in: a new
+     * account is created with the given name and password. Accepting twice is harmless.
+     * Returns a new session id when an account was created.
+     */
+    async accept(input: AcceptInvitationInput, signedIn: User | null, now = new Date()) {
+      const { invitation } = await findInvitation(input.token, now);
+      if (invitation.acceptedAt) {
+        if (signedIn && invitation.acceptedBy === signedIn.id) return { wineryId: invitation.wineryId, sessionId: null };
+        throw gone('This invitation has already been used.');
+      }
+      if (invitation.expiresAt <= now) throw gone('This invitation has expired. Ask the owner to invite you again.');
+
+      if (signedIn) {
+        if (signedIn.email !== invitation.email) {
+          throw forbidden(`This invitation is for ${invitation.email}. Sign out and sign in as that person, or ask for a new invitation.`);
+        }
+        await db.transaction(async (tx) => {
+          await createTeamRepository(tx).addMember(invitation.wineryId, signedIn.id, invitation.role);
+          await createTeamRepository(tx).markAccepted(invitation.id, signedIn.id, now);
+          await createAuthRepository(tx).setActiveWinery(signedIn.id, invitation.wineryId);
+        });
+        return { wineryId: invitation.wineryId, sessionId: null };
+      }
+
+      const authRepo = createAuthRepository(db);
+      if (await authRepo.findUserByEmail(invitation.email)) {
+        throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
+      }
+      const fields: Record<string, string> = {};
+      if (!input.name) fields.name = 'Enter your name.';
+      if (!input.password) fields.password = 'Choose a password.';
+      if (Object.keys(fields).length) throw badRequest('Check the highlighted fields.', fields);
+      const passwordHash = await hashPassword(input.password!);
+      const userId = generateIdFromEntropySize(10);
+      await db.transaction(async (tx) => {
+        const txAuth = createAuthRepository(tx);
+        const user = await txAuth.insertUser({ id: userId, email: invitation.email, name: input.name!, passwordHash, activeWineryId: invitation.wineryId });
+        if (!user) throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
+        await createTeamRepository(tx).addMember(invitation.wineryId, userId, invitation.role);
+        await createTeamRepository(tx).markAccepted(invitation.id, userId, now);
+      });
+      const session = await auth.createSession(userId, {});
+      return { wineryId: invitation.wineryId, sessionId: session.id };
+    },
+  };
+}
+export type TeamService = ReturnType<typeof createTeamService>;

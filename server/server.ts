@@ -1,0 +1,70 @@
+import type { AddressInfo } from 'node:net';
+import { join, resolve } from 'node:path';
+import { createApp } from './app';
+import { createDatabase } from './db/client';
+import type { Env } from './env';
+import { startFakeS3, startFakeSmtp, type FakeS3, type FakeSmtp } from './lib/fake-services';
+import { logger } from './lib/logger';
+import { createSmtpMailer } from './lib/mail';
+import { createS3Storage } from './lib/storage';
+
+/**
+ * Assembles the running server from the environment: database pool, mail (real SMTP, or the
+ * local fake when SMTP_HOST is unset), object storage (S3, or the local fake when S3_ENDPOINT is
+ * unset), then listens. Returns the URL and a close() for graceful shutdown.
+ */
+export async function startServer(env: Env) {
+  const { db, pool } = createDatabase(env.DATABASE_URL);
+  let fakeSmtp: FakeSmtp | undefined;
+  let fakeS3: FakeS3 | undefined;
+
+  if (!env.SMTP_HOST) fakeSmtp = await startFakeSmtp();
+  const mailer = createSmtpMailer(
+    fakeSmtp
+      ? { host: '127.0.0.1', port: fakeSmtp.port, from: env.MAIL_FROM }
+      : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM },
+  );
+
+  if (!env.S3_ENDPOINT) fakeS3 = await startFakeS3({ directory: join(resolve(env.FAKE_SERVICES_DIR), 's3') });
+  const storage = createS3Storage({
+    endpoint: fakeS3?.endpoint ?? env.S3_ENDPOINT,
+    region: env.S3_REGION,
+    bucket: env.S3_BUCKET,
+    accessKeyId: env.S3_ACCESS_KEY_ID,
+    secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+  });
+  await storage.ensureBucket();
+
+  const app = createApp({
+    db,
+    mailer,
+    storage,
+    outbox: fakeSmtp,
+    config: {
+      appUrl: env.appUrl,
+      allowedOrigins: env.allowedOrigins,
+      secureCookies: env.secureCookies,
+      rateLimitScale: env.RATE_LIMIT_SCALE,
+      clientDir: resolve(env.CLIENT_DIR),
+      logRequests: env.NODE_ENV !== 'test',
+    },
+  });
+
+  const server = app.listen(env.PORT, env.HOST);
+  await new Promise<void>((resolveListen, reject) => {
+    server.once('listening', resolveListen);
+    server.once('error', reject);
+  });
+  const { port } = server.address() as AddressInfo;
+  const url = `http://${env.HOST}:${port}`;
+
+  async function close() {
+    await new Promise<void>((r) => {
+      server.close(() => r());
+      server.closeAllConnections();
+    });
+    await Promise.allSettled([fakeSmtp?.close(), fakeS3?.close(), pool.end()]);
+  }
+  logger.debug({ url }, 'listening');
+  return { url, port, close, fakeSmtp };
+}

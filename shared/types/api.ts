@@ -1,0 +1,40 @@
+import type { Role } from '../permissions';
+import type { UnitSystem } from '../schemas/common';
+
+/** Every error answer: `{ error: { code, message, fields? } }`. */
+export type ApiErrorBody = {
+  error: { code: string; message: string; fields?: Record<string, string> };
+};
+
+export type UserDto = { id: string; name: string; email: string; units: UnitSystem };
+export type MembershipDto = { wineryId: string; wineryName: string; role: Role };
+export type MeDto = { user: UserDto; memberships: MembershipDto[]; activeWineryId: string | null };
+
+export type MemberDto = { userId: string; name: string; email: string; role: Role; joinedAt: string };
+export type InvitationDto = {
+  id: string;
+  email: string;
+  role: Role;
+  invitedBy: string | null;
+  expiresAt: string;
+  createdAt: string;
+};
+export type TeamDto = { members: MemberDto[]; invitations: InvitationDto[] };
+
+export type InvitationPreviewDto = {
+  wineryName: string;
+  role: Role;
+  email: string;
+  accountExists: boolean;
+  expiresAt: string;
+};
+
+export type OutboxMessageDto = {
+  id: string;
+  to: string[];
+  subject: string;
+  text: string;
+  receivedAt: string;
+};
+
+export type ListDto<T> = { items: T[]; total: number };

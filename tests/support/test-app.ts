@@ -1,0 +1,161 @@
+// Starts the real app over HTTP against the real test database, with the fake SMTP server.
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import { createApp, type AppConfig } from '../../server/app';
+import { createDatabase } from '../../server/db/client';
+import { startFakeSmtp, type FakeSmtp } from '../../server/lib/fake-services';
+import { createSmtpMailer } from '../../server/lib/mail';
+import type { Storage } from '../../server/lib/storage';
+import { databaseUrl } from '../../scripts/lib/postgres';
+
+export type TestApp = {
+  baseUrl: string;
+  mail: FakeSmtp;
+  db: ReturnType<typeof createDatabase>['db'];
+  pool: ReturnType<typeof createDatabase>['pool'];
+  close(): Promise<void>;
+};
+
+const unusedStorage: Storage = {
+  ensureBucket: async () => {},
+  put: async () => {
+    throw new Error('storage not configured in this test');
+  },
+  get: async () => {
+    throw new Error('storage not configured in this test');
+  },
+  remove: async () => {},
+};
+
+export async function startTestApp(opts: { config?: Partial<AppConfig>; storage?: Storage } = {}): Promise<TestApp> {
+  const { db, pool } = createDatabase(databaseUrl('porewise_test'), { max: 5 });
+  const mail = await startFakeSmtp();
+  const mailer = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
+  let server: Server;
+  const app = (baseUrl: string) =>
+    createApp({
+      db,
+      mailer,
+      storage: opts.storage ?? unusedStorage,
+      outbox: mail,
+      config: {
+        appUrl: baseUrl,
+        allowedOrigins: [],
+        secureCookies: false,
+        rateLimitScale: 100,
+        logRequests: false,
+        ...opts.config,
+      },
+    });
+  // Listen first to learn the port, then mount the app that knows its own URL.
+  const { createServer } = await import('node:http');
+  let handler: ReturnType<typeof app> | null = null;
+  server = createServer((req, res) => handler!(req, res));
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  handler = app(baseUrl);
+  return {
+    baseUrl,
+    mail,
+    db,
+    pool,
+    async close() {
+      await new Promise<void>((r) => {
+        server.close(() => r());
+        server.closeAllConnections();
+      });
+      await mail.close();
+      await pool.end();
+    },
+  };
+}
+
+/** A tiny HTTP client with one cookie jar, sending the app's Origin like a browser would. */
+export class Client {
+  cookies = new Map<string, string>();
+  lastSetCookie: string[] = [];
+  constructor(
+    readonly baseUrl: string,
+    readonly origin: string | null = baseUrl,
+  ) {}
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}) {
+    const h: Record<string, string> = { ...headers };
+    if (this.origin) h.origin = this.origin;
+    if (this.cookies.size) h.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
+    let payload: string | undefined;
+    if (body !== undefined) {
+      payload = typeof body === 'string' ? body : JSON.stringify(body);
+      h['content-type'] ??= 'application/json';
+    }
+    const res = await fetch(this.baseUrl + path, { method, headers: h, body: payload, redirect: 'manual' });
+    this.lastSetCookie = res.headers.getSetCookie();
+    for (const line of this.lastSetCookie) {
+      const [pair] = line.split(';');
+      const i = pair.indexOf('=');
+      const name = pair.slice(0, i);
+      const value = pair.slice(i + 1);
+      if (value === '' || /max-age=0/i.test(line)) this.cookies.delete(name);
+      else this.cookies.set(name, value);
+    }
+    const text = await res.text();
+    let json: any = null;
+    try {
+      json = text ? JSON.parse(text) : null;
+    } catch {
+      json = null;
+    }
+    return { status: res.status, headers: res.headers, body: json, text };
+  }
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body?: unknown) => this.request('POST', path, body ?? {});
+  put = (path: string, body?: unknown) => this.request('PUT', path, body ?? {});
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+  delete = (path: string) => this.request('DELETE', path);
+}
+
+let counter = 0;
+/** A unique e-mail address per call, so tests never collide in the shared test database. */
+export function uniqueEmail(prefix = 'person') {
+  counter += 1;
+  return `${prefix}-${Date.now().toString(36)}-${process.pid}-${counter}@example.test`;
+}
+
+export const TEST_PASSWORD = 'correct-horse-battery';
+
+/** Signs up a new person with their own winery; returns the signed-in client. */
+export async function signUp(baseUrl: string, opts: { name?: string; wineryName?: string; email?: string } = {}) {
+  const client = new Client(baseUrl);
+  const email = opts.email ?? uniqueEmail('owner');
+  const res = await client.post('/api/auth/sign-up', {
+    name: opts.name ?? 'Test Owner',
+    email,
+    password: TEST_PASSWORD,
+    wineryName: opts.wineryName ?? 'Test Winery',
+  });
+  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${res.text}`);
+  const me = await client.get('/api/me');
+  return { client, email, me: me.body as import('../../shared/types/api').MeDto };
+}
+
+/** Extracts the first link containing `path` from a mail body. */
+export function linkFrom(text: string, path: string): string {
+  const match = text.match(new RegExp(`https?://\\S*${path.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\S*`));
+  if (!match) throw new Error(`no ${path} link in mail: ${text}`);
+  return match[0];
+}
+
+/** Invites `email` with `role` as the given owner and accepts as a new account; returns their client. */
+export async function addMember(app: TestApp, owner: Client, role: import('../../shared/permissions').Role) {
+  const email = uniqueEmail(role);
+  const before = app.mail.messages.length;
+  const inv = await owner.post('/api/team/invitations', { email, role });
+  if (inv.status !== 201) throw new Error(`invite failed: ${inv.status} ${inv.text}`);
+  const mail = await app.mail.waitFor(email, { after: before });
+  const token = new URL(linkFrom(mail.text, '/invitation')).searchParams.get('token')!;
+  const client = new Client(app.baseUrl);
+  const acc = await client.post('/api/invitations/accept', { token, name: `Test ${role}`, password: TEST_PASSWORD });
+  if (acc.status !== 200) throw new Error(`accept failed: ${acc.status} ${acc.text}`);
+  const me = await client.get('/api/me');
+  return { client, email, userId: me.body.user.id as string };
+}
