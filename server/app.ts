@@ -18,6 +18,7 @@ import { createAccountService } from './modules/account/account.service';
 import { authRoutes } from './modules/auth/auth.routes';
 import { createAuthService } from './modules/auth/auth.service';
 import { calcRoutes } from './modules/calc/calc.routes';
+import { appInfoRoutes } from './modules/health/app-info.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { invitationRoutes, teamRoutes } from './modules/team/team.routes';
@@ -83,6 +84,7 @@ export function createApp(deps: AppDeps): Express {
   const teamService = createTeamService({ db, auth, mailer, appUrl: config.appUrl });
 
   api.use('/health', healthRoutes({ db }));
+  api.use('/app-info', appInfoRoutes({ mailOutbox: Boolean(deps.outbox) }));
   api.use('/auth', authRoutes({ auth, service: authService, limits }));
   api.use('/me', accountRoutes({ service: createAccountService({ db }) }));
   api.use('/team', teamRoutes({ db, service: teamService }));

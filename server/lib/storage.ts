@@ -7,6 +7,9 @@ import {
   S3Client,
 } from '@aws-sdk/client-s3';
 
+// Versions are pinned; the SDK's notice about future releases needing a newer Node is not actionable here.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
+
 export type StorageSettings = {
   endpoint?: string;
   region: string;

@@ -349,9 +349,16 @@ export function fitRecoveryTrend(points: { cycle: number; recoveryPct: number }[
 const WEEK_MS = 7 * 24 * 3600 * 1000;
 const EPS = 1e-9;
 
+/** A number for a message: rounded to `maxDecimals`, trailing zeros dropped, thousands separated by commas. */
 function fmtNum(x: number, maxDecimals = 1): string {
-  const r = Math.round(x * 10 ** maxDecimals) / 10 ** maxDecimals;
-  return r.toLocaleString('en-US', { maximumFractionDigits: maxDecimals });
+  const fixed = (Math.round(x * 10 ** maxDecimals) / 10 ** maxDecimals).toFixed(maxDecimals);
+  const [int, dec = ''] = fixed.split('.');
+  const sign = int.startsWith('-') ? '-' : '';
+  const digits = sign ? int.slice(1) : int;
+  const grouped = digits.replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  const frac = dec.replace(/0+$/, '');
+  const out = `${sign}${grouped}${frac ? `.${frac}` : ''}`;
+  return out === '-0' ? '0' : out;
 }
 
 function checkOptionalPositive(name: string, v: number | undefined): void {

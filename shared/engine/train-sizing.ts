@@ -23,7 +23,7 @@ import { cleanDpBar, lineLossBar, mediumResistance } from './flow';
 /**
  * Default flow margin over the filler's consumption, % (10 %). Common practice, no
  * source. Planners who also want to cover filler-bowl refill surges and the ΔP rise over
- * the day often take 20–50 % instead (analyst arithmetic on line speeds, not a published rule).
+ * the day often take 20–50 % instead (common practice, no source).
  */
 export const DEFAULT_FLOW_MARGIN_PCT = 10;
 

@@ -1,0 +1,32 @@
+import { createBrowserRouter, Navigate, RouterProvider } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import { AppLayout } from './routes/app/app-layout';
+
+const lazyPage = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
+
+export function createRouter() {
+  return createBrowserRouter([
+    { path: paths.signIn, lazy: lazyPage(() => import('./routes/auth/sign-in')) },
+    { path: paths.signUp, lazy: lazyPage(() => import('./routes/auth/sign-up')) },
+    { path: paths.forgotPassword, lazy: lazyPage(() => import('./routes/auth/forgot-password')) },
+    { path: paths.resetPassword, lazy: lazyPage(() => import('./routes/auth/reset-password')) },
+    { path: paths.invitation, lazy: lazyPage(() => import('./routes/auth/invitation')) },
+    { path: paths.outbox, lazy: lazyPage(() => import('./routes/outbox')) },
+    {
+      path: paths.home,
+      element: <AppLayout />,
+      children: [
+        { index: true, element: <Navigate to={paths.team} replace /> },
+        { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
+        { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
+      ],
+    },
+    { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },
+  ]);
+}
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}
+
+const router = createRouter();

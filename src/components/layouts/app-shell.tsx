@@ -1,0 +1,96 @@
+import { Inbox, LogOut, Settings as SettingsIcon, Users } from 'lucide-react';
+import type { ReactNode } from 'react';
+import { NavLink, useNavigate } from 'react-router-dom';
+import { can, roleLabels, type Action } from '@shared/permissions';
+import type { MeDto } from '@shared/types/api';
+import { Button } from '@/components/ui/button';
+import { Select } from '@/components/ui/select';
+import { paths } from '@/config/paths';
+import { activeMembership, useAppInfo, useSetActiveWinery, useSignOut } from '@/lib/session';
+import { cn } from '@/utils/cn';
+import { BrandMark } from './brand-mark';
+
+type NavItem = { to: string; label: string; icon: ReactNode; action: Action; devOnly?: boolean };
+
+/** Only built sections appear here; each is shown when the person's role may read it. */
+const navItems: NavItem[] = [
+  { to: paths.team, label: 'Team', icon: <Users aria-hidden="true" className="size-4" />, action: 'team:read' },
+  { to: paths.settings, label: 'Settings', icon: <SettingsIcon aria-hidden="true" className="size-4" />, action: 'settings:read' },
+  { to: paths.outbox, label: 'Mail outbox', icon: <Inbox aria-hidden="true" className="size-4" />, action: 'mail-outbox:read', devOnly: true },
+];
+
+export function AppShell({ me, children }: { me: MeDto; children: ReactNode }) {
+  const navigate = useNavigate();
+  const signOut = useSignOut();
+  const switchWinery = useSetActiveWinery();
+  const appInfo = useAppInfo();
+  const membership = activeMembership(me);
+  const items = navItems.filter((i) => can(membership?.role, i.action) && (!i.devOnly || appInfo.data?.mailOutbox));
+
+  return (
+    <div className="flex min-h-dvh flex-col bg-ink-50">
+      <header className="border-b border-ink-200 bg-white">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-2 px-4 py-2">
+          <NavLink to={paths.home} className="flex items-center gap-2" aria-label="Porewise home">
+            <BrandMark className="size-7" />
+            <span className="hidden text-lg font-semibold text-ink-900 sm:inline">Porewise</span>
+          </NavLink>
+          <div className="flex min-w-0 flex-1 items-center gap-2" data-testid="winery">
+            {me.memberships.length > 1 ? (
+              <Select
+                aria-label="Winery"
+                value={me.activeWineryId ?? ''}
+                onChange={(e) => switchWinery.mutate(e.target.value, { onSuccess: () => navigate(paths.home) })}
+                options={me.memberships.map((m) => ({ value: m.wineryId, label: m.wineryName }))}
+                wrapperClassName="max-w-56"
+              />
+            ) : (
+              <span className="truncate font-semibold text-ink-900">{membership?.wineryName ?? 'No winery'}</span>
+            )}
+            {membership ? <span className="hidden text-sm text-ink-600 sm:inline">{roleLabels[membership.role]}</span> : null}
+          </div>
+          <div className="flex items-center gap-2" data-testid="person">
+            <span className="hidden max-w-48 truncate text-sm text-ink-700 md:inline" title={me.user.email}>
+              {me.user.name}
+            </span>
+            <Button
+              variant="ghost"
+              size="sm"
+              icon={<LogOut aria-hidden="true" className="size-4" />}
+              loading={signOut.isPending}
+              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn) })}
+            >
+              Sign out
+            </Button>
+          </div>
+        </div>
+        <nav aria-label="Sections" className="mx-auto max-w-6xl overflow-x-auto px-2">
+          <ul className="flex gap-1">
+            {items.map((item) => (
+              <li key={item.to}>
+                <NavLink
+                  to={item.to}
+                  className={({ isActive }) =>
+                    cn(
+                      'flex min-h-11 items-center gap-2 border-b-2 px-3 text-sm font-semibold whitespace-nowrap',
+                      isActive ? 'border-primary-600 text-primary-800' : 'border-transparent text-ink-600 hover:text-ink-900',
+                    )
+                  }
+                >
+                  {item.icon}
+                  {item.label}
+                </NavLink>
+              </li>
+            ))}
+          </ul>
+        </nav>
+      </header>
+      <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
+      <footer className="border-t border-ink-200 bg-white">
+        <p className="mx-auto max-w-6xl px-4 py-3 text-xs text-ink-500">
+          Porewise figures are planning estimates. Local codes, the equipment makers' ratings and licensed practice govern.
+        </p>
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,21 @@
+/** Typed route paths: the one place the client's URLs are spelled. */
+export const paths = {
+  signIn: '/sign-in',
+  signUp: '/sign-up',
+  forgotPassword: '/forgot-password',
+  resetPassword: '/reset-password',
+  invitation: '/invitation',
+  home: '/',
+  team: '/team',
+  settings: '/settings',
+  outbox: '/outbox',
+} as const;
+
+export function withNext(path: string, next: string | null | undefined) {
+  return next ? `${path}?next=${encodeURIComponent(next)}` : path;
+}
+
+/** Only same-app paths may be used as a post-sign-in destination. */
+export function safeNext(next: string | null | undefined, fallback: string = paths.home) {
+  return next && next.startsWith('/') && !next.startsWith('//') ? next : fallback;
+}

@@ -1,0 +1,67 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { MailCheck } from 'lucide-react';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link } from 'react-router-dom';
+import { passwordResetRequestInputSchema } from '@shared/schemas/auth';
+import { Button } from '@/components/ui/button';
+import { FormField } from '@/components/ui/form-field';
+import { Input } from '@/components/ui/input';
+import { paths } from '@/config/paths';
+import { applyServerErrors } from '@/lib/form-errors';
+import { useAppInfo } from '@/lib/session';
+import { useRequestPasswordReset } from '../api/request-password-reset';
+import { FormAlert } from './form-alert';
+
+export function ForgotPasswordForm() {
+  const request = useRequestPasswordReset();
+  const appInfo = useAppInfo();
+  const [sentTo, setSentTo] = useState<string | null>(null);
+  const [alert, setAlert] = useState<string | null>(null);
+  const form = useForm({ resolver: zodResolver(passwordResetRequestInputSchema), defaultValues: { email: '' } });
+
+  const submit = form.handleSubmit(async (values) => {
+    setAlert(null);
+    try {
+      await request.mutateAsync(values);
+      setSentTo(values.email);
+    } catch (error) {
+      setAlert(applyServerErrors(error, form.setError, ['email']));
+    }
+  });
+
+  if (sentTo) {
+    return (
+      <div className="flex flex-col gap-3 text-sm text-ink-700" role="status">
+        <p className="flex items-start gap-2 text-base text-ink-900">
+          <MailCheck aria-hidden="true" className="mt-0.5 size-5 text-primary-600" />
+          <span>If an account exists for {sentTo}, a reset link is on its way. It works once, for one hour.</span>
+        </p>
+        {appInfo.data?.mailOutbox ? (
+          <p>
+            This is a development server: mail stays in the{' '}
+            <Link to={paths.outbox} className="text-primary-700 underline">
+              mail outbox
+            </Link>
+            .
+          </p>
+        ) : null}
+        <Link to={paths.signIn} className="text-primary-700 underline">
+          Back to sign-in
+        </Link>
+      </div>
+    );
+  }
+
+  return (
+    <form onSubmit={submit} noValidate className="flex flex-col gap-4">
+      <FormAlert message={alert} />
+      <FormField label="E-mail" htmlFor="forgot-email" error={form.formState.errors.email?.message}>
+        <Input id="forgot-email" type="email" autoComplete="email" inputMode="email" {...form.register('email')} />
+      </FormField>
+      <Button type="submit" size="lg" loading={request.isPending} className="w-full">
+        Send reset link
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,4 @@
+export const teamKeys = {
+  all: ['team'] as const,
+  detail: () => [...teamKeys.all, 'detail'] as const,
+};

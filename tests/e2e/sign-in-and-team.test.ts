@@ -1,0 +1,127 @@
+// @vitest-environment node
+import { resolve } from 'node:path';
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { linkFrom, startTestApp, TEST_PASSWORD, uniqueEmail, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startTestApp({ config: { clientDir: resolve(import.meta.dirname, '../../dist/client') } });
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+describe('sign-up, sign-out, sign-in, invite a technician', () => {
+  it('works end to end in Chromium', async () => {
+    const ownerEmail = uniqueEmail('e2e-owner');
+    const owner = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await owner.newPage();
+    const errors = watchPageErrors(page);
+
+    // Sign up: land in the shell with the winery and the person in the header.
+    await page.goto(`${app.baseUrl}/sign-up`);
+    await page.getByLabel('Your name').fill('Wren Ashdown');
+    await page.getByLabel('E-mail').fill(ownerEmail);
+    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByLabel('Winery name').fill('Larchmere Test Cellars');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('heading', { name: 'Team' }).waitFor();
+    expect(await page.getByTestId('winery').textContent()).toContain('Larchmere Test Cellars');
+    expect(await page.getByTestId('person').textContent()).toContain('Wren Ashdown');
+    await screenshot(page, 'team-owner-desktop');
+
+    // Sign out, then sign in again.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    await page.getByLabel('E-mail').fill(ownerEmail);
+    await page.getByLabel('Password').fill('wrong-password-here');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('alert').filter({ hasText: 'not right' }).waitFor();
+    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('heading', { name: 'Team' }).waitFor();
+
+    // Invite a technician.
+    const techEmail = uniqueEmail('e2e-tech');
+    const before = app.mail.messages.length;
+    await page.getByRole('button', { name: 'Invite someone' }).click();
+    await page.getByLabel('E-mail').fill(techEmail);
+    await page.getByLabel('Role').selectOption('technician');
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByText('Invitation sent').waitFor();
+    await page.getByRole('cell', { name: techEmail }).waitFor();
+    const mail = await app.mail.waitFor(techEmail, { after: before });
+    const link = linkFrom(mail.text, '/invitation');
+
+    // The technician accepts in a second browser context.
+    const tech = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+    const techPage = await tech.newPage();
+    const techErrors = watchPageErrors(techPage);
+    await techPage.goto(link);
+    await techPage.getByText('Join Larchmere Test Cellars as technician').waitFor();
+    await techPage.getByLabel('Your name').fill('Rowan Pike');
+    await techPage.getByLabel('Choose a password').fill(TEST_PASSWORD);
+    await techPage.getByRole('button', { name: 'Create account and join' }).click();
+    await techPage.getByRole('heading', { name: 'Team' }).waitFor();
+
+    // Restricted navigation and no team management for a technician.
+    const nav = techPage.getByRole('navigation', { name: 'Sections' });
+    expect(await nav.getByRole('link').allTextContents()).toEqual(['Team', 'Settings']);
+    expect(await techPage.getByRole('button', { name: 'Invite someone' }).count()).toBe(0);
+    expect(await techPage.getByRole('combobox', { name: /Role of/ }).count()).toBe(0);
+    await screenshot(techPage, 'shell-technician-phone');
+
+    // The owner sees the new member with their role, and may change it.
+    await page.reload();
+    await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).waitFor();
+    expect(await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).inputValue()).toBe('technician');
+    expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents()).toEqual(['Team', 'Settings', 'Mail outbox']);
+
+    // Settings: choose US customary units.
+    await techPage.getByRole('link', { name: 'Settings' }).click();
+    await techPage.getByText('US customary').click();
+    await techPage.getByRole('button', { name: 'Save settings' }).click();
+    await techPage.getByText('Settings saved').waitFor();
+    await screenshot(techPage, 'settings-phone');
+
+    expect(errors).toEqual([]);
+    expect(techErrors).toEqual([]);
+    await owner.close();
+    await tech.close();
+  });
+
+  it('resets a forgotten password through the e-mailed link', async () => {
+    const email = uniqueEmail('e2e-reset');
+    const ctx = await browser.newContext({ viewport: { width: 390, height: 844 } });
+    const page = await ctx.newPage();
+    const errors = watchPageErrors(page);
+    await page.goto(`${app.baseUrl}/sign-up`);
+    await page.getByLabel('Your name').fill('Ash Morrow');
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByLabel('Winery name').fill('Reset Test Winery');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('heading', { name: 'Team' }).waitFor();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+
+    await page.getByRole('link', { name: 'Forgot your password?' }).click();
+    const before = app.mail.messages.length;
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByRole('button', { name: 'Send reset link' }).click();
+    await page.getByText('a reset link is on its way').waitFor();
+    const mail = await app.mail.waitFor(email, { after: before });
+    await page.goto(linkFrom(mail.text, '/reset-password'));
+    await page.getByLabel('New password').fill('an-entirely-new-secret');
+    await page.getByLabel('Repeat the new password').fill('an-entirely-new-secret');
+    await page.getByRole('button', { name: 'Set new password and sign in' }).click();
+    await page.getByRole('heading', { name: 'Team' }).waitFor();
+    expect(errors).toEqual([]);
+    await ctx.close();
+  });
+});

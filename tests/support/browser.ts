@@ -1,0 +1,40 @@
+// Headless Chromium from Debian's package, driven by playwright-core.
+import { mkdirSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+
+export const outputDir = resolve(import.meta.dirname, '../../test-output');
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
+  });
+}
+
+export async function screenshot(page: Page, name: string) {
+  mkdirSync(outputDir, { recursive: true });
+  const path = join(outputDir, `${name}.png`);
+  await page.screenshot({ path, fullPage: true });
+  return path;
+}
+
+/** Fails the test on any uncaught page error or console error (CSP violations included). */
+export function watchPageErrors(page: Page) {
+  const errors: string[] = [];
+  page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
+  page.on('console', (m) => {
+    if (m.type() === 'error' && !/Failed to load resource: the server responded with a status of (401|404|409|410)/.test(m.text())) errors.push(`console: ${m.text()}`);
+  });
+  return errors;
+}
