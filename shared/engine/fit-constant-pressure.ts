@@ -68,6 +68,9 @@ export type ConstantPressureFit = {
 };
 
 const P = 2;
+const MAX_ITER = 60;
+/** A fitted J0 above this multiple of the largest observed mean flux v/t is a runaway. */
+const J0_RUNAWAY = 5;
 const LAWS: readonly BlockingLaw[] = ['complete', 'standard', 'intermediate', 'cake'];
 
 /**
@@ -83,8 +86,7 @@ export function discAreaM2FromDiameterMm(diameterMm: number): number {
 }
 
 // F(c, t) and ∂F/∂c, written to these two slots to avoid allocation in the loops.
-let fVal = 0;
-let fDc = 0;
+const OUT = new Float64Array(2);
 
 /** Evaluates the law's shape F(c, t) and ∂F/∂c; returns false outside the law's domain. */
 function shape(law: BlockingLaw, c: number, t: number): boolean {
@@ -93,32 +95,32 @@ function shape(law: BlockingLaw, c: number, t: number): boolean {
     case 'complete': {
       // F = t·φ(z), φ = (1 − e^−z)/z, φ' = (e^−z(1 + z) − 1)/z²
       if (Math.abs(z) < 1e-4) {
-        fVal = t * (1 - z / 2 + (z * z) / 6);
-        fDc = t * t * (-0.5 + z / 3 - (z * z) / 8);
+        OUT[0] = t * (1 - z / 2 + (z * z) / 6);
+        OUT[1] = t * t * (-0.5 + z / 3 - (z * z) / 8);
       } else {
         const e = Math.exp(-z);
-        fVal = (t * -Math.expm1(-z)) / z;
-        fDc = (t * t * (e * (1 + z) - 1)) / (z * z);
+        OUT[0] = (t * -Math.expm1(-z)) / z;
+        OUT[1] = (t * t * (e * (1 + z) - 1)) / (z * z);
       }
-      return Number.isFinite(fVal) && Number.isFinite(fDc);
+      return Number.isFinite(OUT[0]) && Number.isFinite(OUT[1]);
     }
     case 'standard': {
       const d = 1 + z;
       if (!(d > 0)) return false;
-      fVal = t / d;
-      fDc = -(t * t) / (d * d);
+      OUT[0] = t / d;
+      OUT[1] = -(t * t) / (d * d);
       return true;
     }
     case 'intermediate': {
       // F = t·ψ(z), ψ = ln(1 + z)/z, ψ' = (z/(1 + z) − ln(1 + z))/z²
       if (!(1 + z > 0)) return false;
       if (Math.abs(z) < 1e-4) {
-        fVal = t * (1 - z / 2 + (z * z) / 3);
-        fDc = t * t * (-0.5 + (2 * z) / 3 - (3 * z * z) / 4);
+        OUT[0] = t * (1 - z / 2 + (z * z) / 3);
+        OUT[1] = t * t * (-0.5 + (2 * z) / 3 - (3 * z * z) / 4);
       } else {
         const l = Math.log1p(z);
-        fVal = (t * l) / z;
-        fDc = (t * t * (z / (1 + z) - l)) / (z * z);
+        OUT[0] = (t * l) / z;
+        OUT[1] = (t * t * (z / (1 + z) - l)) / (z * z);
       }
       return true;
     }
@@ -126,8 +128,8 @@ function shape(law: BlockingLaw, c: number, t: number): boolean {
       const q = 1 + 2 * z;
       if (!(q > 0)) return false;
       const s = Math.sqrt(q);
-      fVal = (2 * t) / (1 + s);
-      fDc = (-2 * t * t) / (s * (1 + s) * (1 + s));
+      OUT[0] = (2 * t) / (1 + s);
+      OUT[1] = (-2 * t * t) / (s * (1 + s) * (1 + s));
       return true;
     }
   }
@@ -139,8 +141,9 @@ function profile(law: BlockingLaw, c: number, t: Float64Array, v: Float64Array, 
   let sff = 0;
   for (let i = 0; i < n; i++) {
     if (!shape(law, c, t[i])) return null;
-    sfv += fVal * v[i];
-    sff += fVal * fVal;
+    const f = OUT[0];
+    sfv += f * v[i];
+    sff += f * f;
   }
   if (!(sff > 0)) return null;
   const rss = Math.max(svv - (sfv * sfv) / sff, 0);
@@ -161,8 +164,8 @@ function evaluate(
   let a00 = 0, a01 = 0, a11 = 0, b0 = 0, b1 = 0, rss = 0;
   for (let i = 0; i < n; i++) {
     if (!shape(law, c, t[i])) return Infinity;
-    const g0 = fVal;
-    const g1 = j0 * fDc;
+    const g0 = OUT[0];
+    const g1 = j0 * OUT[1];
     const r = v[i] - j0 * g0;
     if (res) res[i] = r;
     rss += r * r;
@@ -193,13 +196,21 @@ function kFromC(law: BlockingLaw, c: number, j0: number): number {
   }
 }
 
-function fitLaw(law: BlockingLaw, t: Float64Array, v: Float64Array, n: number, tMax: number, tss: number): ConstantPressureLawFit {
+function fitLaw(
+  law: BlockingLaw,
+  t: Float64Array,
+  v: Float64Array,
+  n: number,
+  tMax: number,
+  tss: number,
+  secantMax: number,
+): ConstantPressureLawFit {
   // 1. grid of c·tMax from 0 to 1e4 (logarithmic), profiled RSS
   let svv = 0;
   for (let i = 0; i < n; i++) svv += v[i] * v[i];
   let bestC = 0;
   let best = profile(law, 0, t, v, n, svv);
-  for (let e = -4; e <= 4; e += 0.25) {
+  for (let e = -4; e <= 4; e += 0.5) {
     const c = 10 ** e / tMax;
     const pr = profile(law, c, t, v, n, svv);
     if (pr && (!best || pr[0] < best[0])) {
@@ -216,7 +227,7 @@ function fitLaw(law: BlockingLaw, t: Float64Array, v: Float64Array, n: number, t
   let lambda = 1e-6;
   let iterations = 1;
   let failures = 0;
-  while (Number.isFinite(rss) && iterations < 200 && failures < 12) {
+  while (Number.isFinite(rss) && iterations < MAX_ITER && failures < 12) {
     const d00 = s[0] * (1 + lambda);
     const d11 = s[2] * (1 + lambda);
     const det = d00 * d11 - s[1] * s[1];
@@ -236,6 +247,7 @@ function fitLaw(law: BlockingLaw, t: Float64Array, v: Float64Array, n: number, t
       c += dc;
       rss = rssT;
       s.set(sT);
+      if (j0 > J0_RUNAWAY * secantMax) break; // running away: reported as invalid below
       lambda = Math.max(lambda * 0.1, 1e-12);
       failures = 0;
     } else {
@@ -256,6 +268,9 @@ function fitLaw(law: BlockingLaw, t: Float64Array, v: Float64Array, n: number, t
   } else if (k < 0) {
     valid = false;
     note = 'The flux does not decline during the test, so no blocking law applies.';
+  } else if (j0 > J0_RUNAWAY * secantMax) {
+    valid = false;
+    note = `The ${law}-blocking fit needs an initial flux far above any measured flux: this law's shape does not match the test.`;
   }
   const aic = Number.isFinite(rss) ? n * Math.log(Math.max(rss / n, 1e-300)) + 2 * P : Infinity;
   const r2 = tss > 0 ? 1 - rss / tss : 0;
@@ -292,6 +307,7 @@ export function fitConstantPressureLaws(points: { timeMin: number; volumeLPerM2:
   const v = new Float64Array(n);
   let tMax = 0;
   let sv = 0;
+  let secantMax = 0;
   const times = new Set<number>();
   for (let i = 0; i < n; i++) {
     requireNonNegative(`time of reading ${String(i + 1)} (min)`, points[i].timeMin);
@@ -299,14 +315,17 @@ export function fitConstantPressureLaws(points: { timeMin: number; volumeLPerM2:
     t[i] = points[i].timeMin;
     v[i] = points[i].volumeLPerM2;
     if (t[i] > tMax) tMax = t[i];
-    if (t[i] > 0) times.add(t[i]);
+    if (t[i] > 0) {
+      times.add(t[i]);
+      secantMax = Math.max(secantMax, v[i] / t[i]);
+    }
     sv += v[i];
   }
   if (times.size < 2) throw new RangeError('Readings must include at least two different times after the start.');
   const mean = sv / n;
   let tss = 0;
   for (let i = 0; i < n; i++) tss += (v[i] - mean) ** 2;
-  const fits = LAWS.map((law) => fitLaw(law, t, v, n, tMax, tss));
+  const fits = LAWS.map((law) => fitLaw(law, t, v, n, tMax, tss, secantMax));
   fits.sort((p, q) => (p.valid === q.valid ? p.aic - q.aic : p.valid ? -1 : 1));
   return fits;
 }

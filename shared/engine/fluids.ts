@@ -258,25 +258,38 @@ export function ethanolWaterDensity(massFraction: number, tempC: number): number
 function oimlDensity(w: number, t: number): number {
   const x = w - 0.5;
   const dt = t - 20;
-  let rho = OIML_A[0];
-  for (let k = 2; k <= 12; k++) rho += OIML_A[k - 1] * x ** (k - 1);
-  for (let k = 1; k <= 6; k++) rho += OIML_B[k - 1] * dt ** k;
-  for (let i = 1; i <= 5; i++) {
-    const row = OIML_C[i - 1];
-    for (let k = 1; k <= row.length; k++) rho += row[k - 1] * x ** k * dt ** i;
+  // Horner forms of the three sums (same terms, fewer operations).
+  let a = 0;
+  for (let k = OIML_A.length - 1; k >= 0; k--) a = a * x + OIML_A[k];
+  let b = 0;
+  for (let k = OIML_B.length - 1; k >= 0; k--) b = (b + OIML_B[k]) * dt;
+  let c = 0;
+  for (let i = OIML_C.length - 1; i >= 0; i--) {
+    const row = OIML_C[i];
+    let inner = 0;
+    for (let k = row.length - 1; k >= 0; k--) inner = (inner + row[k]) * x;
+    c = (c + inner) * dt;
   }
-  return rho;
+  return a + b + c;
 }
 
-/** Alcoholic strength by volume at 20 °C, %vol, of a mixture of ethanol mass fraction w (OIML R 22). */
-function strengthPctVol(w: number): number {
-  return (100 * w * oimlDensity(w, 20)) / ETHANOL_DENSITY_20C;
+/** ρ(w, 20 °C) and dρ/dw at 20 °C (only the A terms remain when t = 20 °C). */
+function oimlDensityAndSlopeAt20(w: number): [number, number] {
+  const x = w - 0.5;
+  let rho = 0;
+  let slope = 0;
+  for (let k = OIML_A.length - 1; k >= 0; k--) {
+    slope = slope * x + rho;
+    rho = rho * x + OIML_A[k];
+  }
+  return [rho, slope];
 }
 
 /**
  * Ethanol mass fraction of an ethanol–water mixture of a given alcoholic strength by
  * volume at 20 °C, found by inverting the OIML R 22 relation
- * φ = 100·w·ρ(w, 20 °C)/ρ_ethanol(20 °C) (bracketed Newton iteration to ~1e-14).
+ * φ = 100·w·ρ(w, 20 °C)/ρ_ethanol(20 °C) (bracketed Newton iteration with the analytic
+ * slope, to ~1e-15).
  *
  * @param ethanolPctVol alcoholic strength, % vol at 20 °C (0–100)
  * @returns ethanol mass fraction, 0–1 (0.09641 at 12 %vol)
@@ -289,11 +302,11 @@ export function ethanolMassFraction(ethanolPctVol: number): number {
   let hi = 1;
   let w = (ethanolPctVol / 100) * 0.8; // start: mass fraction is a little below volume fraction
   for (let iter = 0; iter < 100; iter++) {
-    const f = strengthPctVol(w) - ethanolPctVol;
+    const [rho, slope] = oimlDensityAndSlopeAt20(w);
+    const f = (100 * w * rho) / ETHANOL_DENSITY_20C - ethanolPctVol;
     if (f > 0) hi = w;
     else lo = w;
-    const h = 1e-7;
-    const d = (strengthPctVol(Math.min(1, w + h)) - strengthPctVol(Math.max(0, w - h))) / (Math.min(1, w + h) - Math.max(0, w - h));
+    const d = (100 * (rho + w * slope)) / ETHANOL_DENSITY_20C;
     let next = w - f / d;
     if (!(next > lo && next < hi)) next = (lo + hi) / 2;
     if (Math.abs(next - w) < 1e-15) {

@@ -27,8 +27,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     // Sign up: land in the shell with the winery and the person in the header.
     await page.goto(`${app.baseUrl}/sign-up`);
     await page.getByLabel('Your name').fill('Wren Ashdown');
-    await page.getByLabel('E-mail').fill(ownerEmail);
-    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByLabel('E-mail', { exact: true }).fill(ownerEmail);
+    await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Larchmere Test Cellars');
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
@@ -39,11 +39,11 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     // Sign out, then sign in again.
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
-    await page.getByLabel('E-mail').fill(ownerEmail);
-    await page.getByLabel('Password').fill('wrong-password-here');
+    await page.getByLabel('E-mail', { exact: true }).fill(ownerEmail);
+    await page.getByLabel('Password', { exact: true }).fill('wrong-password-here');
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('alert').filter({ hasText: 'not right' }).waitFor();
-    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
 
@@ -51,8 +51,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     const techEmail = uniqueEmail('e2e-tech');
     const before = app.mail.messages.length;
     await page.getByRole('button', { name: 'Invite someone' }).click();
-    await page.getByLabel('E-mail').fill(techEmail);
-    await page.getByLabel('Role').selectOption('technician');
+    await page.getByLabel('E-mail', { exact: true }).fill(techEmail);
+    await page.getByLabel('Role', { exact: true }).selectOption('technician');
     await page.getByRole('button', { name: 'Send invitation' }).click();
     await page.getByText('Invitation sent').waitFor();
     await page.getByRole('cell', { name: techEmail }).waitFor();
@@ -103,8 +103,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     const errors = watchPageErrors(page);
     await page.goto(`${app.baseUrl}/sign-up`);
     await page.getByLabel('Your name').fill('Ash Morrow');
-    await page.getByLabel('E-mail').fill(email);
-    await page.getByLabel('Password').fill(TEST_PASSWORD);
+    await page.getByLabel('E-mail', { exact: true }).fill(email);
+    await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Reset Test Winery');
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
@@ -112,12 +112,12 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
 
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
     const before = app.mail.messages.length;
-    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('E-mail', { exact: true }).fill(email);
     await page.getByRole('button', { name: 'Send reset link' }).click();
     await page.getByText('a reset link is on its way').waitFor();
     const mail = await app.mail.waitFor(email, { after: before });
     await page.goto(linkFrom(mail.text, '/reset-password'));
-    await page.getByLabel('New password').fill('an-entirely-new-secret');
+    await page.getByLabel('New password', { exact: true }).fill('an-entirely-new-secret');
     await page.getByLabel('Repeat the new password').fill('an-entirely-new-secret');
     await page.getByRole('button', { name: 'Set new password and sign in' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
