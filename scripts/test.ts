@@ -30,6 +30,9 @@ async function main() {
     await runMigrations(databaseUrl('porewise_test'));
     ensureChromium();
     buildClientIfChanged();
+    console.log('[porewise] type-checking and linting …');
+    execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });
+    execFileSync(join(root, 'node_modules/.bin/eslint'), ['.', '--max-warnings=0'], { cwd: root, stdio: 'inherit' });
 
     const tmp = join(root, '.data', 'tmp');
     rmSync(tmp, { recursive: true, force: true });

@@ -89,7 +89,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/me', accountRoutes({ service: createAccountService({ db }) }));
   api.use('/team', teamRoutes({ db, service: teamService }));
   api.use('/invitations', invitationRoutes({ auth, service: teamService }));
-  api.use('/calc', calcRoutes());
+  api.use('/calc', calcRoutes({ db }));
   if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox }));
   api.use(notFoundHandler);
   app.use('/api', api);

@@ -31,7 +31,6 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; storage?
   const { db, pool } = createDatabase(databaseUrl('porewise_test'), { max: 5 });
   const mail = await startFakeSmtp();
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
-  let server: Server;
   const app = (baseUrl: string) =>
     createApp({
       db,
@@ -50,7 +49,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; storage?
   // Listen first to learn the port, then mount the app that knows its own URL.
   const { createServer } = await import('node:http');
   let handler: ReturnType<typeof app> | null = null;
-  server = createServer((req, res) => handler!(req, res));
+  const server: Server = createServer((req, res) => handler!(req, res));
   await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   handler = app(baseUrl);

@@ -20,7 +20,7 @@ const lastOwnerMessage = 'A winery needs at least one owner. Make someone else a
 export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
   const repo = createTeamRepository(db);
 
-  async function findInvitation(token: string, now: Date) {
+  async function findInvitation(token: string) {
     const found = await repo.invitationByTokenHash(await hashToken(token));
     if (!found || found.invitation.revokedAt) throw notFound('Invitation');
     return found;
@@ -92,7 +92,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
     },
 
     async preview(token: string, now = new Date()): Promise<InvitationPreviewDto> {
-      const { invitation, wineryName } = await findInvitation(token, now);
+      const { invitation, wineryName } = await findInvitation(token);
       if (invitation.acceptedAt) throw gone('This invitation has already been used.');
       if (invitation.expiresAt <= now) throw gone('This invitation has expired. Ask the owner to invite you again.');
       const accountExists = Boolean(await createAuthRepository(db).findUserByEmail(invitation.email));
@@ -105,7 +105,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
      * Returns a new session id when an account was created.
      */
     async accept(input: AcceptInvitationInput, signedIn: User | null, now = new Date()) {
-      const { invitation } = await findInvitation(input.token, now);
+      const { invitation } = await findInvitation(input.token);
       if (invitation.acceptedAt) {
         if (signedIn && invitation.acceptedBy === signedIn.id) return { wineryId: invitation.wineryId, sessionId: null };
         throw gone('This invitation has already been used.');

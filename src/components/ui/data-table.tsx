@@ -38,7 +38,7 @@ export interface DataTablePagination {
 }
 
 export interface DataTableProps<T> {
-  // eslint-disable-next-line @typescript-eslint/no-explicit-any
+   
   columns: ColumnDef<T, any>[];
   data: T[];
   /** Controlled sorting. With onSortingChange the table sorts nothing itself (server-side). */

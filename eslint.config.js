@@ -1,0 +1,53 @@
+// Lint with the layer boundaries of the project: shared may not import src or server; src may
+// not import server; features may not import each other.
+import js from '@eslint/js';
+import importPlugin from 'eslint-plugin-import';
+import tseslint from 'typescript-eslint';
+
+const features = ['auth', 'team', 'settings', 'outbox'];
+
+export default tseslint.config(
+  { ignores: ['dist/**', 'node_modules/**', '.data/**', 'test-output/**', 'drizzle/**'] },
+  js.configs.recommended,
+  ...tseslint.configs.recommended,
+  { files: ['**/*.{js,mjs}'], languageOptions: { globals: { process: 'readonly', console: 'readonly' } } },
+  {
+    files: ['**/*.{ts,tsx}'],
+    plugins: { import: importPlugin },
+    settings: {
+      'import/resolver': { typescript: { project: './tsconfig.json' }, node: true },
+    },
+    rules: {
+      '@typescript-eslint/no-explicit-any': 'off',
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      'import/no-restricted-paths': [
+        'error',
+        {
+          zones: [
+            { target: './shared', from: './src', message: 'shared/ is isomorphic: it may not import the client.' },
+            { target: './shared', from: './server', message: 'shared/ is isomorphic: it may not import the server.' },
+            { target: './src', from: './server', message: 'The client may not import server code.' },
+            { target: './server', from: './src', message: 'The server may not import client code.' },
+            ...features.map((f) => ({
+              target: `./src/features/${f}`,
+              from: './src/features',
+              except: [`./${f}`],
+              message: 'Features may not import each other; share through components/, lib/ or shared/.',
+            })),
+          ],
+        },
+      ],
+    },
+  },
+  {
+    files: ['shared/engine/**/*.ts'],
+    ignores: ['shared/engine/**/*.test.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ group: ['node:*', 'express', 'react', 'react-dom', 'drizzle-orm', 'pg'], message: 'The engine is pure: mathjs and zod only.' }] },
+      ],
+      'no-restricted-globals': ['error', { name: 'Date', message: 'No clock inside calculations: take the time as an argument.' }],
+    },
+  },
+);
