@@ -22,6 +22,12 @@ import { appInfoRoutes } from './modules/health/app-info.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { invitationRoutes, teamRoutes } from './modules/team/team.routes';
+import { attachmentsRoutes } from './modules/attachments/attachments.routes';
+import { cartridgesRoutes } from './modules/cartridges/cartridges.routes';
+import { cellarRoutes } from './modules/cellar/cellar.routes';
+import { equipmentRoutes } from './modules/equipment/equipment.routes';
+import type { ModuleDeps } from './modules/module-deps';
+import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
 
 export type AppConfig = {
@@ -91,6 +97,13 @@ export function createApp(deps: AppDeps): Express {
   api.use('/invitations', invitationRoutes({ auth, service: teamService }));
   api.use('/calc', calcRoutes({ db }));
   if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox }));
+  // Domain modules declare their own paths (/tanks, /lots, /housings, …) and guard each one.
+  const moduleDeps: ModuleDeps = { db, storage: deps.storage, mailer, appUrl: config.appUrl };
+  api.use(cellarRoutes(moduleDeps));
+  api.use(equipmentRoutes(moduleDeps));
+  api.use(cartridgesRoutes(moduleDeps));
+  api.use(attachmentsRoutes(moduleDeps));
+  api.use(winerySettingsRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

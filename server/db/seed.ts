@@ -5,6 +5,9 @@ import type { Role } from '../../shared/permissions';
 import { hashPassword } from '../lib/passwords';
 import { createDatabase, type Database } from './client';
 import { membershipsTable, usersTable, wineriesTable } from './schema';
+import { seedCartridges } from './seeds/cartridges';
+import { seedCellar } from './seeds/cellar';
+import { seedEquipment } from './seeds/equipment';
 
 export const DEMO_PASSWORD = 'porewise-demo';
 
@@ -37,6 +40,11 @@ export async function seedDemo(db: Database) {
       }
       await tx.insert(membershipsTable).values({ wineryId, userId, role: p.role }).onConflictDoNothing();
     }
+    // Quillwater gets a believable cellar; Brambleford stays small to show tenants apart.
+    const ctx = { wineryId: demoWineries.quillwater.id, actorId: demoPeople[1].id };
+    await seedEquipment(tx, ctx);
+    await seedCellar(tx, ctx);
+    await seedCartridges(tx, ctx);
   });
 }
 

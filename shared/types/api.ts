@@ -38,3 +38,13 @@ export type OutboxMessageDto = {
 };
 
 export type ListDto<T> = { items: T[]; total: number };
+
+export type WinerySettingsDto = {
+  wineryId: string;
+  name: string;
+  /** The thresholds in use (the winery's own, or the defaults). */
+  readinessThresholds: import('../engine/readiness').ReadinessThresholds;
+  /** True when the winery uses the defaults. */
+  readinessThresholdsAreDefault: boolean;
+  defaultReadinessThresholds: import('../engine/readiness').ReadinessThresholds;
+};

@@ -31,6 +31,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Larchmere Test Cellars');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Team' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
     expect(await page.getByTestId('winery').textContent()).toContain('Larchmere Test Cellars');
     expect(await page.getByTestId('person').textContent()).toContain('Wren Ashdown');
@@ -45,6 +46,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByRole('alert').filter({ hasText: 'not right' }).waitFor();
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('navigation', { name: 'Sections' }).waitFor();
+    await page.goto(`${app.baseUrl}/team`);
     await page.getByRole('heading', { name: 'Team' }).waitFor();
 
     // Invite a technician.
@@ -68,11 +71,12 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await techPage.getByLabel('Your name').fill('Rowan Pike');
     await techPage.getByLabel('Choose a password').fill(TEST_PASSWORD);
     await techPage.getByRole('button', { name: 'Create account and join' }).click();
+    await techPage.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Team' }).click();
     await techPage.getByRole('heading', { name: 'Team' }).waitFor();
 
     // Restricted navigation and no team management for a technician.
     const nav = techPage.getByRole('navigation', { name: 'Sections' });
-    expect(await nav.getByRole('link').allTextContents()).toEqual(['Team', 'Settings']);
+    expect(await nav.getByRole('link').allTextContents()).toEqual(['Cellar', 'Equipment', 'Cartridges', 'Team', 'Settings']);
     expect(await techPage.getByRole('button', { name: 'Invite someone' }).count()).toBe(0);
     expect(await techPage.getByRole('combobox', { name: /Role of/ }).count()).toBe(0);
     await screenshot(techPage, 'shell-technician-phone');
@@ -81,7 +85,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.reload();
     await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).waitFor();
     expect(await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).inputValue()).toBe('technician');
-    expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents()).toEqual(['Team', 'Settings', 'Mail outbox']);
+    expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents()).toEqual(['Cellar', 'Equipment', 'Cartridges', 'Team', 'Settings', 'Mail outbox']);
 
     // Settings: choose US customary units.
     await techPage.getByRole('link', { name: 'Settings' }).click();
@@ -107,7 +111,6 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Reset Test Winery');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.getByRole('heading', { name: 'Team' }).waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
 
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
@@ -120,7 +123,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('New password', { exact: true }).fill('an-entirely-new-secret');
     await page.getByLabel('Repeat the new password').fill('an-entirely-new-secret');
     await page.getByRole('button', { name: 'Set new password and sign in' }).click();
-    await page.getByRole('heading', { name: 'Team' }).waitFor();
+    await page.getByRole('navigation', { name: 'Sections' }).waitFor();
     expect(errors).toEqual([]);
     await ctx.close();
   });

@@ -1,4 +1,4 @@
-import { Inbox, LogOut, Settings as SettingsIcon, Users } from 'lucide-react';
+import { Cylinder, Filter, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { NavLink, useNavigate } from 'react-router-dom';
 import { can, roleLabels, type Action } from '@shared/permissions';
@@ -14,6 +14,9 @@ type NavItem = { to: string; label: string; icon: ReactNode; action: Action; dev
 
 /** Only built sections appear here; each is shown when the person's role may read it. */
 const navItems: NavItem[] = [
+  { to: paths.cellar, label: 'Cellar', icon: <Wine aria-hidden="true" className="size-4" />, action: 'cellar:read' },
+  { to: paths.equipment, label: 'Equipment', icon: <Cylinder aria-hidden="true" className="size-4" />, action: 'equipment:read' },
+  { to: paths.cartridges, label: 'Cartridges', icon: <Filter aria-hidden="true" className="size-4" />, action: 'cartridges:read' },
   { to: paths.team, label: 'Team', icon: <Users aria-hidden="true" className="size-4" />, action: 'team:read' },
   { to: paths.settings, label: 'Settings', icon: <SettingsIcon aria-hidden="true" className="size-4" />, action: 'settings:read' },
   { to: paths.outbox, label: 'Mail outbox', icon: <Inbox aria-hidden="true" className="size-4" />, action: 'mail-outbox:read', devOnly: true },

@@ -1,0 +1,61 @@
+import { date, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { usersTable } from './auth';
+import { double, tenantColumns } from './columns';
+import { cartridgeTypesTable, housingsTable } from './equipment';
+import { wineriesTable } from './wineries';
+
+export const cartridgeStatuses = ['in-stock', 'installed', 'regenerating', 'retired'] as const;
+
+export const cartridgesTable = pgTable(
+  'cartridges',
+  {
+    ...tenantColumns(),
+    serial: text('serial').notNull(),
+    batch: text('batch').notNull().default(''),
+    typeId: uuid('type_id')
+      .notNull()
+      .references(() => cartridgeTypesTable.id, { onDelete: 'restrict' }),
+    lengthIn: integer('length_in').notNull(),
+    status: text('status', { enum: cartridgeStatuses }).notNull().default('in-stock'),
+    housingId: uuid('housing_id').references(() => housingsTable.id, { onDelete: 'set null' }),
+    position: integer('position'),
+    receivedAt: date('received_at', { mode: 'string' }),
+    // Derived from the history (kept in step by the service in the same transaction).
+    litresFiltered: double('litres_filtered').notNull().default(0),
+    steamCycles: integer('steam_cycles').notNull().default(0),
+    hotWaterCycles: integer('hot_water_cycles').notNull().default(0),
+    chemicalCycles: integer('chemical_cycles').notNull().default(0),
+    retiredReason: text('retired_reason'),
+    notes: text('notes').notNull().default(''),
+  },
+  (t) => [
+    uniqueIndex('cartridges_winery_serial_uq').on(t.wineryId, t.serial),
+    index('cartridges_winery_status_idx').on(t.wineryId, t.status),
+    index('cartridges_winery_type_idx').on(t.wineryId, t.typeId),
+    index('cartridges_winery_housing_idx').on(t.wineryId, t.housingId),
+    index('cartridges_winery_batch_idx').on(t.wineryId, t.batch),
+  ],
+);
+
+export const cartridgeEventKinds = ['registered', 'installed', 'removed', 'retired', 'run', 'cycle', 'integrity', 'note'] as const;
+
+/** Every move and every piece of care, with who and when. */
+export const cartridgeEventsTable = pgTable(
+  'cartridge_events',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    wineryId: uuid('winery_id')
+      .notNull()
+      .references(() => wineriesTable.id, { onDelete: 'cascade' }),
+    cartridgeId: uuid('cartridge_id')
+      .notNull()
+      .references(() => cartridgesTable.id, { onDelete: 'cascade' }),
+    kind: text('kind', { enum: cartridgeEventKinds }).notNull(),
+    housingId: uuid('housing_id').references(() => housingsTable.id, { onDelete: 'set null' }),
+    position: integer('position'),
+    details: jsonb('details').$type<Record<string, unknown>>().notNull().default({}),
+    actorId: text('actor_id').references(() => usersTable.id, { onDelete: 'set null' }),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('cartridge_events_cartridge_idx').on(t.cartridgeId, t.at)],
+);

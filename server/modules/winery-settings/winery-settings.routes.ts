@@ -1,0 +1,20 @@
+import { Router } from 'express';
+import { updateWinerySettingsInputSchema } from '../../../shared/schemas/winery-settings';
+import { requireSignedIn } from '../../middleware/authenticate';
+import { authorize, tenantOf } from '../../middleware/authorize';
+import { validateBody } from '../../middleware/validate';
+import type { ModuleDeps } from '../module-deps';
+import { createWinerySettingsService } from './winery-settings.service';
+
+/** The active winery's own settings: name and readiness thresholds (owner edits, all read). */
+export function winerySettingsRoutes({ db }: ModuleDeps) {
+  const router = Router();
+  const service = createWinerySettingsService(db);
+  router.get('/settings/winery', requireSignedIn, authorize(db, 'settings:read'), async (_req, res) => {
+    res.json(await service.get(tenantOf(res).wineryId));
+  });
+  router.put('/settings/winery', requireSignedIn, authorize(db, 'settings:edit'), validateBody(updateWinerySettingsInputSchema), async (_req, res) => {
+    res.json(await service.update(tenantOf(res).wineryId, res.locals.body));
+  });
+  return router;
+}

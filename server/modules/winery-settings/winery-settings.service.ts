@@ -1,0 +1,45 @@
+import { defaultReadinessThresholds, readinessThresholdsSchema, type ReadinessThresholds } from '../../../shared/engine/readiness';
+import type { UpdateWinerySettingsInput } from '../../../shared/schemas/winery-settings';
+import type { WinerySettingsDto } from '../../../shared/types/api';
+import type { DbOrTx } from '../../db/client';
+import { notFound } from '../../lib/errors';
+import { createWinerySettingsRepository } from './winery-settings.repository';
+
+function thresholdsFrom(settings: Record<string, unknown>): ReadinessThresholds | null {
+  const parsed = readinessThresholdsSchema.safeParse(settings.readinessThresholds);
+  return parsed.success ? parsed.data : null;
+}
+
+/** The readiness thresholds a winery uses: its own, or the defaults. */
+export async function readinessThresholdsFor(db: DbOrTx, wineryId: string): Promise<ReadinessThresholds> {
+  const winery = await createWinerySettingsRepository(db).find(wineryId);
+  return (winery && thresholdsFrom(winery.settings)) ?? defaultReadinessThresholds;
+}
+
+export function createWinerySettingsService(db: DbOrTx) {
+  const repo = createWinerySettingsRepository(db);
+  async function get(wineryId: string): Promise<WinerySettingsDto> {
+    const winery = await repo.find(wineryId);
+    if (!winery) throw notFound('Winery');
+    const own = thresholdsFrom(winery.settings);
+    return {
+      wineryId,
+      name: winery.name,
+      readinessThresholds: own ?? defaultReadinessThresholds,
+      readinessThresholdsAreDefault: own === null,
+      defaultReadinessThresholds,
+    };
+  }
+  return {
+    get,
+    async update(wineryId: string, input: UpdateWinerySettingsInput) {
+      const winery = await repo.find(wineryId);
+      if (!winery) throw notFound('Winery');
+      const settings = { ...winery.settings };
+      if (input.readinessThresholds === null) delete settings.readinessThresholds;
+      else if (input.readinessThresholds) settings.readinessThresholds = input.readinessThresholds;
+      await repo.update(wineryId, { name: input.name, settings });
+      return get(wineryId);
+    },
+  };
+}
