@@ -17,6 +17,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(400).json({ error: { code: 'invalid_input', message: 'Check the highlighted fields.', fields: zodFieldMessages(err) } });
     return;
   }
+  if (err?.name === 'MulterError') {
+    const tooLarge = err.code === 'LIMIT_FILE_SIZE';
+    res.status(tooLarge ? 413 : 400).json({
+      error: tooLarge
+        ? { code: 'too_large', message: 'Files can be at most 10 MB.', fields: { file: 'Files can be at most 10 MB.' } }
+        : { code: 'invalid_input', message: 'The upload is not in the expected form (one file in the field “file”).' },
+    });
+    return;
+  }
   if (err instanceof RangeError) {
     // The engine throws RangeError with a plain message for inputs outside a formula's validity.
     res.status(400).json({ error: { code: 'out_of_range', message: err.message } });

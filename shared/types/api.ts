@@ -48,3 +48,15 @@ export type WinerySettingsDto = {
   readinessThresholdsAreDefault: boolean;
   defaultReadinessThresholds: import('../engine/readiness').ReadinessThresholds;
 };
+
+export type AttachmentDto = {
+  id: string;
+  ownerKind: import('../schemas/attachments').AttachmentOwnerKind;
+  ownerId: string;
+  fileName: string;
+  contentType: string;
+  sizeBytes: number;
+  uploadedBy: string | null;
+  createdAt: string;
+  downloadUrl: string;
+};

@@ -5,6 +5,9 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 
 export const outputDir = resolve(import.meta.dirname, '../../test-output');
 
+/** The built client the browser tests load (E2E_CLIENT_DIR overrides, e.g. a private build folder). */
+export const clientDir = resolve(process.env.E2E_CLIENT_DIR ?? resolve(import.meta.dirname, '../../dist/client'));
+
 export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

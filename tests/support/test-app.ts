@@ -3,9 +3,11 @@ import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import { createApp, type AppConfig } from '../../server/app';
 import { createDatabase } from '../../server/db/client';
-import { startFakeSmtp, type FakeSmtp } from '../../server/lib/fake-services';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { startFakeS3, startFakeSmtp, type FakeSmtp } from '../../server/lib/fake-services';
 import { createSmtpMailer } from '../../server/lib/mail';
-import type { Storage } from '../../server/lib/storage';
+import { createS3Storage, type Storage } from '../../server/lib/storage';
 import { databaseUrl } from '../../scripts/lib/postgres';
 
 export type TestApp = {
@@ -27,15 +29,28 @@ const unusedStorage: Storage = {
   remove: async () => {},
 };
 
-export async function startTestApp(opts: { config?: Partial<AppConfig>; storage?: Storage } = {}): Promise<TestApp> {
+/** Starts the app; with `withStorage` also a fake S3 server in a temporary folder. */
+export async function startTestApp(opts: { config?: Partial<AppConfig>; withStorage?: boolean } = {}): Promise<TestApp> {
   const { db, pool } = createDatabase(databaseUrl('porewise_test'), { max: 5 });
   const mail = await startFakeSmtp();
+  let storage = unusedStorage;
+  let closeStorage = async () => {};
+  if (opts.withStorage) {
+    const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-s3-'));
+    const s3 = await startFakeS3({ directory: dir });
+    storage = createS3Storage({ endpoint: s3.endpoint, region: 'us-east-1', bucket: 'porewise-test', accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' });
+    await storage.ensureBucket();
+    closeStorage = async () => {
+      await s3.close();
+      rmSync(dir, { recursive: true, force: true });
+    };
+  }
   const mailer = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
   const app = (baseUrl: string) =>
     createApp({
       db,
       mailer,
-      storage: opts.storage ?? unusedStorage,
+      storage,
       outbox: mail,
       config: {
         appUrl: baseUrl,
@@ -64,6 +79,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; storage?
         server.closeAllConnections();
       });
       await mail.close();
+      await closeStorage();
       await pool.end();
     },
   };

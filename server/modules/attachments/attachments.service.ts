@@ -1,0 +1,79 @@
+import { randomUUID } from 'node:crypto';
+import type { AttachmentOwner } from '../../../shared/schemas/attachments';
+import type { AttachmentDto } from '../../../shared/types/api';
+import type { Database } from '../../db/client';
+import { badRequest, notFound } from '../../lib/errors';
+import type { Storage } from '../../lib/storage';
+import type { TenantContext } from '../../middleware/authorize';
+import { createAttachmentsRepository, type AttachmentRow } from './attachments.repository';
+import { safeFileName, sniffFileType } from './file-type';
+
+export function presentAttachment(row: AttachmentRow): AttachmentDto {
+  return {
+    id: row.id,
+    ownerKind: row.ownerKind,
+    ownerId: row.ownerId,
+    fileName: row.fileName,
+    contentType: row.contentType,
+    sizeBytes: row.sizeBytes,
+    uploadedBy: row.uploadedBy,
+    createdAt: row.createdAt.toISOString(),
+    downloadUrl: `/api/attachments/${row.id}/download`,
+  };
+}
+
+/** Files attached to records: bytes in object storage, metadata in PostgreSQL, access through the winery. */
+export function createAttachmentsService({ db, storage }: { db: Database; storage: Storage }) {
+  const repo = createAttachmentsRepository(db);
+  return {
+    async list(tenant: TenantContext, owner: AttachmentOwner) {
+      if (!(await repo.ownerExists(tenant.wineryId, owner))) throw notFound('Record');
+      return (await repo.list(tenant.wineryId, owner)).map(presentAttachment);
+    },
+
+    async upload(tenant: TenantContext, owner: AttachmentOwner, file: { originalName: string; buffer: Uint8Array }) {
+      if (!(await repo.ownerExists(tenant.wineryId, owner))) throw notFound('Record');
+      const sniffed = sniffFileType(file.buffer);
+      const fileName = safeFileName(file.originalName);
+      const extension = fileName.includes('.') ? fileName.split('.').pop()!.toLowerCase() : '';
+      if (!sniffed) throw badRequest('Only PDF, PNG, JPEG and CSV files can be attached.', { file: 'This file is not a PDF, PNG, JPEG or CSV.' });
+      if (!sniffed.extensions.includes(extension)) {
+        throw badRequest('The file name does not match its content.', {
+          file: `The content is ${sniffed.kind.toUpperCase()}, but the name ends in “.${extension || '(none)'}”. Rename it to .${sniffed.extensions[0]}.`,
+        });
+      }
+      const storageKey = `wineries/${tenant.wineryId}/attachments/${randomUUID()}`;
+      await storage.put(storageKey, file.buffer, sniffed.contentType);
+      try {
+        const id = await repo.insert({
+          wineryId: tenant.wineryId,
+          ownerKind: owner.ownerKind,
+          ownerId: owner.ownerId,
+          fileName,
+          contentType: sniffed.contentType,
+          sizeBytes: file.buffer.byteLength,
+          storageKey,
+          uploadedBy: tenant.userId,
+        });
+        return presentAttachment((await repo.find(tenant.wineryId, id))!);
+      } catch (error) {
+        await storage.remove(storageKey).catch(() => undefined);
+        throw error;
+      }
+    },
+
+    async download(tenant: TenantContext, id: string) {
+      const row = await repo.find(tenant.wineryId, id);
+      if (!row) throw notFound('Attachment');
+      const object = await storage.get(row.storageKey);
+      return { row, body: object.body };
+    },
+
+    async remove(tenant: TenantContext, id: string) {
+      const row = await repo.find(tenant.wineryId, id);
+      if (!row) throw notFound('Attachment');
+      await repo.remove(tenant.wineryId, id);
+      await storage.remove(row.storageKey).catch(() => undefined);
+    },
+  };
+}
