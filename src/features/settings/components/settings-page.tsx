@@ -14,6 +14,7 @@ import { applyServerErrors } from '@/lib/form-errors';
 import { useSetActiveWinery } from '@/lib/session';
 import { cn } from '@/utils/cn';
 import { useUpdateMe } from '../api/update-me';
+import { ReadinessThresholdsCard } from './readiness-thresholds-card';
 
 const profileFormSchema = z.object({ name: personNameSchema, units: unitSystemSchema });
 
@@ -42,7 +43,7 @@ export function SettingsPage({ me }: { me: MeDto }) {
 
   return (
     <div className="flex flex-col gap-6">
-      <PageHeader title="Settings" description="Your own preferences. They follow you in every winery." />
+      <PageHeader title="Settings" description="Your own preferences, which follow you in every winery, and this winery’s thresholds." />
       <Card title="You">
         <form onSubmit={submit} noValidate className="flex max-w-xl flex-col gap-5">
           <FormField label="Name" htmlFor="settings-name" error={errors.name?.message}>
@@ -77,6 +78,7 @@ export function SettingsPage({ me }: { me: MeDto }) {
           </div>
         </form>
       </Card>
+      <ReadinessThresholdsCard />
       <Card title="Your wineries" description="Switch to work in another winery's records.">
         <ul className="divide-y divide-ink-100">
           {me.memberships.map((m) => (

@@ -1,0 +1,4 @@
+export const winerySettingsKeys = {
+  all: ['winery-settings'] as const,
+  detail: () => [...winerySettingsKeys.all, 'detail'] as const,
+};
