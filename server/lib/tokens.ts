@@ -1,9 +1,10 @@
+import { randomBytes } from 'node:crypto';
 import { sha256 } from 'oslo/crypto';
-import { encodeBase64url, encodeHex } from 'oslo/encoding';
+import { encodeHex } from 'oslo/encoding';
 
-/** A random single-use token for e-mailed links (256 bits, URL-safe). Only its hash is stored. */
+/** A random single-use token for e-mailed links (256 bits, base64url: safe in a URL). Only its hash is stored. */
 export function createToken(): string {
-  return encodeBase64url(crypto.getRandomValues(new Uint8Array(32)));
+  return randomBytes(32).toString('base64url');
 }
 
 /** SHA-256 of a token, hex: what the database keeps instead of the token itself. */
