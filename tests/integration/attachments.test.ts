@@ -13,7 +13,7 @@ const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0
 async function upload(client: Client, fields: Record<string, string>, file?: { name: string; bytes: Uint8Array; type?: string }) {
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
-  if (file) form.set('file', new Blob([file.bytes], { type: file.type ?? 'application/octet-stream' }), file.name);
+  if (file) form.set('file', new Blob([file.bytes.slice()], { type: file.type ?? 'application/octet-stream' }), file.name);
   const headers: Record<string, string> = { origin: client.baseUrl };
   if (client.cookies.size) headers.cookie = [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ');
   const res = await fetch(`${client.baseUrl}/api/attachments`, { method: 'POST', headers, body: form });
