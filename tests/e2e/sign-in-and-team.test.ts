@@ -1,15 +1,14 @@
 // @vitest-environment node
-import { resolve } from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
 import { linkFrom, startTestApp, TEST_PASSWORD, uniqueEmail, type TestApp } from '../support/test-app';
 
 let app: TestApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir: resolve(import.meta.dirname, '../../dist/client') } });
+  app = await startTestApp({ config: { clientDir } });
   browser = await launchBrowser();
 });
 afterAll(async () => {
@@ -40,6 +39,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     // Sign out, then sign in again.
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    await page.waitForURL(/\/sign-in$/);
     await page.getByLabel('E-mail', { exact: true }).fill(ownerEmail);
     await page.getByLabel('Password', { exact: true }).fill('wrong-password-here');
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -111,9 +111,13 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Reset Test Winery');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByRole('navigation', { name: 'Sections' }).waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    await page.waitForURL(/\/sign-in$/);
 
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
+    await page.getByRole('heading', { name: 'Reset your password' }).waitFor();
     const before = app.mail.messages.length;
     await page.getByLabel('E-mail', { exact: true }).fill(email);
     await page.getByRole('button', { name: 'Send reset link' }).click();
