@@ -94,6 +94,14 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await techPage.getByText('Settings saved').waitFor();
     await screenshot(techPage, 'settings-phone');
 
+    // The owner sees the winery's readiness thresholds with their sources, and may edit them.
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Settings' }).click();
+    await page.getByRole('heading', { name: 'Readiness thresholds' }).waitFor();
+    await page.getByLabel('White turbidity limit').fill('0.8');
+    await page.getByRole('button', { name: 'Save thresholds' }).click();
+    await page.getByText('Thresholds saved').waitFor();
+    await screenshot(page, 'settings-owner-desktop');
+
     expect(errors).toEqual([]);
     expect(techErrors).toEqual([]);
     await owner.close();

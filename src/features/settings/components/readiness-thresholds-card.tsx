@@ -48,6 +48,7 @@ export function ReadinessThresholdsCard() {
     <NumberInput
       aria-label={label}
       unit={unit}
+      wrapperClassName="max-w-40"
       disabled={!mayEdit}
       invalid={Boolean(name.split('.').reduce<unknown>((o, k) => (o as Record<string, unknown> | undefined)?.[k], errors))}
       {...form.register(name, { valueAsNumber: true })}
