@@ -8,7 +8,8 @@ import { buildClientIfChanged } from './lib/build';
 import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './lib/postgres';
 
 async function main() {
-  startCluster();
+  // Stop the database on exit only if this run started it (another process may be using it).
+  const startedCluster = startCluster();
   const external = Boolean(process.env.DATABASE_URL);
   if (!external) {
     ensureDatabase('porewise');
@@ -16,11 +17,15 @@ async function main() {
   }
   await runMigrations(process.env.DATABASE_URL!);
   await runSeed(process.env.DATABASE_URL!);
-  buildClientIfChanged();
+  const dev = process.argv.includes('--dev');
+  if (!dev) buildClientIfChanged();
 
   const running = await startServer(parseEnv(process.env));
+  // --dev: Vite's dev server with hot reload in front, proxying /api to the server above.
+  const vite = dev ? await (await import('vite')).createServer({ server: { port: 5173, strictPort: true } }) : null;
+  if (vite) await vite.listen();
   const width = Math.max(...demoPeople.map((p) => p.email.length));
-  console.log(`\n  Porewise is running at ${running.url}\n`);
+  console.log(`\n  Porewise is running at ${vite ? 'http://127.0.0.1:5173 (hot reload; API on ' + running.url + ')' : running.url}\n`);
   console.log(`  Demo sign-ins (password: ${DEMO_PASSWORD}):`);
   for (const p of demoPeople) console.log(`    ${p.email.padEnd(width)}  ${p.role}`);
   if (running.fakeSmtp) console.log(`\n  Mail goes to the local outbox: ${running.url}/outbox`);
@@ -31,8 +36,9 @@ async function main() {
     if (stopping) return;
     stopping = true;
     console.log('\n[porewise] stopping …');
+    await vite?.close();
     await running.close();
-    stopCluster();
+    if (startedCluster) stopCluster();
     process.exit(0);
   };
   process.on('SIGINT', stop);
