@@ -8,31 +8,20 @@
 import { blockingVolume } from '../../shared/engine/blocking';
 import { fitConstantFlow } from '../../shared/engine/fit-constant-flow';
 import { fitConstantPressure } from '../../shared/engine/fit-constant-pressure';
+import { seededNormals } from '../../tests/support/seeded-random';
 
-/** Seeded normal deviates (mulberry32 + Box–Muller). */
-function normals(seed: number): () => number {
-  let s = seed >>> 0;
-  const u = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
 
 const N_FLOW = 10_000;
 const V_END = 12_000; // L
 const K_STD = (1 - 1 / Math.sqrt(4)) / V_END; // ΔP quadruples by the end
-const zf = normals(20240611);
+const zf = seededNormals(20240611);
 export const flowReadings = Array.from({ length: N_FLOW }, (_, i) => {
   const V = (V_END * i) / (N_FLOW - 1);
   return { volumeL: V, dpBar: (0.15 / (1 - K_STD * V) ** 2) * (1 + 0.01 * zf()) };
 });
 
 const AREA = 3.5e-4; // m², fictional disc
-const zp = normals(7);
+const zp = seededNormals(7);
 const discReadings = Array.from({ length: 200 }, (_, i) => {
   const tMin = 0.3 * (i + 1); // every 18 s for 60 min
   const v = blockingVolume('standard', { k: 0.01, j0: 20, t: tMin }) * (1 + 0.003 * zp());

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { BlockingLaw } from './blocking';
 import { fitConstantFlow, volumeAtDp, volumeAtDpGradient, type ConstantFlowFit } from './fit-constant-flow';
+import { seededNormals } from '../../tests/support/seeded-random';
 
 const LAWS: BlockingLaw[] = ['complete', 'standard', 'intermediate', 'cake'];
 
@@ -33,21 +34,9 @@ function kForRatio(law: BlockingLaw, ratio: number, vEnd: number): number {
   }
 }
 
-/** Seeded uniform generator (mulberry32) and Box–Muller normal deviates for fictional test runs. */
-function normals(seed: number): () => number {
-  let s = seed >>> 0;
-  const u = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
 
 function run(law: BlockingLaw, dp0: number, K: number, vEnd: number, n: number, noise = 0, seed = 1) {
-  const z = normals(seed);
+  const z = seededNormals(seed);
   return Array.from({ length: n }, (_, i) => {
     const V = (vEnd * i) / (n - 1);
     return { volumeL: V, dpBar: dp0 * shape(law, K, V) * (1 + noise * z()) };

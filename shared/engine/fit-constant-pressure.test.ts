@@ -2,19 +2,8 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { BLOCKING_LAWS, blockingVolume, type BlockingLaw } from './blocking';
 import { discAreaM2FromDiameterMm, fitConstantPressure, fitConstantPressureLaws } from './fit-constant-pressure';
+import { seededNormals } from '../../tests/support/seeded-random';
 
-/** Seeded normal deviates (mulberry32 + Box–Muller) for fictional test data. */
-function normals(seed: number): () => number {
-  let s = seed >>> 0;
-  const u = () => {
-    s = (s + 0x6d2b79f5) >>> 0;
-    let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
-}
 
 describe('Vmax disc test on the noise-free standard-blocking points (hand calculation)', () => {
   // Per area, J0 = 20 L m⁻² min⁻¹ and k_s = 0.01 m²/L give v = 20t/(1 + 0.1t) (Hermia 1982):
@@ -89,7 +78,7 @@ describe('law fits on per-area data', () => {
         (law, kf, j0, seed) => {
           // scale k with J0 so the flux falls to roughly 10–40 % of J0 by 60 min
           const k = law === 'complete' ? K[law] * kf : law === 'cake' ? (K[law] * kf * 400) / (j0 * j0) : (K[law] * kf * 20) / j0;
-          const z = normals(seed);
+          const z = seededNormals(seed);
           const pts = Array.from({ length: 40 }, (_, i) => {
             const t = 1.5 * (i + 1);
             return { timeMin: t, volumeLPerM2: blockingVolume(law, { k, j0, t }) * (1 + 0.003 * z()) };
