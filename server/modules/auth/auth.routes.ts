@@ -36,7 +36,8 @@ export function authRoutes(deps: { auth: Auth; service: AuthService; limits: Ret
   });
 
   router.post('/password-reset/request', ...limits.passwordReset, validateBody(passwordResetRequestInputSchema), async (req, res) => {
-    await service.requestPasswordReset(res.locals.body.email).catch((err) => req.log?.error({ err }, 'reset mail failed'));
+    // Answer at once and send in the background, so the response time does not tell whether the account exists.
+    void service.requestPasswordReset(res.locals.body.email).catch((err) => req.log?.error({ err }, 'reset mail failed'));
     res.status(202).json({ ok: true });
   });
 
