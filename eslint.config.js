@@ -1,16 +1,19 @@
 // Lint with the layer boundaries of the project: shared may not import src or server; src may
 // not import server; features may not import each other.
+import { readdirSync } from 'node:fs';
 import js from '@eslint/js';
 import importPlugin from 'eslint-plugin-import';
 import tseslint from 'typescript-eslint';
 
-const features = ['auth', 'team', 'settings', 'outbox'];
+const features = readdirSync(new URL('./src/features', import.meta.url), { withFileTypes: true })
+  .filter((d) => d.isDirectory())
+  .map((d) => d.name);
 
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', '.data/**', 'test-output/**', 'drizzle/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
-  { files: ['**/*.{js,mjs}'], languageOptions: { globals: { process: 'readonly', console: 'readonly' } } },
+  { files: ['**/*.{js,mjs}'], languageOptions: { globals: { process: 'readonly', console: 'readonly', URL: 'readonly' } } },
   {
     files: ['**/*.{ts,tsx}'],
     plugins: { import: importPlugin },

@@ -112,7 +112,7 @@ export function createApp(deps: AppDeps): Express {
     app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: noCacheForHtml }));
     app.get(/^\/(?!api\/).*/, (_req, res) => {
       res.set('Cache-Control', 'no-cache');
-      res.sendFile(join(clientDir, 'index.html'));
+      res.sendFile(join(clientDir, 'index.html'), { dotfiles: 'allow' });
     });
   }
 

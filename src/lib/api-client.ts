@@ -12,17 +12,34 @@ export class ApiError extends Error {
   }
 }
 
+const NETWORK_RETRIES = 2;
+
+/** A random request key (getRandomValues also works on plain-HTTP LAN addresses, unlike randomUUID). */
+function requestKey() {
+  return Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
 async function request<T>(method: string, path: string, body?: unknown): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(`/api${path}`, {
-      method,
-      credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { 'content-type': 'application/json', accept: 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-  } catch {
-    throw new ApiError(0, 'offline', 'Porewise cannot be reached. Check the connection and try again.');
+  const headers: Record<string, string> = { accept: 'application/json' };
+  if (body !== undefined) headers['content-type'] = 'application/json';
+  // A create that loses its answer on a poor cellar connection is sent again with the same key,
+  // and the server answers the retry instead of making a second record.
+  if (method === 'POST') headers['idempotency-key'] = requestKey();
+  let res: Response | null = null;
+  for (let attempt = 0; !res; attempt += 1) {
+    try {
+      res = await fetch(`/api${path}`, {
+        method,
+        credentials: 'same-origin',
+        headers,
+        body: body === undefined ? undefined : JSON.stringify(body),
+      });
+    } catch {
+      if (attempt >= NETWORK_RETRIES || method === 'PATCH' || method === 'DELETE') {
+        throw new ApiError(0, 'offline', 'Porewise cannot be reached. Check the connection and try again.');
+      }
+      await new Promise((r) => setTimeout(r, 400 * (attempt + 1)));
+    }
   }
   if (res.status === 204) return undefined as T;
   const data = (await res.json().catch(() => null)) as unknown;

@@ -1,7 +1,77 @@
 import { Router } from 'express';
+import { labResultInputSchema, lotInputSchema, lotsListQuerySchema, tankInputSchema, tanksListQuerySchema } from '../../../shared/schemas/cellar';
+import { idParam } from '../../lib/params';
+import { requireSignedIn } from '../../middleware/authenticate';
+import { authorize, tenantOf } from '../../middleware/authorize';
+import { idempotent } from '../../middleware/idempotency';
+import { validateBody, validateQuery } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
+import { createCellarService } from './cellar.service';
 
-export function cellarRoutes(_deps: ModuleDeps) {
+/** Tanks, lots and lab results: owner, cellar master and winemaker edit; everyone reads. */
+export function cellarRoutes({ db }: ModuleDeps) {
   const router = Router();
+  const service = createCellarService(db);
+  const read = [requireSignedIn, authorize(db, 'cellar:read')];
+  const edit = [requireSignedIn, authorize(db, 'cellar:edit')];
+  const editLab = [requireSignedIn, authorize(db, 'lab-results:edit')];
+  const tankId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'id', 'Tank');
+  const lotId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'id', 'Lot');
+  const resultId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'resultId', 'Lab result');
+
+  // Tanks
+  router.get('/tanks', ...read, validateQuery(tanksListQuerySchema), async (_req, res) => {
+    res.json(await service.listTanks(tenantOf(res), res.locals.query));
+  });
+  router.post('/tanks', ...edit, idempotent(db), validateBody(tankInputSchema), async (_req, res) => {
+    res.status(201).json(await service.createTank(tenantOf(res), res.locals.body));
+  });
+  router.get('/tanks/:id', ...read, async (req, res) => {
+    res.json(await service.getTank(tenantOf(res), tankId(req)));
+  });
+  router.put('/tanks/:id', ...edit, validateBody(tankInputSchema), async (req, res) => {
+    res.json(await service.updateTank(tenantOf(res), tankId(req), res.locals.body));
+  });
+  router.delete('/tanks/:id', ...edit, async (req, res) => {
+    await service.deleteTank(tenantOf(res), tankId(req));
+    res.status(204).end();
+  });
+
+  // Lots
+  router.get('/lots', ...read, validateQuery(lotsListQuerySchema), async (_req, res) => {
+    res.json(await service.listLots(tenantOf(res), res.locals.query));
+  });
+  router.post('/lots', ...edit, idempotent(db), validateBody(lotInputSchema), async (_req, res) => {
+    res.status(201).json(await service.createLot(tenantOf(res), res.locals.body));
+  });
+  router.get('/lots/:id', ...read, async (req, res) => {
+    res.json(await service.getLot(tenantOf(res), lotId(req)));
+  });
+  router.put('/lots/:id', ...edit, validateBody(lotInputSchema), async (req, res) => {
+    res.json(await service.updateLot(tenantOf(res), lotId(req), res.locals.body));
+  });
+  router.delete('/lots/:id', ...edit, async (req, res) => {
+    await service.deleteLot(tenantOf(res), lotId(req));
+    res.status(204).end();
+  });
+
+  // Lab results of a lot
+  router.get('/lots/:id/lab-results', ...read, async (req, res) => {
+    res.json(await service.listLabResults(tenantOf(res), lotId(req)));
+  });
+  router.post('/lots/:id/lab-results', ...editLab, idempotent(db), validateBody(labResultInputSchema), async (req, res) => {
+    res.status(201).json(await service.createLabResult(tenantOf(res), lotId(req), res.locals.body));
+  });
+  router.get('/lots/:id/lab-results/:resultId', ...read, async (req, res) => {
+    res.json(await service.getLabResult(tenantOf(res), lotId(req), resultId(req)));
+  });
+  router.put('/lots/:id/lab-results/:resultId', ...editLab, validateBody(labResultInputSchema), async (req, res) => {
+    res.json(await service.updateLabResult(tenantOf(res), lotId(req), resultId(req), res.locals.body));
+  });
+  router.delete('/lots/:id/lab-results/:resultId', ...editLab, async (req, res) => {
+    await service.deleteLabResult(tenantOf(res), lotId(req), resultId(req));
+    res.status(204).end();
+  });
+
   return router;
 }

@@ -63,7 +63,8 @@ export const NumberInput = forwardRef<HTMLInputElement, NumberInputProps>(functi
         aria-describedby={describedBy}
         aria-invalid={invalid || rest['aria-invalid'] || undefined}
         className={cn(fieldClasses, 'num min-h-11 text-right', unit && 'pr-[calc(var(--unit-w)+1.25rem)]', className)}
-        style={unit ? ({ '--unit-w': `${Math.max(unit.length, 1)}ch`, ...rest.style } as CSSProperties) : rest.style}
+        // Room for the unit: about 0.65 em per character covers wide letters such as "m".
+        style={unit ? ({ '--unit-w': `${(Math.max(unit.length, 1) * 0.65).toFixed(2)}em`, ...rest.style } as CSSProperties) : rest.style}
       />
       {unit ? (
         <span

@@ -1,5 +1,5 @@
-import { EmptyState } from '@/components/ui/empty-state';
+import { CellarPage } from '@/features/cellar/components/cellar-page';
 
-export default function Route() {
-  return <EmptyState title="Coming soon">This section is being built.</EmptyState>;
+export default function CellarRoute() {
+  return <CellarPage />;
 }

@@ -1,5 +1,7 @@
-import { EmptyState } from '@/components/ui/empty-state';
+import { useParams } from 'react-router-dom';
+import { LotPage } from '@/features/cellar/components/lot-page';
 
-export default function Route() {
-  return <EmptyState title="Coming soon">This section is being built.</EmptyState>;
+export default function LotRoute() {
+  const { lotId = '' } = useParams();
+  return <LotPage key={lotId} lotId={lotId} />;
 }

@@ -1,0 +1,163 @@
+import { and, count, desc, eq, ilike, inArray, or, sql } from 'drizzle-orm';
+import type { LotSortKey, LotsListQuery } from '../../../shared/schemas/cellar';
+import type { WineStyle } from '../../../shared/engine/readiness';
+import type { DbOrTx } from '../../db/client';
+import { attachmentsTable, labResultsTable, lotsTable, tanksTable } from '../../db/schema';
+import { likePattern, orderBy, pageWindow } from '../../lib/list';
+
+export const LOT_CODE_UNIQUE = 'lots_winery_code_uq';
+
+export type LotValues = {
+  code: string;
+  name: string;
+  style: WineStyle;
+  vintage: number | null;
+  volumeL: number;
+  tankId: string | null;
+  ethanolPctVol: number;
+  sugarGPerL: number;
+  tempC: number;
+  notes: string;
+};
+
+export type LotRow = typeof lotsTable.$inferSelect & { tankName: string | null };
+
+export function createLotsRepository(db: DbOrTx) {
+  const lotColumns = {
+    id: lotsTable.id,
+    wineryId: lotsTable.wineryId,
+    code: lotsTable.code,
+    name: lotsTable.name,
+    style: lotsTable.style,
+    vintage: lotsTable.vintage,
+    volumeL: lotsTable.volumeL,
+    tankId: lotsTable.tankId,
+    ethanolPctVol: lotsTable.ethanolPctVol,
+    sugarGPerL: lotsTable.sugarGPerL,
+    tempC: lotsTable.tempC,
+    notes: lotsTable.notes,
+    createdAt: lotsTable.createdAt,
+    updatedAt: lotsTable.updatedAt,
+    tankName: tanksTable.name,
+  };
+
+  function listWhere(wineryId: string, query: LotsListQuery) {
+    const q = query.q ? likePattern(query.q) : null;
+    return and(
+      eq(lotsTable.wineryId, wineryId),
+      q ? or(ilike(lotsTable.code, q), ilike(lotsTable.name, q), ilike(tanksTable.name, q)) : undefined,
+      query.style ? eq(lotsTable.style, query.style) : undefined,
+      query.tankId ? eq(lotsTable.tankId, query.tankId) : undefined,
+    );
+  }
+
+  return {
+    /**
+     * One page of lots with their tank and latest lab result (one DISTINCT ON subquery joined
+     * once, so no query per row), and the count of all matching lots.
+     */
+    async list(wineryId: string, query: LotsListQuery) {
+      const latest = db
+        .selectDistinctOn([labResultsTable.lotId], {
+          lotId: labResultsTable.lotId,
+          sampledAt: labResultsTable.sampledAt,
+          turbidityNtu: labResultsTable.turbidityNtu,
+          t200s: labResultsTable.t200s,
+          t400s: labResultsTable.t400s,
+          discDiameterMm: labResultsTable.discDiameterMm,
+          discPoints: labResultsTable.discPoints,
+        })
+        .from(labResultsTable)
+        .where(eq(labResultsTable.wineryId, wineryId))
+        .orderBy(labResultsTable.lotId, desc(labResultsTable.sampledAt), desc(labResultsTable.createdAt))
+        .as('latest');
+      const sortColumns: Record<LotSortKey, any> = {
+        code: lotsTable.code,
+        name: lotsTable.name,
+        style: lotsTable.style,
+        vintage: lotsTable.vintage,
+        volumeL: lotsTable.volumeL,
+        tank: tanksTable.name,
+        sampledAt: latest.sampledAt,
+        turbidityNtu: latest.turbidityNtu,
+      };
+      const where = listWhere(wineryId, query);
+      const { limit, offset } = pageWindow(query);
+      const [rows, [{ total }]] = await Promise.all([
+        db
+          .select({
+            ...lotColumns,
+            latestSampledAt: latest.sampledAt,
+            latestTurbidityNtu: latest.turbidityNtu,
+            latestT200s: latest.t200s,
+            latestT400s: latest.t400s,
+            latestDiscDiameterMm: latest.discDiameterMm,
+            latestDiscPoints: latest.discPoints,
+          })
+          .from(lotsTable)
+          .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+          .leftJoin(latest, eq(latest.lotId, lotsTable.id))
+          .where(where)
+          .orderBy(...orderBy(query, sortColumns, lotsTable.id))
+          .limit(limit)
+          .offset(offset),
+        db
+          .select({ total: count() })
+          .from(lotsTable)
+          .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+          .where(where),
+      ]);
+      return { rows, total };
+    },
+    async find(wineryId: string, id: string): Promise<(LotRow & { labResultCount: number }) | null> {
+      const [row] = await db
+        .select({
+          ...lotColumns,
+          labResultCount: sql<number>`(select cast(count(*) as int) from ${labResultsTable} where ${labResultsTable.lotId} = ${lotsTable.id})`,
+        })
+        .from(lotsTable)
+        .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+        .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)));
+      return row ?? null;
+    },
+    async exists(wineryId: string, id: string) {
+      const [row] = await db.select({ id: lotsTable.id }).from(lotsTable).where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)));
+      return Boolean(row);
+    },
+    async insert(wineryId: string, values: LotValues) {
+      const [row] = await db.insert(lotsTable).values({ wineryId, ...values }).returning({ id: lotsTable.id });
+      return row.id;
+    },
+    async update(wineryId: string, id: string, values: LotValues, now: Date) {
+      const rows = await db
+        .update(lotsTable)
+        .set({ ...values, updatedAt: now })
+        .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)))
+        .returning({ id: lotsTable.id });
+      return rows.length > 0;
+    },
+    /** Files attached to the lot or to any of its lab results. */
+    async attachmentCount(wineryId: string, id: string) {
+      const resultIds = db.select({ id: labResultsTable.id }).from(labResultsTable).where(and(eq(labResultsTable.wineryId, wineryId), eq(labResultsTable.lotId, id)));
+      const [{ n }] = await db
+        .select({ n: count() })
+        .from(attachmentsTable)
+        .where(
+          and(
+            eq(attachmentsTable.wineryId, wineryId),
+            or(
+              and(eq(attachmentsTable.ownerKind, 'lot'), eq(attachmentsTable.ownerId, id)),
+              and(eq(attachmentsTable.ownerKind, 'lab-result'), inArray(attachmentsTable.ownerId, resultIds)),
+            ),
+          ),
+        );
+      return n;
+    },
+    /** Deletes the lot; its lab results go with it (they belong to the lot). */
+    async delete(wineryId: string, id: string) {
+      const rows = await db.delete(lotsTable).where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id))).returning({ id: lotsTable.id });
+      return rows.length > 0;
+    },
+  };
+}
+export type LotsRepository = ReturnType<typeof createLotsRepository>;

@@ -1,0 +1,109 @@
+// Response DTOs of the cellar (metric/SI values; the client converts for display).
+import type { CloggingIndexBand } from '../engine/filterability';
+import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
+
+export type TankDto = {
+  id: string;
+  name: string;
+  capacityL: number;
+  notes: string;
+  /** lots currently in this tank */
+  lotCount: number;
+  /** total volume of those lots, L */
+  lotVolumeL: number;
+  createdAt: string;
+  updatedAt: string;
+};
+
+export type TankRefDto = { id: string; name: string };
+
+export type ReadinessDto = { verdict: ReadinessVerdict; reasons: string[] };
+
+export type CloggingIndexBandDto = { band: CloggingIndexBand; label: string };
+
+/** The Vmax disc test of a lab result, reduced by the constant-pressure fit. */
+export type DiscTestDto = {
+  diameterMm: number | null;
+  pressureBar: number | null;
+  points: { timeS: number; volumeMl: number }[];
+  /** disc filtration area, m² (null without a diameter) */
+  areaM2: number | null;
+} & (
+  | {
+      computable: true;
+      /** Vmax of the disc, L */
+      vmaxL: number;
+      /** Vmax per unit membrane area, L/m² */
+      vmaxLPerM2: number;
+      /** initial flux, L/m²/h */
+      j0LPerM2H: number;
+      /** r² of the t/V line */
+      r2: number;
+    }
+  | { computable: false; reason: string }
+);
+
+export type LabResultDto = {
+  id: string;
+  lotId: string;
+  sampledAt: string;
+  turbidityNtu: number | null;
+  t200s: number | null;
+  t400s: number | null;
+  /** T400 − 2·T200, s (null without both times) */
+  cloggingIndex: number | null;
+  cloggingIndexBand: CloggingIndexBandDto | null;
+  disc: DiscTestDto | null;
+  freeSo2MgL: number | null;
+  notes: string;
+  createdBy: string | null;
+  createdAt: string;
+  updatedAt: string;
+};
+
+/** One row of the lots table: the lot with a summary of its latest lab result. */
+export type LotListItemDto = {
+  id: string;
+  code: string;
+  name: string;
+  style: WineStyle;
+  vintage: number | null;
+  volumeL: number;
+  tank: TankRefDto | null;
+  latest: {
+    sampledAt: string;
+    turbidityNtu: number | null;
+    cloggingIndex: number | null;
+    cloggingIndexBand: CloggingIndexBandDto | null;
+  } | null;
+  readiness: ReadinessDto;
+};
+
+/** The thresholds a lot's verdict was judged against (the winery's own or the defaults). */
+export type ReadinessThresholdsUsedDto = {
+  isDefault: boolean;
+  turbidity: { limitNtu: number; borderlineMarginNtu: number; source: string };
+  cloggingIndex: { readyMaxS: number; borderlineMaxS: number; source: string };
+  cloggingIndexValidity: { validBelowNtu: number; source: string };
+  vmax: { readyMinSafetyFactor: number; borderlineMinSafetyFactor: number; source: string };
+};
+
+export type LotDto = {
+  id: string;
+  code: string;
+  name: string;
+  style: WineStyle;
+  vintage: number | null;
+  volumeL: number;
+  tank: TankRefDto | null;
+  ethanolPctVol: number;
+  sugarGPerL: number;
+  tempC: number;
+  notes: string;
+  createdAt: string;
+  updatedAt: string;
+  labResultCount: number;
+  latestLabResult: LabResultDto | null;
+  readiness: ReadinessDto;
+  thresholds: ReadinessThresholdsUsedDto;
+};

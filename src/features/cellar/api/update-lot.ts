@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { LotInput } from '@shared/schemas/cellar';
+import type { LotDto } from '@shared/types/cellar';
+import { api } from '@/lib/api-client';
+import { cellarKeys } from './keys';
+
+export const updateLot = ({ id, input }: { id: string; input: LotInput }) => api.put<LotDto>(`/lots/${id}`, input);
+
+export function useUpdateLot() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: updateLot,
+    onSuccess: (lot) => {
+      qc.setQueryData(cellarKeys.lotDetail(lot.id), lot);
+      return qc.invalidateQueries({ queryKey: cellarKeys.all });
+    },
+  });
+}

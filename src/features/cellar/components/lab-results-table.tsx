@@ -1,0 +1,99 @@
+import type { ColumnDef } from '@tanstack/react-table';
+import { format } from 'date-fns';
+import { useMemo } from 'react';
+import type { LabResultDto } from '@shared/types/cellar';
+import { Button } from '@/components/ui/button';
+import { DataTable } from '@/components/ui/data-table';
+import { Quantity } from '@/components/ui/quantity';
+import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
+import { FixedQuantity, MetricQuantity } from './metric-quantity';
+
+const bandTone: Record<string, StatusTone> = { 'very-good': 'ok', good: 'watch', poor: 'stop', 'very-poor': 'stop' };
+const bandWord: Record<string, string> = { 'very-good': 'very good', good: 'good', poor: 'poor', 'very-poor': 'very poor' };
+
+function DiscCell({ disc }: { disc: LabResultDto['disc'] }) {
+  if (!disc) return <span className="text-ink-500">—</span>;
+  if (!disc.computable) {
+    return (
+      <span className="block max-w-64 text-sm whitespace-normal text-watch-800">
+        <span className="font-semibold">Not computable:</span> {disc.reason}
+      </span>
+    );
+  }
+  return (
+    <span className="flex flex-col items-end">
+      <Quantity value={disc.vmaxLPerM2} unit="L/m²" digits={0} />
+      <span className="text-xs text-ink-600">
+        J₀ <MetricQuantity kind="flux" value={disc.j0LPerM2H} />
+      </span>
+    </span>
+  );
+}
+
+/** The lot's lab results, newest first, with the computed clogging index and Vmax. */
+export function LabResultsTable({
+  results,
+  mayEdit,
+  onEdit,
+  onDelete,
+}: {
+  results: LabResultDto[];
+  mayEdit: boolean;
+  onEdit: (r: LabResultDto) => void;
+  onDelete: (r: LabResultDto) => void;
+}) {
+  const columns = useMemo<ColumnDef<LabResultDto>[]>(
+    () => [
+      { header: 'Sampled', accessorKey: 'sampledAt', cell: ({ row }) => <span className="num whitespace-nowrap">{format(new Date(row.original.sampledAt), 'd MMM yyyy, HH:mm')}</span> },
+      { header: 'Turbidity', accessorKey: 'turbidityNtu', meta: { numeric: true }, cell: ({ row }) => <FixedQuantity value={row.original.turbidityNtu} unit="NTU" digits={1} /> },
+      {
+        header: 'T200 / T400',
+        id: 'times',
+        meta: { numeric: true },
+        cell: ({ row }) =>
+          row.original.t200s === null ? <span className="text-ink-500">—</span> : <Quantity value={`${row.original.t200s} / ${row.original.t400s}`} unit="s" />,
+      },
+      {
+        header: 'Clogging index',
+        accessorKey: 'cloggingIndex',
+        meta: { numeric: true },
+        cell: ({ row }) =>
+          row.original.cloggingIndex === null ? (
+            <span className="text-ink-500">—</span>
+          ) : (
+            <span className="inline-flex items-center gap-2">
+              <Quantity value={row.original.cloggingIndex} unit="s" digits={0} />
+              {row.original.cloggingIndexBand ? (
+                <StatusBadge size="sm" tone={bandTone[row.original.cloggingIndexBand.band]}>
+                  {bandWord[row.original.cloggingIndexBand.band]}
+                </StatusBadge>
+              ) : null}
+            </span>
+          ),
+      },
+      { header: 'Vmax', id: 'vmax', meta: { numeric: true }, cell: ({ row }) => <DiscCell disc={row.original.disc} /> },
+      { header: 'Free SO₂', accessorKey: 'freeSo2MgL', meta: { numeric: true }, cell: ({ row }) => <FixedQuantity value={row.original.freeSo2MgL} unit="mg/L" digits={0} /> },
+      { header: 'Notes', accessorKey: 'notes', meta: { className: 'min-w-40 text-ink-700' } },
+      ...(mayEdit
+        ? [
+            {
+              id: 'actions',
+              header: () => <span className="sr-only">Actions</span>,
+              cell: ({ row }: { row: { original: LabResultDto } }) => (
+                <div className="flex justify-end gap-1">
+                  <Button variant="ghost" size="sm" onClick={() => onEdit(row.original)}>
+                    Edit
+                  </Button>
+                  <Button variant="ghost" size="sm" onClick={() => onDelete(row.original)}>
+                    Delete
+                  </Button>
+                </div>
+              ),
+            } satisfies ColumnDef<LabResultDto>,
+          ]
+        : []),
+    ],
+    [mayEdit, onEdit, onDelete],
+  );
+  return <DataTable caption="Lab results, newest first" columns={columns} data={results} getRowId={(r) => r.id} empty="No lab results yet." />;
+}

@@ -1,0 +1,115 @@
+import type { ColumnDef } from '@tanstack/react-table';
+import { Plus } from 'lucide-react';
+import { useMemo, useState } from 'react';
+import type { TankDto } from '@shared/types/cellar';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { DataTable } from '@/components/ui/data-table';
+import { Dialog } from '@/components/ui/dialog';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { useToast } from '@/components/ui/toast';
+import { ApiError } from '@/lib/api-client';
+import { useCan } from '@/lib/session';
+import { useDeleteTank } from '../api/delete-tank';
+import { useTanks } from '../api/get-tanks';
+import { MetricQuantity } from './metric-quantity';
+import { TankFormDialog } from './tank-form-dialog';
+
+/** The winery's tanks with what they hold; add, edit and delete for those who may. */
+export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
+  const tanks = useTanks({ pageSize: 100, sort: 'name' });
+  const mayEdit = useCan('cellar:edit');
+  const remove = useDeleteTank();
+  const toast = useToast();
+  const [editing, setEditing] = useState<TankDto | null>(null);
+  const [deleting, setDeleting] = useState<TankDto | null>(null);
+
+  const columns = useMemo<ColumnDef<TankDto>[]>(
+    () => [
+      { header: 'Tank', accessorKey: 'name', meta: { className: 'font-semibold whitespace-nowrap' } },
+      { header: 'Capacity', accessorKey: 'capacityL', meta: { numeric: true }, cell: ({ row }) => <MetricQuantity kind="volume" value={row.original.capacityL} /> },
+      { header: 'Lots', accessorKey: 'lotCount', meta: { numeric: true } },
+      { header: 'Wine held', accessorKey: 'lotVolumeL', meta: { numeric: true }, cell: ({ row }) => <MetricQuantity kind="volume" value={row.original.lotVolumeL} /> },
+      { header: 'Notes', accessorKey: 'notes', meta: { className: 'min-w-40 text-ink-700' } },
+      ...(mayEdit
+        ? [
+            {
+              id: 'actions',
+              header: () => <span className="sr-only">Actions</span>,
+              cell: ({ row }: { row: { original: TankDto } }) => (
+                <div className="flex justify-end gap-1">
+                  <Button variant="ghost" size="sm" onClick={() => setEditing(row.original)} aria-label={`Edit ${row.original.name}`}>
+                    Edit
+                  </Button>
+                  <Button variant="ghost" size="sm" onClick={() => setDeleting(row.original)} aria-label={`Delete ${row.original.name}`}>
+                    Delete
+                  </Button>
+                </div>
+              ),
+            } satisfies ColumnDef<TankDto>,
+          ]
+        : []),
+    ],
+    [mayEdit],
+  );
+
+  return (
+    <Card
+      title="Tanks"
+      description="Where the lots are. A tank that holds lots cannot be deleted."
+      flush
+      actions={
+        mayEdit ? (
+          <Button variant="secondary" icon={<Plus aria-hidden="true" className="size-4" />} onClick={onAddTank}>
+            Add tank
+          </Button>
+        ) : null
+      }
+    >
+      {tanks.isPending ? (
+        <LoadingState variant="skeleton" className="px-4" />
+      ) : tanks.isError ? (
+        <ErrorState className="m-4" message={tanks.error.message} onRetry={() => tanks.refetch()} />
+      ) : (
+        <DataTable
+          caption="Tanks"
+          className="rounded-none border-0"
+          columns={columns}
+          data={tanks.data.items}
+          getRowId={(t) => t.id}
+          clientSorting
+          empty="No tanks yet. Add the tanks your lots are in, with their capacity."
+        />
+      )}
+      <TankFormDialog open={editing !== null} tank={editing} onClose={() => setEditing(null)} />
+      <Dialog
+        open={deleting !== null}
+        onClose={() => setDeleting(null)}
+        size="sm"
+        title={`Delete ${deleting?.name ?? ''}?`}
+        description="The tank is removed from the cellar. Lots that were in it keep their records."
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setDeleting(null)}>
+              Keep
+            </Button>
+            <Button
+              variant="danger"
+              loading={remove.isPending}
+              onClick={() =>
+                deleting &&
+                remove.mutate(deleting.id, {
+                  onSuccess: () => toast.success('Tank deleted', deleting.name),
+                  onError: (error) => toast.error('Not deleted', error instanceof ApiError ? error.message : 'Try again.'),
+                  onSettled: () => setDeleting(null),
+                })
+              }
+            >
+              Delete tank
+            </Button>
+          </>
+        }
+      />
+    </Card>
+  );
+}
