@@ -345,7 +345,8 @@ const ratingsArb = (withLitres: boolean): fc.Arbitrary<CartridgeRatings> =>
       ...(withLitres ? { ratedLitres: fc.integer({ min: 1000, max: 1_000_000 }) } : {}),
       flowRecoveryMinPct: fc.integer({ min: 20, max: 90 }),
     },
-    { requiredKeys: ['flowRecoveryMinPct'] },
+    // With a litres rating the rating must be present; the other budgets may be missing.
+    { requiredKeys: withLitres ? (['flowRecoveryMinPct', 'ratedLitres'] as never[]) : ['flowRecoveryMinPct'] },
   );
 
 describe('properties', () => {

@@ -10,6 +10,7 @@ import {
   type SizingStage,
   type SizingWarningCode,
   type TrainSizingInput,
+  elementEquivalents,
 } from './train-sizing';
 
 // All trains, cartridges and housings below are fictional examples.
@@ -485,5 +486,25 @@ describe('sizeTrain — properties (fast-check)', () => {
       ),
       { numRuns: 100 },
     );
+  });
+});
+
+describe('elementEquivalents', () => {
+  // Trade convention: a cartridge of n × 10-inch modules counts as n ten-inch equivalents (common practice, no source).
+  it.each([
+    [3, 30, 9],
+    [1, 10, 1],
+    [12, 40, 48],
+    [0, 20, 0],
+  ])('%i cartridges of %i inches → %i', (cartridges, lengthIn, eq) => {
+    expect(elementEquivalents({ cartridges, lengthIn })).toBe(eq);
+  });
+
+  it.each([
+    [2.5, 30],
+    [-1, 10],
+    [3, 25],
+  ])('refuses %d cartridges of %d inches', (cartridges, lengthIn) => {
+    expect(() => elementEquivalents({ cartridges, lengthIn })).toThrow(RangeError);
   });
 });

@@ -146,6 +146,17 @@ export interface SizingCartridgeType {
   currency?: string;
 }
 
+/**
+ * 10-inch element equivalents of cartridges built from 10-inch modules: count × length / 10
+ * (a 30-inch cartridge is three modules). Trade convention for stating filter capacity.
+ * @param p.cartridges number of cartridges (rounds × housings); p.lengthIn 10, 20, 30 or 40
+ */
+export function elementEquivalents(p: { cartridges: number; lengthIn: number }): number {
+  if (!Number.isInteger(p.cartridges) || p.cartridges < 0) throw new RangeError('The number of cartridges must be a whole number, 0 or more.');
+  if (![10, 20, 30, 40].includes(p.lengthIn)) throw new RangeError('Cartridge length must be 10, 20, 30 or 40 inches.');
+  return p.cartridges * (p.lengthIn / 10);
+}
+
 /** A housing. */
 export interface SizingHousing {
   /** Cartridge positions. */
@@ -539,7 +550,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
     requirePositiveInteger(`${label} housing count`, housingCount);
 
     const cartridgeCount = housingCount * h.rounds;
-    const eq = cartridgeCount * (h.lengthIn / 10);
+    const eq = elementEquivalents({ cartridges: cartridgeCount, lengthIn: h.lengthIn });
     const areaM2 = eq * c.areaM2Per10in;
     const fluxLhPer10in = flowLh / eq;
     const resistancePerM = cartridgeResistance(c);
@@ -837,7 +848,7 @@ export function suggestTrain(input: TrainSizingInput, options: SuggestTrainOptio
       const h = catalog[k];
       validateHousing(h, `${label} option ${String(k + 1)}`);
       for (let count = 1; count <= maxHousings; count++) {
-        candidates.push({ housing: h, count, eq: count * h.rounds * (h.lengthIn / 10), holdUpL: count * h.holdUpL, order: k });
+        candidates.push({ housing: h, count, eq: elementEquivalents({ cartridges: count * h.rounds, lengthIn: h.lengthIn }), holdUpL: count * h.holdUpL, order: k });
       }
     }
     candidates.sort((a, b) => a.eq - b.eq || a.count - b.count || a.holdUpL - b.holdUpL || a.order - b.order);

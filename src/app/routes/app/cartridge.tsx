@@ -1,5 +1,7 @@
-import { EmptyState } from '@/components/ui/empty-state';
+import { useParams } from 'react-router-dom';
+import { CartridgePage } from '@/features/cartridges/components/cartridge-page';
 
-export default function Route() {
-  return <EmptyState title="Coming soon">This section is being built.</EmptyState>;
+export default function CartridgeRoute() {
+  const { cartridgeId = '' } = useParams();
+  return <CartridgePage key={cartridgeId} id={cartridgeId} />;
 }

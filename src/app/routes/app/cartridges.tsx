@@ -1,5 +1,5 @@
-import { EmptyState } from '@/components/ui/empty-state';
+import { CartridgesPage } from '@/features/cartridges/components/cartridges-page';
 
-export default function Route() {
-  return <EmptyState title="Coming soon">This section is being built.</EmptyState>;
+export default function CartridgesRoute() {
+  return <CartridgesPage />;
 }

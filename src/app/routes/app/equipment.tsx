@@ -1,5 +1,5 @@
-import { EmptyState } from '@/components/ui/empty-state';
+import { EquipmentPage } from '@/features/equipment/components/equipment-page';
 
-export default function Route() {
-  return <EmptyState title="Coming soon">This section is being built.</EmptyState>;
+export default function EquipmentRoute() {
+  return <EquipmentPage />;
 }

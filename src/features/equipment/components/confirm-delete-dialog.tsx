@@ -1,0 +1,68 @@
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
+import { useToast } from '@/components/ui/toast';
+import { ApiError } from '@/lib/api-client';
+
+/** Asks before deleting; a refusal from the server (e.g. cartridges still installed) is shown in the dialog. */
+export function ConfirmDeleteDialog({
+  open,
+  name,
+  what,
+  onClose,
+  onConfirm,
+  pending,
+}: {
+  open: boolean;
+  name: string;
+  what: string;
+  onClose: () => void;
+  onConfirm: () => Promise<unknown>;
+  pending: boolean;
+}) {
+  const toast = useToast();
+  const [refusal, setRefusal] = useState<string | null>(null);
+  const close = () => {
+    setRefusal(null);
+    onClose();
+  };
+  return (
+    <Dialog
+      open={open}
+      onClose={close}
+      size="sm"
+      title={`Delete ${name}?`}
+      description={`The ${what} is removed from this winery's equipment.`}
+      footer={
+        <>
+          <Button variant="secondary" onClick={close}>
+            Keep
+          </Button>
+          {refusal ? null : (
+            <Button
+              variant="danger"
+              loading={pending}
+              onClick={async () => {
+                try {
+                  await onConfirm();
+                  toast.success('Deleted', name);
+                  close();
+                } catch (error) {
+                  setRefusal(error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
+                }
+              }}
+            >
+              Delete {what}
+            </Button>
+          )}
+        </>
+      }
+    >
+      {refusal ? (
+        <p role="alert" className="text-sm font-semibold text-stop-700">
+          {refusal}
+        </p>
+      ) : null}
+    </Dialog>
+  );
+}
