@@ -1,0 +1,93 @@
+// @vitest-environment node
+// A walk through the demo winery as the cellar team would use it: every screen, each role,
+// desktop and phone width, no page errors. Screenshots land in test-output/.
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
+import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { startTestApp, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startTestApp({ config: { clientDir } });
+  await seedDemo(app.db);
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+async function signIn(email: string, viewport: { width: number; height: number }) {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  const errors = watchPageErrors(page);
+  await page.goto(`${app.baseUrl}/sign-in`);
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('navigation', { name: 'Sections' }).waitFor();
+  return { context, page, errors };
+}
+
+describe('demo tour', () => {
+  it('the cellar master walks every screen on a laptop', async () => {
+    const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
+    await page.getByText('Quillwater Estate').first().waitFor();
+    await page.getByRole('link', { name: 'QW-24-SB01' }).first().waitFor();
+    await screenshot(page, 'demo-cellar-desktop');
+
+    await page.getByRole('link', { name: 'QW-24-SB01' }).first().click();
+    await page.getByRole('heading', { name: 'Readiness for membrane filtration' }).waitFor();
+    await screenshot(page, 'demo-lot-desktop');
+
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Equipment' }).click();
+    await page.getByRole('heading', { name: 'Equipment', exact: true }).waitFor();
+    await page.getByText('Prefilter housing A').first().waitFor();
+    await screenshot(page, 'demo-equipment-desktop');
+
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cartridges' }).click();
+    await page.getByRole('heading', { name: 'Cartridges', exact: true }).waitFor();
+    await page.getByRole('heading', { name: 'Stock by type' }).waitFor();
+    await screenshot(page, 'demo-cartridges-desktop');
+
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Team' }).click();
+    await page.getByRole('cell', { name: /Sam Okafor/ }).waitFor();
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it('the technician works from a phone: cartridges and a cartridge page', async () => {
+    const { context, page, errors } = await signIn('tech@quillwater.test', { width: 390, height: 844 });
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cartridges' }).click();
+    await page.getByRole('heading', { name: 'Stock by type' }).waitFor();
+    await screenshot(page, 'demo-cartridges-technician-phone');
+    expect(await page.getByRole('button', { name: 'Register cartridge' }).count()).toBe(0);
+    await page.getByRole('link', { name: /^QW-/ }).first().click();
+    await page.getByRole('heading', { name: 'Life forecast' }).waitFor();
+    await screenshot(page, 'demo-cartridge-technician-phone');
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cellar' }).click();
+    await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
+    await screenshot(page, 'demo-cellar-technician-phone');
+    expect(await page.getByRole('button', { name: 'Add lot' }).count()).toBe(0);
+    const scrollsSideways = await page.evaluate(() => document.documentElement.scrollWidth > window.innerWidth + 1);
+    expect(scrollsSideways).toBe(false);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
+  it('Brambleford never sees Quillwater’s records', async () => {
+    const { context, page, errors } = await signIn('owner@brambleford.test', { width: 1280, height: 900 });
+    await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
+    await page.getByText('Your cellar is empty').waitFor();
+    expect(await page.getByText('Quillwater').count()).toBe(0);
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cartridges' }).click();
+    await page.getByRole('heading', { name: 'Cartridges', exact: true }).waitFor();
+    expect(await page.getByRole('link', { name: /^QW-/ }).count()).toBe(0);
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+});
