@@ -9,7 +9,7 @@ let app: TestApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
+  app = await startTestApp({ config: { clientDir }, withStorage: true });
   browser = await launchBrowser();
 });
 afterAll(async () => {
@@ -101,6 +101,18 @@ describe('cellar', () => {
     await page.locator('.recharts-line').first().waitFor();
     expect(await page.getByRole('table', { name: 'Lab results, newest first' }).getByRole('row').count()).toBe(4);
     await screenshot(page, 'cellar-lot-desktop');
+
+    // The lab's PDF goes with its sample.
+    await page.getByRole('button', { name: /^Files of the sample of/ }).first().click();
+    const filesDialog = page.getByRole('dialog');
+    await filesDialog.getByLabel('File to attach').setInputFiles({
+      name: 'lab-report.pdf',
+      mimeType: 'application/pdf',
+      buffer: Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\n%%EOF\n'),
+    });
+    await filesDialog.getByRole('link', { name: 'lab-report.pdf' }).waitFor();
+    await screenshot(page, 'cellar-lab-result-files-desktop');
+    await page.keyboard.press('Escape');
 
     // Back on the Cellar page the lot shows its latest figures and verdict.
     await page.getByRole('link', { name: 'Cellar' }).first().click();

@@ -1,8 +1,11 @@
 import type { ColumnDef } from '@tanstack/react-table';
 import { format } from 'date-fns';
-import { useMemo } from 'react';
+import { Paperclip } from 'lucide-react';
+import { useMemo, useState } from 'react';
 import type { LabResultDto } from '@shared/types/cellar';
+import { AttachmentPanel } from '@/components/attachments/attachment-panel';
 import { Button } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
 import { DataTable } from '@/components/ui/data-table';
 import { Quantity } from '@/components/ui/quantity';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
@@ -42,6 +45,7 @@ export function LabResultsTable({
   onEdit: (r: LabResultDto) => void;
   onDelete: (r: LabResultDto) => void;
 }) {
+  const [filesFor, setFilesFor] = useState<LabResultDto | null>(null);
   const columns = useMemo<ColumnDef<LabResultDto>[]>(
     () => [
       { header: 'Sampled', accessorKey: 'sampledAt', cell: ({ row }) => <span className="num whitespace-nowrap">{format(new Date(row.original.sampledAt), 'd MMM yyyy, HH:mm')}</span> },
@@ -74,6 +78,21 @@ export function LabResultsTable({
       { header: 'Vmax', id: 'vmax', meta: { numeric: true }, cell: ({ row }) => <DiscCell disc={row.original.disc} /> },
       { header: 'Free SO₂', accessorKey: 'freeSo2MgL', meta: { numeric: true }, cell: ({ row }) => <FixedQuantity value={row.original.freeSo2MgL} unit="mg/L" digits={0} /> },
       { header: 'Notes', accessorKey: 'notes', meta: { className: 'min-w-40 text-ink-700' } },
+      {
+        id: 'files',
+        header: () => <span className="sr-only">Files</span>,
+        cell: ({ row }) => (
+          <Button
+            variant="ghost"
+            size="sm"
+            aria-label={`Files of the sample of ${format(new Date(row.original.sampledAt), 'd MMM yyyy')}`}
+            icon={<Paperclip aria-hidden="true" className="size-4" />}
+            onClick={() => setFilesFor(row.original)}
+          >
+            Files
+          </Button>
+        ),
+      },
       ...(mayEdit
         ? [
             {
@@ -95,5 +114,18 @@ export function LabResultsTable({
     ],
     [mayEdit, onEdit, onDelete],
   );
-  return <DataTable caption="Lab results, newest first" columns={columns} data={results} getRowId={(r) => r.id} empty="No lab results yet." />;
+  return (
+    <>
+      <DataTable caption="Lab results, newest first" columns={columns} data={results} getRowId={(r) => r.id} empty="No lab results yet." />
+      <Dialog
+        open={filesFor !== null}
+        onClose={() => setFilesFor(null)}
+        title={filesFor ? `Lab report of ${format(new Date(filesFor.sampledAt), 'd MMM yyyy')}` : 'Lab report'}
+        description="The laboratory's report and any other files for this sample."
+        size="lg"
+      >
+        {filesFor ? <AttachmentPanel ownerKind="lab-result" ownerId={filesFor.id} title="Files of this sample" /> : null}
+      </Dialog>
+    </>
+  );
 }
