@@ -58,3 +58,9 @@ export const api = {
   patch: <T>(path: string, body: unknown = {}) => request<T>('PATCH', path, body),
   delete: <T>(path: string) => request<T>('DELETE', path),
 };
+
+/** The message to show a person for any failure: the server's own words, or a plain fallback. */
+export function errorMessage(error: unknown, opts: { preferField?: boolean } = {}): string {
+  if (!(error instanceof ApiError)) return 'Something went wrong. Try again.';
+  return (opts.preferField ? Object.values(error.fields)[0] : undefined) ?? error.message;
+}

@@ -11,7 +11,7 @@ import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { ApiError } from '@/lib/api-client';
+import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useCartridge } from '../api/get-cartridge';
 import { useRemoveCartridge } from '../api/remove-cartridge';
@@ -143,7 +143,7 @@ export function CartridgePage({ id }: { id: string }) {
                     setDialog(null);
                   },
                   onError: (e) => {
-                    toast.error('Not removed', e instanceof ApiError ? e.message : 'Something went wrong. Try again.');
+                    toast.error('Not removed', errorMessage(e));
                     setDialog(null);
                   },
                 })

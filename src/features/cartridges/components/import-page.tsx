@@ -15,7 +15,7 @@ import { ErrorState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { ApiError } from '@/lib/api-client';
+import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useImportCartridges, usePreviewImport } from '../api/import-cartridges';
 
@@ -24,7 +24,6 @@ QW-PES045-0101,B25-040,PES membrane 0.45 µm,30,2025-03-14
 QW-PP5-0101,B25-041,Depth PP 5 µm,30,2025-03-14`;
 
 const SHOWN_MAX = 500;
-const message = (e: unknown) => (e instanceof ApiError ? e.message : 'Something went wrong. Try again.');
 
 /** Delivery import: upload or paste the CSV, see every row checked, fix and retry, then import all rows at once. */
 export function ImportPage() {
@@ -50,7 +49,7 @@ export function ImportPage() {
       setResult(r);
       setErrorsOnly(r.errorCount > 0 && r.rows.length > 50);
     } catch (e) {
-      setProblem(message(e));
+      setProblem(errorMessage(e));
     }
   };
 
@@ -71,7 +70,7 @@ export function ImportPage() {
       toast.success(`${formatNumber(r.imported)} cartridges imported`, 'They are in stock now.');
       navigate(paths.cartridges);
     } catch (e) {
-      setProblem(message(e));
+      setProblem(errorMessage(e));
       // Someone may have registered a serial in the meantime: check again to show which rows.
       if (e instanceof ApiError && e.status !== 0) void check(csv, source ?? 'the file');
     }

@@ -6,7 +6,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Select } from '@/components/ui/select';
 import { LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useHousingView } from '../api/get-housing-view';
 import { useInstallCartridge } from '../api/install-cartridge';
 import { HousingCaution } from './housing-caution';
@@ -45,7 +45,7 @@ export function InstallDialog({ cartridge, open, onClose }: { cartridge: Cartrid
           toast.success('Installed', `${c.serial} is in ${c.housingName}, round ${c.position}.`);
           onClose();
         },
-        onError: (e) => setError(e instanceof ApiError ? (Object.values(e.fields)[0] ?? e.message) : 'Something went wrong. Try again.'),
+        onError: (e) => setError(errorMessage(e, { preferField: true })),
       },
     );
   };

@@ -6,7 +6,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCartridges } from '../api/get-cartridges';
 import { useInstallCartridge } from '../api/install-cartridge';
 import { HousingCaution } from './housing-caution';
@@ -44,7 +44,7 @@ export function InstallIntoRoundDialog({ target, onClose }: { target: { housing:
           toast.success('Installed', `${c.serial} is in ${housing.name}, round ${position}.`);
           onClose();
         },
-        onError: (e) => setError(e instanceof ApiError ? (Object.values(e.fields)[0] ?? e.message) : 'Something went wrong. Try again.'),
+        onError: (e) => setError(errorMessage(e, { preferField: true })),
       },
     );
   };

@@ -13,7 +13,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { ApiError } from '@/lib/api-client';
+import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useDeleteLabResult } from '../api/delete-lab-result';
 import { useDeleteLot } from '../api/delete-lot';
@@ -27,7 +27,6 @@ import { FixedQuantity, MetricQuantity } from './metric-quantity';
 import { ReadinessBadge } from './readiness-badge';
 import { ReadinessPanel } from './readiness-panel';
 
-const message = (error: unknown) => (error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -99,7 +98,7 @@ export function LotPage({ lotId }: { lotId: string }) {
         {lot.error instanceof ApiError && lot.error.status === 404 ? (
           <EmptyState title="Lot not found">It may have been deleted, or it belongs to another winery.</EmptyState>
         ) : (
-          <ErrorState message={message(lot.error)} onRetry={() => lot.refetch()} />
+          <ErrorState message={errorMessage(lot.error)} onRetry={() => lot.refetch()} />
         )}
       </div>
     );
@@ -152,7 +151,7 @@ export function LotPage({ lotId }: { lotId: string }) {
         {results.isPending ? (
           <LoadingState variant="skeleton" />
         ) : results.isError ? (
-          <ErrorState message={message(results.error)} onRetry={() => results.refetch()} />
+          <ErrorState message={errorMessage(results.error)} onRetry={() => results.refetch()} />
         ) : results.data.items.length === 0 ? (
           <EmptyState icon={<FlaskConical />} title="No lab results yet" action={addResult}>
             Add the lab’s turbidity and clogging test (times to 200 and 400 mL) to get a readiness verdict for this lot.
@@ -190,7 +189,7 @@ export function LotPage({ lotId }: { lotId: string }) {
                     navigate(paths.cellar);
                   },
                   onError: (error) => {
-                    toast.error('Not deleted', message(error));
+                    toast.error('Not deleted', errorMessage(error));
                     setDeletingLot(false);
                   },
                 })
@@ -221,7 +220,7 @@ export function LotPage({ lotId }: { lotId: string }) {
                   { lotId: l.id, id: deletingResult.id },
                   {
                     onSuccess: () => toast.success('Lab result deleted'),
-                    onError: (error) => toast.error('Not deleted', message(error)),
+                    onError: (error) => toast.error('Not deleted', errorMessage(error)),
                     onSettled: () => setDeletingResult(null),
                   },
                 )

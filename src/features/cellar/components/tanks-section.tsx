@@ -8,7 +8,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { Dialog } from '@/components/ui/dialog';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useDeleteTank } from '../api/delete-tank';
 import { useTanks } from '../api/get-tanks';
@@ -100,7 +100,7 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
                 deleting &&
                 remove.mutate(deleting.id, {
                   onSuccess: () => toast.success('Tank deleted', deleting.name),
-                  onError: (error) => toast.error('Not deleted', error instanceof ApiError ? error.message : 'Try again.'),
+                  onError: (error) => toast.error('Not deleted', errorMessage(error)),
                   onSettled: () => setDeleting(null),
                 })
               }

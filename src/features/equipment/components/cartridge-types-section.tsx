@@ -10,7 +10,7 @@ import { Quantity } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useDeleteCartridgeType } from '../api/delete-cartridge-type';
@@ -21,7 +21,6 @@ import { ConfirmDeleteDialog } from './confirm-delete-dialog';
 import { SearchBox, useListState } from './list-toolbar';
 import { Measured } from './measured';
 
-const message = (error: unknown) => (error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
 
 export function CartridgeTypesSection() {
   const mayEdit = useCan('equipment:edit');
@@ -157,7 +156,7 @@ export function CartridgeTypesSection() {
       {types.isPending ? (
         <LoadingState variant="skeleton" />
       ) : types.isError ? (
-        <ErrorState message={message(types.error)} onRetry={() => types.refetch()} />
+        <ErrorState message={errorMessage(types.error)} onRetry={() => types.refetch()} />
       ) : firstRun ? (
         <EmptyState icon={<Filter />} title="No cartridge types yet" action={addButton}>
           After the housings, add each cartridge type you buy — prefilters and membranes — with the maker&apos;s area, clean-water flow,

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { useToast } from '@/components/ui/toast';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 
 /** Asks before deleting; a refusal from the server (e.g. cartridges still installed) is shown in the dialog. */
 export function ConfirmDeleteDialog({
@@ -48,7 +48,7 @@ export function ConfirmDeleteDialog({
                   toast.success('Deleted', name);
                   close();
                 } catch (error) {
-                  setRefusal(error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
+                  setRefusal(errorMessage(error));
                 }
               }}
             >

@@ -8,7 +8,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useDeleteHousing } from '../api/delete-housing';
@@ -18,7 +18,6 @@ import { HousingFormDialog } from './housing-form-dialog';
 import { Measured } from './measured';
 import { SearchBox, useListState } from './list-toolbar';
 
-const message = (error: unknown) => (error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
 
 export function HousingsSection() {
   const mayEdit = useCan('equipment:edit');
@@ -103,7 +102,7 @@ export function HousingsSection() {
       {housings.isPending ? (
         <LoadingState variant="skeleton" />
       ) : housings.isError ? (
-        <ErrorState message={message(housings.error)} onRetry={() => housings.refetch()} />
+        <ErrorState message={errorMessage(housings.error)} onRetry={() => housings.refetch()} />
       ) : firstRun ? (
         <EmptyState icon={<Cylinder />} title="No housings yet" action={addButton}>
           Start here: add each filter housing of your train with its rounds, cartridge length and pressure and temperature ratings.

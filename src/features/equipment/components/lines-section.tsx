@@ -8,7 +8,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useDeleteLine } from '../api/delete-line';
@@ -18,7 +18,6 @@ import { LineFormDialog } from './line-form-dialog';
 import { SearchBox, useListState } from './list-toolbar';
 import { Measured } from './measured';
 
-const message = (error: unknown) => (error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
 
 export function LinesSection() {
   const mayEdit = useCan('equipment:edit');
@@ -96,7 +95,7 @@ export function LinesSection() {
       {lines.isPending ? (
         <LoadingState variant="skeleton" />
       ) : lines.isError ? (
-        <ErrorState message={message(lines.error)} onRetry={() => lines.refetch()} />
+        <ErrorState message={errorMessage(lines.error)} onRetry={() => lines.refetch()} />
       ) : firstRun ? (
         <EmptyState icon={<Factory />} title="No bottling line yet" action={addButton}>
           Add your filler with its speed in bottles per hour and the bottle size; plans use it for the flow the filters must carry.

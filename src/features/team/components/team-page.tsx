@@ -12,7 +12,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
-import { ApiError } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useChangeRole } from '../api/change-role';
 import { useTeam } from '../api/get-team';
@@ -20,7 +20,6 @@ import { useRemoveMember } from '../api/remove-member';
 import { useRevokeInvitation } from '../api/revoke-invitation';
 import { InviteDialog } from './invite-dialog';
 
-const message = (error: unknown) => (error instanceof ApiError ? error.message : 'Something went wrong. Try again.');
 
 export function TeamPage({ me }: { me: MeDto }) {
   const team = useTeam();
@@ -63,7 +62,7 @@ export function TeamPage({ me }: { me: MeDto }) {
                   { userId: row.original.userId, role: e.target.value as Role },
                   {
                     onSuccess: () => toast.success('Role changed', `${row.original.name} is now ${roleLabels[e.target.value as Role].toLowerCase()}.`),
-                    onError: (error) => toast.error('Role not changed', message(error)),
+                    onError: (error) => toast.error('Role not changed', errorMessage(error)),
                   },
                 )
               }
@@ -112,7 +111,7 @@ export function TeamPage({ me }: { me: MeDto }) {
             onClick={() =>
               revoke.mutate(row.original.id, {
                 onSuccess: () => toast.info('Invitation withdrawn', `The link sent to ${row.original.email} no longer works.`),
-                onError: (error) => toast.error('Not withdrawn', message(error)),
+                onError: (error) => toast.error('Not withdrawn', errorMessage(error)),
               })
             }
           >
@@ -140,7 +139,7 @@ export function TeamPage({ me }: { me: MeDto }) {
       {team.isPending ? (
         <LoadingState />
       ) : team.isError ? (
-        <ErrorState message={message(team.error)} onRetry={() => team.refetch()} />
+        <ErrorState message={errorMessage(team.error)} onRetry={() => team.refetch()} />
       ) : (
         <>
           <Card title="Members" flush>
@@ -186,7 +185,7 @@ export function TeamPage({ me }: { me: MeDto }) {
                     setRemoving(null);
                   },
                   onError: (error) => {
-                    toast.error('Not removed', message(error));
+                    toast.error('Not removed', errorMessage(error));
                     setRemoving(null);
                   },
                 })
