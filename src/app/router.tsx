@@ -16,7 +16,8 @@ export function createRouter() {
       path: paths.home,
       element: <AppLayout />,
       children: [
-        { index: true, element: <Navigate to={paths.cellar} replace /> },
+        { index: true, element: <Navigate to={paths.today} replace /> },
+        { path: paths.today, lazy: lazyPage(() => import('./routes/app/today')) },
         { path: paths.cellar, lazy: lazyPage(() => import('./routes/app/cellar')) },
         { path: '/cellar/lots/:lotId', lazy: lazyPage(() => import('./routes/app/lot')) },
         { path: paths.equipment, lazy: lazyPage(() => import('./routes/app/equipment')) },

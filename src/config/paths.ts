@@ -6,6 +6,7 @@ export const paths = {
   resetPassword: '/reset-password',
   invitation: '/invitation',
   home: '/',
+  today: '/today',
   cellar: '/cellar',
   lot: (id: string) => `/cellar/lots/${id}`,
   equipment: '/equipment',

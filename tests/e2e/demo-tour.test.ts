@@ -35,6 +35,7 @@ async function signIn(email: string, viewport: { width: number; height: number }
 describe('demo tour', () => {
   it('the cellar master walks every screen on a laptop', async () => {
     const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cellar' }).click();
     await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
     await page.getByText('Quillwater Estate').first().waitFor();
     await page.getByRole('link', { name: 'QW-24-SB01' }).first().waitFor();
@@ -81,6 +82,7 @@ describe('demo tour', () => {
 
   it('Brambleford never sees Quillwater’s records', async () => {
     const { context, page, errors } = await signIn('owner@brambleford.test', { width: 1280, height: 900 });
+    await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cellar' }).click();
     await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
     await page.getByText('Your cellar is empty').waitFor();
     expect(await page.getByText('Quillwater').count()).toBe(0);

@@ -1,6 +1,6 @@
-import { Cylinder, Filter, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
-import type { ReactNode } from 'react';
-import { NavLink, useNavigate } from 'react-router-dom';
+import { CalendarCheck, Cylinder, Filter, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
+import { useEffect, useRef, type ReactNode } from 'react';
+import { NavLink, useLocation, useNavigate } from 'react-router-dom';
 import { can, roleLabels, type Action } from '@shared/permissions';
 import type { MeDto } from '@shared/types/api';
 import { Button } from '@/components/ui/button';
@@ -14,6 +14,7 @@ type NavItem = { to: string; label: string; icon: ReactNode; action: Action; dev
 
 /** Only built sections appear here; each is shown when the person's role may read it. */
 const navItems: NavItem[] = [
+  { to: paths.today, label: 'Today', icon: <CalendarCheck aria-hidden="true" className="size-4" />, action: 'cellar:read' },
   { to: paths.cellar, label: 'Cellar', icon: <Wine aria-hidden="true" className="size-4" />, action: 'cellar:read' },
   { to: paths.equipment, label: 'Equipment', icon: <Cylinder aria-hidden="true" className="size-4" />, action: 'equipment:read' },
   { to: paths.cartridges, label: 'Cartridges', icon: <Filter aria-hidden="true" className="size-4" />, action: 'cartridges:read' },
@@ -29,6 +30,12 @@ export function AppShell({ me, children }: { me: MeDto; children: ReactNode }) {
   const appInfo = useAppInfo();
   const membership = activeMembership(me);
   const items = navItems.filter((i) => can(membership?.role, i.action) && (!i.devOnly || appInfo.data?.mailOutbox));
+  const navRef = useRef<HTMLElement>(null);
+  const { pathname } = useLocation();
+  // On a phone the section tabs scroll sideways: keep the current one in view.
+  useEffect(() => {
+    navRef.current?.querySelector<HTMLElement>('[aria-current="page"]')?.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
+  }, [pathname]);
 
   return (
     <div className="flex min-h-dvh flex-col bg-ink-50">
@@ -67,7 +74,7 @@ export function AppShell({ me, children }: { me: MeDto; children: ReactNode }) {
             </Button>
           </div>
         </div>
-        <nav aria-label="Sections" className="mx-auto max-w-6xl overflow-x-auto px-2">
+        <nav ref={navRef} aria-label="Sections" className="mx-auto max-w-6xl overflow-x-auto px-2">
           <ul className="flex gap-1">
             {items.map((item) => (
               <li key={item.to}>

@@ -15,7 +15,7 @@ import { ErrorState, LoadingState } from '@/components/ui/states';
 import { paths } from '@/config/paths';
 import { useCartridges } from '../api/get-cartridges';
 import type { CartridgeFilters } from '../api/keys';
-import { CartridgeStatusBadge, statusWord } from './cartridge-status-badge';
+import { CartridgeStatusBadge, statusWord } from '@/components/status/cartridge-status-badge';
 import { Measure } from './measure';
 
 const PAGE_SIZE = 25;

@@ -15,7 +15,7 @@ import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useCartridge } from '../api/get-cartridge';
 import { useRemoveCartridge } from '../api/remove-cartridge';
-import { CartridgeStatusBadge } from './cartridge-status-badge';
+import { CartridgeStatusBadge } from '@/components/status/cartridge-status-badge';
 import { HistoryTimeline } from './history-timeline';
 import { HousingCaution } from './housing-caution';
 import { InstallDialog } from './install-dialog';

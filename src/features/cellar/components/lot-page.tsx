@@ -24,7 +24,7 @@ import { LabResultsChart } from './lab-results-chart';
 import { LabResultsTable } from './lab-results-table';
 import { LotFormDialog } from './lot-form-dialog';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
-import { ReadinessBadge } from './readiness-badge';
+import { ReadinessBadge } from '@/components/status/readiness-badge';
 import { ReadinessPanel } from './readiness-panel';
 
 

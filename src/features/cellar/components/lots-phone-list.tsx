@@ -5,7 +5,7 @@ import type { LotListItemDto } from '@shared/types/cellar';
 import { Button } from '@/components/ui/button';
 import { paths } from '@/config/paths';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
-import { ReadinessBadge } from './readiness-badge';
+import { ReadinessBadge } from '@/components/status/readiness-badge';
 
 /** The lots table as one column of cards for phones: the verdict and the figures that matter, each a link to the lot. */
 export function LotsPhoneList({

@@ -13,7 +13,7 @@ import { paths } from '@/config/paths';
 import { useLots } from '../api/get-lots';
 import { LotsPhoneList } from './lots-phone-list';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
-import { ReadinessBadge } from './readiness-badge';
+import { ReadinessBadge } from '@/components/status/readiness-badge';
 
 const PAGE_SIZE = 25;
 

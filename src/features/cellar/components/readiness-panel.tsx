@@ -4,7 +4,7 @@ import type { LotDto } from '@shared/types/cellar';
 import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';
 import { useCan } from '@/lib/session';
-import { ReadinessBadge } from './readiness-badge';
+import { ReadinessBadge } from '@/components/status/readiness-badge';
 
 /** The verdict, its reasons, and the thresholds it was judged against with their sources. */
 export function ReadinessPanel({ lot }: { lot: LotDto }) {

@@ -1,0 +1,83 @@
+import { and, asc, count, eq, exists, inArray, or, sql } from 'drizzle-orm';
+import type { DbOrTx } from '../../db/client';
+import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, tanksTable } from '../../db/schema';
+
+/** Event kinds the life forecast reads. */
+const LIFE_EVENT_KINDS = ['registered', 'cycle', 'integrity'] as const;
+/** Event kinds that make an in-stock cartridge worth forecasting (it has been used). */
+const USE_EVENT_KINDS = ['cycle', 'integrity', 'run'] as const;
+
+export function createTodayRepository(db: DbOrTx) {
+  return {
+    /** Tanks, housings and housings with at least one empty round, in one query. */
+    async counts(wineryId: string) {
+      const installedPerHousing = db
+        .select({ housingId: cartridgesTable.housingId, n: count().as('n') })
+        .from(cartridgesTable)
+        .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.status, 'installed')))
+        .groupBy(cartridgesTable.housingId)
+        .as('installed_per_housing');
+      const [row] = await db
+        .select({
+          housings: sql<number>`cast(count(*) as int)`,
+          withFree: sql<number>`cast(count(*) filter (where coalesce(${installedPerHousing.n}, 0) < ${housingsTable.rounds}) as int)`,
+          tanks: sql<number>`(select cast(count(*) as int) from ${tanksTable} where ${tanksTable.wineryId} = ${wineryId})`,
+        })
+        .from(housingsTable)
+        .leftJoin(installedPerHousing, eq(installedPerHousing.housingId, housingsTable.id))
+        .where(eq(housingsTable.wineryId, wineryId));
+      return { housings: row?.housings ?? 0, housingsWithFreeRounds: row?.withFree ?? 0, tanks: row?.tanks ?? 0 };
+    },
+
+    /**
+     * The cartridges whose life is worth forecasting: installed or regenerating ones, and
+     * in-stock ones that have been used. Each with its type row and housing name (one query).
+     */
+    async cartridgesInUse(wineryId: string) {
+      const used = db
+        .select({ one: sql`1` })
+        .from(cartridgeEventsTable)
+        .where(and(eq(cartridgeEventsTable.cartridgeId, cartridgesTable.id), inArray(cartridgeEventsTable.kind, [...USE_EVENT_KINDS])));
+      return db
+        .select({
+          cartridge: {
+            id: cartridgesTable.id,
+            serial: cartridgesTable.serial,
+            status: cartridgesTable.status,
+            housingId: cartridgesTable.housingId,
+            position: cartridgesTable.position,
+            litresFiltered: cartridgesTable.litresFiltered,
+          },
+          housingName: housingsTable.name,
+          type: cartridgeTypesTable,
+        })
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
+        .where(
+          and(
+            eq(cartridgesTable.wineryId, wineryId),
+            or(inArray(cartridgesTable.status, ['installed', 'regenerating']), and(eq(cartridgesTable.status, 'in-stock'), exists(used))),
+          ),
+        )
+        .orderBy(asc(cartridgesTable.serial));
+    },
+
+    /** The forecast's events of the given cartridges, in one query (grouped by the caller). */
+    async lifeEvents(wineryId: string, cartridgeIds: string[]) {
+      if (cartridgeIds.length === 0) return [];
+      return db
+        .select({ cartridgeId: cartridgeEventsTable.cartridgeId, kind: cartridgeEventsTable.kind, at: cartridgeEventsTable.at, details: cartridgeEventsTable.details })
+        .from(cartridgeEventsTable)
+        .where(
+          and(
+            eq(cartridgeEventsTable.wineryId, wineryId),
+            inArray(cartridgeEventsTable.cartridgeId, cartridgeIds),
+            inArray(cartridgeEventsTable.kind, [...LIFE_EVENT_KINDS]),
+          ),
+        );
+    },
+  };
+}
+export type TodayRepository = ReturnType<typeof createTodayRepository>;
+export type TodayCartridgeRow = Awaited<ReturnType<TodayRepository['cartridgesInUse']>>[number];

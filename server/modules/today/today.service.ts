@@ -1,0 +1,185 @@
+import type { CartridgeLife } from '../../../shared/engine';
+import type { ReadinessVerdict } from '../../../shared/engine/readiness';
+import type { LotsListQuery } from '../../../shared/schemas/cellar';
+import type { LotListItemDto } from '../../../shared/types/cellar';
+import type { TodayCartridgeFigure, TodayDto } from '../../../shared/types/today';
+import type { Database } from '../../db/client';
+import type { TenantContext } from '../../middleware/authorize';
+import { createCartridgesService, lifeFromHistory } from '../cartridges/cartridges.service';
+import { createCellarService } from '../cellar/cellar.service';
+import { presentStockType, presentTodayCartridge, presentTodayLot } from './today.presenter';
+import { createTodayRepository, type TodayCartridgeRow } from './today.repository';
+
+/** Lots shown on the page; the total is given beside them. */
+export const TODAY_LOTS_MAX = 8;
+/** Cartridges shown on the page. */
+export const TODAY_CARTRIDGES_MAX = 10;
+/** A cartridge with this many care cycles left, or fewer, is near the end of its life. */
+export const CYCLES_LEFT_WATCH = 3;
+/** A rated budget used to this fraction, or more, is worth a look. */
+export const BUDGET_WATCH_FRACTION = 0.8;
+/** Flow recovery within this many percentage points above the floor is near it. */
+export const RECOVERY_MARGIN_PCT = 10;
+
+/** A winery's whole cellar in one page of the lots listing (a cellar holds tens of lots, not thousands). */
+const ALL_LOTS: LotsListQuery = { q: undefined, sort: 'code', order: 'asc', page: 1, pageSize: 5000 };
+
+const verdictRank: Record<ReadinessVerdict, number> = { 'not-ready': 0, borderline: 1, unknown: 2, ready: 3 };
+
+/** Reasons the engine gives for a criterion that passed; the lead reason is the first that did not. */
+const PASSING_REASON = [/^Turbidity .* is within the .* limit/, /^Clogging index .* is within the .* limit/, /at least the .* safety factor\.$/];
+
+function leadReason(lot: LotListItemDto): string {
+  if (!lot.latest) return 'No lab result yet.';
+  const reasons = lot.readiness.reasons;
+  return reasons.find((r) => !PASSING_REASON.some((p) => p.test(r))) ?? reasons[0] ?? 'No verdict yet.';
+}
+
+type Finding = { rank: number; closeness: number; reason: string; figure: TodayCartridgeFigure };
+
+const plural = (n: number, one: string, many: string) => (n === 1 ? one : many);
+const round = (v: number) => Math.round(v * 10) / 10;
+
+/** Short plain words for a finding that is not the lead one. */
+function noteOf(figure: TodayCartridgeFigure): string {
+  switch (figure.kind) {
+    case 'integrity-failed':
+      return 'Latest integrity test failed.';
+    case 'life-ended':
+      return figure.because;
+    case 'cycles-left':
+      return `${figure.cyclesLeft} ${plural(figure.cyclesLeft, 'care cycle', 'care cycles')} left (${figure.factor}).`;
+    case 'budget-used':
+      return `${Math.round(figure.fraction * 100)} % of rated ${figure.factor} used.`;
+    case 'flow-recovery':
+      return `Flow recovery ${round(figure.latestPct)} %, floor ${figure.minPct} %.`;
+  }
+}
+
+/**
+ * What makes one cartridge worth a look, from the engine's life forecast: a failed latest
+ * integrity test, an ended life, few cycles left, a rated budget mostly used, or flow
+ * recovery close to its floor. Empty when nothing does.
+ */
+function findingsOf(life: CartridgeLife, latestIntegrityAt: Date | null): Finding[] {
+  const found: Finding[] = [];
+  if (life.integrity.latestPass === false) {
+    found.push({ rank: 0, closeness: 1, reason: 'Latest integrity test failed', figure: { kind: 'integrity-failed', at: (latestIntegrityAt ?? new Date(0)).toISOString() } });
+  }
+  if (life.ended) {
+    for (const because of life.endedBecause) {
+      if (/integrity/i.test(because)) continue;
+      found.push({ rank: 1, closeness: 1, reason: 'Life forecast has ended', figure: { kind: 'life-ended', because } });
+    }
+  } else {
+    if (life.remainingCycles !== null && life.limitingFactor && life.remainingCycles <= CYCLES_LEFT_WATCH) {
+      found.push({
+        rank: 2,
+        closeness: 1 - life.remainingCycles / (CYCLES_LEFT_WATCH + 1),
+        reason: 'Near the end of its life',
+        figure: { kind: 'cycles-left', cyclesLeft: life.remainingCycles, factor: life.limitingFactor },
+      });
+    }
+    for (const b of life.budgets) {
+      if (b.fraction === null || b.used === null || b.rated === null || b.fraction < BUDGET_WATCH_FRACTION) continue;
+      found.push({
+        rank: 3,
+        closeness: (b.fraction - BUDGET_WATCH_FRACTION) / (1 - BUDGET_WATCH_FRACTION),
+        reason: `Most of its rated ${b.factor} used`,
+        figure: { kind: 'budget-used', factor: b.factor, used: b.used, rated: b.rated, fraction: b.fraction },
+      });
+    }
+    const { latestPct, minPct } = life.recovery;
+    if (latestPct !== null && latestPct < minPct + RECOVERY_MARGIN_PCT) {
+      found.push({
+        rank: 3,
+        closeness: 1 - (latestPct - minPct) / RECOVERY_MARGIN_PCT,
+        reason: 'Flow recovery near its floor',
+        figure: { kind: 'flow-recovery', latestPct, minPct },
+      });
+    }
+  }
+  return found.sort((a, b) => a.rank - b.rank || b.closeness - a.closeness);
+}
+
+/** The landing page: lots and cartridges that need a look, stock shortfalls and the header counts. */
+export function createTodayService(db: Database) {
+  const repo = createTodayRepository(db);
+  const cellar = createCellarService(db);
+  const cartridges = createCartridgesService(db);
+
+  /** Cartridges to look at, most urgent first: two queries whatever their number (the rows, then all their events). */
+  async function cartridgesToLookAt(wineryId: string, now: Date) {
+    const rows = await repo.cartridgesInUse(wineryId);
+    const events = await repo.lifeEvents(
+      wineryId,
+      rows.map((r) => r.cartridge.id),
+    );
+    const byCartridge = new Map<string, typeof events>();
+    for (const e of events) {
+      const list = byCartridge.get(e.cartridgeId);
+      if (list) list.push(e);
+      else byCartridge.set(e.cartridgeId, [e]);
+    }
+    const flagged: { row: TodayCartridgeRow; findings: Finding[] }[] = [];
+    for (const row of rows) {
+      const history = byCartridge.get(row.cartridge.id) ?? [];
+      const { life } = lifeFromHistory(row.type, row.cartridge, history, now);
+      if (!life) continue;
+      const integrityAt = history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
+      const findings = findingsOf(life, integrityAt);
+      if (findings.length) flagged.push({ row, findings });
+    }
+    flagged.sort(
+      (a, b) =>
+        a.findings[0].rank - b.findings[0].rank ||
+        b.findings[0].closeness - a.findings[0].closeness ||
+        a.row.cartridge.serial.localeCompare(b.row.cartridge.serial),
+    );
+    return {
+      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, findings: [lead, ...rest] }) =>
+        presentTodayCartridge(row, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
+      ),
+      attentionTotal: flagged.length,
+    };
+  }
+
+  return {
+    async today(tenant: TenantContext, now = new Date()): Promise<TodayDto> {
+      const [lots, summary, counts, toLookAt] = await Promise.all([
+        cellar.listLots(tenant, ALL_LOTS),
+        cartridges.summary(tenant),
+        repo.counts(tenant.wineryId),
+        cartridgesToLookAt(tenant.wineryId, now),
+      ]);
+
+      const byVerdict: Record<ReadinessVerdict, number> = { ready: 0, borderline: 0, 'not-ready': 0, unknown: 0 };
+      for (const lot of lots.items) byVerdict[lot.readiness.verdict] += 1;
+      const needLook = lots.items
+        .filter((l) => l.readiness.verdict !== 'ready')
+        .sort((a, b) => verdictRank[a.readiness.verdict] - verdictRank[b.readiness.verdict] || a.code.localeCompare(b.code));
+
+      const { totals } = summary;
+      const types = summary.types.map(presentStockType);
+      return {
+        counts: {
+          lots: lots.total,
+          tanks: counts.tanks,
+          housings: counts.housings,
+          housingsWithFreeRounds: counts.housingsWithFreeRounds,
+          cartridgeTypes: summary.types.length,
+          cartridges: totals.inStock.count + totals.installed.count + totals.regenerating.count,
+          cartridgesInstalled: totals.installed.count,
+        },
+        lots: {
+          byVerdict,
+          attention: needLook.slice(0, TODAY_LOTS_MAX).map((l) => presentTodayLot(l, leadReason(l))),
+          attentionTotal: needLook.length,
+        },
+        cartridges: toLookAt,
+        stock: { types, shortfalls: types.filter((t) => t.shortfall).length },
+      };
+    },
+  };
+}
+export type TodayService = ReturnType<typeof createTodayService>;

@@ -1,0 +1,89 @@
+// The "Today" landing page: what needs a look this morning (metric/SI values; the client converts).
+import type { BudgetFactor, LimitingFactor } from '../engine/cartridge-life';
+import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
+import type { CartridgeStatus } from '../schemas/cartridges';
+import type { StockFigure } from './cartridges';
+
+/** A lot that is not ready, borderline, or has no verdict yet. */
+export type TodayLotDto = {
+  id: string;
+  code: string;
+  name: string;
+  style: WineStyle;
+  /** L */
+  volumeL: number;
+  verdict: ReadinessVerdict;
+  /** The reason that explains the verdict (the first one that is not a pass). */
+  reason: string;
+  /** When the latest lab result was sampled, or null when there is none. */
+  sampledAt: string | null;
+};
+
+/** What makes a cartridge worth a look, with the figure behind it. */
+export type TodayCartridgeFigure =
+  /** The latest integrity test failed (at = when it was made). */
+  | { kind: 'integrity-failed'; at: string }
+  /** The life forecast has ended for another reason (a budget used up, flow no longer recovers). */
+  | { kind: 'life-ended'; because: string }
+  /** Few care cycles left before the first limit. */
+  | { kind: 'cycles-left'; cyclesLeft: number; factor: LimitingFactor }
+  /** A rated budget mostly used. */
+  | { kind: 'budget-used'; factor: BudgetFactor; used: number; rated: number; fraction: number }
+  /** Flow recovered close to the type's floor. */
+  | { kind: 'flow-recovery'; latestPct: number; minPct: number };
+
+export type TodayCartridgeDto = {
+  id: string;
+  serial: string;
+  typeName: string;
+  status: CartridgeStatus;
+  housing: { id: string; name: string } | null;
+  position: number | null;
+  /** Plain words, e.g. "Latest integrity test failed". */
+  reason: string;
+  figure: TodayCartridgeFigure;
+  /** Further reasons of lower urgency, in plain words. */
+  alsoNoted: string[];
+};
+
+export type TodayStockTypeDto = {
+  typeId: string;
+  typeName: string;
+  kind: 'prefilter' | 'membrane';
+  ratingUm: number;
+  inStock: StockFigure;
+  installed: StockFigure;
+  regenerating: StockFigure;
+  /** Nothing of this type on the shelf. */
+  shortfall: boolean;
+};
+
+export type TodayDto = {
+  counts: {
+    lots: number;
+    tanks: number;
+    housings: number;
+    /** housings with at least one empty round */
+    housingsWithFreeRounds: number;
+    cartridgeTypes: number;
+    /** cartridges not retired */
+    cartridges: number;
+    cartridgesInstalled: number;
+  };
+  lots: {
+    byVerdict: Record<ReadinessVerdict, number>;
+    /** Most urgent first, at most 8. */
+    attention: TodayLotDto[];
+    /** All lots that need attention (attention may be cut short). */
+    attentionTotal: number;
+  };
+  cartridges: {
+    /** Most urgent first, at most 10. */
+    attention: TodayCartridgeDto[];
+    attentionTotal: number;
+  };
+  stock: {
+    types: TodayStockTypeDto[];
+    shortfalls: number;
+  };
+};

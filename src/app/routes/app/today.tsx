@@ -1,0 +1,5 @@
+import { TodayPage } from '@/features/today/components/today-page';
+
+export default function TodayRoute() {
+  return <TodayPage />;
+}

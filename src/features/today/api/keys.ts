@@ -1,0 +1,4 @@
+export const todayKeys = {
+  all: ['today'] as const,
+  detail: () => [...todayKeys.all, 'detail'] as const,
+};
