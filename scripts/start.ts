@@ -19,6 +19,8 @@ async function main() {
   await runSeed(process.env.DATABASE_URL!);
   const dev = process.argv.includes('--dev');
   if (!dev) buildClientIfChanged();
+  // The Vite dev server's address must pass the API's Host and Origin checks.
+  if (dev) process.env.ALLOWED_ORIGINS = [process.env.ALLOWED_ORIGINS, 'http://127.0.0.1:5173', 'http://localhost:5173'].filter(Boolean).join(',');
 
   const running = await startServer(parseEnv(process.env));
   // --dev: Vite's dev server with hot reload in front, proxying /api to the server above.

@@ -11,7 +11,7 @@ import type { Storage } from './lib/storage';
 import { logger } from './lib/logger';
 import { authenticate } from './middleware/authenticate';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
-import { originCheck } from './middleware/origin-check';
+import { hostCheck, originCheck } from './middleware/origin-check';
 import { createAuthRateLimits } from './middleware/rate-limit';
 import { accountRoutes } from './modules/account/account.routes';
 import { createAccountService } from './modules/account/account.service';
@@ -39,6 +39,8 @@ export type AppConfig = {
   secureCookies: boolean;
   /** Multiplies the auth rate limits (1 in production). */
   rateLimitScale: number;
+  /** Express "trust proxy" (behind a reverse proxy the client address comes from X-Forwarded-For). */
+  trustProxy?: string;
   /** Folder with the built client to serve, if any. */
   clientDir?: string;
   logRequests: boolean;
@@ -60,7 +62,7 @@ export function createApp(deps: AppDeps): Express {
   const auth = createAuth(db, { secureCookies: config.secureCookies });
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', false);
+  app.set('trust proxy', parseTrustProxy(config.trustProxy));
 
   app.use(
     helmet({
@@ -79,6 +81,7 @@ export function createApp(deps: AppDeps): Express {
 
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT }));
+  api.use(hostCheck([config.appUrl, ...config.allowedOrigins]));
   api.use(originCheck([config.appUrl, ...config.allowedOrigins]));
   api.use(authenticate(auth));
   api.use((_req, res, next) => {
@@ -120,6 +123,13 @@ export function createApp(deps: AppDeps): Express {
 
   app.use(errorHandler);
   return app;
+}
+
+function parseTrustProxy(value: string | undefined): boolean | number | string {
+  if (!value) return false;
+  if (/^\d+$/.test(value)) return Number(value);
+  if (value === 'true' || value === 'false') return value === 'true';
+  return value;
 }
 
 function noCacheForHtml(res: import('express').Response, path: string) {

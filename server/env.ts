@@ -14,6 +14,10 @@ const envSchema = z.object({
   ALLOWED_ORIGINS: z.string().optional(),
   SECURE_COOKIES: bool,
   RATE_LIMIT_SCALE: z.coerce.number().positive().default(1),
+  /** Express "trust proxy" setting when behind a reverse proxy (e.g. 1, or loopback). */
+  TRUST_PROXY: z.string().optional(),
+  /** Allow the development mail outbox on a non-loopback address (never in production). */
+  DEV_MAIL_OUTBOX: bool,
   SMTP_HOST: z.string().optional(),
   SMTP_PORT: z.coerce.number().int().positive().default(587),
   SMTP_SECURE: bool,
@@ -29,7 +33,7 @@ const envSchema = z.object({
   CLIENT_DIR: z.string().default('dist/client'),
 });
 
-export type Env = z.infer<typeof envSchema> & { appUrl: string; secureCookies: boolean; allowedOrigins: string[] };
+export type Env = z.infer<typeof envSchema> & { appUrl: string; secureCookies: boolean; allowedOrigins: string[]; loopbackOnly: boolean };
 
 /** Parses process.env once, with clear messages for anything missing or malformed. */
 export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
@@ -48,5 +52,6 @@ export function parseEnv(source: NodeJS.ProcessEnv = process.env): Env {
   }
   const allowedOrigins = (env.ALLOWED_ORIGINS ?? '').split(',').map((s) => s.trim()).filter(Boolean);
   if (local) allowedOrigins.push(appUrl.replace('127.0.0.1', 'localhost'), appUrl.replace('localhost', '127.0.0.1'));
-  return { ...env, appUrl, secureCookies: env.SECURE_COOKIES ?? !local, allowedOrigins };
+  const loopbackOnly = local && ['127.0.0.1', 'localhost', '::1'].includes(env.HOST);
+  return { ...env, appUrl, secureCookies: env.SECURE_COOKIES ?? !local, allowedOrigins, loopbackOnly };
 }

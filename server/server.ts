@@ -18,7 +18,13 @@ export async function startServer(env: Env) {
   let fakeSmtp: FakeSmtp | undefined;
   let fakeS3: FakeS3 | undefined;
 
-  if (!env.SMTP_HOST) fakeSmtp = await startFakeSmtp();
+  if (!env.SMTP_HOST) {
+    // The outbox shows every message, reset links included: only on a machine nobody else can reach.
+    if (!env.loopbackOnly && !env.DEV_MAIL_OUTBOX) {
+      throw new Error('SMTP_HOST is not set and the server is reachable beyond this machine: set SMTP_HOST (or DEV_MAIL_OUTBOX=true for a trusted test network).');
+    }
+    fakeSmtp = await startFakeSmtp();
+  }
   const mailer = createSmtpMailer(
     fakeSmtp
       ? { host: '127.0.0.1', port: fakeSmtp.port, from: env.MAIL_FROM }
@@ -45,6 +51,7 @@ export async function startServer(env: Env) {
       allowedOrigins: env.allowedOrigins,
       secureCookies: env.secureCookies,
       rateLimitScale: env.RATE_LIMIT_SCALE,
+      trustProxy: env.TRUST_PROXY,
       clientDir: resolve(env.CLIENT_DIR),
       logRequests: env.NODE_ENV !== 'test',
     },

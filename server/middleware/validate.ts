@@ -12,7 +12,21 @@ export function zodFieldMessages(error: ZodError): Record<string, string> {
   return fields;
 }
 
+/** The path of the first string holding a NUL character (PostgreSQL text cannot store it). */
+function nulPath(value: unknown, path: string[] = []): string[] | null {
+  if (typeof value === 'string') return value.includes('\u0000') ? path : null;
+  if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) {
+      const found = nulPath(v, [...path, k]);
+      if (found) return found;
+    }
+  }
+  return null;
+}
+
 export function parseOrThrow<S extends ZodType>(schema: S, value: unknown): z.output<S> {
+  const nul = nulPath(value);
+  if (nul) throw badRequest('Check the highlighted fields.', { [nul.join('.') || '_']: 'Remove the control character (NUL) from this text.' });
   const result = schema.safeParse(value);
   if (!result.success) throw badRequest('Check the highlighted fields.', zodFieldMessages(result.error));
   return result.data;

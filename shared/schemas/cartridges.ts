@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { uuidSchema } from './common';
+import { uuidSchema, yearInRange, yearRangeMessage } from './common';
 import { listQuerySchema } from './list';
 
 export const CARTRIDGE_LENGTHS_IN = [10, 20, 30, 40] as const;
@@ -33,7 +33,8 @@ export const isoDateSchema = z
       return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v;
     },
     { error: 'That date does not exist.' },
-  );
+  )
+  .refine(yearInRange, { error: yearRangeMessage });
 
 export const serialSchema = z
   .string({ error: 'Enter the serial number.' })

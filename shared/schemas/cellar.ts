@@ -1,6 +1,7 @@
 // Request schemas of the cellar: tanks, wine lots and their lab results. Values are metric/SI
 // (L, °C, bar, mm); the client converts from the person's units before validating with these.
 import { z } from 'zod';
+import { yearInRange, yearRangeMessage } from './common';
 import { WINE_STYLES, type WineStyle } from '../engine/readiness';
 import { listQuerySchema } from './list';
 
@@ -127,7 +128,7 @@ export const discPointSchema = z.object({
 
 export const labResultInputSchema = z
   .object({
-    sampledAt: z.iso.datetime({ offset: true, error: 'Enter when the sample was taken.' }),
+    sampledAt: z.iso.datetime({ offset: true, error: 'Enter when the sample was taken.' }).refine(yearInRange, { error: yearRangeMessage }),
     turbidityNtu: optionalNum('the turbidity')
         .min(0, { error: 'Turbidity cannot be negative.' })
         .max(TURBIDITY_MAX_NTU, { error: `Turbidity is at most ${TURBIDITY_MAX_NTU} NTU.` })

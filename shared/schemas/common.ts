@@ -32,3 +32,12 @@ export const uuidSchema = z.uuid({ error: 'Not a valid id.' });
 export const unitSystems = ['metric', 'us'] as const;
 export const unitSystemSchema = z.enum(unitSystems, { error: 'Choose metric or US customary units.' });
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
+
+/** Dates Porewise accepts: a plausible working range (PostgreSQL has no year 0, and typos like 0202 are caught). */
+export const DATE_YEAR_MIN = 1900;
+export const DATE_YEAR_MAX = 2200;
+export const yearInRange = (iso: string) => {
+  const year = Number(iso.slice(0, 4));
+  return year >= DATE_YEAR_MIN && year <= DATE_YEAR_MAX;
+};
+export const yearRangeMessage = `Use a year between ${DATE_YEAR_MIN} and ${DATE_YEAR_MAX}.`;

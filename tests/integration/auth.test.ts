@@ -166,3 +166,18 @@ describe('password reset', () => {
     expect(rows[0].tokenHash).toMatch(/^[0-9a-f]{64}$/);
   });
 });
+
+describe('password reset links', () => {
+  it('using one link ends the other open links of the same person', async () => {
+    const { email } = await signUp(app.baseUrl);
+    const tokens: string[] = [];
+    for (let i = 0; i < 2; i += 1) {
+      const before = app.mail.messages.length;
+      await new Client(app.baseUrl).post('/api/auth/password-reset/request', { email });
+      const mail = await app.mail.waitFor(email, { after: before });
+      tokens.push(new URL(linkFrom(mail.text, '/reset-password')).searchParams.get('token')!);
+    }
+    expect((await new Client(app.baseUrl).post('/api/auth/password-reset/confirm', { token: tokens[1], password: 'first-new-password' })).status).toBe(200);
+    expect((await new Client(app.baseUrl).post('/api/auth/password-reset/confirm', { token: tokens[0], password: 'second-new-password' })).status).toBe(410);
+  });
+});

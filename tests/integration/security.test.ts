@@ -1,4 +1,5 @@
 // @vitest-environment node
+import { request as httpRequest } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Client, signUp, startTestApp, TEST_PASSWORD, uniqueEmail, type TestApp } from '../support/test-app';
 
@@ -67,6 +68,38 @@ describe('origin check', () => {
   });
 });
 
+describe('host check (DNS rebinding)', () => {
+  /** node:http lets a test set the Host header, which fetch does not. */
+  function rawRequest(method: string, path: string, headers: Record<string, string>, body?: string) {
+    const url = new URL(app.baseUrl);
+    return new Promise<{ status: number; body: string }>((resolve, reject) => {
+      const req = httpRequest({ host: url.hostname, port: url.port, method, path, headers }, (res) => {
+        let data = '';
+        res.on('data', (c) => (data += c));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body: data }));
+      });
+      req.on('error', reject);
+      req.end(body);
+    });
+  }
+
+  it('refuses an API request addressed to another host name, even with a matching Origin', async () => {
+    const res = await rawRequest(
+      'POST',
+      '/api/auth/sign-up',
+      { host: `rebind.example:${new URL(app.baseUrl).port}`, origin: `http://rebind.example:${new URL(app.baseUrl).port}`, 'content-type': 'application/json' },
+      JSON.stringify({ name: 'X', email: uniqueEmail(), password: TEST_PASSWORD, wineryName: 'W' }),
+    );
+    expect(res.status).toBe(421);
+    expect(JSON.parse(res.body).error.code).toBe('bad_host');
+  });
+
+  it('refuses reads for another host name too (the mail outbox included)', async () => {
+    const res = await rawRequest('GET', '/api/dev/outbox', { host: 'rebind.example' });
+    expect(res.status).toBe(421);
+  });
+});
+
 describe('headers', () => {
   it('sends a content security policy and nosniff', async () => {
     const res = await new Client(app.baseUrl).get('/api/health');
@@ -96,5 +129,14 @@ describe('rate limits', () => {
     for (let i = 0; i < 6; i += 1) statuses.push((await new Client(app.baseUrl).post('/api/auth/password-reset/request', { email })).status);
     expect(statuses.slice(0, 5)).toEqual(Array(5).fill(202));
     expect(statuses[5]).toBe(429);
+  });
+});
+
+describe('input that PostgreSQL would refuse', () => {
+  it('a NUL character in text is a 400 with the field named', async () => {
+    const { client } = await signUp(app.baseUrl);
+    const res = await client.put('/api/me', { name: 'Ada\u0000' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.name).toMatch(/NUL/);
   });
 });

@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { ATTACHMENT_MAX_BYTES, attachmentOwnerSchema } from '../../../shared/schemas/attachments';
 import { badRequest } from '../../lib/errors';
@@ -9,7 +9,16 @@ import { parseOrThrow } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createAttachmentsService } from './attachments.service';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: ATTACHMENT_MAX_BYTES, files: 1, fields: 5 } });
+const multerUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: ATTACHMENT_MAX_BYTES, files: 1, fields: 5 } }).single('file');
+
+/** One file in the field "file"; a malformed multipart body is the sender's error (400), not ours. */
+const upload: RequestHandler = (req, res, next) => {
+  multerUpload(req, res, (err: unknown) => {
+    if (!err) return next();
+    if (err instanceof multer.MulterError) return next(err);
+    next(badRequest('The upload is not in the expected form (one file in the field “file”).'));
+  });
+};
 
 export function attachmentsRoutes({ db, storage }: ModuleDeps) {
   const router = Router();
@@ -20,7 +29,7 @@ export function attachmentsRoutes({ db, storage }: ModuleDeps) {
     res.json({ items: await service.list(tenantOf(res), owner) });
   });
 
-  router.post('/attachments', requireSignedIn, authorize(db, 'attachments:upload'), upload.single('file'), async (req, res) => {
+  router.post('/attachments', requireSignedIn, authorize(db, 'attachments:upload'), upload, async (req, res) => {
     const owner = parseOrThrow(attachmentOwnerSchema, req.body ?? {});
     if (!req.file) throw badRequest('Choose a file to attach.', { file: 'Choose a file to attach.' });
     // Browsers send multipart file names as latin1; recover UTF-8 names.

@@ -33,6 +33,13 @@ export function createAuthRepository(db: DbOrTx) {
     async insertPasswordReset(r: { tokenHash: string; userId: string; expiresAt: Date }) {
       await db.insert(passwordResetsTable).values(r);
     },
+    /** Ends every other reset link of the person (after one was used). */
+    async revokeOpenPasswordResets(userId: string, now: Date) {
+      await db
+        .update(passwordResetsTable)
+        .set({ usedAt: now })
+        .where(and(eq(passwordResetsTable.userId, userId), isNull(passwordResetsTable.usedAt)));
+    },
     /** Marks a valid, unused, unexpired reset token as used and returns its user, atomically. */
     async consumePasswordReset(tokenHash: string, now: Date) {
       const [row] = await db

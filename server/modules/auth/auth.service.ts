@@ -73,6 +73,7 @@ export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
         const reset = await txRepo.consumePasswordReset(tokenHash, now);
         if (!reset) throw gone('This reset link has expired or was already used. Ask for a new one.');
         await txRepo.setPassword(reset.userId, passwordHash);
+        await txRepo.revokeOpenPasswordResets(reset.userId, now);
         return reset.userId;
       });
       await auth.invalidateUserSessions(userId);

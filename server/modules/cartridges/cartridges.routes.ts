@@ -21,6 +21,15 @@ import { createCartridgesService } from './cartridges.service';
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: IMPORT_MAX_BYTES, files: 1, fields: 10 } });
 const csvText = express.text({ type: ['text/csv', 'text/plain', 'application/csv', 'application/vnd.ms-excel'], limit: IMPORT_MAX_BYTES });
 
+/** CSV bytes as text: UTF-8, or Windows-1252 (what spreadsheet programs in Europe often save). */
+function decodeCsv(bytes: Uint8Array): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return new TextDecoder('windows-1252').decode(bytes);
+  }
+}
+
 /** The delivery file: multipart field "file", or the CSV itself as a text/csv body. */
 const readCsv: RequestHandler = (req, res, next) => {
   upload.single('file')(req, res, (err: unknown) => {
@@ -28,9 +37,9 @@ const readCsv: RequestHandler = (req, res, next) => {
       if (err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `The file is larger than ${IMPORT_MAX_BYTES / 1024 / 1024} MB. Split the delivery into smaller files.`));
       return next(badRequest(`Send the delivery list as one file in the field "file" (${err.message}).`));
     }
-    if (err) return next(err);
+    if (err) return next(err instanceof HttpError ? err : badRequest('The upload is not in the expected form (one CSV file in the field "file").'));
     if (req.file) {
-      res.locals.csv = req.file.buffer.toString('utf8');
+      res.locals.csv = decodeCsv(req.file.buffer);
       return next();
     }
     csvText(req, res, (textErr: unknown) => {
