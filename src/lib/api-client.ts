@@ -39,6 +39,12 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
         throw new ApiError(0, 'offline', 'Porewise cannot be reached. Check the connection and try again.');
       }
       await new Promise((r) => setTimeout(r, 400 * (attempt + 1)));
+      continue;
+    }
+    // The first copy of this request is still running on the server: wait for its answer.
+    if (res.status === 409 && attempt < NETWORK_RETRIES + 3 && (await res.clone().json().catch(() => null))?.error?.code === 'request_in_progress') {
+      res = null;
+      await new Promise((r) => setTimeout(r, 500));
     }
   }
   if (res.status === 204) return undefined as T;
