@@ -57,6 +57,7 @@ export type AttachmentDto = {
   contentType: string;
   sizeBytes: number;
   uploadedBy: string | null;
+  uploadedById: string | null;
   createdAt: string;
   downloadUrl: string;
 };

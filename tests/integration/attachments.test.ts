@@ -85,9 +85,14 @@ describe('attachments', () => {
     expect((await auditor.client.request('GET', list.body.items[0].downloadUrl)).status).toBe(200);
   });
 
-  it('a technician may attach files', async () => {
+  it('a technician may attach files and delete only the ones they attached', async () => {
     const tech = await addMember(app, owner, 'technician');
-    expect((await upload(tech.client, { ownerKind: 'lot', ownerId: lotId }, { name: 'b.pdf', bytes: pdf })).status).toBe(201);
+    const mine = await upload(tech.client, { ownerKind: 'lot', ownerId: lotId }, { name: 'b.pdf', bytes: pdf });
+    expect(mine.status).toBe(201);
+    expect(mine.body.uploadedById).toBe(tech.userId);
+    const ownersFile = await upload(owner, { ownerKind: 'lot', ownerId: lotId }, { name: 'owners.pdf', bytes: pdf });
+    expect((await tech.client.delete(`/api/attachments/${ownersFile.body.id}`)).status).toBe(403);
+    expect((await tech.client.delete(`/api/attachments/${mine.body.id}`)).status).toBe(204);
   });
 
   it('another winery gets 404 for the file, its list and its owner record', async () => {

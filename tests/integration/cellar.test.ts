@@ -72,7 +72,7 @@ describe('tanks', () => {
 });
 
 describe('roles', () => {
-  it.each(['cellar-master', 'winemaker'] as const)('%s may create, update and delete tanks, lots and lab results', async (role) => {
+  it.each(['cellar-master', 'winemaker'] as const)('%s may create and update tanks, lots and lab results; deleting is the owner’s', async (role) => {
     const c = members[role];
     const tank = await createTank(c);
     expect((await c.put(`/api/tanks/${tank.id}`, tankBody({ name: `${tank.name} (b)` }))).status).toBe(200);
@@ -80,9 +80,12 @@ describe('roles', () => {
     expect((await c.put(`/api/lots/${lot.id}`, lotBody({ code: lot.code, name: 'Renamed' }))).status).toBe(200);
     const result = await createLabResult(c, lot.id);
     expect((await c.put(`/api/lots/${lot.id}/lab-results/${result.id}`, labResultBody({ turbidityNtu: 0.4 }))).status).toBe(200);
-    expect((await c.delete(`/api/lots/${lot.id}/lab-results/${result.id}`)).status).toBe(204);
-    expect((await c.delete(`/api/lots/${lot.id}`)).status).toBe(204);
-    expect((await c.delete(`/api/tanks/${tank.id}`)).status).toBe(204);
+    expect((await c.delete(`/api/lots/${lot.id}/lab-results/${result.id}`)).status).toBe(403);
+    expect((await c.delete(`/api/lots/${lot.id}`)).status).toBe(403);
+    expect((await c.delete(`/api/tanks/${tank.id}`)).status).toBe(403);
+    expect((await owner.delete(`/api/lots/${lot.id}/lab-results/${result.id}`)).status).toBe(204);
+    expect((await owner.delete(`/api/lots/${lot.id}`)).status).toBe(204);
+    expect((await owner.delete(`/api/tanks/${tank.id}`)).status).toBe(204);
   });
 
   it.each(['technician', 'auditor'] as const)('%s reads everything (200) and may change nothing (403)', async (role) => {

@@ -28,6 +28,7 @@ const columns = {
   sizeBytes: attachmentsTable.sizeBytes,
   storageKey: attachmentsTable.storageKey,
   uploadedBy: usersTable.name,
+  uploadedById: attachmentsTable.uploadedBy,
   createdAt: attachmentsTable.createdAt,
 };
 

@@ -2,7 +2,8 @@ import { randomUUID } from 'node:crypto';
 import type { AttachmentOwner } from '../../../shared/schemas/attachments';
 import type { AttachmentDto } from '../../../shared/types/api';
 import type { Database } from '../../db/client';
-import { badRequest, notFound } from '../../lib/errors';
+import { can } from '../../../shared/permissions';
+import { badRequest, forbidden, notFound } from '../../lib/errors';
 import type { Storage } from '../../lib/storage';
 import type { TenantContext } from '../../middleware/authorize';
 import { createAttachmentsRepository, type AttachmentRow } from './attachments.repository';
@@ -17,6 +18,7 @@ export function presentAttachment(row: AttachmentRow): AttachmentDto {
     contentType: row.contentType,
     sizeBytes: row.sizeBytes,
     uploadedBy: row.uploadedBy,
+    uploadedById: row.uploadedById,
     createdAt: row.createdAt.toISOString(),
     downloadUrl: `/api/attachments/${row.id}/download`,
   };
@@ -72,6 +74,10 @@ export function createAttachmentsService({ db, storage }: { db: Database; storag
     async remove(tenant: TenantContext, id: string) {
       const row = await repo.find(tenant.wineryId, id);
       if (!row) throw notFound('Attachment');
+      // Files are part of the record: the owner may remove any, others only what they attached themselves.
+      if (!can(tenant.role, 'records:delete') && row.uploadedById !== tenant.userId) {
+        throw forbidden('Only the person who attached this file, or the owner, can delete it.');
+      }
       await repo.remove(tenant.wineryId, id);
       await storage.remove(row.storageKey).catch(() => undefined);
     },

@@ -15,6 +15,8 @@ export function cellarRoutes({ db }: ModuleDeps) {
   const read = [requireSignedIn, authorize(db, 'cellar:read')];
   const edit = [requireSignedIn, authorize(db, 'cellar:edit')];
   const editLab = [requireSignedIn, authorize(db, 'lab-results:edit')];
+  // Deleting records is the owner's (roles table); the others correct records by editing them.
+  const remove = [requireSignedIn, authorize(db, 'records:delete')];
   const tankId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'id', 'Tank');
   const lotId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'id', 'Lot');
   const resultId = (req: Parameters<typeof idParam>[0]) => idParam(req, 'resultId', 'Lab result');
@@ -32,7 +34,7 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.put('/tanks/:id', ...edit, validateBody(tankInputSchema), async (req, res) => {
     res.json(await service.updateTank(tenantOf(res), tankId(req), res.locals.body));
   });
-  router.delete('/tanks/:id', ...edit, async (req, res) => {
+  router.delete('/tanks/:id', ...remove, async (req, res) => {
     await service.deleteTank(tenantOf(res), tankId(req));
     res.status(204).end();
   });
@@ -50,7 +52,7 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.put('/lots/:id', ...edit, validateBody(lotInputSchema), async (req, res) => {
     res.json(await service.updateLot(tenantOf(res), lotId(req), res.locals.body));
   });
-  router.delete('/lots/:id', ...edit, async (req, res) => {
+  router.delete('/lots/:id', ...remove, async (req, res) => {
     await service.deleteLot(tenantOf(res), lotId(req));
     res.status(204).end();
   });
@@ -68,7 +70,7 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.put('/lots/:id/lab-results/:resultId', ...editLab, validateBody(labResultInputSchema), async (req, res) => {
     res.json(await service.updateLabResult(tenantOf(res), lotId(req), resultId(req), res.locals.body));
   });
-  router.delete('/lots/:id/lab-results/:resultId', ...editLab, async (req, res) => {
+  router.delete('/lots/:id/lab-results/:resultId', ...remove, async (req, res) => {
     await service.deleteLabResult(tenantOf(res), lotId(req), resultId(req));
     res.status(204).end();
   });

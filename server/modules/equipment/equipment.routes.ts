@@ -27,6 +27,8 @@ export function equipmentRoutes({ db }: ModuleDeps) {
   const service = createEquipmentService(db);
   const read = [requireSignedIn, authorize(db, 'equipment:read')];
   const edit = [requireSignedIn, authorize(db, 'equipment:edit')];
+  // Deleting records is the owner's (roles table).
+  const remove = [requireSignedIn, authorize(db, 'records:delete')];
 
   // ---- housings ---------------------------------------------------------------------
   router.get('/housings', ...read, validateQuery(housingListQuerySchema), async (_req, res) => {
@@ -41,7 +43,7 @@ export function equipmentRoutes({ db }: ModuleDeps) {
   router.patch('/housings/:id', ...edit, validateBody(updateHousingInputSchema), async (req, res) => {
     res.json(await service.updateHousing(tenantOf(res), idParam(req, 'id', 'Housing'), res.locals.body));
   });
-  router.delete('/housings/:id', ...edit, async (req, res) => {
+  router.delete('/housings/:id', ...remove, async (req, res) => {
     await service.deleteHousing(tenantOf(res), idParam(req, 'id', 'Housing'));
     res.status(204).end();
   });
@@ -59,7 +61,7 @@ export function equipmentRoutes({ db }: ModuleDeps) {
   router.patch('/lines/:id', ...edit, validateBody(updateLineInputSchema), async (req, res) => {
     res.json(await service.updateLine(tenantOf(res), idParam(req, 'id', 'Bottling line'), res.locals.body));
   });
-  router.delete('/lines/:id', ...edit, async (req, res) => {
+  router.delete('/lines/:id', ...remove, async (req, res) => {
     await service.deleteLine(tenantOf(res), idParam(req, 'id', 'Bottling line'));
     res.status(204).end();
   });
@@ -77,7 +79,7 @@ export function equipmentRoutes({ db }: ModuleDeps) {
   router.patch('/cartridge-types/:id', ...edit, validateBody(updateCartridgeTypeInputSchema), async (req, res) => {
     res.json(await service.updateCartridgeType(tenantOf(res), idParam(req, 'id', 'Cartridge type'), res.locals.body));
   });
-  router.delete('/cartridge-types/:id', ...edit, async (req, res) => {
+  router.delete('/cartridge-types/:id', ...remove, async (req, res) => {
     await service.deleteCartridgeType(tenantOf(res), idParam(req, 'id', 'Cartridge type'));
     res.status(204).end();
   });

@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
-import { useCan } from '@/lib/session';
+import { useCan, useMe } from '@/lib/session';
 import { useAttachments, useDeleteAttachment, useUploadAttachment } from './use-attachments';
 
 function sizeLabel(bytes: number) {
@@ -22,6 +22,8 @@ export function AttachmentPanel({ ownerKind, ownerId, title = 'Attachments' }: {
   const uploadFile = useUploadAttachment(owner);
   const remove = useDeleteAttachment(owner);
   const mayUpload = useCan('attachments:upload');
+  const mayDeleteAny = useCan('records:delete');
+  const me = useMe().data;
   const toast = useToast();
   const input = useRef<HTMLInputElement>(null);
 
@@ -68,7 +70,7 @@ export function AttachmentPanel({ ownerKind, ownerId, title = 'Attachments' }: {
               <span className="hidden text-sm text-ink-600 sm:inline">
                 {sizeLabel(a.sizeBytes)} · {a.uploadedBy ?? 'unknown'} · {format(new Date(a.createdAt), 'd MMM yyyy')}
               </span>
-              {mayUpload ? (
+              {mayDeleteAny || (mayUpload && a.uploadedById === me?.user.id) ? (
                 <Button variant="ghost" size="sm" aria-label={`Delete ${a.fileName}`} icon={<Trash2 aria-hidden="true" className="size-4" />} onClick={() => remove.mutate(a.id)} />
               ) : null}
             </li>

@@ -37,11 +37,13 @@ function DiscCell({ disc }: { disc: LabResultDto['disc'] }) {
 export function LabResultsTable({
   results,
   mayEdit,
+  mayDelete,
   onEdit,
   onDelete,
 }: {
   results: LabResultDto[];
   mayEdit: boolean;
+  mayDelete: boolean;
   onEdit: (r: LabResultDto) => void;
   onDelete: (r: LabResultDto) => void;
 }) {
@@ -103,16 +105,18 @@ export function LabResultsTable({
                   <Button variant="ghost" size="sm" onClick={() => onEdit(row.original)}>
                     Edit
                   </Button>
-                  <Button variant="ghost" size="sm" onClick={() => onDelete(row.original)}>
-                    Delete
-                  </Button>
+                  {mayDelete ? (
+                    <Button variant="ghost" size="sm" onClick={() => onDelete(row.original)}>
+                      Delete
+                    </Button>
+                  ) : null}
                 </div>
               ),
             } satisfies ColumnDef<LabResultDto>,
           ]
         : []),
     ],
-    [mayEdit, onEdit, onDelete],
+    [mayEdit, mayDelete, onEdit, onDelete],
   );
   return (
     <>

@@ -71,6 +71,7 @@ export function LotPage({ lotId }: { lotId: string }) {
   const results = useLabResults(lotId);
   const mayEditLot = useCan('cellar:edit');
   const mayEditResults = useCan('lab-results:edit');
+  const mayDelete = useCan('records:delete');
   const deleteLot = useDeleteLot();
   const deleteResult = useDeleteLabResult();
   const toast = useToast();
@@ -131,9 +132,11 @@ export function LotPage({ lotId }: { lotId: string }) {
                 <Button variant="secondary" icon={<Pencil aria-hidden="true" className="size-4" />} onClick={() => setEditingLot(true)}>
                   Edit lot
                 </Button>
-                <Button variant="secondary" icon={<Trash2 aria-hidden="true" className="size-4" />} onClick={() => setDeletingLot(true)}>
-                  Delete lot
-                </Button>
+                {mayDelete ? (
+                  <Button variant="secondary" icon={<Trash2 aria-hidden="true" className="size-4" />} onClick={() => setDeletingLot(true)}>
+                    Delete lot
+                  </Button>
+                ) : null}
               </>
             ) : null}
           </>
@@ -159,7 +162,7 @@ export function LotPage({ lotId }: { lotId: string }) {
         ) : (
           <div className="flex flex-col gap-4">
             <LabResultsChart results={results.data.items} thresholds={l.thresholds} />
-            <LabResultsTable results={results.data.items} mayEdit={mayEditResults} onEdit={onEditResult} onDelete={onDeleteResult} />
+            <LabResultsTable results={results.data.items} mayEdit={mayEditResults} mayDelete={mayDelete} onEdit={onEditResult} onDelete={onDeleteResult} />
           </div>
         )}
       </Card>

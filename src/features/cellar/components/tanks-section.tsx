@@ -19,6 +19,7 @@ import { TankFormDialog } from './tank-form-dialog';
 export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
   const tanks = useTanks({ pageSize: 100, sort: 'name' });
   const mayEdit = useCan('cellar:edit');
+  const mayDelete = useCan('records:delete');
   const remove = useDeleteTank();
   const toast = useToast();
   const [editing, setEditing] = useState<TankDto | null>(null);
@@ -41,16 +42,18 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
                   <Button variant="ghost" size="sm" onClick={() => setEditing(row.original)} aria-label={`Edit ${row.original.name}`}>
                     Edit
                   </Button>
-                  <Button variant="ghost" size="sm" onClick={() => setDeleting(row.original)} aria-label={`Delete ${row.original.name}`}>
+                  {mayDelete ? (
+<Button variant="ghost" size="sm" onClick={() => setDeleting(row.original)} aria-label={`Delete ${row.original.name}`}>
                     Delete
                   </Button>
+) : null}
                 </div>
               ),
             } satisfies ColumnDef<TankDto>,
           ]
         : []),
     ],
-    [mayEdit],
+    [mayEdit, mayDelete],
   );
 
   return (

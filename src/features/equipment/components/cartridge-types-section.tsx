@@ -24,6 +24,7 @@ import { Measured } from './measured';
 
 export function CartridgeTypesSection() {
   const mayEdit = useCan('equipment:edit');
+  const mayDelete = useCan('records:delete');
   const units = useUnits();
   const list = useListState<CartridgeTypeSortKey>('name');
   const [kind, setKind] = useState<CartridgeKind | ''>('');
@@ -111,16 +112,18 @@ export function CartridgeTypesSection() {
                   <Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Edit ${row.original.name}`} title="Edit" onClick={() => setEditing(row.original)}>
                     <Pencil aria-hidden="true" />
                   </Button>
-                  <Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Delete ${row.original.name}`} title="Delete" onClick={() => setDeleting(row.original)}>
+                  {mayDelete ? (
+<Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Delete ${row.original.name}`} title="Delete" onClick={() => setDeleting(row.original)}>
                     <Trash2 aria-hidden="true" />
                   </Button>
+) : null}
                 </div>
               ),
             } satisfies ColumnDef<CartridgeTypeDto>,
           ]
         : []),
     ],
-    [mayEdit, units],
+    [mayEdit, units, mayDelete],
   );
 
   const addButton = mayEdit ? (

@@ -21,6 +21,7 @@ import { SearchBox, useListState } from './list-toolbar';
 
 export function HousingsSection() {
   const mayEdit = useCan('equipment:edit');
+  const mayDelete = useCan('records:delete');
   const units = useUnits();
   const list = useListState<HousingSortKey>('name');
   const housings = useHousings(list.params);
@@ -72,16 +73,18 @@ export function HousingsSection() {
                   <Button variant="ghost" size="sm" icon={<Pencil />} aria-label={`Edit ${row.original.name}`} onClick={() => setEditing(row.original)}>
                     Edit
                   </Button>
-                  <Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
+                  {mayDelete ? (
+<Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
                     Delete
                   </Button>
+) : null}
                 </div>
               ),
             } satisfies ColumnDef<HousingDto>,
           ]
         : []),
     ],
-    [mayEdit, units],
+    [mayEdit, units, mayDelete],
   );
 
   const addButton = mayEdit ? (

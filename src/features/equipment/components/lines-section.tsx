@@ -21,6 +21,7 @@ import { Measured } from './measured';
 
 export function LinesSection() {
   const mayEdit = useCan('equipment:edit');
+  const mayDelete = useCan('records:delete');
   const units = useUnits();
   const list = useListState<LineSortKey>('name');
   const lines = useLines(list.params);
@@ -66,16 +67,18 @@ export function LinesSection() {
                   <Button variant="ghost" size="sm" icon={<Pencil />} aria-label={`Edit ${row.original.name}`} onClick={() => setEditing(row.original)}>
                     Edit
                   </Button>
-                  <Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
+                  {mayDelete ? (
+<Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
                     Delete
                   </Button>
+) : null}
                 </div>
               ),
             } satisfies ColumnDef<LineDto>,
           ]
         : []),
     ],
-    [mayEdit, units],
+    [mayEdit, units, mayDelete],
   );
 
   const addButton = mayEdit ? (
