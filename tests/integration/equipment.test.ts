@@ -31,7 +31,7 @@ const resources = [
 ] as const;
 
 /** Puts a cartridge row straight into the database (the cartridge module's own routes are not needed here). */
-async function insertCartridge(values: { typeId: string; housingId?: string | null; status?: 'in-stock' | 'installed' | 'regenerating' | 'retired' }) {
+async function insertCartridge(values: { typeId: string; housingId?: string | null; position?: number; status?: 'in-stock' | 'installed' | 'regenerating' | 'retired' }) {
   const [row] = await app.db
     .insert(cartridgesTable)
     .values({
@@ -41,7 +41,7 @@ async function insertCartridge(values: { typeId: string; housingId?: string | nu
       lengthIn: 30,
       status: values.status ?? 'installed',
       housingId: values.housingId ?? null,
-      position: values.housingId ? 1 : null,
+      position: values.housingId ? (values.position ?? 1) : null,
     })
     .returning({ id: cartridgesTable.id });
   return row.id;
@@ -125,6 +125,16 @@ describe('housings', () => {
     await app.db.delete(cartridgesTable).where(eq(cartridgesTable.id, cartridgeId));
     expect((await owner.get(`/api/housings/${housing.id}`)).body.installedCount).toBe(0);
     expect((await owner.delete(`/api/housings/${housing.id}`)).status).toBe(204);
+  });
+
+  it('refuses to cut the rounds below a round that holds a cartridge', async () => {
+    const housing = await createHousing(owner, { rounds: 3, lengthIn: 30 });
+    const type = await createCartridgeType(owner);
+    await insertCartridge({ typeId: type.id, housingId: housing.id, position: 3 });
+    const refused = await owner.patch(`/api/housings/${housing.id}`, { rounds: 2 });
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.message).toMatch(/Round 3 holds a cartridge/);
+    expect((await owner.patch(`/api/housings/${housing.id}`, { rounds: 4 })).status).toBe(200);
   });
 
   it('carries out a retried create once (Idempotency-Key)', async () => {

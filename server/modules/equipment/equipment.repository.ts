@@ -1,4 +1,4 @@
-import { and, count, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
+import { and, count, eq, ilike, or, sql, type SQL, max } from 'drizzle-orm';
 import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../../shared/schemas/equipment';
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
@@ -173,6 +173,14 @@ export function createEquipmentRepository(db: DbOrTx) {
         .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
         .for('update');
       return row ?? null;
+    },
+    /** The highest round holding a cartridge (0 when empty). */
+    async highestUsedRound(wineryId: string, housingId: string) {
+      const [row] = await db
+        .select({ n: max(cartridgesTable.position) })
+        .from(cartridgesTable)
+        .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.housingId, housingId)));
+      return row?.n ?? 0;
     },
     async cartridgesInHousing(wineryId: string, housingId: string) {
       const [row] = await db

@@ -117,6 +117,10 @@ export function createEquipmentService(db: Database) {
             'cartridges_installed',
           );
         }
+        const highestRound = await txRepo.highestUsedRound(tenant.wineryId, id);
+        if (merged.rounds < highestRound) {
+          throw conflict(`Round ${highestRound} holds a cartridge. Move or remove it before cutting the housing to ${merged.rounds} rounds.`, 'cartridges_installed');
+        }
         if (merged.rounds < installed) {
           throw conflict(
             `${plural(installed, 'cartridge is', 'cartridges are')} installed in this housing, more than ${merged.rounds} rounds. Remove some first.`,

@@ -116,8 +116,14 @@ export function createTeamRepository(db: DbOrTx) {
         .where(eq(invitationsTable.tokenHash, tokenHash));
       return row ?? null;
     },
+    /** Marks the invitation accepted only if it is still open (not used, revoked or expired): true when it was. */
     async markAccepted(id: string, userId: string, now: Date) {
-      await db.update(invitationsTable).set({ acceptedAt: now, acceptedBy: userId }).where(eq(invitationsTable.id, id));
+      const rows = await db
+        .update(invitationsTable)
+        .set({ acceptedAt: now, acceptedBy: userId })
+        .where(and(eq(invitationsTable.id, id), isNull(invitationsTable.acceptedAt), isNull(invitationsTable.revokedAt), gt(invitationsTable.expiresAt, now)))
+        .returning({ id: invitationsTable.id });
+      return rows.length > 0;
     },
     async wineryName(wineryId: string) {
       const [row] = await db.select({ name: wineriesTable.name }).from(wineriesTable).where(eq(wineriesTable.id, wineryId));

@@ -117,8 +117,9 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
           throw forbidden(`This invitation is for ${invitation.email}. Sign out and sign in as that person, or ask for a new invitation.`);
         }
         await db.transaction(async (tx) => {
+          // Claim the invitation first: a revoke or a second accept in between wins no race.
+          if (!(await createTeamRepository(tx).markAccepted(invitation.id, signedIn.id, now))) throw gone('This invitation can no longer be used.');
           await createTeamRepository(tx).addMember(invitation.wineryId, signedIn.id, invitation.role);
-          await createTeamRepository(tx).markAccepted(invitation.id, signedIn.id, now);
           await createAuthRepository(tx).setActiveWinery(signedIn.id, invitation.wineryId);
         });
         return { wineryId: invitation.wineryId, sessionId: null };
@@ -138,8 +139,8 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         const txAuth = createAuthRepository(tx);
         const user = await txAuth.insertUser({ id: userId, email: invitation.email, name: input.name!, passwordHash, activeWineryId: invitation.wineryId });
         if (!user) throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
+        if (!(await createTeamRepository(tx).markAccepted(invitation.id, userId, now))) throw gone('This invitation can no longer be used.');
         await createTeamRepository(tx).addMember(invitation.wineryId, userId, invitation.role);
-        await createTeamRepository(tx).markAccepted(invitation.id, userId, now);
       });
       const session = await auth.createSession(userId, {});
       return { wineryId: invitation.wineryId, sessionId: session.id };
