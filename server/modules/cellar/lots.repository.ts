@@ -3,6 +3,9 @@ import type { LotSortKey, LotsListQuery } from '../../../shared/schemas/cellar';
 import type { WineStyle } from '../../../shared/engine/readiness';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, tanksTable } from '../../db/schema';
+
+/** A lot's tank, and only within the same winery (a second guard beside the write-time check). */
+const sameWineryTank = and(eq(tanksTable.id, lotsTable.tankId), eq(tanksTable.wineryId, lotsTable.wineryId));
 import { likePattern, orderBy, pageWindow } from '../../lib/list';
 
 export const LOT_CODE_UNIQUE = 'lots_winery_code_uq';
@@ -95,7 +98,7 @@ export function createLotsRepository(db: DbOrTx) {
             latestDiscPoints: latest.discPoints,
           })
           .from(lotsTable)
-          .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+          .leftJoin(tanksTable, sameWineryTank)
           .leftJoin(latest, eq(latest.lotId, lotsTable.id))
           .where(where)
           .orderBy(...orderBy(query, sortColumns, lotsTable.id))
@@ -104,7 +107,7 @@ export function createLotsRepository(db: DbOrTx) {
         db
           .select({ total: count() })
           .from(lotsTable)
-          .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+          .leftJoin(tanksTable, sameWineryTank)
           .where(where),
       ]);
       return { rows, total };
@@ -113,10 +116,10 @@ export function createLotsRepository(db: DbOrTx) {
       const [row] = await db
         .select({
           ...lotColumns,
-          labResultCount: sql<number>`(select cast(count(*) as int) from ${labResultsTable} where ${labResultsTable.lotId} = ${lotsTable.id})`,
+          labResultCount: sql<number>`(select cast(count(*) as int) from ${labResultsTable} where ${labResultsTable.lotId} = ${lotsTable.id} and ${labResultsTable.wineryId} = ${lotsTable.wineryId})`,
         })
         .from(lotsTable)
-        .leftJoin(tanksTable, eq(tanksTable.id, lotsTable.tankId))
+        .leftJoin(tanksTable, sameWineryTank)
         .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)));
       return row ?? null;
     },
