@@ -4,9 +4,10 @@ import type { WineStyle } from '../../../shared/engine/readiness';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, tanksTable } from '../../db/schema';
 
+import { likePattern, orderBy, pageWindow } from '../../lib/list';
+
 /** A lot's tank, and only within the same winery (a second guard beside the write-time check). */
 const sameWineryTank = and(eq(tanksTable.id, lotsTable.tankId), eq(tanksTable.wineryId, lotsTable.wineryId));
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
 
 export const LOT_CODE_UNIQUE = 'lots_winery_code_uq';
 
