@@ -36,16 +36,21 @@ export const isoDateSchema = z
   )
   .refine(yearInRange, { error: yearRangeMessage });
 
+// eslint-disable-next-line no-control-regex -- the point is to find control characters
+const CONTROL_CHARACTERS = /[\u0000-\u001f\u007f]/;
+
 export const serialSchema = z
   .string({ error: 'Enter the serial number.' })
   .trim()
   .min(1, { error: 'Enter the serial number.' })
-  .max(SERIAL_MAX, { error: `Serial numbers are at most ${SERIAL_MAX} characters.` });
+  .max(SERIAL_MAX, { error: `Serial numbers are at most ${SERIAL_MAX} characters.` })
+  .refine((v) => !CONTROL_CHARACTERS.test(v), { error: 'Serial numbers cannot hold line breaks, tabs or other control characters.' });
 
 export const batchSchema = z
   .string({ error: 'Enter the batch as text.' })
   .trim()
-  .max(BATCH_MAX, { error: `Batches are at most ${BATCH_MAX} characters.` });
+  .max(BATCH_MAX, { error: `Batches are at most ${BATCH_MAX} characters.` })
+  .refine((v) => !CONTROL_CHARACTERS.test(v), { error: 'Batches cannot hold line breaks, tabs or other control characters.' });
 
 const isLength = (v: number): v is CartridgeLengthIn => (CARTRIDGE_LENGTHS_IN as readonly number[]).includes(v);
 

@@ -519,3 +519,15 @@ describe('demo seed', () => {
     }
   });
 });
+
+describe('delivery import edge cases', () => {
+  it('refuses a header row that names a column twice, and serials with control characters', async () => {
+    const { client } = await signUp(app.baseUrl);
+    const twice = await client.request('POST', '/api/cartridges/import?dryRun=true', 'serial,serial,batch,type,length,received\nA,B,B1,X,30,2026-01-01\n', { 'content-type': 'text/csv' });
+    expect(twice.status).toBe(400);
+    expect(twice.body.error.message).toMatch(/serial more than once/);
+    const serial = await client.post('/api/cartridges', { serial: 'QW-1\nX', batch: 'B1', typeId: '00000000-0000-4000-8000-000000000000', lengthIn: 30 });
+    expect(serial.status).toBe(400);
+    expect(serial.body.error.fields.serial).toMatch(/control characters/);
+  });
+});

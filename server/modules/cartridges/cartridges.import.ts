@@ -51,6 +51,9 @@ export function parseDeliveryCsv(text: string): ParsedRow[] {
     // Delimiter is guessed (comma, semicolon or tab); a European spreadsheet often writes semicolons.
   });
   const fields = parsed.meta.fields ?? [];
+  // papaparse renames a repeated header "serial" to "serial_1"; a repeated column would lose its values.
+  const repeated = IMPORT_COLUMNS.filter((c) => fields.some((f) => f.startsWith(`${c}_`) && /_\d+$/.test(f)));
+  if (repeated.length) throw badRequest(`The header row names ${repeated.join(', ')} more than once. Keep one column of each.`);
   const missing = REQUIRED_COLUMNS.filter((c) => !fields.includes(c));
   if (missing.length) {
     throw badRequest(`The file has no ${missing.join(', ')} column${missing.length > 1 ? 's' : ''}. The header row must name: ${IMPORT_COLUMNS.join(', ')}.`);
