@@ -27,6 +27,7 @@ import { cartridgesRoutes } from './modules/cartridges/cartridges.routes';
 import { cellarRoutes } from './modules/cellar/cellar.routes';
 import { equipmentRoutes } from './modules/equipment/equipment.routes';
 import type { ModuleDeps } from './modules/module-deps';
+import { plansRoutes } from './modules/plans/plans.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -109,6 +110,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(attachmentsRoutes(moduleDeps));
   api.use(winerySettingsRoutes(moduleDeps));
   api.use(todayRoutes(moduleDeps));
+  api.use(plansRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -8,6 +8,7 @@ import { membershipsTable, usersTable, wineriesTable } from './schema';
 import { seedCartridges } from './seeds/cartridges';
 import { seedCellar } from './seeds/cellar';
 import { seedEquipment } from './seeds/equipment';
+import { seedPlans } from './seeds/plans';
 
 export const DEMO_PASSWORD = 'porewise-demo';
 
@@ -45,6 +46,7 @@ export async function seedDemo(db: Database) {
     await seedEquipment(tx, ctx);
     await seedCellar(tx, ctx);
     await seedCartridges(tx, ctx);
+    await seedPlans(tx, ctx);
   });
 }
 

@@ -24,6 +24,8 @@ export function createRouter() {
         { path: paths.cartridges, lazy: lazyPage(() => import('./routes/app/cartridges')) },
         { path: paths.cartridgeImport, lazy: lazyPage(() => import('./routes/app/cartridge-import')) },
         { path: '/cartridges/:cartridgeId', lazy: lazyPage(() => import('./routes/app/cartridge')) },
+        { path: paths.plans, lazy: lazyPage(() => import('./routes/app/plans')) },
+        { path: '/plans/:planId', lazy: lazyPage(() => import('./routes/app/plan')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
       ],

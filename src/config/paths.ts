@@ -13,6 +13,8 @@ export const paths = {
   cartridges: '/cartridges',
   cartridge: (id: string) => `/cartridges/${id}`,
   cartridgeImport: '/cartridges/import',
+  plans: '/plans',
+  plan: (id: string) => `/plans/${id}`,
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',

@@ -5,3 +5,4 @@ export * from './equipment';
 export * from './cartridges';
 export * from './attachments';
 export * from './idempotency';
+export * from './plans';

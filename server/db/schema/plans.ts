@@ -1,0 +1,73 @@
+import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, date, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import { usersTable } from './auth';
+import { lotsTable } from './cellar';
+import { double, tenantColumns } from './columns';
+import { linesTable } from './equipment';
+
+export const planStatuses = ['draft', 'approved', 'done'] as const;
+export const planSanitationKinds = ['hot-water', 'steam'] as const;
+
+/** One stage of a stored train: catalogue ids, not copies, so the catalogue stays the one source. */
+export type PlanTrainStage = {
+  name?: string;
+  cartridgeTypeId: string;
+  housingId: string;
+  housingCount: number;
+  /** Expected litres per m² to terminal ΔP for this wine; absent when unknown. */
+  capacityLPerM2?: number | null;
+};
+export type PlanTrainHose = { diameterMm: number; lengthM: number; roughnessMm?: number | null; sumK?: number | null };
+
+/** A bottling day. */
+export const plansTable = pgTable(
+  'plans',
+  {
+    ...tenantColumns(),
+    name: text('name').notNull(),
+    plannedDate: date('planned_date', { mode: 'string' }).notNull(),
+    // A deleted line leaves the plan without one (the plan asks for a line again) rather than blocking the delete.
+    lineId: uuid('line_id').references(() => linesTable.id, { onDelete: 'set null' }),
+    status: text('status', { enum: planStatuses }).notNull().default('draft'),
+    /** HH:MM, the winery's local wall-clock time. */
+    startTime: text('start_time').notNull().default('07:00'),
+    sanitationKind: text('sanitation_kind', { enum: planSanitationKinds }).notNull().default('hot-water'),
+    notes: text('notes').notNull().default(''),
+    approvedBy: text('approved_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    approvedAt: timestamp('approved_at', { withTimezone: true }),
+    createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+  },
+  (t) => [index('plans_winery_date_idx').on(t.wineryId, t.plannedDate), index('plans_winery_status_idx').on(t.wineryId, t.status)],
+);
+
+/** A lot bottled on the day, in order. */
+export const planLotsTable = pgTable(
+  'plan_lots',
+  {
+    ...tenantColumns(),
+    planId: uuid('plan_id')
+      .notNull()
+      .references(() => plansTable.id, { onDelete: 'cascade' }),
+    lotId: uuid('lot_id')
+      .notNull()
+      .references(() => lotsTable.id, { onDelete: 'cascade' }),
+    position: integer('position').notNull(),
+    volumeL: double('volume_l').notNull(),
+    chosenTrainId: uuid('chosen_train_id').references((): AnyPgColumn => planTrainsTable.id, { onDelete: 'set null' }),
+  },
+  (t) => [uniqueIndex('plan_lots_plan_lot_uq').on(t.planId, t.lotId), index('plan_lots_plan_idx').on(t.planId, t.position)],
+);
+
+/** One train option for a planned lot; two or more are compared side by side. */
+export const planTrainsTable = pgTable(
+  'plan_trains',
+  {
+    ...tenantColumns(),
+    planLotId: uuid('plan_lot_id')
+      .notNull()
+      .references(() => planLotsTable.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    stages: jsonb('stages').$type<PlanTrainStage[]>().notNull(),
+    hoses: jsonb('hoses').$type<PlanTrainHose[]>(),
+  },
+  (t) => [index('plan_trains_plan_lot_idx').on(t.planLotId, t.createdAt)],
+);

@@ -1,0 +1,396 @@
+import { buildDayTimeline, requiredFlowLh } from '../../../shared/engine';
+import {
+  blockingReasons,
+  planStartMs,
+  sizePlanTrain,
+  type AddPlanLotInput,
+  type PlanListQuery,
+  type PlanValues,
+  type TrainValues,
+  type UpdatePlanInput,
+  type UpdatePlanLotInput,
+  type UpdateTrainInput,
+} from '../../../shared/schemas/plans';
+import type { ListDto } from '../../../shared/types/api';
+import type { PlanDto, PlanListItemDto, PlanLotDto, PlanNeedDto, PlanTimelineDto } from '../../../shared/types/plans';
+import type { Database } from '../../db/client';
+import type { PlanTrainHose, PlanTrainStage } from '../../db/schema';
+import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
+import type { TenantContext } from '../../middleware/authorize';
+import { isUniqueViolation } from '../cellar/db-errors';
+import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
+import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
+
+const checkFields = 'Check the highlighted fields.';
+
+const locked = (status: PlanRow['status']) =>
+  conflict(
+    status === 'done'
+      ? 'This plan is done; its record stays as it was.'
+      : 'This plan is approved and read-only. An owner or cellar master can reopen it to change it.',
+    'plan_locked',
+  );
+
+/** Stored stage shape (only the fields we keep). */
+const stageValues = (stages: TrainValues['stages']): PlanTrainStage[] =>
+  stages.map((s) => ({
+    ...(s.name ? { name: s.name } : {}),
+    cartridgeTypeId: s.cartridgeTypeId,
+    housingId: s.housingId,
+    housingCount: s.housingCount,
+    ...(s.capacityLPerM2 ? { capacityLPerM2: s.capacityLPerM2 } : {}),
+  }));
+
+const hoseValues = (hoses: TrainValues['hoses']): PlanTrainHose[] | null =>
+  hoses && hoses.length > 0
+    ? hoses.map((h) => ({ diameterMm: h.diameterMm, lengthM: h.lengthM, roughnessMm: h.roughnessMm ?? null, sumK: h.sumK ?? null }))
+    : null;
+
+/**
+ * Builds the plan's detail with every figure computed by the engine: each train's sizing, the
+ * day's timeline, the cartridges the chosen trains need against stock, and what stops approval.
+ */
+async function buildPlan(repo: PlansRepository, wineryId: string, id: string, opts: { inTransaction?: boolean } = {}): Promise<PlanDto | null> {
+  const row = await repo.plan(wineryId, id);
+  if (!row) return null;
+  const reads = [
+    () => repo.planLots(wineryId, id),
+    () => repo.catalogueTypes(wineryId),
+    () => repo.catalogueHousings(wineryId),
+    () => repo.stock(wineryId),
+  ] as const;
+  // A transaction is one connection: its queries go one after the other; from the pool they run side by side.
+  const [planLots, types, housings, stock] = opts.inTransaction
+    ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
+    : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
+  const trains = await repo.trains(
+    wineryId,
+    planLots.map((p) => p.planLot.id),
+  );
+  const line = row.line;
+  const lineSource = line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null;
+  const housingById = new Map(housings.map((h) => [h.id, h]));
+  const typeById = new Map(types.map((t) => [t.id, t]));
+
+  const blockers: string[] = [];
+  if (!line) blockers.push('Choose a bottling line for the plan.');
+  if (planLots.length === 0) blockers.push('Add at least one lot to bottle.');
+
+  type NeedAcc = Omit<PlanNeedDto, 'cartridgesAvailable' | 'inStock' | 'installed' | 'elementEquivalentsAvailable' | 'shortfall' | 'verdict'>;
+  const needs = new Map<string, NeedAcc>();
+  const lots: PlanLotDto[] = [];
+  for (const { planLot, lot } of planLots) {
+    const ownTrains = trains.filter((t) => t.planLotId === planLot.id);
+    const dtos = ownTrains.map((t) => {
+      const outcome = sizePlanTrain({ wine: lot, volumeL: planLot.volumeL, line: lineSource, stages: t.stages, hoses: t.hoses, types, housings });
+      return { row: t, outcome, dto: presentTrain(t, outcome, blockingReasons(outcome)) };
+    });
+    const chosen = dtos.find((d) => d.row.id === planLot.chosenTrainId);
+    if (!chosen) {
+      blockers.push(`${lot.code}: choose the train to use.`);
+    } else {
+      for (const reason of chosen.dto.blockingReasons) blockers.push(`${lot.code} (${chosen.row.name}): ${reason}`);
+      if (chosen.outcome.ok) {
+        chosen.outcome.result.stages.forEach((s, i) => {
+          const stored = chosen.row.stages[i];
+          const type = typeById.get(stored.cartridgeTypeId)!;
+          const lengthIn = housingById.get(stored.housingId)!.lengthIn;
+          const key = `${type.id}|${lengthIn}`;
+          const acc = needs.get(key) ?? {
+            cartridgeTypeId: type.id,
+            typeName: type.name,
+            kind: type.kind,
+            ratingUm: type.ratingUm,
+            lengthIn,
+            cartridgesNeeded: 0,
+            elementEquivalentsNeeded: 0,
+            lotCodes: [],
+          };
+          acc.cartridgesNeeded += s.cartridgeCount * s.setsUsed;
+          acc.elementEquivalentsNeeded += s.elementEquivalents * s.setsUsed;
+          if (!acc.lotCodes.includes(lot.code)) acc.lotCodes.push(lot.code);
+          needs.set(key, acc);
+        });
+      }
+    }
+    lots.push(presentPlanLot(planLot, lot, dtos.map((d) => d.dto)));
+  }
+
+  const stockByKey = new Map(stock.map((s) => [`${s.typeId}|${s.lengthIn}`, s]));
+  const needList: PlanNeedDto[] = [...needs.entries()].map(([key, n]) => {
+    const s = stockByKey.get(key);
+    const inStock = s?.inStock ?? 0;
+    const installed = s?.installed ?? 0;
+    const available = inStock + installed;
+    const shortfall = Math.max(0, n.cartridgesNeeded - available);
+    return {
+      ...n,
+      inStock,
+      installed,
+      cartridgesAvailable: available,
+      elementEquivalentsAvailable: (available * n.lengthIn) / 10,
+      shortfall,
+      verdict: shortfall > 0 ? 'short' : 'enough',
+    };
+  });
+  needList.sort((a, b) => (a.kind === b.kind ? a.typeName.localeCompare(b.typeName) || a.lengthIn - b.lengthIn : a.kind === 'prefilter' ? -1 : 1));
+
+  let timeline: PlanTimelineDto | null = null;
+  let timelineError: string | null = null;
+  let flowLh: number | null = null;
+  if (line) {
+    try {
+      flowLh = requiredFlowLh(lineSource!);
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error;
+      timelineError = error.message;
+    }
+  }
+  if (!line) timelineError = 'Choose a bottling line to build the day.';
+  else if (planLots.length === 0) timelineError = 'Add a lot to build the day.';
+  else if (flowLh !== null) {
+    try {
+      const day = buildDayTimeline({
+        startMs: planStartMs(row.plan.plannedDate, row.plan.startTime),
+        sanitationKind: row.plan.sanitationKind,
+        lots: planLots.map(({ planLot, lot }) => ({ lotId: planLot.id, label: lot.code, volumeL: planLot.volumeL, flowLh: flowLh! })),
+      });
+      timeline = presentTimeline(day, row.plan.plannedDate, null);
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error;
+      timelineError = error.message;
+    }
+  }
+
+  return presentPlan({
+    plan: row.plan,
+    line,
+    approverName: row.approverName,
+    creatorName: row.creatorName,
+    requiredFlowLh: flowLh,
+    lots,
+    timeline,
+    timelineError,
+    needs: needList,
+    approvalBlockers: blockers,
+    types,
+    housings,
+  });
+}
+
+/** Bottling-day plans: lots in order, train options per lot sized by the engine, approval. */
+export function createPlansService(db: Database) {
+  const repo = createPlansRepository(db);
+
+  async function get(tenant: TenantContext, id: string): Promise<PlanDto> {
+    const plan = await buildPlan(repo, tenant.wineryId, id);
+    if (!plan) throw notFound('Plan');
+    return plan;
+  }
+
+  async function requireLine(r: PlansRepository, wineryId: string, lineId: string | undefined) {
+    if (lineId && !(await r.lineExists(wineryId, lineId))) {
+      throw badRequest(checkFields, { lineId: 'Choose one of this winery’s bottling lines.' });
+    }
+  }
+
+  /** Every cartridge type and housing a train names must be the winery's own (400 per stage field). */
+  async function requireCatalogue(r: PlansRepository, wineryId: string, stages: TrainValues['stages']) {
+    const typeIds = await r.existingTypeIds(wineryId, [...new Set(stages.map((s) => s.cartridgeTypeId))]);
+    const housingIds = await r.existingHousingIds(wineryId, [...new Set(stages.map((s) => s.housingId))]);
+    const fields: Record<string, string> = {};
+    stages.forEach((s, i) => {
+      if (!typeIds.has(s.cartridgeTypeId)) fields[`stages.${i}.cartridgeTypeId`] = 'Choose a cartridge type from this winery’s catalogue.';
+      if (!housingIds.has(s.housingId)) fields[`stages.${i}.housingId`] = 'Choose one of this winery’s housings.';
+    });
+    if (Object.keys(fields).length > 0) throw badRequest(checkFields, fields);
+  }
+
+  /** Runs a change to a draft plan in one transaction with the plan row locked; answers the new detail. */
+  async function editDraft(tenant: TenantContext, planId: string, change: (r: PlansRepository, plan: PlanRow) => Promise<void>): Promise<PlanDto> {
+    await db.transaction(async (tx) => {
+      const r = createPlansRepository(tx);
+      const plan = await r.lockPlan(tenant.wineryId, planId);
+      if (!plan) throw notFound('Plan');
+      if (plan.status !== 'draft') throw locked(plan.status);
+      await change(r, plan);
+      await r.touchPlan(tenant.wineryId, planId);
+    });
+    return get(tenant, planId);
+  }
+
+  async function requirePlanLot(r: PlansRepository, wineryId: string, planId: string, planLotId: string) {
+    const pl = await r.planLot(wineryId, planId, planLotId);
+    if (!pl) throw notFound('Lot of this plan');
+    return pl;
+  }
+
+  /** Writes 1..n positions in the given order. */
+  async function renumber(r: PlansRepository, wineryId: string, ids: string[]) {
+    for (let i = 0; i < ids.length; i++) await r.updatePlanLot(wineryId, ids[i], { position: i + 1 });
+  }
+
+  return {
+    async list(tenant: TenantContext, query: PlanListQuery): Promise<ListDto<PlanListItemDto>> {
+      const { rows, total } = await repo.list(tenant.wineryId, query);
+      return { items: rows.map(presentPlanListItem), total };
+    },
+    get,
+
+    async create(tenant: TenantContext, input: PlanValues): Promise<PlanDto> {
+      const id = await db.transaction(async (tx) => {
+        const r = createPlansRepository(tx);
+        await requireLine(r, tenant.wineryId, input.lineId);
+        return r.insertPlan(tenant.wineryId, tenant.userId, input);
+      });
+      return get(tenant, id);
+    },
+
+    async update(tenant: TenantContext, id: string, input: UpdatePlanInput): Promise<PlanDto> {
+      return editDraft(tenant, id, async (r) => {
+        await requireLine(r, tenant.wineryId, input.lineId);
+        await r.updatePlan(tenant.wineryId, id, input);
+      });
+    },
+
+    /** Deletes a draft; approved and done plans stay for the records (409). */
+    async remove(tenant: TenantContext, id: string) {
+      await db.transaction(async (tx) => {
+        const r = createPlansRepository(tx);
+        const plan = await r.lockPlan(tenant.wineryId, id);
+        if (!plan) throw notFound('Plan');
+        if (plan.status !== 'draft') {
+          throw conflict('Only draft plans can be deleted. Reopen an approved plan first; a done plan stays for the records.', 'plan_not_draft');
+        }
+        await r.deletePlan(tenant.wineryId, id);
+      });
+    },
+
+    /** Adds a lot of the cellar at the end of the day, to bottle its whole volume unless told otherwise. */
+    async addLot(tenant: TenantContext, planId: string, input: AddPlanLotInput): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        const lot = await r.lot(tenant.wineryId, input.lotId);
+        if (!lot) throw badRequest(checkFields, { lotId: 'Choose a lot from this winery’s cellar.' });
+        const position = await r.nextPosition(tenant.wineryId, planId);
+        try {
+          await r.insertPlanLot({ wineryId: tenant.wineryId, planId, lotId: lot.id, position, volumeL: input.volumeL ?? lot.volumeL });
+        } catch (error) {
+          if (isUniqueViolation(error, PLAN_LOT_UNIQUE)) {
+            throw new HttpError(409, 'lot_already_planned', 'This lot is already in the plan.', { lotId: 'This lot is already in the plan.' });
+          }
+          throw error;
+        }
+      });
+    },
+
+    /** Volume to bottle, place in the day (others move) and the chosen train of one lot. */
+    async updateLot(tenant: TenantContext, planId: string, planLotId: string, input: UpdatePlanLotInput): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        if (input.chosenTrainId) {
+          if (!(await r.train(tenant.wineryId, planLotId, input.chosenTrainId))) {
+            throw badRequest(checkFields, { chosenTrainId: 'Choose one of this lot’s trains.' });
+          }
+        }
+        const changes: { volumeL?: number; chosenTrainId?: string | null } = {};
+        if (input.volumeL !== undefined) changes.volumeL = input.volumeL;
+        if (input.chosenTrainId !== undefined) changes.chosenTrainId = input.chosenTrainId;
+        if (Object.keys(changes).length > 0) await r.updatePlanLot(tenant.wineryId, planLotId, changes);
+        if (input.position !== undefined) {
+          const ids = (await r.orderedPlanLotIds(tenant.wineryId, planId)).filter((x) => x !== planLotId);
+          ids.splice(Math.min(input.position, ids.length + 1) - 1, 0, planLotId);
+          await renumber(r, tenant.wineryId, ids);
+        }
+      });
+    },
+
+    async removeLot(tenant: TenantContext, planId: string, planLotId: string): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        await r.deletePlanLot(tenant.wineryId, planLotId);
+        await renumber(r, tenant.wineryId, await r.orderedPlanLotIds(tenant.wineryId, planId));
+      });
+    },
+
+    async addTrain(tenant: TenantContext, planId: string, planLotId: string, input: TrainValues): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        await requireCatalogue(r, tenant.wineryId, input.stages);
+        await r.insertTrain({ wineryId: tenant.wineryId, planLotId, name: input.name, stages: stageValues(input.stages), hoses: hoseValues(input.hoses) });
+      });
+    },
+
+    async updateTrain(tenant: TenantContext, planId: string, planLotId: string, trainId: string, input: UpdateTrainInput): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        if (!(await r.train(tenant.wineryId, planLotId, trainId))) throw notFound('Train');
+        const changes: { name?: string; stages?: PlanTrainStage[]; hoses?: PlanTrainHose[] | null } = {};
+        if (input.name !== undefined) changes.name = input.name.trim();
+        if (input.stages !== undefined) {
+          const stages = input.stages.map((s) => ({ ...s, housingCount: s.housingCount ?? 1 }));
+          await requireCatalogue(r, tenant.wineryId, stages);
+          changes.stages = stageValues(stages);
+        }
+        if (input.hoses !== undefined) changes.hoses = hoseValues(input.hoses as TrainValues['hoses']);
+        await r.updateTrain(tenant.wineryId, trainId, changes);
+      });
+    },
+
+    /** Deletes a train option; when it was the chosen one the lot has none chosen again. */
+    async deleteTrain(tenant: TenantContext, planId: string, planLotId: string, trainId: string): Promise<PlanDto> {
+      return editDraft(tenant, planId, async (r) => {
+        await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        if (!(await r.train(tenant.wineryId, planLotId, trainId))) throw notFound('Train');
+        await r.deleteTrain(tenant.wineryId, trainId);
+      });
+    },
+
+    /**
+     * Approves a draft when every lot has a chosen train and no chosen train breaks a limit of
+     * the equipment; otherwise 409 with the reasons (in `fields`, one per reason).
+     */
+    async approve(tenant: TenantContext, id: string, now = new Date()): Promise<PlanDto> {
+      await db.transaction(async (tx) => {
+        const r = createPlansRepository(tx);
+        const plan = await r.lockPlan(tenant.wineryId, id);
+        if (!plan) throw notFound('Plan');
+        if (plan.status !== 'draft') throw conflict(`This plan is already ${plan.status}.`, 'plan_not_draft');
+        const detail = (await buildPlan(r, tenant.wineryId, id, { inTransaction: true }))!;
+        if (detail.approvalBlockers.length > 0) {
+          const fields = Object.fromEntries(detail.approvalBlockers.map((reason, i) => [`reasons.${i}`, reason]));
+          throw new HttpError(409, 'plan_not_ready', `This plan cannot be approved yet: ${detail.approvalBlockers.join(' ')}`, fields);
+        }
+        await r.updatePlan(tenant.wineryId, id, { status: 'approved', approvedBy: tenant.userId, approvedAt: now });
+      });
+      return get(tenant, id);
+    },
+
+    /** Back to draft from approved (an approver's "Reopen"); done plans stay done. */
+    async reopen(tenant: TenantContext, id: string): Promise<PlanDto> {
+      await db.transaction(async (tx) => {
+        const r = createPlansRepository(tx);
+        const plan = await r.lockPlan(tenant.wineryId, id);
+        if (!plan) throw notFound('Plan');
+        if (plan.status === 'done') throw conflict('This plan is done; its record stays as it was.', 'plan_done');
+        if (plan.status === 'draft') throw conflict('This plan is already a draft.', 'plan_not_approved');
+        await r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null });
+      });
+      return get(tenant, id);
+    },
+
+    /** Approved → done, after the day. */
+    async markDone(tenant: TenantContext, id: string): Promise<PlanDto> {
+      await db.transaction(async (tx) => {
+        const r = createPlansRepository(tx);
+        const plan = await r.lockPlan(tenant.wineryId, id);
+        if (!plan) throw notFound('Plan');
+        if (plan.status === 'done') throw conflict('This plan is already done.', 'plan_done');
+        if (plan.status !== 'approved') throw conflict('Approve the plan before marking it done.', 'plan_not_approved');
+        await r.updatePlan(tenant.wineryId, id, { status: 'done' });
+      });
+      return get(tenant, id);
+    },
+  };
+}
+export type PlansService = ReturnType<typeof createPlansService>;
+

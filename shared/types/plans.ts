@@ -1,0 +1,139 @@
+// Response DTOs of bottling-day plans (metric/SI values; the client converts for display).
+import type { DayBlockKind, DayStepsMin, TrainSizingResult } from '../engine';
+import type { WineStyle } from '../engine/readiness';
+import type { PlanSanitationKind, PlanStatus, SizingCatalogueHousing, SizingCatalogueType, TrainHoseInput } from '../schemas/plans';
+
+export type PlanLineDto = { id: string; name: string; bottlesPerHour: number; bottleMl: number };
+
+/** One row of the plans list. */
+export type PlanListItemDto = {
+  id: string;
+  name: string;
+  /** YYYY-MM-DD */
+  plannedDate: string;
+  status: PlanStatus;
+  line: { id: string; name: string } | null;
+  lotCount: number;
+  /** Sum of the volumes to bottle, L. */
+  volumeL: number;
+  createdAt: string;
+  updatedAt: string;
+};
+
+export type PlanTrainStageDto = {
+  name?: string;
+  cartridgeTypeId: string;
+  housingId: string;
+  housingCount: number;
+  /** L/m² to terminal ΔP, or null when unknown. */
+  capacityLPerM2: number | null;
+};
+
+/** One train option of a lot, with the engine's sizing of it (authoritative, from the server). */
+export type PlanTrainDto = {
+  id: string;
+  name: string;
+  stages: PlanTrainStageDto[];
+  hoses: TrainHoseInput[] | null;
+  /** The engine's sizing, or null when the train cannot be sized (see sizingError). */
+  sizing: TrainSizingResult | null;
+  sizingError: string | null;
+  /** Why this train may not be approved (empty when it may). */
+  blockingReasons: string[];
+  createdAt: string;
+  updatedAt: string;
+};
+
+export type PlanLotDto = {
+  id: string;
+  position: number;
+  /** Volume to bottle, L. */
+  volumeL: number;
+  chosenTrainId: string | null;
+  lot: {
+    id: string;
+    code: string;
+    name: string;
+    style: WineStyle;
+    /** The lot's whole volume in the cellar, L. */
+    volumeL: number;
+    tempC: number;
+    ethanolPctVol: number;
+    sugarGPerL: number;
+  };
+  trains: PlanTrainDto[];
+};
+
+export type PlanTimelineBlockDto = {
+  kind: DayBlockKind;
+  label: string;
+  startMs: number;
+  endMs: number;
+  /** HH:MM on the plan's clock. */
+  start: string;
+  end: string;
+  /** Days after the planned date the block starts (0 the same day). */
+  startDayOffset: number;
+  minutes: number;
+  planLotId?: string;
+};
+
+export type PlanTimelineDto = {
+  blocks: PlanTimelineBlockDto[];
+  totalMin: number;
+  runMin: number;
+  nonRunMin: number;
+  end: string;
+  endDayOffset: number;
+  steps: DayStepsMin;
+  /** Lots on the timeline without a chosen train run at the line's flow. */
+  note: string | null;
+};
+
+/** What the chosen trains need of one cartridge type and length, against what the winery has. */
+export type PlanNeedDto = {
+  cartridgeTypeId: string;
+  typeName: string;
+  kind: 'prefilter' | 'membrane';
+  ratingUm: number;
+  lengthIn: number;
+  /** Cartridges the chosen trains need (cartridges per set × sets used, summed over the lots). */
+  cartridgesNeeded: number;
+  elementEquivalentsNeeded: number;
+  /** In stock plus installed. */
+  cartridgesAvailable: number;
+  inStock: number;
+  installed: number;
+  elementEquivalentsAvailable: number;
+  /** Cartridges to order (0 when there are enough). */
+  shortfall: number;
+  verdict: 'enough' | 'short';
+  /** Lots whose chosen train uses this type and length. */
+  lotCodes: string[];
+};
+
+export type PlanDto = {
+  id: string;
+  name: string;
+  plannedDate: string;
+  status: PlanStatus;
+  startTime: string;
+  sanitationKind: PlanSanitationKind;
+  notes: string;
+  line: PlanLineDto | null;
+  /** Flow the line asks of the filters with the default margin, L/h (null without a line). */
+  requiredFlowLh: number | null;
+  approvedBy: string | null;
+  approvedAt: string | null;
+  createdBy: string | null;
+  createdAt: string;
+  updatedAt: string;
+  lots: PlanLotDto[];
+  timeline: PlanTimelineDto | null;
+  timelineError: string | null;
+  needs: PlanNeedDto[];
+  /** What would stop approval now (empty when the plan may be approved). */
+  approvalBlockers: string[];
+  /** The winery's catalogue, for sizing in the browser while editing. */
+  catalogue: { cartridgeTypes: SizingCatalogueType[]; housings: SizingCatalogueHousing[] };
+};

@@ -1,0 +1,222 @@
+import { format } from 'date-fns';
+import { ArrowLeft, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
+import { useState } from 'react';
+import { Link, useNavigate } from 'react-router-dom';
+import { sanitationKindLabels } from '@shared/schemas/plans';
+import type { PlanDto } from '@shared/types/plans';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { Dialog } from '@/components/ui/dialog';
+import { EmptyState } from '@/components/ui/empty-state';
+import { PageHeader } from '@/components/ui/page-header';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { useToast } from '@/components/ui/toast';
+import { paths } from '@/config/paths';
+import { ApiError, errorMessage } from '@/lib/api-client';
+import { useCan } from '@/lib/session';
+import { useUnits } from '@/lib/units';
+import { useApprovePlan } from '../api/approve-plan';
+import { useDeletePlan } from '../api/delete-plan';
+import { usePlan } from '../api/get-plan';
+import { useMarkPlanDone } from '../api/mark-plan-done';
+import { useReopenPlan } from '../api/reopen-plan';
+import { AddLotDialog } from './add-lot-dialog';
+import { CartridgeNeeds } from './cartridge-needs';
+import { DayTimeline } from './day-timeline';
+import { PlanCautions } from './plan-cautions';
+import { PlanFormDialog } from './plan-form-dialog';
+import { PlanLotSection } from './plan-lot-section';
+import { PlanStatusBadge } from './plan-status-badge';
+import { dayLabel } from './plans-page';
+
+function Facts({ plan }: { plan: PlanDto }) {
+  const u = useUnits();
+  const items: [string, string][] = [
+    ['Date', dayLabel(plan.plannedDate)],
+    ['Line', plan.line ? `${plan.line.name} · ${plan.line.bottlesPerHour.toLocaleString()} bottles/h of ${plan.line.bottleMl} mL` : 'none: choose one'],
+    ['Flow the filters carry', plan.requiredFlowLh === null ? '—' : `${u.format('flow', plan.requiredFlowLh)} (line + 10 %)`],
+    ['Start', `${plan.startTime} · ${sanitationKindLabels[plan.sanitationKind].toLowerCase()} sanitation`],
+  ];
+  if (plan.approvedAt) items.push(['Approved', `${format(new Date(plan.approvedAt), 'd MMM yyyy HH:mm')}${plan.approvedBy ? ` by ${plan.approvedBy}` : ''}`]);
+  return (
+    <dl className="grid gap-x-6 gap-y-1 sm:grid-cols-2">
+      {items.map(([k, v]) => (
+        <div key={k} className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1.5">
+          <dt className="text-sm text-ink-600">{k}</dt>
+          <dd className="text-right text-sm font-semibold text-ink-900">{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+/** A bottling day: its lots in order with their trains, the day's timeline, cartridges needed and approval. */
+export function PlanPage({ planId }: { planId: string }) {
+  const plan = usePlan(planId);
+  const mayDraft = useCan('plans:draft');
+  const mayApprove = useCan('plans:approve');
+  const toast = useToast();
+  const navigate = useNavigate();
+  const approve = useApprovePlan();
+  const reopen = useReopenPlan();
+  const done = useMarkPlanDone();
+  const remove = useDeletePlan();
+  const [addingLot, setAddingLot] = useState(false);
+  const [editing, setEditing] = useState(false);
+  const [deleting, setDeleting] = useState(false);
+  const [refused, setRefused] = useState<{ at: string; reasons: string[] } | null>(null);
+
+  const back = (
+    <Link to={paths.plans} className="inline-flex min-h-9 items-center gap-1 text-primary-700 underline-offset-2 hover:underline">
+      <ArrowLeft aria-hidden="true" className="size-4" />
+      Plans
+    </Link>
+  );
+  if (plan.isPending) return <LoadingState />;
+  if (plan.isError) {
+    return (
+      <div className="flex flex-col gap-4">
+        <div className="text-sm">{back}</div>
+        {plan.error instanceof ApiError && plan.error.status === 404 ? (
+          <EmptyState title="Plan not found">It may have been deleted, or it belongs to another winery.</EmptyState>
+        ) : (
+          <ErrorState message={errorMessage(plan.error)} onRetry={() => plan.refetch()} />
+        )}
+      </div>
+    );
+  }
+  const p = plan.data;
+  // A refusal answers the plan as it was; any later change to the plan clears it.
+  const refusal = refused && refused.at === p.updatedAt ? refused.reasons : null;
+  const setRefusal = (reasons: string[] | null) => setRefused(reasons ? { at: p.updatedAt, reasons } : null);
+  const editable = p.status === 'draft' && mayDraft;
+
+  const onApprove = () =>
+    approve.mutate(p.id, {
+      onSuccess: () => {
+        setRefusal(null);
+        toast.success('Plan approved', 'It is read-only now; reopen it to change it.');
+      },
+      onError: (e) => (e instanceof ApiError && e.status === 409 && Object.keys(e.fields).length ? setRefusal(Object.values(e.fields)) : toast.error('Not approved', errorMessage(e))),
+    });
+
+  const actions = (
+    <>
+      {mayApprove && p.status === 'draft' ? (
+        <Button icon={<ClipboardCheck />} loading={approve.isPending} onClick={onApprove}>
+          Approve plan
+        </Button>
+      ) : null}
+      {mayApprove && p.status === 'approved' ? (
+        <>
+          <Button icon={<CircleCheck />} loading={done.isPending} onClick={() => done.mutate(p.id, { onError: (e) => toast.error('Not marked done', errorMessage(e)) })}>
+            Mark done
+          </Button>
+          <Button variant="secondary" icon={<LockOpen />} loading={reopen.isPending} onClick={() => reopen.mutate(p.id, { onError: (e) => toast.error('Not reopened', errorMessage(e)) })}>
+            Reopen
+          </Button>
+        </>
+      ) : null}
+      {editable ? (
+        <>
+          <Button variant="secondary" icon={<Pencil />} onClick={() => setEditing(true)}>
+            Edit the day
+          </Button>
+          <Button variant="secondary" icon={<Trash2 />} onClick={() => setDeleting(true)}>
+            Delete
+          </Button>
+        </>
+      ) : null}
+    </>
+  );
+
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        context={back}
+        title={
+          <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
+            <span>{p.name}</span>
+            <PlanStatusBadge status={p.status} />
+          </span>
+        }
+        description={p.notes || undefined}
+        actions={actions}
+      />
+      <Facts plan={p} />
+
+      {p.status !== 'draft' ? (
+        <p className="text-sm text-ink-700">
+          {p.status === 'approved' ? 'Approved plans are read-only. An owner or cellar master can reopen it to change it.' : 'This plan is done; its record stays as it was.'}
+        </p>
+      ) : refusal || (mayApprove && p.approvalBlockers.length > 0) ? (
+        <div role={refusal ? 'alert' : undefined} className="rounded border border-watch-200 bg-watch-50 px-4 py-3">
+          <p className="flex items-center gap-2 text-base font-semibold text-ink-950">
+            <OctagonX aria-hidden="true" className="size-5 text-stop-600" />
+            {refusal ? 'Not approved yet' : 'Before approval'}
+          </p>
+          <ul className="mt-1 list-disc pl-6 text-sm text-ink-800">
+            {(refusal ?? p.approvalBlockers).map((r) => (
+              <li key={r}>{r}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      <section aria-labelledby="lots-heading" className="flex flex-col gap-3">
+        <div className="flex flex-wrap items-end justify-between gap-2 border-b border-ink-200 pb-2">
+          <h2 id="lots-heading" className="text-lg font-semibold text-ink-950">
+            Lots in bottling order
+          </h2>
+          {editable ? (
+            <Button icon={<Plus />} onClick={() => setAddingLot(true)}>
+              Add lot
+            </Button>
+          ) : null}
+        </div>
+        {p.lots.length === 0 ? (
+          <EmptyState title="No lots yet" action={editable ? <Button icon={<Plus />} onClick={() => setAddingLot(true)}>Add lot</Button> : null}>
+            Add the lots from the cellar in the order they go to the filler. Each gets its own train.
+          </EmptyState>
+        ) : (
+          p.lots.map((l, i) => <PlanLotSection key={l.id} plan={p} planLot={l} editable={editable} isFirst={i === 0} isLast={i === p.lots.length - 1} />)
+        )}
+      </section>
+
+      <DayTimeline plan={p} />
+      <CartridgeNeeds plan={p} />
+      <Card title="Safety on the day" level={2}>
+        <PlanCautions sanitationKind={p.sanitationKind} />
+      </Card>
+
+      <AddLotDialog plan={p} open={addingLot} onClose={() => setAddingLot(false)} />
+      <PlanFormDialog open={editing} plan={p} onClose={() => setEditing(false)} />
+      <Dialog
+        open={deleting}
+        onClose={() => setDeleting(false)}
+        title={`Delete ${p.name}?`}
+        description="The draft, its lots and trains go. The lots stay in the cellar."
+        size="sm"
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setDeleting(false)}>
+              Cancel
+            </Button>
+            <Button
+              variant="danger"
+              loading={remove.isPending}
+              onClick={() =>
+                remove.mutate(p.id, {
+                  onSuccess: () => navigate(paths.plans),
+                  onError: (e) => toast.error('Not deleted', errorMessage(e)),
+                })
+              }
+            >
+              Delete plan
+            </Button>
+          </>
+        }
+      />
+    </div>
+  );
+}

@@ -1,0 +1,342 @@
+import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
+import { useEffect, useId, useMemo, useState } from 'react';
+import { suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
+import {
+  BLOCKING_WARNING_CODES,
+  STAGES_MAX,
+  buildTrainSizingInput,
+  sizePlanTrain,
+  type TrainStageInput,
+} from '@shared/schemas/plans';
+import type { PlanDto, PlanLotDto, PlanTrainDto } from '@shared/types/plans';
+import { Button } from '@/components/ui/button';
+import { FormField } from '@/components/ui/form-field';
+import { Input, NumberInput } from '@/components/ui/input';
+import { Select } from '@/components/ui/select';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { useToast } from '@/components/ui/toast';
+import { errorMessage } from '@/lib/api-client';
+import { useUnits } from '@/lib/units';
+import { cn } from '@/utils/cn';
+import { useDeleteTrain } from '../api/delete-train';
+import { useUpdatePlanLot } from '../api/update-plan-lot';
+import { useUpdateTrain } from '../api/update-train';
+
+/** A stage as typed: text fields stay text until sized or saved. */
+type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
+
+const toDraft = (t: PlanTrainDto): DraftStage[] =>
+  t.stages.map((s) => ({
+    name: s.name ?? '',
+    cartridgeTypeId: s.cartridgeTypeId,
+    housingId: s.housingId,
+    housingCount: String(s.housingCount),
+    capacity: s.capacityLPerM2 === null ? '' : String(s.capacityLPerM2),
+  }));
+
+const parseNumber = (text: string) => {
+  const s = text.trim().replace(',', '.');
+  if (!s) return undefined;
+  const n = Number(s);
+  return Number.isFinite(n) ? n : Number.NaN;
+};
+
+const toStages = (draft: DraftStage[]): TrainStageInput[] =>
+  draft.map((d) => {
+    const capacity = parseNumber(d.capacity);
+    return {
+      ...(d.name.trim() ? { name: d.name.trim() } : {}),
+      cartridgeTypeId: d.cartridgeTypeId,
+      housingId: d.housingId,
+      housingCount: Number(d.housingCount.trim() || '1'),
+      capacityLPerM2: capacity === undefined ? null : capacity,
+    };
+  });
+
+const interventionWords = (s: StageSizing) => {
+  if (s.interventionKind === null) return 'unknown without a capacity';
+  if (s.interventionKind === 'none') return 'none: one set lasts the lot';
+  const parts: string[] = [];
+  if (s.regenerations) parts.push(`${s.regenerations} regeneration${s.regenerations === 1 ? '' : 's'}`);
+  if (s.changes) parts.push(`${s.changes} change${s.changes === 1 ? '' : 's'}`);
+  return parts.join(' and ');
+};
+
+const money = (v: number | null, currency: string | null) =>
+  v === null ? '—' : new Intl.NumberFormat(undefined, { style: 'currency', currency: currency ?? 'EUR', maximumFractionDigits: 2 }).format(v);
+
+function Figure({ label, children, tone, testId }: { label: string; children: React.ReactNode; tone?: 'ok' | 'over'; testId?: string }) {
+  return (
+    <div className="flex items-baseline justify-between gap-2 border-b border-ink-100 py-1 last:border-0" data-testid={testId}>
+      <dt className="text-sm text-ink-600">{label}</dt>
+      <dd className={cn('num text-right text-sm font-semibold', tone === 'over' ? 'text-stop-700' : 'text-ink-900')}>
+        {tone === 'over' ? <OctagonX aria-hidden="true" className="mr-1 inline size-3.5 align-[-2px]" /> : null}
+        {children}
+      </dd>
+    </div>
+  );
+}
+
+/** The engine's figures for one stage, in the person's units. */
+function StageFigures({ s }: { s: StageSizing }) {
+  const u = useUnits();
+  const third = s.terminalDpBar / 3;
+  const dpShare = Math.min(1, s.cleanDpBar / s.terminalDpBar);
+  return (
+    <dl className="mt-2 rounded border border-ink-200 bg-ink-50 px-2.5 py-1.5">
+      <Figure label="10-inch equivalents" testId="stage-equivalents">
+        {s.elementEquivalents} <span className="font-normal text-ink-600">({s.cartridgeCount} cartridges)</span>
+      </Figure>
+      <Figure label="Flux per 10-inch" tone={s.fluxLhPer10in > s.designFluxLhPer10in ? 'over' : 'ok'} testId="stage-flux">
+        {u.format('flow', s.fluxLhPer10in)} <span className="font-normal text-ink-600">of {u.format('flow', s.designFluxLhPer10in)}</span>
+      </Figure>
+      <Figure label="Clean ΔP" tone={s.cleanDpBar > third ? 'over' : 'ok'} testId="stage-dp">
+        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} (⅓ terminal)</span>
+      </Figure>
+      <div aria-hidden="true" className="relative my-1 h-1.5 rounded-full bg-ink-200">
+        <div className={cn('h-1.5 rounded-full', s.cleanDpBar > third ? 'bg-stop-600' : 'bg-primary-600')} style={{ width: `${Math.max(2, dpShare * 100)}%` }} />
+        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: '33.33%' }} />
+      </div>
+      <Figure label="To terminal ΔP" testId="stage-capacity">
+        {s.capacityL === null ? <span className="font-normal text-ink-600">unknown</span> : u.format('volume', s.capacityL)}
+      </Figure>
+      <Figure label="Regenerations or changes" testId="stage-interventions">
+        <span className="font-normal">{interventionWords(s)}</span>
+      </Figure>
+      <Figure label="Cost per hL" testId="stage-cost">
+        {s.costIsLowerBound ? 'at least ' : ''}
+        {money(s.costPerHl, s.currency)}
+      </Figure>
+    </dl>
+  );
+}
+
+function Warnings({ warnings }: { warnings: SizingWarning[] }) {
+  if (warnings.length === 0) {
+    return (
+      <p className="flex items-center gap-1.5 text-sm text-ok-700">
+        <CircleCheck aria-hidden="true" className="size-4" /> No limit broken.
+      </p>
+    );
+  }
+  return (
+    <ul className="flex flex-col gap-1" aria-label="Warnings">
+      {warnings.map((w, i) => {
+        const blocking = BLOCKING_WARNING_CODES.includes(w.code);
+        const Icon = blocking ? OctagonX : TriangleExclamationPoint;
+        return (
+          <li key={i} className={cn('flex gap-1.5 text-sm', blocking ? 'text-stop-700' : 'text-watch-800')}>
+            <Icon aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
+            <span>
+              <span className="font-semibold">{blocking ? 'Stops approval: ' : 'Watch: '}</span>
+              {w.message}
+            </span>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}
+
+function Totals({ r }: { r: TrainSizingResult }) {
+  const u = useUnits();
+  const hours = r.totals.runHours;
+  return (
+    <dl className="rounded border border-ink-200 px-2.5 py-1.5" data-testid="train-totals">
+      <Figure label="Flow">{u.format('flow', r.flowLh)}</Figure>
+      <Figure label="Run time">{`${Math.floor(hours)} h ${String(Math.round((hours % 1) * 60)).padStart(2, '0')} min`}</Figure>
+      <Figure label="Pump pressure, clean → end">
+        {u.format('pressure', r.totals.pumpPressureCleanBar)} → {u.format('pressure', r.totals.pumpPressureEndOfRunBar)}
+      </Figure>
+      <Figure label="Hold-up">{u.format('volume', r.totals.holdUpL, 1)}</Figure>
+      <Figure label="Cost per hL, train" testId="train-cost">
+        {r.totals.unpricedStages.length > 0 && r.totals.costPerHl !== null ? 'priced stages: ' : ''}
+        {money(r.totals.costPerHl, r.totals.currency)}
+      </Figure>
+    </dl>
+  );
+}
+
+export interface TrainCardProps {
+  plan: PlanDto;
+  planLot: PlanLotDto;
+  train: PlanTrainDto;
+  editable: boolean;
+}
+
+/**
+ * One train option: stages picked from the catalogue, sized live in the browser by the engine as
+ * the person edits (no request per keystroke), saved with "Save train".
+ */
+export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
+  const id = useId();
+  const toast = useToast();
+  const save = useUpdateTrain();
+  const remove = useDeleteTrain();
+  const choose = useUpdatePlanLot();
+  const { cartridgeTypes, housings } = plan.catalogue;
+  const [name, setName] = useState(train.name);
+  const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train));
+  const [suggestNote, setSuggestNote] = useState<string | null>(null);
+  const saved = JSON.stringify({ n: train.name, s: toDraft(train) });
+  useEffect(() => {
+    setName(train.name);
+    setDraft(toDraft(train));
+  }, [saved]);
+  const dirty = saved !== JSON.stringify({ n: name, s: draft });
+  const chosen = planLot.chosenTrainId === train.id;
+
+  const stages = useMemo(() => toStages(draft), [draft]);
+  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses };
+  const sized = useMemo(
+    () => sizePlanTrain(source),
+    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, train.hoses],
+  );
+
+  const setStage = (i: number, patch: Partial<DraftStage>) => setDraft((d) => d.map((s, k) => (k === i ? { ...s, ...patch } : s)));
+
+  const suggest = () => {
+    setSuggestNote(null);
+    const filled = stages.map((s) => ({ ...s, housingId: s.housingId || housings[0]?.id || '' }));
+    const built = buildTrainSizingInput({ ...source, stages: filled });
+    if (!built.ok) return setSuggestNote(built.error);
+    const options: SizingHousing[] = housings.map((h) => ({ rounds: h.rounds, lengthIn: h.lengthIn as SizingHousing['lengthIn'], maxPressureBar: h.maxPressureBar, maxTempC: h.maxTempC, holdUpL: h.holdUpL }));
+    const idOf = new Map(options.map((o, k) => [o, housings[k].id]));
+    try {
+      const out = suggestTrain(built.input, { housingOptions: options });
+      if (!out.ok) return setSuggestNote(out.reason);
+      setDraft((d) => d.map((s, k) => ({ ...s, housingId: idOf.get(out.input.stages[k].housing) ?? s.housingId, housingCount: String(out.input.stages[k].housingCount ?? 1) })));
+      setSuggestNote('Smallest housing sets that meet every limit. Save the train to keep them.');
+    } catch (error) {
+      setSuggestNote(error instanceof RangeError ? error.message : 'No suggestion could be made.');
+    }
+  };
+
+  const onSave = async () => {
+    try {
+      await save.mutateAsync({ planId: plan.id, planLotId: planLot.id, trainId: train.id, changes: { name, stages } });
+      toast.success(`${name} saved`);
+    } catch (error) {
+      toast.error('The train was not saved', errorMessage(error, { preferField: true }));
+    }
+  };
+
+  const typeOptions = cartridgeTypes.map((t) => ({ value: t.id, label: `${t.name} (${t.kind}, ${t.ratingUm} µm)` }));
+  const housingOptions = housings.map((h) => ({ value: h.id, label: `${h.name} (${h.rounds} × ${h.lengthIn} in)` }));
+
+  return (
+    <article
+      aria-label={`${planLot.lot.code}: ${train.name}`}
+      className={cn('flex w-[min(24rem,calc(100vw-3rem))] shrink-0 snap-start flex-col gap-3 rounded border bg-white p-3', chosen ? 'border-primary-600 ring-1 ring-primary-600' : 'border-ink-200')}
+    >
+      <div className="flex items-start justify-between gap-2">
+        {editable ? (
+          <Input aria-label="Train name" value={name} onChange={(e) => setName(e.target.value)} className="font-semibold" />
+        ) : (
+          <h4 className="text-base font-semibold text-ink-950">{train.name}</h4>
+        )}
+        {chosen ? (
+          <StatusBadge tone="ok" className="mt-2">
+            chosen
+          </StatusBadge>
+        ) : null}
+      </div>
+
+      <ol className="flex flex-col gap-3">
+        {draft.map((d, i) => {
+          const s = sized.ok ? sized.result.stages[i] : null;
+          return (
+            <li key={i} className="rounded border border-ink-200 p-2.5" aria-label={`Stage ${i + 1}`}>
+              <div className="mb-2 flex items-center justify-between gap-2">
+                <span className="text-sm font-semibold text-ink-800">
+                  Stage {i + 1}
+                  {s ? <span className="font-normal text-ink-600"> · {s.kind}, {s.ratingUm} µm</span> : null}
+                </span>
+                {editable && draft.length > 1 ? (
+                  <Button variant="ghost" size="sm" icon={<X />} aria-label={`Remove stage ${i + 1}`} onClick={() => setDraft((x) => x.filter((_, k) => k !== i))}>
+                    Remove
+                  </Button>
+                ) : null}
+              </div>
+              <div className="grid grid-cols-1 gap-2">
+                <FormField label="Cartridge type" htmlFor={`${id}-t${i}`}>
+                  <Select id={`${id}-t${i}`} disabled={!editable} value={d.cartridgeTypeId} placeholder="Choose a type" options={typeOptions} onChange={(e) => setStage(i, { cartridgeTypeId: e.target.value })} />
+                </FormField>
+                <FormField label="Housing" htmlFor={`${id}-h${i}`}>
+                  <Select id={`${id}-h${i}`} disabled={!editable} value={d.housingId} placeholder="Choose a housing" options={housingOptions} onChange={(e) => setStage(i, { housingId: e.target.value })} />
+                </FormField>
+                <div className="grid grid-cols-2 gap-2">
+                  <FormField label="Housings in parallel" htmlFor={`${id}-n${i}`}>
+                    <NumberInput id={`${id}-n${i}`} disabled={!editable} value={d.housingCount} onChange={(e) => setStage(i, { housingCount: e.target.value })} />
+                  </FormField>
+                  <FormField label="Capacity" htmlFor={`${id}-c${i}`}>
+                    <NumberInput id={`${id}-c${i}`} unit="L/m²" placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
+                  </FormField>
+                </div>
+              </div>
+              {s ? <StageFigures s={s} /> : null}
+            </li>
+          );
+        })}
+      </ol>
+
+      {sized.ok ? (
+        <>
+          <Totals r={sized.result} />
+          <Warnings warnings={sized.result.warnings} />
+        </>
+      ) : (
+        <p role="status" className="flex gap-1.5 text-sm text-watch-800">
+          <TriangleExclamationPoint aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
+          {sized.error}
+        </p>
+      )}
+      {suggestNote ? <p className="text-sm text-ink-700">{suggestNote}</p> : null}
+
+      {editable ? (
+        <div className="flex flex-wrap gap-2 border-t border-ink-200 pt-3 max-sm:[&_button]:min-h-11">
+          <Button onClick={onSave} loading={save.isPending} disabled={!dirty} icon={<Save />}>
+            Save train
+          </Button>
+          <Button
+            variant="secondary"
+            icon={<CircleCheck />}
+            disabled={chosen || dirty}
+            title={dirty ? 'Save the changes first' : undefined}
+            loading={choose.isPending}
+            onClick={() =>
+              choose.mutate(
+                { planId: plan.id, planLotId: planLot.id, changes: { chosenTrainId: train.id } },
+                { onError: (e) => toast.error('Not chosen', errorMessage(e)) },
+              )
+            }
+          >
+            {chosen ? 'Chosen' : 'Choose this train'}
+          </Button>
+          <Button variant="ghost" icon={<Sparkles />} onClick={suggest}>
+            Suggest housings
+          </Button>
+          {draft.length < STAGES_MAX ? (
+            <Button
+              variant="ghost"
+              icon={<Plus />}
+              onClick={() => setDraft((x) => [...x, { name: '', cartridgeTypeId: '', housingId: '', housingCount: '1', capacity: '' }])}
+            >
+              Add stage
+            </Button>
+          ) : null}
+          <Button
+            variant="ghost"
+            icon={<Trash2 />}
+            loading={remove.isPending}
+            aria-label={`Delete ${train.name}`}
+            onClick={() => remove.mutate({ planId: plan.id, planLotId: planLot.id, trainId: train.id }, { onError: (e) => toast.error('Not deleted', errorMessage(e)) })}
+          >
+            Delete
+          </Button>
+          {dirty ? <p className="w-full text-sm text-watch-800">Unsaved changes: the figures above are live, the plan keeps the saved train.</p> : null}
+        </div>
+      ) : null}
+    </article>
+  );
+}

@@ -1,0 +1,87 @@
+// Valid request bodies for plans, and a small set of equipment and lots a plan stands on.
+import type { PlanDto } from '../../shared/types/plans';
+import { createLot } from './cellar';
+import { createCartridgeType, createHousing, createLine } from './equipment';
+import type { Client } from '../support/test-app';
+
+let n = 0;
+const unique = (prefix: string) => `${prefix} ${Date.now().toString(36)}-${process.pid}-${(n += 1)}`;
+
+export const planBody = (lineId: string, over: Record<string, unknown> = {}) => ({
+  name: unique('Bottling day'),
+  plannedDate: '2025-06-12',
+  lineId,
+  startTime: '07:00',
+  sanitationKind: 'hot-water',
+  notes: '',
+  ...over,
+});
+
+/** A two-stage train: a polypropylene prefilter then a membrane, one housing each unless told. */
+export const trainBody = (w: PlanWorld, over: Record<string, unknown> = {}, counts: [number, number] = [1, 1]) => ({
+  name: 'Option A',
+  stages: [
+    { name: 'Prefilter', cartridgeTypeId: w.prefilterTypeId, housingId: w.prefilterHousingId, housingCount: counts[0], capacityLPerM2: 3000 },
+    { name: 'Membrane', cartridgeTypeId: w.membraneTypeId, housingId: w.membraneHousingId, housingCount: counts[1], capacityLPerM2: 2000 },
+  ],
+  ...over,
+});
+
+export type PlanWorld = {
+  lineId: string;
+  lotId: string;
+  secondLotId: string;
+  prefilterTypeId: string;
+  membraneTypeId: string;
+  prefilterHousingId: string;
+  membraneHousingId: string;
+  /** A housing rated for 1 bar only: any train through it breaks the rating. */
+  weakHousingId: string;
+};
+
+/** A line (3,000 × 750 mL), two lots, a prefilter and a membrane type and their housings. */
+export async function createPlanWorld(client: Client): Promise<PlanWorld> {
+  const line = await createLine(client, { bottlesPerHour: 3000, bottleMl: 750 });
+  const lot = await createLot(client, { volumeL: 6000, tempC: 12, ethanolPctVol: 12.5, sugarGPerL: 2 });
+  const second = await createLot(client, { volumeL: 3000, tempC: 14, ethanolPctVol: 13.5, sugarGPerL: 1 });
+  const pre = await createCartridgeType(client, {
+    kind: 'prefilter',
+    media: 'polypropylene',
+    ratingUm: 1,
+    areaM2Per10in: 0.45,
+    waterFlowLhPer10in: 900,
+    waterDpBar: 0.15,
+    designFluxLhPer10in: 500,
+    bubblePointMinBar: null,
+    diffusionMaxMlMinPer10in: null,
+    pricePer10in: 16,
+  });
+  const mem = await createCartridgeType(client, { pricePer10in: 95 });
+  const preHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 8 });
+  const memHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 10 });
+  const weak = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 1 });
+  return {
+    lineId: line.id,
+    lotId: lot.id,
+    secondLotId: second.id,
+    prefilterTypeId: pre.id,
+    membraneTypeId: mem.id,
+    prefilterHousingId: preHousing.id,
+    membraneHousingId: memHousing.id,
+    weakHousingId: weak.id,
+  };
+}
+
+async function ok<T>(res: { status: number; body: unknown; text: string }, status: number, what: string): Promise<T> {
+  if (res.status !== status) throw new Error(`${what} failed: ${res.status} ${res.text}`);
+  return res.body as T;
+}
+
+export const createPlan = async (client: Client, lineId: string, over: Record<string, unknown> = {}) =>
+  ok<PlanDto>(await client.post('/api/plans', planBody(lineId, over)), 201, 'creating a plan');
+
+export const addPlanLot = async (client: Client, planId: string, lotId: string, volumeL?: number) =>
+  ok<PlanDto>(await client.post(`/api/plans/${planId}/lots`, { lotId, volumeL }), 201, 'adding a lot');
+
+export const addTrain = async (client: Client, planId: string, planLotId: string, body: unknown) =>
+  ok<PlanDto>(await client.post(`/api/plans/${planId}/lots/${planLotId}/trains`, body), 201, 'adding a train');
