@@ -2,6 +2,7 @@
 import type { BudgetFactor, LimitingFactor } from '../engine/cartridge-life';
 import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
 import type { CartridgeStatus } from '../schemas/cartridges';
+import type { PlanStatus } from '../schemas/plans';
 import type { StockFigure } from './cartridges';
 
 /** A lot that is not ready, borderline, or has no verdict yet. */
@@ -58,6 +59,35 @@ export type TodayStockTypeDto = {
   shortfall: boolean;
 };
 
+/** A cartridge type and length the plan's chosen trains need more of than the winery has. */
+export type TodayPlanShortfallDto = {
+  cartridgeTypeId: string;
+  typeName: string;
+  kind: 'prefilter' | 'membrane';
+  lengthIn: number;
+  /** Cartridges to find or order: needed minus in stock and installed. */
+  short: number;
+};
+
+/** A bottling day still ahead (draft or approved, planned today or later). */
+export type TodayPlanDto = {
+  id: string;
+  name: string;
+  /** YYYY-MM-DD */
+  plannedDate: string;
+  status: Exclude<PlanStatus, 'done'>;
+  line: { id: string; name: string } | null;
+  lotCount: number;
+  /** Sum of the volumes to bottle, L. */
+  volumeL: number;
+  /** Every lot has a chosen train (false when the plan has no lots yet). */
+  trainsChosen: boolean;
+  /** Lots still without a chosen train. */
+  lotsWithoutTrain: number;
+  /** From the plan's cartridges needed; empty when the stock covers the chosen trains. */
+  shortfalls: TodayPlanShortfallDto[];
+};
+
 export type TodayDto = {
   counts: {
     lots: number;
@@ -86,4 +116,6 @@ export type TodayDto = {
     types: TodayStockTypeDto[];
     shortfalls: number;
   };
+  /** Draft and approved plans dated today or later, soonest first, at most 5. */
+  upcomingPlans: TodayPlanDto[];
 };

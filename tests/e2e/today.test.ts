@@ -4,8 +4,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
 import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
 import { cartridgeEventsTable } from '../../server/db/schema';
+import type { PlanDto } from '../../shared/types/plans';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { createLot } from '../factories/cellar';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
 let browser: Browser;
@@ -46,7 +49,7 @@ describe('today', () => {
     await cartridges.getByRole('link').first().waitFor();
     expect(await cartridges.getByRole('link').count()).toBeGreaterThanOrEqual(1);
     await page.getByRole('list', { name: 'Stock by type' }).waitFor();
-    expect(await page.getByText('will appear here once they are planned').count()).toBe(1);
+    expect(await page.getByText('Runs in progress will appear here once run logging is in use.').count()).toBe(1);
     await screenshot(page, 'today-desktop');
 
     await notReady.click();
@@ -62,9 +65,32 @@ describe('today', () => {
     await context.close();
   });
 
+  it('shows the demo bottling day a week ahead first, and opens its plan', async () => {
+    const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
+    const days = page.getByRole('list', { name: 'Next bottling days' });
+    const plan = days.getByRole('link').filter({ hasText: 'Whites bottling, week ahead' });
+    await plan.waitFor();
+    const text = (await plan.textContent())!;
+    expect(text).toContain('in 7 days');
+    expect(text).toContain('draft');
+    expect(text).toMatch(/2\s*lots/);
+    expect(text).toMatch(/trains chosen|trains to choose/);
+    // It comes before the lots and cartridges to look at.
+    const headings = await page.locator('main h2').allTextContents();
+    expect(headings.indexOf('Next bottling days')).toBe(0);
+    await screenshot(page, 'today-plans-desktop');
+    await plan.click();
+    await page.waitForURL(/\/plans\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { name: 'Whites bottling, week ahead' }).first().waitFor();
+    expect(errors).toEqual([]);
+    await context.close();
+  });
+
   it('works on a phone in one column', async () => {
     const { context, page, errors } = await signIn('tech@quillwater.test', { width: 390, height: 844 }, true);
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
+    await page.getByRole('list', { name: 'Next bottling days' }).getByRole('link').filter({ hasText: 'Whites bottling, week ahead' }).waitFor();
     await page.getByRole('list', { name: 'Lots to look at' }).getByRole('link').filter({ hasText: 'QW-23-PN04' }).waitFor();
     await page.getByRole('list', { name: 'Cartridges to look at' }).getByRole('link').first().waitFor();
     await screenshot(page, 'today-phone');
@@ -88,12 +114,40 @@ describe('today', () => {
     await page.goto(app.baseUrl);
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     await page.getByRole('heading', { name: 'Set up your cellar' }).waitFor();
-    expect(await page.getByText('will appear here once they are planned').count()).toBe(1);
+    expect(await page.getByText('Runs in progress will appear here once run logging is in use.').count()).toBe(1);
+    // Nothing to plan with yet: the cellar and equipment come first.
+    expect(await page.getByRole('heading', { name: 'Next bottling days' }).count()).toBe(0);
     await screenshot(page, 'today-new-winery-phone');
     await page.getByRole('link', { name: /Add tanks and lots in Cellar/ }).click();
     await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
     expect(errors).toEqual([]);
     await context.close();
+  });
+
+  it('says when no bottling day is planned, with a link for those who may plan one', async () => {
+    const { client: owner } = await signUp(app.baseUrl, { name: 'Ada Rendle', wineryName: 'Larkspur Test Cellars' });
+    await createLot(owner);
+    const { client: auditor } = await addMember(app, owner, 'auditor');
+    const open = async (client: Client) => {
+      const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
+      await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
+      const page = await context.newPage();
+      const errors = watchPageErrors(page);
+      await page.goto(`${app.baseUrl}/today`);
+      await page.getByText('No bottling day planned yet.').waitFor();
+      return { context, page, errors };
+    };
+    const asAuditor = await open(auditor);
+    expect(await asAuditor.page.getByRole('link', { name: 'Plan a bottling day' }).count()).toBe(0);
+    expect(asAuditor.errors).toEqual([]);
+    await asAuditor.context.close();
+
+    const asOwner = await open(owner);
+    await screenshot(asOwner.page, 'today-no-plans-phone');
+    await asOwner.page.getByRole('link', { name: 'Plan a bottling day' }).click();
+    await asOwner.page.waitForURL(/\/plans$/);
+    expect(asOwner.errors).toEqual([]);
+    await asOwner.context.close();
   });
 
   it('shows a failed integrity test and a type with nothing in stock in words', async () => {
@@ -106,6 +160,14 @@ describe('today', () => {
     const reg = await client.post('/api/cartridges', { serial, batch: 'B25-001', typeId: type.id, lengthIn: 30 });
     await client.post(`/api/cartridges/${reg.body.id}/install`, { housingId: housing.id });
     await app.db.insert(cartridgeEventsTable).values({ wineryId, cartridgeId: reg.body.id, kind: 'integrity', at: new Date(), details: { pass: false } });
+    // A bottling day in four days whose chosen train needs cartridges the winery does not have.
+    const world = await createPlanWorld(client);
+    const plan = await createPlan(client, world.lineId, { name: 'Short-stock bottling', plannedDate: new Date(Date.now() + 4 * 86_400_000).toISOString().slice(0, 10) });
+    const planLotId = (await addPlanLot(client, plan.id, world.lotId)).lots[0].id;
+    const trainId = (await addTrain(client, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
+    const chosen = await client.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+    const short = (chosen.body as PlanDto).needs.filter((n) => n.verdict === 'short');
+    expect(short.length).toBe(2);
 
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
@@ -119,7 +181,12 @@ describe('today', () => {
     // Its only cartridge is installed, so neither type has one on the shelf.
     await page.getByText('No PP 1 µm in stock').waitFor();
     await page.getByText('No PES 0.45 µm in stock').waitFor();
-    expect(await page.getByText('none in stock').count()).toBe(2);
+    expect(await page.getByText('none in stock').count()).toBe(4);
+    const day = page.getByRole('list', { name: 'Next bottling days' }).getByRole('link').filter({ hasText: 'Short-stock bottling' });
+    await day.waitFor();
+    const dayText = (await day.textContent())!.replace(/\u00a0/g, ' ');
+    for (const n of short) expect(dayText).toContain(`Short ${n.shortfall} × ${n.typeName} (30 in)`);
+    expect(dayText).toContain('trains chosen');
     await screenshot(page, 'today-shortfall-desktop');
     expect(errors).toEqual([]);
     await context.close();

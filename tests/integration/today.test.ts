@@ -1,9 +1,11 @@
 // @vitest-environment node
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { cartridgeEventsTable } from '../../server/db/schema';
+import { cartridgeEventsTable, cartridgesTable } from '../../server/db/schema';
+import type { PlanDto } from '../../shared/types/plans';
 import type { TodayDto } from '../../shared/types/today';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
 import { createLabResult, createLot, createTank } from '../factories/cellar';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
 import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -75,6 +77,7 @@ describe('GET /api/today', () => {
     expect(body.lots).toEqual({ byVerdict: { ready: 0, borderline: 0, 'not-ready': 0, unknown: 0 }, attention: [], attentionTotal: 0 });
     expect(body.cartridges).toEqual({ attention: [], attentionTotal: 0 });
     expect(body.stock).toEqual({ types: [], shortfalls: 0 });
+    expect(body.upcomingPlans).toEqual([]);
   });
 
   it('shows the lots and cartridges that need a look, and the stock shortfalls', async () => {
@@ -191,5 +194,122 @@ describe('GET /api/today', () => {
     expect(ids(bodyB).every((id) => idsOfB.includes(id))).toBe(true);
     expect(ids(bodyA).some((id) => idsOfB.includes(id))).toBe(false);
     expect(bodyA.counts).toEqual(bodyB.counts);
+  });
+});
+
+/** A UTC date string `offset` days from now, as the server compares them. */
+const isoDay = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
+
+async function ok(res: { status: number; text: string; body: unknown }, what: string) {
+  if (res.status !== 200) throw new Error(`${what} failed: ${res.status} ${res.text}`);
+  return res.body as PlanDto;
+}
+
+/**
+ * A winery with a line, two lots, a prefilter and a membrane type, one prefilter cartridge on
+ * the shelf and no membranes; and plans: a draft ahead with a chosen train (short of cartridges)
+ * and a lot still to choose, an approved one sooner, one today, one past and one done.
+ */
+async function plannedWinery(name: string) {
+  const { client, me } = await signUp(app.baseUrl, { wineryName: name });
+  const wineryId = me.activeWineryId!;
+  const w = await createPlanWorld(client);
+  await app.db.insert(cartridgesTable).values({ wineryId, serial: nextSerial(), typeId: w.prefilterTypeId, lengthIn: 30, status: 'in-stock' });
+
+  const withTrain = async (planId: string, lotId: string, volumeL?: number) => {
+    const withLot = await addPlanLot(client, planId, lotId, volumeL);
+    const planLot = withLot.lots.find((l) => l.lot.id === lotId)!;
+    const trained = await addTrain(client, planId, planLot.id, trainBody(w));
+    const trainId = trained.lots.find((l) => l.id === planLot.id)!.trains[0].id;
+    return ok(await client.patch(`/api/plans/${planId}/lots/${planLot.id}`, { chosenTrainId: trainId }), 'choosing a train');
+  };
+
+  const ahead = await createPlan(client, w.lineId, { name: `Whites ahead ${name}`, plannedDate: isoDay(10) });
+  await withTrain(ahead.id, w.lotId, 4000);
+  await addPlanLot(client, ahead.id, w.secondLotId, 1500);
+  const aheadDetail = await ok(await client.get(`/api/plans/${ahead.id}`), 'reading the plan');
+
+  const sooner = await createPlan(client, w.lineId, { name: `Rosé sooner ${name}`, plannedDate: isoDay(3) });
+  await withTrain(sooner.id, w.secondLotId);
+  await ok(await client.post(`/api/plans/${sooner.id}/approve`), 'approving');
+
+  const todays = await createPlan(client, w.lineId, { name: `Empty today ${name}`, plannedDate: isoDay(0) });
+
+  const past = await createPlan(client, w.lineId, { name: `Past ${name}`, plannedDate: isoDay(-2) });
+  const done = await createPlan(client, w.lineId, { name: `Done ${name}`, plannedDate: isoDay(5) });
+  await withTrain(done.id, w.lotId);
+  await ok(await client.post(`/api/plans/${done.id}/approve`), 'approving');
+  await ok(await client.post(`/api/plans/${done.id}/done`), 'marking done');
+
+  return { client, world: w, plans: { ahead: aheadDetail, sooner, todays, past, done } };
+}
+
+describe('GET /api/today: the next bottling days', () => {
+  it('lists draft and approved plans from today on, soonest first, with the cartridge shortfalls', async () => {
+    const p = await plannedWinery('Planned Today Winery');
+    const body = await today(p.client);
+    const names = body.upcomingPlans.map((x) => x.name);
+    expect(body.upcomingPlans.map((x) => x.id)).toEqual([p.plans.todays.id, p.plans.sooner.id, p.plans.ahead.id]);
+    // A past plan and a done plan are left out.
+    expect(names.some((n) => n.startsWith('Past ') || n.startsWith('Done '))).toBe(false);
+
+    const [todays, sooner, ahead] = body.upcomingPlans;
+    expect(todays).toMatchObject({ plannedDate: isoDay(0), status: 'draft', lotCount: 0, volumeL: 0, trainsChosen: false, lotsWithoutTrain: 0, shortfalls: [] });
+    expect(sooner).toMatchObject({ plannedDate: isoDay(3), status: 'approved', lotCount: 1, volumeL: 3000, trainsChosen: true, lotsWithoutTrain: 0 });
+    expect(ahead).toMatchObject({
+      id: p.plans.ahead.id,
+      name: p.plans.ahead.name,
+      plannedDate: isoDay(10),
+      status: 'draft',
+      line: { id: p.world.lineId, name: p.plans.ahead.line!.name },
+      lotCount: 2,
+      volumeL: 5500,
+      trainsChosen: false,
+      lotsWithoutTrain: 1,
+    });
+
+    // The shortfalls are the plan's own cartridges-needed figures: the prefilter set needs more
+    // than the one cartridge on the shelf, and there are no membranes at all.
+    const short = p.plans.ahead.needs.filter((n) => n.verdict === 'short');
+    expect(short.map((n) => n.cartridgeTypeId)).toEqual([p.world.prefilterTypeId, p.world.membraneTypeId]);
+    expect(ahead.shortfalls).toEqual(short.map((n) => ({ cartridgeTypeId: n.cartridgeTypeId, typeName: n.typeName, kind: n.kind, lengthIn: 30, short: n.shortfall })));
+    const [pre, mem] = ahead.shortfalls;
+    expect(pre.short).toBe(short[0].cartridgesNeeded - 1);
+    expect(mem.short).toBe(short[1].cartridgesNeeded);
+    expect(mem.short).toBeGreaterThan(0);
+  });
+
+  it('shows at most 5', async () => {
+    const { client } = await signUp(app.baseUrl, { wineryName: 'Busy Calendar Winery' });
+    const w = await createPlanWorld(client);
+    const made = [];
+    for (const offset of [20, 1, 14, 7, 2, 30]) made.push({ offset, plan: await createPlan(client, w.lineId, { plannedDate: isoDay(offset) }) });
+    const body = await today(client);
+    const expected = [...made].sort((a, b) => a.offset - b.offset).slice(0, 5).map((m) => m.plan.id);
+    expect(body.upcomingPlans.map((x) => x.id)).toEqual(expected);
+  });
+
+  it('may be read by every role', async () => {
+    const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Roles Plans Today Winery' });
+    const w = await createPlanWorld(owner);
+    const plan = await createPlan(owner, w.lineId, { plannedDate: isoDay(4) });
+    for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
+      const { client } = await addMember(app, owner, role);
+      const body = await today(client);
+      expect(body.upcomingPlans.map((x) => x.id), role).toEqual([plan.id]);
+    }
+  });
+
+  it("never shows another winery's plans", async () => {
+    const a = await plannedWinery('Plans Today Winery A');
+    const b = await plannedWinery('Plans Today Winery B');
+    const [bodyA, bodyB] = await Promise.all([today(a.client), today(b.client)]);
+    const ownIds = (p: typeof a) => Object.values(p.plans).map((x) => x.id);
+    expect(bodyA.upcomingPlans).toHaveLength(3);
+    expect(bodyA.upcomingPlans.every((x) => ownIds(a).includes(x.id))).toBe(true);
+    expect(bodyB.upcomingPlans.every((x) => ownIds(b).includes(x.id))).toBe(true);
+    const typesOf = (body: TodayDto) => body.upcomingPlans.flatMap((x) => x.shortfalls.map((s) => s.cartridgeTypeId));
+    expect(typesOf(bodyA).every((id) => [a.world.prefilterTypeId, a.world.membraneTypeId].includes(id))).toBe(true);
+    expect(typesOf(bodyB).some((id) => [a.world.prefilterTypeId, a.world.membraneTypeId].includes(id))).toBe(false);
   });
 });

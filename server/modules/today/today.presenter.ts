@@ -1,6 +1,7 @@
 import type { CartridgeStockRowDto } from '../../../shared/types/cartridges';
 import type { LotListItemDto } from '../../../shared/types/cellar';
-import type { TodayCartridgeDto, TodayCartridgeFigure, TodayLotDto, TodayStockTypeDto } from '../../../shared/types/today';
+import type { PlanDto } from '../../../shared/types/plans';
+import type { TodayCartridgeDto, TodayCartridgeFigure, TodayLotDto, TodayPlanDto, TodayStockTypeDto } from '../../../shared/types/today';
 import type { TodayCartridgeRow } from './today.repository';
 
 export const presentTodayLot = (lot: LotListItemDto, reason: string): TodayLotDto => ({
@@ -39,3 +40,22 @@ export const presentStockType = (t: CartridgeStockRowDto): TodayStockTypeDto => 
   regenerating: t.regenerating,
   shortfall: t.inStock.count === 0,
 });
+
+/** A plan's detail cut down to what Today shows of a bottling day ahead. */
+export const presentTodayPlan = (plan: PlanDto & { status: TodayPlanDto['status'] }): TodayPlanDto => {
+  const lotsWithoutTrain = plan.lots.filter((l) => l.chosenTrainId === null).length;
+  return {
+    id: plan.id,
+    name: plan.name,
+    plannedDate: plan.plannedDate,
+    status: plan.status,
+    line: plan.line ? { id: plan.line.id, name: plan.line.name } : null,
+    lotCount: plan.lots.length,
+    volumeL: plan.lots.reduce((sum, l) => sum + l.volumeL, 0),
+    trainsChosen: plan.lots.length > 0 && lotsWithoutTrain === 0,
+    lotsWithoutTrain,
+    shortfalls: plan.needs
+      .filter((n) => n.verdict === 'short')
+      .map((n) => ({ cartridgeTypeId: n.cartridgeTypeId, typeName: n.typeName, kind: n.kind, lengthIn: n.lengthIn, short: n.shortfall })),
+  };
+};

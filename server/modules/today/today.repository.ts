@@ -1,6 +1,6 @@
-import { and, asc, count, eq, exists, inArray, or, sql } from 'drizzle-orm';
+import { and, asc, count, eq, exists, gte, inArray, or, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, tanksTable } from '../../db/schema';
+import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
 
 /** Event kinds the life forecast reads. */
 const LIFE_EVENT_KINDS = ['registered', 'cycle', 'integrity'] as const;
@@ -9,6 +9,17 @@ const USE_EVENT_KINDS = ['cycle', 'integrity', 'run'] as const;
 
 export function createTodayRepository(db: DbOrTx) {
   return {
+    /** Ids of the draft and approved plans dated on or after fromDate (YYYY-MM-DD), soonest first (one query). */
+    async upcomingPlanIds(wineryId: string, fromDate: string, limit: number) {
+      const rows = await db
+        .select({ id: plansTable.id })
+        .from(plansTable)
+        .where(and(eq(plansTable.wineryId, wineryId), inArray(plansTable.status, ['draft', 'approved']), gte(plansTable.plannedDate, fromDate)))
+        .orderBy(asc(plansTable.plannedDate), asc(plansTable.startTime), asc(plansTable.name), asc(plansTable.id))
+        .limit(limit);
+      return rows.map((r) => r.id);
+    },
+
     /** Tanks, housings and housings with at least one empty round, in one query. */
     async counts(wineryId: string) {
       const installedPerHousing = db

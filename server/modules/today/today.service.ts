@@ -2,16 +2,20 @@ import type { CartridgeLife } from '../../../shared/engine';
 import type { ReadinessVerdict } from '../../../shared/engine/readiness';
 import type { LotsListQuery } from '../../../shared/schemas/cellar';
 import type { LotListItemDto } from '../../../shared/types/cellar';
-import type { TodayCartridgeFigure, TodayDto } from '../../../shared/types/today';
+import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shared/types/today';
 import type { Database } from '../../db/client';
+import { HttpError } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { createCartridgesService, lifeFromHistory } from '../cartridges/cartridges.service';
 import { createCellarService } from '../cellar/cellar.service';
-import { presentStockType, presentTodayCartridge, presentTodayLot } from './today.presenter';
+import { createPlansService } from '../plans/plans.service';
+import { presentStockType, presentTodayCartridge, presentTodayLot, presentTodayPlan } from './today.presenter';
 import { createTodayRepository, type TodayCartridgeRow } from './today.repository';
 
 /** Lots shown on the page; the total is given beside them. */
 export const TODAY_LOTS_MAX = 8;
+/** Bottling days ahead shown on the page. */
+export const TODAY_PLANS_MAX = 5;
 /** Cartridges shown on the page. */
 export const TODAY_CARTRIDGES_MAX = 10;
 /** A cartridge with this many care cycles left, or fewer, is near the end of its life. */
@@ -102,11 +106,31 @@ function findingsOf(life: CartridgeLife, latestIntegrityAt: Date | null): Findin
   return found.sort((a, b) => a.rank - b.rank || b.closeness - a.closeness);
 }
 
-/** The landing page: lots and cartridges that need a look, stock shortfalls and the header counts. */
+/** The landing page: the next bottling days, lots and cartridges that need a look, stock shortfalls and the header counts. */
 export function createTodayService(db: Database) {
   const repo = createTodayRepository(db);
   const cellar = createCellarService(db);
   const cartridges = createCartridgesService(db);
+  const plans = createPlansService(db);
+
+  /**
+   * The next bottling days: draft and approved plans dated today (UTC) or later, soonest first.
+   * One query for the ids, then each plan's detail from the plans service (its needs are the
+   * engine's figures against stock), at most TODAY_PLANS_MAX of them.
+   */
+  async function upcomingPlans(tenant: TenantContext, now: Date): Promise<TodayPlanDto[]> {
+    const ids = await repo.upcomingPlanIds(tenant.wineryId, now.toISOString().slice(0, 10), TODAY_PLANS_MAX);
+    const details = await Promise.all(
+      ids.map((id) =>
+        plans.get(tenant, id).catch((error: unknown) => {
+          // Deleted between the two reads: leave it out.
+          if (error instanceof HttpError && error.status === 404) return null;
+          throw error;
+        }),
+      ),
+    );
+    return details.flatMap((p) => (p && p.status !== 'done' ? [presentTodayPlan({ ...p, status: p.status })] : []));
+  }
 
   /** Cartridges to look at, most urgent first: two queries whatever their number (the rows, then all their events). */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
@@ -146,11 +170,12 @@ export function createTodayService(db: Database) {
 
   return {
     async today(tenant: TenantContext, now = new Date()): Promise<TodayDto> {
-      const [lots, summary, counts, toLookAt] = await Promise.all([
+      const [lots, summary, counts, toLookAt, planned] = await Promise.all([
         cellar.listLots(tenant, ALL_LOTS),
         cartridges.summary(tenant),
         repo.counts(tenant.wineryId),
         cartridgesToLookAt(tenant.wineryId, now),
+        upcomingPlans(tenant, now),
       ]);
 
       const byVerdict: Record<ReadinessVerdict, number> = { ready: 0, borderline: 0, 'not-ready': 0, unknown: 0 };
@@ -178,6 +203,7 @@ export function createTodayService(db: Database) {
         },
         cartridges: toLookAt,
         stock: { types, shortfalls: types.filter((t) => t.shortfall).length },
+        upcomingPlans: planned,
       };
     },
   };

@@ -1,5 +1,5 @@
 import { format } from 'date-fns';
-import { CalendarClock, Cylinder, Filter, Wine } from 'lucide-react';
+import { Activity, Cylinder, Filter, Wine } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { TodayDto } from '@shared/types/today';
@@ -13,6 +13,7 @@ import { activeMembership, useMe } from '@/lib/session';
 import { useToday } from '../api/get-today';
 import { CartridgesToLookAt } from './cartridges-to-look-at';
 import { LotsToLookAt } from './lots-to-look-at';
+import { NextBottlingDays } from './next-bottling-days';
 import { StockCard } from './stock-card';
 
 function Figure({ to, value, label, detail }: { to: string; value: number; label: string; detail?: ReactNode }) {
@@ -99,9 +100,11 @@ export function TodayPage() {
               />
             </div>
           )}
+          {/* A new winery starts with its cellar and equipment; a plan needs both. */}
+          {!isNewWinery(today.data.counts) || today.data.upcomingPlans.length > 0 ? <NextBottlingDays plans={today.data.upcomingPlans} /> : null}
           <p className="flex items-start gap-2 text-sm text-ink-600">
-            <CalendarClock aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
-            <span>The next bottling days and the runs in progress will appear here once they are planned.</span>
+            <Activity aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
+            <span>Runs in progress will appear here once run logging is in use.</span>
           </p>
           {isNewWinery(today.data.counts) ? null : (
             <div className="grid items-start gap-6 lg:grid-cols-2">
