@@ -4,7 +4,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -20,16 +20,8 @@ afterAll(async () => {
   await app?.close();
 });
 
-async function signIn(email: string, viewport: { width: number; height: number }) {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  const errors = watchPageErrors(page);
-  await page.goto(`${app.baseUrl}/sign-in`);
-  await page.getByLabel('E-mail', { exact: true }).fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Sections' }).waitFor();
-  return { context, page, errors };
+function signIn(email: string, viewport: { width: number; height: number }) {
+  return signInAs(browser, app.baseUrl, email, { viewport, password: DEMO_PASSWORD });
 }
 
 describe('demo tour', () => {

@@ -2,7 +2,7 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { clientDir, launchBrowser, screenshot, watchPageErrors, signInAs } from '../support/browser';
 import { cartridgeEventsTable } from '../../server/db/schema';
 import type { PlanDto } from '../../shared/types/plans';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
@@ -23,16 +23,8 @@ afterAll(async () => {
   await app?.close();
 });
 
-async function signIn(email: string, viewport: { width: number; height: number }, mobile = false) {
-  const context = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
-  const page = await context.newPage();
-  const errors = watchPageErrors(page);
-  await page.goto(`${app.baseUrl}/sign-in`);
-  await page.getByLabel('E-mail', { exact: true }).fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Sections' }).waitFor();
-  return { context, page, errors };
+function signIn(email: string, viewport: { width: number; height: number }, mobile = false) {
+  return signInAs(browser, app.baseUrl, email, { viewport, mobile, password: DEMO_PASSWORD });
 }
 
 describe('today', () => {

@@ -41,3 +41,21 @@ export function watchPageErrors(page: Page) {
   });
   return errors;
 }
+
+/** A fresh browser context signed in as `email` (demo password unless given), with page-error watching. */
+export async function signInAs(
+  browser: Browser,
+  baseUrl: string,
+  email: string,
+  opts: { viewport: { width: number; height: number }; mobile?: boolean; password?: string },
+) {
+  const context = await browser.newContext({ viewport: opts.viewport, isMobile: opts.mobile ?? false, hasTouch: opts.mobile ?? false });
+  const page = await context.newPage();
+  const errors = watchPageErrors(page);
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail', { exact: true }).fill(email);
+  await page.getByLabel('Password', { exact: true }).fill(opts.password ?? 'porewise-demo');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('navigation', { name: 'Sections' }).waitFor();
+  return { context, page, errors };
+}
