@@ -28,6 +28,7 @@ import { cellarRoutes } from './modules/cellar/cellar.routes';
 import { equipmentRoutes } from './modules/equipment/equipment.routes';
 import type { ModuleDeps } from './modules/module-deps';
 import { plansRoutes } from './modules/plans/plans.routes';
+import { careRoutes } from './modules/care/care.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -111,6 +112,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(winerySettingsRoutes(moduleDeps));
   api.use(todayRoutes(moduleDeps));
   api.use(plansRoutes(moduleDeps));
+  api.use(careRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

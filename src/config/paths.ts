@@ -15,6 +15,7 @@ export const paths = {
   cartridgeImport: '/cartridges/import',
   plans: '/plans',
   plan: (id: string) => `/plans/${id}`,
+  care: '/care',
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',

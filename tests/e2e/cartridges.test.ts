@@ -107,6 +107,13 @@ describe('cartridges in the browser', () => {
     await page.getByText('Registered from a delivery import').waitFor();
     await screenshot(page, 'cartridge-page-desktop');
 
+    // Correct the batch from the delivery note; the change is kept in the history.
+    await page.getByRole('button', { name: 'Edit details' }).click();
+    await page.getByLabel('Batch', { exact: true }).fill('B25-040-R');
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await page.getByText('Details saved').waitFor();
+    await page.getByText(/batch B25-040-R/).first().waitFor();
+
     // On a phone in the cellar: install a cartridge from its own page.
     const phone = await signedInContext(client.cookies, { width: 390, height: 844 }, true);
     const mobile = await phone.newPage();

@@ -1,5 +1,5 @@
 import { format } from 'date-fns';
-import { ArrowLeft, Archive, LogIn, LogOut } from 'lucide-react';
+import { Archive, ArrowLeft, LogIn, LogOut, Pencil } from 'lucide-react';
 import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { CartridgeDetailDto } from '@shared/types/cartridges';
@@ -21,6 +21,7 @@ import { HousingCaution } from './housing-caution';
 import { InstallDialog } from './install-dialog';
 import { LifeGauge } from './life-gauge';
 import { Measure } from './measure';
+import { EditDetailsDialog } from './edit-details-dialog';
 import { RetireDialog } from './retire-dialog';
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
@@ -75,7 +76,7 @@ export function CartridgePage({ id }: { id: string }) {
   const mayRetire = useCan('cartridges:register');
   const remove = useRemoveCartridge();
   const toast = useToast();
-  const [dialog, setDialog] = useState<'install' | 'remove' | 'retire' | null>(null);
+  const [dialog, setDialog] = useState<'install' | 'remove' | 'retire' | 'details' | null>(null);
 
   if (query.isPending) return <LoadingState />;
   if (query.isError) {
@@ -109,6 +110,11 @@ export function CartridgePage({ id }: { id: string }) {
                 Remove
               </Button>
             ) : null}
+            {mayRetire ? (
+              <Button size="lg" variant="secondary" icon={<Pencil />} onClick={() => setDialog('details')}>
+                Edit details
+              </Button>
+            ) : null}
             {canRetire ? (
               <Button size="lg" variant="secondary" icon={<Archive />} onClick={() => setDialog('retire')}>
                 Retire…
@@ -122,6 +128,7 @@ export function CartridgePage({ id }: { id: string }) {
       <HistoryTimeline events={c.events} />
       <InstallDialog cartridge={c} open={dialog === 'install'} onClose={() => setDialog(null)} />
       <RetireDialog cartridge={c} open={dialog === 'retire'} onClose={() => setDialog(null)} />
+      <EditDetailsDialog cartridge={c} open={dialog === 'details'} onClose={() => setDialog(null)} />
       <Dialog
         open={dialog === 'remove'}
         onClose={() => setDialog(null)}

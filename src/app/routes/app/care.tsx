@@ -1,0 +1,5 @@
+import { CarePage } from '@/features/care/components/care-page';
+
+export default function CareRoute() {
+  return <CarePage />;
+}

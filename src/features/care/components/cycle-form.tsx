@@ -1,0 +1,170 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { CYCLE_KINDS, cycleKindLabels, logCycleInputSchema, type CycleKind } from '@shared/schemas/care';
+import type { CareTargetDto, CycleResultDto } from '@shared/types/care';
+import { Button } from '@/components/ui/button';
+import { FormField } from '@/components/ui/form-field';
+import { Input, NumberInput } from '@/components/ui/input';
+import { Quantity } from '@/components/ui/quantity';
+import { Select } from '@/components/ui/select';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { applyServerErrors } from '@/lib/form-errors';
+import { useUnits } from '@/lib/units';
+import { useLogCycle } from '../api/log-cycle';
+import { ChemicalCaution, HeatCaution } from './care-cautions';
+import { recoveryPreview } from './care-preview';
+import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
+
+const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'at'] as const;
+
+const typicalHint: Partial<Record<CycleKind, string>> = {
+  'hot-water': 'Common wine practice: about 82 °C (180 °F) for at least 20–30 min, measured at the far end of the line (Practical Winery & Vineyard, 2009; UC Davis bottling workshop, 2019).',
+  steam: 'Hold at least 15 min once live steam shows at every outlet (The Grapevine Magazine, 2021; Process Heating).',
+};
+
+/** Logs a regeneration, sanitation or sterilisation cycle of one cartridge. */
+export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: CycleResultDto) => void }) {
+  const units = useUnits();
+  const log = useLogCycle();
+  const [alert, setAlert] = useState<string | null>(null);
+
+  const schema = useMemo(
+    () =>
+      z
+        .object({
+          kind: z.string(),
+          tempC: decimalText,
+          durationMin: decimalText,
+          agent: z.string(),
+          concentrationPct: decimalText,
+          waterFlowBeforeLh: decimalText,
+          waterFlowAfterLh: decimalText,
+          at: z.string(),
+        })
+        .transform((v) => ({
+          kind: v.kind,
+          tempC: toMetricOrKeep(units.fromInput, 'temperature', v.tempC),
+          durationMin: v.durationMin,
+          agent: v.kind === 'chemical' ? v.agent.trim() || undefined : undefined,
+          concentrationPct: v.kind === 'chemical' ? v.concentrationPct : null,
+          waterFlowBeforeLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowBeforeLh),
+          waterFlowAfterLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowAfterLh),
+          at: isoOrNow(v.at),
+        }))
+        .pipe(requestSchema(logCycleInputSchema)),
+    [units.system],
+  );
+
+  const form = useForm({
+    resolver: zodResolver(schema),
+    defaultValues: { kind: 'hot-water', tempC: '', durationMin: '', agent: '', concentrationPct: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) },
+  });
+  const { errors } = form.formState;
+  const [kind, before, after] = form.watch(['kind', 'waterFlowBeforeLh', 'waterFlowAfterLh']);
+  const cycleKind = (CYCLE_KINDS as readonly string[]).includes(kind) ? (kind as CycleKind) : 'hot-water';
+
+  const toFlow = (s: string) => {
+    const v = finite(parseTyped(s));
+    return v === undefined ? undefined : units.fromInput('flow', v);
+  };
+  const recovery = recoveryPreview(target, cycleKind, toFlow(before), toFlow(after));
+
+  const submit = form.handleSubmit(async (input) => {
+    setAlert(null);
+    try {
+      const result = await log.mutateAsync({ cartridgeId: target.id, input });
+      form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) });
+      onSaved(result);
+    } catch (error) {
+      setAlert(applyServerErrors(error, form.setError, fields));
+    }
+  });
+
+  return (
+    <form id="cycle-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
+      {cycleKind === 'hot-water' || cycleKind === 'steam' ? <HeatCaution /> : null}
+      {cycleKind === 'chemical' ? <ChemicalCaution /> : null}
+      <FormField label="What was done" htmlFor="cycle-kind" error={errors.kind?.message}>
+        <Select id="cycle-kind" {...form.register('kind')} options={CYCLE_KINDS.map((k) => ({ value: k, label: cycleKindLabels[k] }))} />
+      </FormField>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <FormField
+          label="Temperature"
+          htmlFor="cycle-temp"
+          error={errors.tempC?.message}
+          hint={
+            <>
+              {target.typeName} is rated to {units.format('temperature', target.maxTempC, 0)} at most.
+              {typicalHint[cycleKind] ? <span className="mt-0.5 block">{typicalHint[cycleKind]}</span> : null}
+            </>
+          }
+        >
+          <NumberInput id="cycle-temp" unit={units.symbol('temperature')} {...form.register('tempC')} />
+        </FormField>
+        <FormField label="Duration" htmlFor="cycle-duration" error={errors.durationMin?.message}>
+          <NumberInput id="cycle-duration" unit="min" {...form.register('durationMin')} />
+        </FormField>
+      </div>
+      {cycleKind === 'chemical' ? (
+        <div className="grid gap-4 sm:grid-cols-2">
+          <FormField label="Cleaning agent" htmlFor="cycle-agent" error={errors.agent?.message} required>
+            <Input id="cycle-agent" list="cycle-agents" placeholder="e.g. caustic soda" {...form.register('agent')} />
+          </FormField>
+          <datalist id="cycle-agents">
+            <option value="Caustic soda (NaOH)" />
+            <option value="Caustic potash (KOH)" />
+            <option value="Citric acid" />
+            <option value="Peracetic acid" />
+            <option value="Enzymatic cleaner" />
+          </datalist>
+          <FormField label="Concentration" htmlFor="cycle-conc" error={errors.concentrationPct?.message}>
+            <NumberInput id="cycle-conc" unit="%" {...form.register('concentrationPct')} />
+          </FormField>
+        </div>
+      ) : null}
+      <div className="grid gap-4 sm:grid-cols-2">
+        <FormField label="Clean-water flow before" htmlFor="cycle-before" error={errors.waterFlowBeforeLh?.message}>
+          <NumberInput id="cycle-before" unit={units.symbol('flow')} {...form.register('waterFlowBeforeLh')} />
+        </FormField>
+        <FormField label="Clean-water flow after" htmlFor="cycle-after" error={errors.waterFlowAfterLh?.message} hint="At the same pressure and temperature as before.">
+          <NumberInput id="cycle-after" unit={units.symbol('flow')} {...form.register('waterFlowAfterLh')} />
+        </FormField>
+      </div>
+      <div aria-live="polite" className="text-base">
+        {recovery ? (
+          <p className="flex flex-wrap items-center gap-2">
+            <span>
+              Flow recovery <Quantity value={recovery.pct} unit="%" digits={0} className="font-semibold" />{' '}
+              {recovery.basis === 'new' ? 'of the as-new flow' : recovery.basis === 'first-after' ? 'of the first flow logged' : 'of the flow before (no as-new flow known)'}
+              {target.flowBasis ? (
+                <span className="text-ink-600"> ({units.format('flow', target.flowBasis.flowLh)})</span>
+              ) : null}
+            </span>
+            {recovery.basis !== 'before' ? (
+              recovery.pct >= recovery.minPct ? (
+                <StatusBadge tone="ok" size="sm">above the {recovery.minPct} % floor</StatusBadge>
+              ) : (
+                <StatusBadge tone="watch" size="sm">below the {recovery.minPct} % floor</StatusBadge>
+              )
+            ) : null}
+          </p>
+        ) : (
+          <p className="text-sm text-ink-600">Enter the flow after to see the recovery.</p>
+        )}
+      </div>
+      <FormField label="When" htmlFor="cycle-at" error={errors.at?.message}>
+        <Input id="cycle-at" type="datetime-local" {...form.register('at')} />
+      </FormField>
+      {alert ? (
+        <p role="alert" className="rounded border border-stop-200 bg-stop-50 px-3 py-2 text-base text-stop-700">
+          {alert}
+        </p>
+      ) : null}
+      <Button type="submit" size="lg" loading={log.isPending} className="w-full sm:w-auto">
+        Save cycle
+      </Button>
+    </form>
+  );
+}
