@@ -80,7 +80,7 @@ export function CartridgeInventory({
         accessorKey: 'serial',
         header: 'Serial',
         cell: ({ row }) => (
-          <Link to={paths.cartridge(row.original.id)} className="inline-flex min-h-8 items-center font-semibold text-primary-700 underline-offset-2 hover:underline">
+          <Link to={paths.cartridge(row.original.id)} className="inline-flex min-h-8 items-center font-semibold whitespace-nowrap text-primary-700 underline-offset-2 hover:underline">
             {row.original.serial}
           </Link>
         ),

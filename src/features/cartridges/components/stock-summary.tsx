@@ -16,9 +16,22 @@ function Figure({ f }: { f: StockFigure }) {
   );
 }
 
-const figureColumn = (key: 'inStock' | 'installed' | 'regenerating', header: string, totals: CartridgeSummaryDto['totals']): ColumnDef<CartridgeStockRowDto> => ({
+const figureColumn = (
+  key: 'inStock' | 'installed' | 'regenerating',
+  header: string,
+  shortHeader: string,
+  totals: CartridgeSummaryDto['totals'],
+): ColumnDef<CartridgeStockRowDto> => ({
   id: key,
-  header,
+  // A short heading on phones keeps the table inside 390 px.
+  header: () => (
+    <>
+      <span className="sm:hidden" aria-hidden="true">
+        {shortHeader}
+      </span>
+      <span className="max-sm:sr-only">{header}</span>
+    </>
+  ),
   meta: { numeric: true },
   cell: ({ row }) => <Figure f={row.original[key]} />,
   footer: () => <Figure f={totals[key]} />,
@@ -32,7 +45,7 @@ export function StockSummary({ summary }: { summary: CartridgeSummaryDto }) {
         id: 'type',
         header: 'Type',
         cell: ({ row }) => (
-          <div className="min-w-28">
+          <div className="min-w-24">
             <div className="font-semibold text-ink-900">{row.original.typeName}</div>
             <div className="text-xs text-ink-600">
               {row.original.kind} · <Quantity value={row.original.ratingUm} unit="µm" />
@@ -41,9 +54,9 @@ export function StockSummary({ summary }: { summary: CartridgeSummaryDto }) {
         ),
         footer: () => 'All types',
       },
-      figureColumn('inStock', 'In stock', summary.totals),
-      figureColumn('installed', 'Installed', summary.totals),
-      figureColumn('regenerating', 'Regenerating', summary.totals),
+      figureColumn('inStock', 'In stock', 'Stock', summary.totals),
+      figureColumn('installed', 'Installed', 'Inst.', summary.totals),
+      figureColumn('regenerating', 'Regenerating', 'Regen.', summary.totals),
     ],
     [summary.totals],
   );
