@@ -29,6 +29,7 @@ import { equipmentRoutes } from './modules/equipment/equipment.routes';
 import type { ModuleDeps } from './modules/module-deps';
 import { plansRoutes } from './modules/plans/plans.routes';
 import { careRoutes } from './modules/care/care.routes';
+import { runsRoutes } from './modules/runs/runs.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -113,6 +114,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(todayRoutes(moduleDeps));
   api.use(plansRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
+  api.use(runsRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -26,6 +26,8 @@ export function createRouter() {
         { path: '/cartridges/:cartridgeId', lazy: lazyPage(() => import('./routes/app/cartridge')) },
         { path: paths.plans, lazy: lazyPage(() => import('./routes/app/plans')) },
         { path: '/plans/:planId', lazy: lazyPage(() => import('./routes/app/plan')) },
+        { path: paths.runs, lazy: lazyPage(() => import('./routes/app/runs')) },
+        { path: '/runs/:runId', lazy: lazyPage(() => import('./routes/app/run')) },
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },

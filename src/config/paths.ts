@@ -15,6 +15,8 @@ export const paths = {
   cartridgeImport: '/cartridges/import',
   plans: '/plans',
   plan: (id: string) => `/plans/${id}`,
+  runs: '/runs',
+  run: (id: string) => `/runs/${id}`,
   care: '/care',
   team: '/team',
   settings: '/settings',

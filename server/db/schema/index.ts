@@ -6,3 +6,4 @@ export * from './cartridges';
 export * from './attachments';
 export * from './idempotency';
 export * from './plans';
+export * from './runs';

@@ -1,0 +1,225 @@
+import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import type { DbOrTx } from '../../db/client';
+import {
+  cartridgeEventsTable,
+  cartridgesTable,
+  cartridgeTypesTable,
+  housingsTable,
+  linesTable,
+  lotsTable,
+  planLotsTable,
+  plansTable,
+  planTrainsTable,
+  runReadingsTable,
+  runsTable,
+} from '../../db/schema';
+
+export type RunRow = typeof runsTable.$inferSelect;
+export type RunReadingRow = typeof runReadingsTable.$inferSelect;
+type ReadingInsert = typeof runReadingsTable.$inferInsert;
+type EventInsert = typeof cartridgeEventsTable.$inferInsert;
+
+const currentVolume = sql<number>`coalesce((select max(${runReadingsTable.volumeL}) from ${runReadingsTable} where ${runReadingsTable.runId} = ${runsTable.id}), 0)`.mapWith(Number);
+const readingCount = sql<number>`(select count(*) from ${runReadingsTable} where ${runReadingsTable.runId} = ${runsTable.id})`.mapWith(Number);
+
+const summaryColumns = {
+  run: runsTable,
+  planName: plansTable.name,
+  lotId: lotsTable.id,
+  lotCode: lotsTable.code,
+  lotName: lotsTable.name,
+  volumeL: planLotsTable.volumeL,
+  currentVolumeL: currentVolume,
+  readingCount,
+};
+
+export type RunSummaryRow = {
+  run: RunRow;
+  planName: string;
+  lotId: string;
+  lotCode: string;
+  lotName: string;
+  volumeL: number;
+  currentVolumeL: number;
+  readingCount: number;
+};
+
+export function createRunsRepository(db: DbOrTx) {
+  function summaries(wineryId: string) {
+    return db
+      .select(summaryColumns)
+      .from(runsTable)
+      .innerJoin(plansTable, eq(plansTable.id, runsTable.planId))
+      .innerJoin(planLotsTable, eq(planLotsTable.id, runsTable.planLotId))
+      .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+      .where(eq(runsTable.wineryId, wineryId))
+      .$dynamic();
+  }
+
+  return {
+    /** The plan lot with its plan, lot, chosen train and line; null when not this winery's. */
+    async planLot(wineryId: string, planLotId: string) {
+      const [row] = await db
+        .select({ planLot: planLotsTable, plan: plansTable, lot: lotsTable, train: planTrainsTable, line: linesTable })
+        .from(planLotsTable)
+        .innerJoin(plansTable, eq(plansTable.id, planLotsTable.planId))
+        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+        .leftJoin(planTrainsTable, and(eq(planTrainsTable.id, planLotsTable.chosenTrainId), eq(planTrainsTable.wineryId, wineryId)))
+        .leftJoin(linesTable, and(eq(linesTable.id, plansTable.lineId), eq(linesTable.wineryId, wineryId)))
+        .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.id, planLotId)));
+      return row ?? null;
+    },
+
+    /** Approved plans' lots with a chosen train, for starting a run. */
+    async startOptions(wineryId: string) {
+      const running = sql<string | null>`(select ${runsTable.id} from ${runsTable} where ${runsTable.planLotId} = ${planLotsTable.id} and ${runsTable.status} = 'running' limit 1)`;
+      return db
+        .select({
+          planLotId: planLotsTable.id,
+          planId: plansTable.id,
+          planName: plansTable.name,
+          plannedDate: plansTable.plannedDate,
+          lotCode: lotsTable.code,
+          lotName: lotsTable.name,
+          volumeL: planLotsTable.volumeL,
+          trainName: planTrainsTable.name,
+          runningRunId: running,
+        })
+        .from(planLotsTable)
+        .innerJoin(plansTable, eq(plansTable.id, planLotsTable.planId))
+        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+        .innerJoin(planTrainsTable, eq(planTrainsTable.id, planLotsTable.chosenTrainId))
+        .where(and(eq(planLotsTable.wineryId, wineryId), eq(plansTable.status, 'approved'), isNotNull(planLotsTable.chosenTrainId)))
+        .orderBy(asc(plansTable.plannedDate), asc(planLotsTable.position))
+        .limit(200);
+    },
+
+    /** Locks the plan lot so two starts of the same lot queue up. */
+    async lockPlanLot(wineryId: string, id: string) {
+      await db
+        .select({ id: planLotsTable.id })
+        .from(planLotsTable)
+        .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.id, id)))
+        .for('update');
+    },
+
+    async runningFor(wineryId: string, planLotId: string) {
+      const [row] = await db
+        .select({ id: runsTable.id })
+        .from(runsTable)
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.planLotId, planLotId), eq(runsTable.status, 'running')))
+        .limit(1);
+      return row ?? null;
+    },
+
+    async insertRun(values: { wineryId: string; planId: string; planLotId: string; startedBy: string }) {
+      const [row] = await db.insert(runsTable).values(values).returning();
+      return row;
+    },
+
+    async list(wineryId: string, limit: number) {
+      return (await summaries(wineryId).orderBy(desc(runsTable.startedAt), desc(runsTable.id)).limit(limit)) as RunSummaryRow[];
+    },
+
+    async summary(wineryId: string, id: string) {
+      const [row] = await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
+      return (row as RunSummaryRow | undefined) ?? null;
+    },
+
+    async lockRun(wineryId: string, id: string) {
+      const [row] = await db
+        .select()
+        .from(runsTable)
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)))
+        .for('update');
+      return row ?? null;
+    },
+
+    async readings(wineryId: string, runId: string) {
+      return db
+        .select()
+        .from(runReadingsTable)
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)))
+        .orderBy(asc(runReadingsTable.stageIndex), asc(runReadingsTable.volumeL), asc(runReadingsTable.at));
+    },
+
+    async readingByKey(wineryId: string, runId: string, clientKey: string) {
+      const [row] = await db
+        .select()
+        .from(runReadingsTable)
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId), eq(runReadingsTable.clientKey, clientKey)));
+      return row ?? null;
+    },
+
+    async lastReading(wineryId: string, runId: string, stageIndex: number) {
+      const [row] = await db
+        .select()
+        .from(runReadingsTable)
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId), eq(runReadingsTable.stageIndex, stageIndex)))
+        .orderBy(desc(runReadingsTable.volumeL))
+        .limit(1);
+      return row ?? null;
+    },
+
+    /** Inserts the reading unless the run already has one with this client key. */
+    async insertReading(values: ReadingInsert) {
+      await db.insert(runReadingsTable).values(values).onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] });
+    },
+
+    async maxVolume(wineryId: string, runId: string) {
+      const [row] = await db
+        .select({ v: sql<number | null>`max(${runReadingsTable.volumeL})`.mapWith(Number) })
+        .from(runReadingsTable)
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)));
+      return row?.v ?? 0;
+    },
+
+    async closeRun(wineryId: string, id: string, closedBy: string, notes: string | undefined) {
+      await db
+        .update(runsTable)
+        .set({ status: 'closed', closedAt: new Date(), closedBy, updatedAt: new Date(), ...(notes !== undefined ? { notes } : {}) })
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
+    },
+
+    async types(wineryId: string, ids: string[]) {
+      if (ids.length === 0) return [];
+      return db
+        .select({ id: cartridgeTypesTable.id, name: cartridgeTypesTable.name, terminalDpBar: cartridgeTypesTable.terminalDpBar })
+        .from(cartridgeTypesTable)
+        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), inArray(cartridgeTypesTable.id, ids)));
+    },
+
+    async housings(wineryId: string, ids: string[]) {
+      if (ids.length === 0) return [];
+      return db
+        .select({ id: housingsTable.id, name: housingsTable.name })
+        .from(housingsTable)
+        .where(and(eq(housingsTable.wineryId, wineryId), inArray(housingsTable.id, ids)));
+    },
+
+    /** Cartridges installed in these housings, locked for the update. */
+    async installedIn(wineryId: string, housingIds: string[]) {
+      if (housingIds.length === 0) return [];
+      return db
+        .select({ id: cartridgesTable.id, housingId: cartridgesTable.housingId, position: cartridgesTable.position })
+        .from(cartridgesTable)
+        .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.status, 'installed'), inArray(cartridgesTable.housingId, housingIds)))
+        .for('update');
+    },
+
+    async addLitres(wineryId: string, ids: string[], litres: number) {
+      if (ids.length === 0) return;
+      await db
+        .update(cartridgesTable)
+        .set({ litresFiltered: sql`${cartridgesTable.litresFiltered} + ${litres}`, updatedAt: new Date() })
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.id, ids)));
+    },
+
+    async insertEvents(values: EventInsert[]) {
+      if (values.length === 0) return;
+      await db.insert(cartridgeEventsTable).values(values);
+    },
+  };
+}
+
+export type RunsRepository = ReturnType<typeof createRunsRepository>;

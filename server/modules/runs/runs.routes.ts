@@ -1,0 +1,43 @@
+import { Router } from 'express';
+import { closeRunInputSchema, logReadingInputSchema, startRunInputSchema } from '../../../shared/schemas/runs';
+import { idParam } from '../../lib/params';
+import { requireSignedIn } from '../../middleware/authenticate';
+import { authorize, tenantOf } from '../../middleware/authorize';
+import { idempotent } from '../../middleware/idempotency';
+import { validateBody } from '../../middleware/validate';
+import type { ModuleDeps } from '../module-deps';
+import { createRunsService } from './runs.service';
+
+/**
+ * Runs of approved plans' lots, followed by pressure readings per stage. Everyone reads
+ * ('runs:read'); owners, cellar masters, winemakers and technicians start runs, log
+ * readings and close runs ('runs:log').
+ */
+export function runsRoutes({ db }: ModuleDeps) {
+  const router = Router();
+  const service = createRunsService(db);
+  const read = [requireSignedIn, authorize(db, 'runs:read')];
+  const log = [requireSignedIn, authorize(db, 'runs:log')];
+
+  router.get('/runs', ...read, async (_req, res) => {
+    res.json(await service.list(tenantOf(res)));
+  });
+  router.get('/runs/start-options', ...read, async (_req, res) => {
+    res.json(await service.startOptions(tenantOf(res)));
+  });
+  router.post('/runs', ...log, idempotent(db), validateBody(startRunInputSchema), async (_req, res) => {
+    res.status(201).json(await service.start(tenantOf(res), res.locals.body));
+  });
+  router.get('/runs/:id', ...read, async (req, res) => {
+    res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Run')));
+  });
+  // Idempotent by the reading's clientKey: a resent reading answers the stored one.
+  router.post('/runs/:id/readings', ...log, validateBody(logReadingInputSchema), async (req, res) => {
+    res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+  });
+  router.post('/runs/:id/close', ...log, validateBody(closeRunInputSchema), async (req, res) => {
+    res.json(await service.close(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+  });
+
+  return router;
+}

@@ -1,0 +1,5 @@
+import { RunsPage } from '@/features/runs/components/runs-page';
+
+export default function RunsRoute() {
+  return <RunsPage />;
+}

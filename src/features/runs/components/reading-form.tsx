@@ -1,0 +1,117 @@
+import { CircleCheck } from 'lucide-react';
+import { useRef, useState, type FormEvent } from 'react';
+import type { RunDetailDto } from '@shared/types/runs';
+import { Button } from '@/components/ui/button';
+import { FormField } from '@/components/ui/form-field';
+import { NumberInput } from '@/components/ui/input';
+import { Select } from '@/components/ui/select';
+import { ApiError, errorMessage } from '@/lib/api-client';
+import { useUnits } from '@/lib/units';
+import { useLogReading } from '../api/log-reading';
+
+function newKey() {
+  return Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+const parse = (s: string): number | null => {
+  const t = s.trim().replace(',', '.');
+  if (t === '') return null;
+  const n = Number(t);
+  return Number.isFinite(n) ? n : null;
+};
+
+type Fields = { volumeL?: string; upstreamBar?: string; downstreamBar?: string; stageIndex?: string };
+
+/** Log one reading: stage, litres so far and both gauges, in the person's units. */
+export function ReadingForm({ run }: { run: RunDetailDto }) {
+  const units = useUnits();
+  const log = useLogReading();
+  const [stage, setStage] = useState('0');
+  const [volume, setVolume] = useState('');
+  const [up, setUp] = useState('');
+  const [down, setDown] = useState('');
+  const [errors, setErrors] = useState<Fields>({});
+  const [formError, setFormError] = useState<string | null>(null);
+  const [saved, setSaved] = useState<string | null>(null);
+  // The key of the reading being sent; kept until it is stored so a retry reuses it.
+  const pendingKey = useRef<string | null>(null);
+  const sent = useRef<string>('');
+
+  function submit(e: FormEvent) {
+    e.preventDefault();
+    const v = parse(volume);
+    const u = parse(up);
+    const d = parse(down);
+    const next: Fields = {};
+    if (v === null) next.volumeL = 'Enter the litres through the train so far.';
+    if (u === null) next.upstreamBar = 'Enter the upstream pressure.';
+    if (d === null) next.downstreamBar = 'Enter the downstream pressure.';
+    setErrors(next);
+    setFormError(null);
+    if (v === null || u === null || d === null) return;
+    const signature = [stage, volume, up, down].join('|');
+    if (!pendingKey.current || sent.current !== signature) pendingKey.current = newKey();
+    sent.current = signature;
+    const input = {
+      clientKey: pendingKey.current,
+      stageIndex: Number(stage),
+      volumeL: units.fromInput('volume', v),
+      upstreamBar: units.fromInput('pressure', u),
+      downstreamBar: units.fromInput('pressure', d),
+    };
+    log.mutate(
+      { runId: run.id, input },
+      {
+        onSuccess: (r) => {
+          pendingKey.current = null;
+          setSaved(`${run.stages[r.stageIndex]?.name ?? 'Stage'} · ${units.format('volume', r.volumeL)} · ΔP ${units.format('dp', r.dpBar)}`);
+          setUp('');
+          setDown('');
+        },
+        onError: (err) => {
+          if (err instanceof ApiError && Object.keys(err.fields).length > 0) setErrors(err.fields as Fields);
+          setFormError(errorMessage(err));
+        },
+      },
+    );
+  }
+
+  return (
+    <form onSubmit={submit} noValidate className="flex flex-col gap-4" aria-labelledby="log-reading-title">
+      <h2 id="log-reading-title" className="text-xl font-semibold text-ink-900">
+        Log reading
+      </h2>
+      {saved ? (
+        <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-ok-600 bg-ok-50 p-4">
+          <CircleCheck aria-hidden="true" className="size-10 text-ok-700" />
+          <div>
+            <p className="text-2xl font-semibold text-ok-800">Saved</p>
+            <p className="num text-base text-ink-800">{saved}</p>
+          </div>
+        </div>
+      ) : null}
+      <FormField label="Stage" htmlFor="reading-stage" error={errors.stageIndex}>
+        <Select id="reading-stage" value={stage} onChange={(e) => setStage(e.target.value)} options={run.stages.map((s) => ({ value: String(s.index), label: `${String(s.index + 1)}. ${s.name}` }))} />
+      </FormField>
+      <FormField label="Litres through the train so far" htmlFor="reading-volume" error={errors.volumeL}>
+        <NumberInput id="reading-volume" unit={units.symbol('volume')} value={volume} onChange={(e) => setVolume(e.target.value)} invalid={!!errors.volumeL} className="text-xl" />
+      </FormField>
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
+        <FormField label="Upstream pressure" htmlFor="reading-up" error={errors.upstreamBar}>
+          <NumberInput id="reading-up" unit={units.symbol('pressure')} value={up} onChange={(e) => setUp(e.target.value)} invalid={!!errors.upstreamBar} className="text-xl" />
+        </FormField>
+        <FormField label="Downstream pressure" htmlFor="reading-down" error={errors.downstreamBar}>
+          <NumberInput id="reading-down" unit={units.symbol('pressure')} value={down} onChange={(e) => setDown(e.target.value)} invalid={!!errors.downstreamBar} className="text-xl" />
+        </FormField>
+      </div>
+      {formError ? (
+        <p role="alert" className="text-base font-semibold text-stop-700">
+          {formError}
+        </p>
+      ) : null}
+      <Button type="submit" size="lg" disabled={log.isPending}>
+        {log.isPending ? 'Saving …' : 'Save reading'}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,172 @@
+import { AlertTriangle, CircleCheck, Eye, Lock } from 'lucide-react';
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import type { RunDetailDto, RunStageDto } from '@shared/types/runs';
+import { Button } from '@/components/ui/button';
+import { CautionPanel } from '@/components/ui/caution';
+import { Card } from '@/components/ui/card';
+import { Dialog } from '@/components/ui/dialog';
+import { PageHeader } from '@/components/ui/page-header';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { StatusBadge } from '@/components/ui/status-badge';
+import { useToast } from '@/components/ui/toast';
+import { paths } from '@/config/paths';
+import { errorMessage } from '@/lib/api-client';
+import { useCan } from '@/lib/session';
+import { useUnits } from '@/lib/units';
+import { useCloseRun } from '../api/close-run';
+import { useRun } from '../api/get-run';
+import { ReadingForm } from './reading-form';
+import { StageChart } from './stage-chart';
+
+const hm = (h: number, m: number) => `${String(h)}:${String(m).padStart(2, '0')}`;
+
+function AlarmBadge({ stage }: { stage: RunStageDto }) {
+  if (!stage.alarm) return null;
+  if (stage.alarm.level === 'alarm')
+    return (
+      <StatusBadge tone="stop" icon={<AlertTriangle aria-hidden="true" className="size-5" />}>
+        Alarm: short of the lot
+      </StatusBadge>
+    );
+  if (stage.alarm.level === 'watch')
+    return (
+      <StatusBadge tone="watch" icon={<Eye aria-hidden="true" className="size-5" />}>
+        Watch: may fall short
+      </StatusBadge>
+    );
+  return (
+    <StatusBadge tone="ok" icon={<CircleCheck aria-hidden="true" className="size-5" />}>
+      Enough for the lot
+    </StatusBadge>
+  );
+}
+
+function StageCard({ stage }: { stage: RunStageDto }) {
+  const units = useUnits();
+  const f = stage.forecast;
+  return (
+    <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
+      <div className="flex flex-col gap-4">
+        {f ? (
+          <div className="flex flex-col gap-2" data-testid={`forecast-${String(stage.index)}`}>
+            <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Left before terminal ΔP</p>
+            <p className="num text-2xl font-semibold text-ink-900">
+              ≈ {units.format('volume', f.volumeLeftL)} / {hm(f.timeLeft.hours, f.timeLeft.minutes)} left
+            </p>
+            <p className="num text-base text-ink-700">
+              band {units.format('volume', f.low)} – {units.format('volume', f.high)}
+              {stage.flowLh ? <> · at {units.format('flow', stage.flowLh)}</> : null} · {f.law} blocking
+            </p>
+            <AlarmBadge stage={stage} />
+            {stage.alarm?.alarm ? (
+              <p className="text-base font-semibold text-stop-700">About {units.format('volume', stage.alarm.shortfallL)} short: have the next cartridges ready.</p>
+            ) : null}
+          </div>
+        ) : (
+          <p className="text-base text-ink-700">{stage.note ?? 'No forecast yet.'}</p>
+        )}
+        {stage.readings.length > 0 ? <StageChart stage={stage} /> : null}
+        <p className="text-sm text-ink-600">
+          {stage.readings.length} reading{stage.readings.length === 1 ? '' : 's'}
+          {stage.readings.length > 0 ? <> · last ΔP {units.format('dp', stage.readings[stage.readings.length - 1].dpBar)}</> : null}
+        </p>
+      </div>
+    </Card>
+  );
+}
+
+function CloseRun({ run }: { run: RunDetailDto }) {
+  const [open, setOpen] = useState(false);
+  const close = useCloseRun();
+  const toast = useToast();
+  const units = useUnits();
+  return (
+    <>
+      <Button variant="secondary" size="lg" onClick={() => setOpen(true)}>
+        <Lock aria-hidden="true" className="size-5" /> Close run
+      </Button>
+      <Dialog
+        open={open}
+        onClose={() => setOpen(false)}
+        title="Close this run?"
+        description={`${units.format('volume', run.currentVolumeL)} will be added to each cartridge installed in this train’s housings. No more readings can be logged.`}
+        footer={
+          <>
+            <Button variant="ghost" onClick={() => setOpen(false)}>
+              Keep running
+            </Button>
+            <Button
+              disabled={close.isPending}
+              onClick={() =>
+                close.mutate(
+                  { runId: run.id, input: {} },
+                  {
+                    onSuccess: () => {
+                      setOpen(false);
+                      toast.success('Run closed');
+                    },
+                    onError: (e) => toast.error(errorMessage(e)),
+                  },
+                )
+              }
+            >
+              Close run
+            </Button>
+          </>
+        }
+      />
+    </>
+  );
+}
+
+export function RunPage({ runId }: { runId: string }) {
+  const units = useUnits();
+  const run = useRun(runId);
+  const mayLog = useCan('runs:log');
+  if (run.isPending) return <LoadingState />;
+  if (run.isError) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
+  const r = run.data;
+  const running = r.status === 'running';
+  return (
+    <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
+      <PageHeader
+        context={
+          <Link to={paths.runs} className="underline">
+            Runs
+          </Link>
+        }
+        title={
+          <>
+            <span className="num">{r.lotCode}</span> · {r.lotName}
+          </>
+        }
+        description={`${r.planName} · ${r.trainName}${r.lineName ? ` · ${r.lineName}` : ''}`}
+        actions={running && mayLog ? <CloseRun run={r} /> : <StatusBadge tone="neutral">{running ? 'Running' : 'Closed'}</StatusBadge>}
+      />
+      <section aria-label="Run so far" className="grid grid-cols-1 gap-3 sm:grid-cols-2">
+        <div className="rounded-lg border border-ink-200 p-4">
+          <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Filtered</p>
+          <p className="num text-2xl font-semibold text-ink-900">{units.format('volume', r.currentVolumeL)}</p>
+          <p className="num text-base text-ink-700">of {units.format('volume', r.volumeL)}</p>
+        </div>
+        <div className="rounded-lg border border-ink-200 p-4">
+          <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Still to bottle</p>
+          <p className="num text-2xl font-semibold text-ink-900">{units.format('volume', r.volumeToBottleL)}</p>
+          <p className="text-base text-ink-700">{running ? 'Running' : 'Closed'}</p>
+        </div>
+      </section>
+      {running && mayLog ? (
+        <Card>
+          <ReadingForm run={r} />
+        </Card>
+      ) : null}
+      <CautionPanel title="Under pressure">
+        Never open a housing under pressure and keep within its pressure and temperature ratings. Forecasts are planning estimates from the readings so far.
+      </CautionPanel>
+      {r.stages.map((s) => (
+        <StageCard key={s.index} stage={s} />
+      ))}
+    </div>
+  );
+}
