@@ -42,6 +42,8 @@ describe('a run on a phone in the cellar', () => {
       ['1000', '2.26', '2.00'],
       ['1500', '2.34', '2.00'],
     ];
+    // The flow meter reads 2,400 L/h; it stays filled in for the next readings.
+    await page.getByLabel('Flow (optional)').fill('2400');
     for (const [litres, up, down] of readings) {
       await page.getByLabel('Litres through the train so far').fill(litres);
       await page.getByLabel('Upstream pressure').fill(up);
@@ -53,6 +55,7 @@ describe('a run on a phone in the cellar', () => {
     const forecast = page.getByTestId('forecast-0');
     await forecast.waitFor();
     expect(await forecast.textContent()).toMatch(/≈ .* L \/ \d+:\d\d left/);
+    expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
     await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).waitFor();
     await screenshot(page, 'run-forecast-phone');
 

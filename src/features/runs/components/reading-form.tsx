@@ -20,7 +20,7 @@ const parse = (s: string): number | null => {
   return Number.isFinite(n) ? n : null;
 };
 
-type Fields = { volumeL?: string; upstreamBar?: string; downstreamBar?: string; stageIndex?: string };
+type Fields = { volumeL?: string; upstreamBar?: string; downstreamBar?: string; stageIndex?: string; flowLh?: string; tempC?: string };
 
 /** Log one reading: stage, litres so far and both gauges, in the person's units. */
 export function ReadingForm({ run }: { run: RunDetailDto }) {
@@ -30,6 +30,9 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
   const [volume, setVolume] = useState('');
   const [up, setUp] = useState('');
   const [down, setDown] = useState('');
+  // Flow and temperature change slowly: they stay filled in from one reading to the next.
+  const [flow, setFlow] = useState('');
+  const [temp, setTemp] = useState('');
   const [errors, setErrors] = useState<Fields>({});
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
@@ -42,14 +45,18 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
     const v = parse(volume);
     const u = parse(up);
     const d = parse(down);
+    const f = flow.trim() ? parse(flow) : undefined;
+    const t = temp.trim() ? parse(temp) : undefined;
     const next: Fields = {};
+    if (f === null) next.flowLh = 'Enter the flow as a number, or leave it empty.';
+    if (t === null) next.tempC = 'Enter the temperature as a number, or leave it empty.';
     if (v === null) next.volumeL = 'Enter the litres through the train so far.';
     if (u === null) next.upstreamBar = 'Enter the upstream pressure.';
     if (d === null) next.downstreamBar = 'Enter the downstream pressure.';
     setErrors(next);
     setFormError(null);
-    if (v === null || u === null || d === null) return;
-    const signature = [stage, volume, up, down].join('|');
+    if (v === null || u === null || d === null || f === null || t === null) return;
+    const signature = [stage, volume, up, down, flow, temp].join('|');
     if (!pendingKey.current || sent.current !== signature) pendingKey.current = newKey();
     sent.current = signature;
     const input = {
@@ -58,6 +65,8 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
       volumeL: units.fromInput('volume', v),
       upstreamBar: units.fromInput('pressure', u),
       downstreamBar: units.fromInput('pressure', d),
+      ...(f !== undefined ? { flowLh: units.fromInput('flow', f) } : {}),
+      ...(t !== undefined ? { tempC: units.fromInput('temperature', t) } : {}),
     };
     log.mutate(
       { runId: run.id, input },
@@ -102,6 +111,14 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
         </FormField>
         <FormField label="Downstream pressure" htmlFor="reading-down" error={errors.downstreamBar}>
           <NumberInput id="reading-down" unit={units.symbol('pressure')} value={down} onChange={(e) => setDown(e.target.value)} invalid={!!errors.downstreamBar} className="text-xl" />
+        </FormField>
+      </div>
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
+        <FormField label="Flow (optional)" htmlFor="reading-flow" hint="Used for the time left; otherwise the line's flow." error={errors.flowLh}>
+          <NumberInput id="reading-flow" unit={units.symbol('flow')} value={flow} onChange={(e) => setFlow(e.target.value)} invalid={!!errors.flowLh} />
+        </FormField>
+        <FormField label="Wine temperature (optional)" htmlFor="reading-temp" error={errors.tempC}>
+          <NumberInput id="reading-temp" unit={units.symbol('temperature')} value={temp} onChange={(e) => setTemp(e.target.value)} invalid={!!errors.tempC} />
         </FormField>
       </div>
       {formError ? (
