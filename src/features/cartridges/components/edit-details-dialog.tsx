@@ -8,6 +8,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { FormField } from '@/components/ui/form-field';
 import { Input, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUpdateCartridge } from '../api/update-cartridge';
 
@@ -52,11 +53,7 @@ export function EditDetailsDialog({ cartridge, open, onClose }: { cartridge: Car
       }
     >
       <form id="cartridge-details-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="Batch" htmlFor="cartridge-batch" error={errors.batch?.message}>
           <Input id="cartridge-batch" data-autofocus {...form.register('batch')} />
         </FormField>

@@ -6,6 +6,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Select } from '@/components/ui/select';
 import { LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { errorMessage } from '@/lib/api-client';
 import { useHousingView } from '../api/get-housing-view';
 import { useInstallCartridge } from '../api/install-cartridge';
@@ -71,11 +72,7 @@ export function InstallDialog({ cartridge, open, onClose }: { cartridge: Cartrid
         <LoadingState />
       ) : (
         <div className="flex flex-col gap-4">
-          {error ? (
-            <p role="alert" className="text-sm font-semibold text-stop-700">
-              {error}
-            </p>
-          ) : null}
+          <FormMessage message={error} />
           {fitting.length === 0 ? (
             <p className="text-base text-ink-700">No housing takes {cartridge.lengthIn}-inch cartridges. Add one under Equipment first.</p>
           ) : (

@@ -6,6 +6,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { errorMessage } from '@/lib/api-client';
 import { useCartridges } from '../api/get-cartridges';
 import { useInstallCartridge } from '../api/install-cartridge';
@@ -67,11 +68,7 @@ export function InstallIntoRoundDialog({ target, onClose }: { target: { housing:
       }
     >
       <div className="flex flex-col gap-4">
-        {error ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {error}
-          </p>
-        ) : null}
+        <FormMessage message={error} />
         <FormField label="Find by serial or batch" htmlFor="round-search">
           <Input id="round-search" type="search" value={q} onChange={(e) => setQ(e.target.value)} />
         </FormField>

@@ -9,6 +9,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { paths } from '@/config/paths';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useRegisterCartridge } from '../api/register-cartridge';
@@ -63,11 +64,7 @@ export function RegisterCartridgeDialog({ open, onClose, types }: { open: boolea
       }
     >
       <form id="register-cartridge-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         {types.length === 0 ? <p className="text-base text-ink-700">Add a cartridge type under Equipment first: every cartridge belongs to one.</p> : null}
         <FormField label="Serial" htmlFor="reg-serial" error={errors.serial?.message} required>
           <Input id="reg-serial" autoComplete="off" data-autofocus {...form.register('serial')} />

@@ -8,6 +8,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { FormField } from '@/components/ui/form-field';
 import { Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useRetireCartridge } from '../api/retire-cartridge';
 import { HousingCaution } from './housing-caution';
@@ -49,11 +50,7 @@ export function RetireDialog({ cartridge, open, onClose }: { cartridge: Cartridg
       }
     >
       <form id="retire-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="Reason" htmlFor="retire-reason" error={form.formState.errors.reason?.message} hint="For example: failed integrity test, flow no longer recovers, rated cycles reached." required>
           <Textarea id="retire-reason" rows={3} data-autofocus {...form.register('reason')} />
         </FormField>

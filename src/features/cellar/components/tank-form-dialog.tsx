@@ -9,6 +9,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateTank } from '../api/create-tank';
@@ -74,11 +75,7 @@ export function TankFormDialog({ open, onClose, tank }: { open: boolean; onClose
       }
     >
       <form id="tank-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="Name" htmlFor="tank-name" error={errors.name?.message} required>
           <Input id="tank-name" autoComplete="off" data-autofocus {...form.register('name')} />
         </FormField>

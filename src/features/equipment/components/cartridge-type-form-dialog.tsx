@@ -17,6 +17,7 @@ import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateCartridgeType } from '../api/create-cartridge-type';
@@ -206,11 +207,7 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
       }
     >
       <form id="type-form" onSubmit={submit} noValidate className="flex flex-col gap-5">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <div className="grid gap-4 sm:grid-cols-2">
           <FormField label="Name" htmlFor="type-name" error={errors.name?.message} required className="sm:col-span-2">
             <Input id="type-name" autoComplete="off" data-autofocus {...form.register('name')} />

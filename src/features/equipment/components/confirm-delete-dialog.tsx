@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { errorMessage } from '@/lib/api-client';
 
 /** Asks before deleting; a refusal from the server (e.g. cartridges still installed) is shown in the dialog. */
@@ -58,11 +59,7 @@ export function ConfirmDeleteDialog({
         </>
       }
     >
-      {refusal ? (
-        <p role="alert" className="text-sm font-semibold text-stop-700">
-          {refusal}
-        </p>
-      ) : null}
+      <FormMessage message={refusal} />
     </Dialog>
   );
 }

@@ -9,6 +9,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCartridgeTypes } from '../api/get-cartridge-types';
@@ -113,11 +114,7 @@ function HousingFormBody({ housing, onClose }: { housing: HousingDto | null; onC
       }
     >
       <form id="housing-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="Name" htmlFor="housing-name" error={errors.name?.message} required>
           <Input id="housing-name" autoComplete="off" data-autofocus {...form.register('name')} />
         </FormField>

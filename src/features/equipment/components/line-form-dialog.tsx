@@ -7,6 +7,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateLine } from '../api/create-line';
@@ -70,11 +71,7 @@ function LineFormBody({ line, onClose }: { line: LineDto | null; onClose: () => 
       }
     >
       <form id="line-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="Name" htmlFor="line-name" error={errors.name?.message} required>
           <Input id="line-name" autoComplete="off" data-autofocus {...form.register('name')} />
         </FormField>

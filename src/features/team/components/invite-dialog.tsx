@@ -9,6 +9,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
+import { FormMessage } from '@/components/ui/form-message';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useCreateInvitation } from '../api/create-invitation';
 
@@ -55,11 +56,7 @@ export function InviteDialog({ open, onClose }: { open: boolean; onClose: () => 
       }
     >
       <form id="invite-form" onSubmit={submit} noValidate className="flex flex-col gap-4">
-        {alert ? (
-          <p role="alert" className="text-sm font-semibold text-stop-700">
-            {alert}
-          </p>
-        ) : null}
+        <FormMessage message={alert} />
         <FormField label="E-mail" htmlFor="invite-email" error={errors.email?.message}>
           <Input id="invite-email" type="email" inputMode="email" autoComplete="off" data-autofocus {...form.register('email')} />
         </FormField>
