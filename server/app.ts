@@ -10,9 +10,11 @@ import type { Mailer } from './lib/mail';
 import type { Storage } from './lib/storage';
 import { logger } from './lib/logger';
 import { authenticate } from './middleware/authenticate';
-import { errorHandler, notFoundHandler } from './middleware/error-handler';
+import { errorHandler, JSON_SHAPE_ERROR, notFoundHandler } from './middleware/error-handler';
 import { hostCheck, originCheck } from './middleware/origin-check';
 import { createAuthRateLimits } from './middleware/rate-limit';
+import { wellFormedInput } from './middleware/validate';
+import { checkJsonShape } from '../shared/schemas/text';
 import { accountRoutes } from './modules/account/account.routes';
 import { createAccountService } from './modules/account/account.service';
 import { authRoutes } from './modules/auth/auth.routes';
@@ -56,9 +58,15 @@ export type AppDeps = {
   config: AppConfig;
   /** The fake SMTP server in development: enables the mail outbox page. */
   outbox?: FakeSmtp;
+  /** The secret that opens the development outbox without signing in (printed by `npm start`). */
+  outboxKey?: string;
 };
 
 export const JSON_BODY_LIMIT = '1mb';
+
+/** Browser features Porewise never uses, switched off for the app and anything it might embed. */
+export const PERMISSIONS_POLICY =
+  'accelerometer=(), autoplay=(), camera=(), display-capture=(), geolocation=(), gyroscope=(), magnetometer=(), microphone=(), midi=(), payment=(), usb=(), browsing-topics=()';
 
 export function createApp(deps: AppDeps): Express {
   const { db, mailer, config } = deps;
@@ -74,16 +82,27 @@ export function createApp(deps: AppDeps): Express {
         directives: {
           'img-src': ["'self'", 'data:', 'blob:'],
           'connect-src': ["'self'"],
+          // Styles and fonts only from this origin: no https: wildcard, no inline <style>. React and
+          // recharts set style attributes through the CSSOM, which a CSP does not restrict.
+          'style-src': ["'self'"],
+          'font-src': ["'self'"],
           'upgrade-insecure-requests': config.secureCookies ? [] : null,
         },
       },
-      strictTransportSecurity: config.secureCookies,
+      strictTransportSecurity: false,
     }),
   );
+  app.use((req, res, next) => {
+    res.set('Permissions-Policy', PERMISSIONS_POLICY);
+    // HSTS only when the answer travels over HTTPS (directly, or via a trusted proxy's X-Forwarded-Proto).
+    if (req.secure) res.set('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
+    next();
+  });
   if (config.logRequests) app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
 
   const api = express.Router();
-  api.use(express.json({ limit: JSON_BODY_LIMIT }));
+  api.use(express.json({ limit: JSON_BODY_LIMIT, verify: refuseComplexJson }));
+  api.use(wellFormedInput);
   api.use(hostCheck([config.appUrl, ...config.allowedOrigins]));
   api.use(originCheck([config.appUrl, ...config.allowedOrigins]));
   api.use(authenticate(auth));
@@ -103,7 +122,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/team', teamRoutes({ db, service: teamService }));
   api.use('/invitations', invitationRoutes({ auth, service: teamService }));
   api.use('/calc', calcRoutes({ db }));
-  if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox }));
+  if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox, db, key: deps.outboxKey }));
   // Domain modules declare their own paths (/tanks, /lots, /housings, …) and guard each one.
   const moduleDeps: ModuleDeps = { db, storage: deps.storage, mailer, appUrl: config.appUrl };
   api.use(cellarRoutes(moduleDeps));
@@ -129,6 +148,12 @@ export function createApp(deps: AppDeps): Express {
 
   app.use(errorHandler);
   return app;
+}
+
+/** Refuses a JSON body nested too deeply or with too many items before it is parsed (one pass, no recursion). */
+function refuseComplexJson(_req: unknown, _res: unknown, buf: Buffer) {
+  const problem = checkJsonShape(buf);
+  if (problem) throw Object.assign(new Error(problem.message), { status: 400, expose: true, type: JSON_SHAPE_ERROR });
 }
 
 function parseTrustProxy(value: string | undefined): boolean | number | string {

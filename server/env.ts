@@ -18,6 +18,8 @@ const envSchema = z.object({
   TRUST_PROXY: z.string().optional(),
   /** Allow the development mail outbox on a non-loopback address (never in production). */
   DEV_MAIL_OUTBOX: bool,
+  /** Secret that opens the development outbox without signing in; generated per start when unset. */
+  DEV_OUTBOX_KEY: z.string().min(16).optional(),
   SMTP_HOST: z.string().optional(),
   SMTP_PORT: z.coerce.number().int().positive().default(587),
   SMTP_SECURE: bool,

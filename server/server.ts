@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import { join, resolve } from 'node:path';
 import { createApp } from './app';
@@ -31,6 +32,9 @@ export async function startServer(env: Env) {
       : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM },
   );
 
+  // The development outbox opens without signing in only with this key (printed by `npm start`).
+  const outboxKey = fakeSmtp ? (env.DEV_OUTBOX_KEY ?? randomBytes(18).toString('base64url')) : undefined;
+
   if (!env.S3_ENDPOINT) fakeS3 = await startFakeS3({ directory: join(resolve(env.FAKE_SERVICES_DIR), 's3') });
   const storage = createS3Storage({
     endpoint: fakeS3?.endpoint ?? env.S3_ENDPOINT,
@@ -46,6 +50,7 @@ export async function startServer(env: Env) {
     mailer,
     storage,
     outbox: fakeSmtp,
+    outboxKey,
     config: {
       appUrl: env.appUrl,
       allowedOrigins: env.allowedOrigins,
@@ -73,5 +78,5 @@ export async function startServer(env: Env) {
     await Promise.allSettled([fakeSmtp?.close(), fakeS3?.close(), pool.end()]);
   }
   logger.debug({ url }, 'listening');
-  return { url, port, close, fakeSmtp };
+  return { url, port, close, fakeSmtp, outboxKey };
 }

@@ -6,7 +6,8 @@ import { existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSy
 import { dirname, join, resolve } from 'node:path';
 
 const root = resolve(import.meta.dirname, '../..');
-const pgDir = join(root, '.data', 'pg');
+/** POREWISE_PG_DIR moves the cluster elsewhere (a test of `npm start`'s clean stop uses its own). */
+const pgDir = process.env.POREWISE_PG_DIR ? resolve(process.env.POREWISE_PG_DIR) : join(root, '.data', 'pg');
 const dataDir = join(pgDir, 'data');
 const logFile = join(pgDir, 'server.log');
 const runnerUser = 'pgrunner';
@@ -99,6 +100,12 @@ function isRunning(bin: string): boolean {
   return asOwner(bin, 'pg_ctl', ['-D', dataDir, 'status'], { check: false }).status === 0;
 }
 
+/** True when this checkout's cluster is running. */
+export function clusterIsRunning(): boolean {
+  const bin = findBinDir();
+  return Boolean(bin) && isRunning(bin!);
+}
+
 /** Creates (first time) and starts the cluster. Returns true if this call started it. */
 export function startCluster(): boolean {
   const bin = ensureBinaries();
@@ -118,7 +125,9 @@ export function startCluster(): boolean {
   if (isRunning(bin)) return false;
   const port = clusterPort();
   if (isRoot) execFileSync('chown', ['-R', runnerUser, pgDir]);
-  const opts = `-c listen_addresses=127.0.0.1 -p ${port} -c unix_socket_directories='' -c fsync=off -c max_connections=100`;
+  // Durable storage: fsync and full-page writes on (a power cut must not corrupt or lose records).
+  // The same settings for the app and the test databases: one cluster, no special cases.
+  const opts = `-c listen_addresses=127.0.0.1 -p ${port} -c unix_socket_directories='' -c fsync=on -c full_page_writes=on -c max_connections=100`;
   asOwner(bin, 'pg_ctl', ['-D', dataDir, '-l', logFile, '-w', '-t', '60', '-o', opts, 'start']);
   log(`PostgreSQL is running on 127.0.0.1:${port}`);
   return true;
@@ -129,6 +138,66 @@ export function stopCluster() {
   if (!bin || !isRunning(bin)) return;
   asOwner(bin, 'pg_ctl', ['-D', dataDir, '-m', 'fast', '-w', 'stop'], { check: false });
   log('PostgreSQL stopped');
+}
+
+/**
+ * Restarts the running cluster (`pg_ctl -m fast restart`, same options): every open connection
+ * is ended with "terminating connection due to administrator command". Tests use it to prove
+ * the server survives a database restart.
+ */
+export function restartCluster() {
+  const bin = ensureBinaries();
+  asOwner(bin, 'pg_ctl', ['-D', dataDir, '-l', logFile, '-m', 'fast', '-w', '-t', '60', 'restart']);
+}
+
+/** A server setting as the running cluster reports it (e.g. "fsync" → "on"). */
+export function clusterSetting(name: string): string {
+  if (!/^[a-z_]+$/.test(name)) throw new Error(`bad setting name ${name}`);
+  const res = psql('postgres', `SHOW ${name}`);
+  if (res.status !== 0) throw new Error(res.stderr);
+  return res.stdout.trim();
+}
+
+export const backupDir = join(root, '.data', 'backups');
+
+/** `pg_dump` in custom format to `.data/backups/<database>-<UTC time>.dump` (or `file`); returns the path. */
+export function backupDatabase(database: string, file?: string): string {
+  if (!/^[a-z_][a-z0-9_]*$/.test(database)) throw new Error(`bad database name ${database}`);
+  const bin = ensureBinaries();
+  const stamp = new Date().toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+  const target = resolve(file ?? join(backupDir, `${database}-${stamp}.dump`));
+  mkdirSync(dirname(target), { recursive: true });
+  const res = spawnSync(join(bin, 'pg_dump'), ['-h', '127.0.0.1', '-p', String(clusterPort()), '-U', 'postgres', '-Fc', '-f', target, database], { encoding: 'utf8' });
+  if (res.status !== 0) throw new Error(`pg_dump failed: ${res.stderr || res.stdout}`);
+  return target;
+}
+
+/**
+ * Restores a custom-format dump into a fresh `database`. An existing database of that name is
+ * kept, renamed `<database>_before_restore_<time>` (it must have no open connections: stop
+ * Porewise first), so a restore never destroys records. Returns the kept name, if any.
+ */
+export function restoreDatabase(file: string, database: string): { keptAs: string | null } {
+  if (!/^[a-z_][a-z0-9_]*$/.test(database)) throw new Error(`bad database name ${database}`);
+  if (!existsSync(file)) throw new Error(`no such backup file: ${file}`);
+  const bin = ensureBinaries();
+  const exists = psql('postgres', `SELECT 1 FROM pg_database WHERE datname = '${database}'`);
+  if (exists.status !== 0) throw new Error(exists.stderr);
+  let keptAs: string | null = null;
+  if (exists.stdout.trim() === '1') {
+    keptAs = `${database}_before_restore_${new Date().toISOString().replace(/\D/g, '').slice(0, 14)}`.slice(0, 63);
+    const rename = psql('postgres', `ALTER DATABASE ${database} RENAME TO ${keptAs}`);
+    if (rename.status !== 0) throw new Error(`cannot set the current database aside (is Porewise still running? stop it first): ${rename.stderr.trim()}`);
+  }
+  const create = psql('postgres', `CREATE DATABASE ${database}`);
+  if (create.status !== 0) throw new Error(create.stderr);
+  const res = spawnSync(
+    join(bin, 'pg_restore'),
+    ['-h', '127.0.0.1', '-p', String(clusterPort()), '-U', 'postgres', '-d', database, '--no-owner', '--exit-on-error', '--single-transaction', resolve(file)],
+    { encoding: 'utf8' },
+  );
+  if (res.status !== 0) throw new Error(`pg_restore failed: ${res.stderr || res.stdout}`);
+  return { keptAs };
 }
 
 function psql(database: string, sql: string) {

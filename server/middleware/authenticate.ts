@@ -8,7 +8,12 @@ export type AuthContext = { user: User; session: Session };
 /** Reads the session cookie (if any), validates it and refreshes it when Lucia says so. */
 export function authenticate(auth: Auth): RequestHandler {
   return async (req, res, next) => {
-    const sessionId = auth.readSessionCookie(req.headers.cookie ?? '');
+    const sessionId = readSessionId(auth, req.headers.cookie ?? '');
+    if (sessionId === MALFORMED) {
+      // A malformed cookie (bad escape, NUL, wrong alphabet) is simply "signed out", and cleared.
+      res.append('Set-Cookie', auth.createBlankSessionCookie().serialize());
+      return next();
+    }
     if (!sessionId) return next();
     const { session, user } = await auth.validateSession(sessionId);
     if (!session) {
@@ -19,6 +24,21 @@ export function authenticate(auth: Auth): RequestHandler {
     res.locals.auth = { user, session } satisfies AuthContext;
     next();
   };
+}
+
+const MALFORMED = Symbol('malformed session cookie');
+/** Session ids are Lucia's lowercase base32 ids; anything else cannot name a session. */
+const SESSION_ID = /^[a-z0-9]{20,128}$/;
+
+function readSessionId(auth: Auth, cookieHeader: string): string | null | typeof MALFORMED {
+  let id: string | null;
+  try {
+    id = auth.readSessionCookie(cookieHeader);
+  } catch {
+    return MALFORMED;
+  }
+  if (id === null) return null;
+  return SESSION_ID.test(id) ? id : MALFORMED;
 }
 
 /** 401 unless signed in. */

@@ -39,11 +39,9 @@ export function ForgotPasswordForm() {
         </p>
         {appInfo.data?.mailOutbox ? (
           <p>
-            This is a development server: mail stays in the{' '}
-            <Link to={paths.outbox} className="text-primary-700 underline">
-              mail outbox
-            </Link>
-            .
+            This is a development server: mail is not sent anywhere, it stays in the mail outbox. Open the outbox
+            link printed in the terminal where Porewise was started (<code>npm start</code>), next to the address of
+            the app; an owner who is signed in finds it under Mail outbox.
           </p>
         ) : null}
         <Link to={paths.signIn} className="text-primary-700 underline">

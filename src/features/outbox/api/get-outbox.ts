@@ -2,12 +2,15 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListDto, OutboxMessageDto } from '@shared/types/api';
 import { api } from '@/lib/api-client';
 
-export const outboxKeys = { all: ['outbox'] as const, list: () => [...outboxKeys.all, 'list'] as const };
+export const outboxKeys = { all: ['outbox'] as const, list: (key?: string) => [...outboxKeys.all, 'list', key ?? null] as const };
 
-export const getOutbox = () => api.get<ListDto<OutboxMessageDto>>('/dev/outbox');
+/** `key`: the secret `npm start` prints beside the URL; without it only a signed-in owner may read. */
+export const getOutbox = (key?: string) =>
+  api.get<ListDto<OutboxMessageDto>>(key ? `/dev/outbox?key=${encodeURIComponent(key)}` : '/dev/outbox');
 
-export const getOutboxQueryOptions = () => queryOptions({ queryKey: outboxKeys.list(), queryFn: getOutbox, refetchInterval: 5000 });
+export const getOutboxQueryOptions = (key?: string) =>
+  queryOptions({ queryKey: outboxKeys.list(key), queryFn: () => getOutbox(key), refetchInterval: 5000, retry: false });
 
-export function useOutbox() {
-  return useQuery(getOutboxQueryOptions());
+export function useOutbox(key?: string) {
+  return useQuery(getOutboxQueryOptions(key));
 }

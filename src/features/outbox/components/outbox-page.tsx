@@ -4,6 +4,7 @@ import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
+import { ApiError } from '@/lib/api-client';
 import { useOutbox } from '../api/get-outbox';
 
 /** Renders mail text with its links clickable (same-app links only). */
@@ -24,8 +25,9 @@ function MailText({ text }: { text: string }) {
   );
 }
 
-export function OutboxPage() {
-  const outbox = useOutbox();
+/** `outboxKey`: the secret from the link `npm start` prints; without it only a signed-in owner may read. */
+export function OutboxPage({ outboxKey }: { outboxKey?: string }) {
+  const outbox = useOutbox(outboxKey);
   return (
     <div className="flex flex-col gap-6">
       <PageHeader
@@ -35,7 +37,14 @@ export function OutboxPage() {
       {outbox.isPending ? (
         <LoadingState />
       ) : outbox.isError ? (
-        <ErrorState message={outbox.error.message} onRetry={() => outbox.refetch()} />
+        <ErrorState
+          message={
+            outbox.error instanceof ApiError && outbox.error.status === 404
+              ? 'The outbox opens only for an owner who is signed in, or with the outbox link printed beside the address where Porewise was started (npm start).'
+              : outbox.error.message
+          }
+          onRetry={() => outbox.refetch()}
+        />
       ) : outbox.data.items.length === 0 ? (
         <EmptyState title="No mail yet">Invitations and password-reset links will appear here.</EmptyState>
       ) : (
