@@ -100,6 +100,14 @@ function isRunning(bin: string): boolean {
   return asOwner(bin, 'pg_ctl', ['-D', dataDir, 'status'], { check: false }).status === 0;
 }
 
+/**
+ * Durable storage: fsync and full-page writes on (a power cut must not corrupt or lose records).
+ * The same settings for the app and the test databases: one cluster, no special cases.
+ */
+function serverOptions(port: number) {
+  return `-c listen_addresses=127.0.0.1 -p ${port} -c unix_socket_directories='' -c fsync=on -c full_page_writes=on -c max_connections=100`;
+}
+
 /** True when this checkout's cluster is running. */
 export function clusterIsRunning(): boolean {
   const bin = findBinDir();
@@ -122,13 +130,17 @@ export function startCluster(): boolean {
     asOwner(bin, 'initdb', ['-D', dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
     writeFileSync(join(pgDir, 'port'), String(clusterPort()));
   }
-  if (isRunning(bin)) return false;
   const port = clusterPort();
+  if (isRunning(bin)) {
+    // A cluster started by an older checkout may still run with fsync off: restart it durable.
+    if (psql('postgres', 'SHOW fsync').stdout.trim() === 'off') {
+      log('restarting PostgreSQL with fsync and full-page writes on …');
+      asOwner(bin, 'pg_ctl', ['-D', dataDir, '-l', logFile, '-m', 'fast', '-w', '-t', '60', '-o', serverOptions(port), 'restart']);
+    }
+    return false;
+  }
   if (isRoot) execFileSync('chown', ['-R', runnerUser, pgDir]);
-  // Durable storage: fsync and full-page writes on (a power cut must not corrupt or lose records).
-  // The same settings for the app and the test databases: one cluster, no special cases.
-  const opts = `-c listen_addresses=127.0.0.1 -p ${port} -c unix_socket_directories='' -c fsync=on -c full_page_writes=on -c max_connections=100`;
-  asOwner(bin, 'pg_ctl', ['-D', dataDir, '-l', logFile, '-w', '-t', '60', '-o', opts, 'start']);
+  asOwner(bin, 'pg_ctl', ['-D', dataDir, '-l', logFile, '-w', '-t', '60', '-o', serverOptions(port), 'start']);
   log(`PostgreSQL is running on 127.0.0.1:${port}`);
   return true;
 }

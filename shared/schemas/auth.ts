@@ -21,6 +21,9 @@ export const signUpInputSchema = z.object({
 });
 export type SignUpInput = z.infer<typeof signUpInputSchema>;
 
+export const signUpConfirmInputSchema = z.object({ token: tokenSchema });
+export type SignUpConfirmInput = z.infer<typeof signUpConfirmInputSchema>;
+
 export const signInInputSchema = z.object({
   email: emailSchema,
   password: z.string({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }).max(256),

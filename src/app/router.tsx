@@ -8,6 +8,7 @@ export function createRouter() {
   return createBrowserRouter([
     { path: paths.signIn, lazy: lazyPage(() => import('./routes/auth/sign-in')) },
     { path: paths.signUp, lazy: lazyPage(() => import('./routes/auth/sign-up')) },
+    { path: paths.confirmSignUp, lazy: lazyPage(() => import('./routes/auth/confirm-sign-up')) },
     { path: paths.forgotPassword, lazy: lazyPage(() => import('./routes/auth/forgot-password')) },
     { path: paths.resetPassword, lazy: lazyPage(() => import('./routes/auth/reset-password')) },
     { path: paths.invitation, lazy: lazyPage(() => import('./routes/auth/invitation')) },

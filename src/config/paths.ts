@@ -2,6 +2,7 @@
 export const paths = {
   signIn: '/sign-in',
   signUp: '/sign-up',
+  confirmSignUp: '/confirm-sign-up',
   forgotPassword: '/forgot-password',
   resetPassword: '/reset-password',
   invitation: '/invitation',

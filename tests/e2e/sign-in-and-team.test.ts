@@ -30,6 +30,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Larchmere Test Cellars');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByText('Check your mail').waitFor();
+    await page.goto(linkFrom((await app.mail.waitFor(ownerEmail, { subject: /Confirm/, timeoutMs: 20_000 })).text, '/confirm-sign-up'));
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Team' }).click();
     await page.getByRole('heading', { name: 'Team' }).waitFor();
     expect(await page.getByTestId('winery').textContent()).toContain('Larchmere Test Cellars');
@@ -119,6 +121,8 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.getByLabel('Password', { exact: true }).fill(TEST_PASSWORD);
     await page.getByLabel('Winery name').fill('Reset Test Winery');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByText('Check your mail').waitFor();
+    await page.goto(linkFrom((await app.mail.waitFor(email, { subject: /Confirm/, timeoutMs: 20_000 })).text, '/confirm-sign-up'));
     await page.getByRole('navigation', { name: 'Sections' }).waitFor();
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();

@@ -12,6 +12,13 @@ afterAll(async () => {
   await app.close();
 });
 
+/** Follows the link of the sign-up mail to `email`; returns the confirmation's answer. */
+async function confirmFromMail(client: Client, email: string, on: TestApp = app) {
+  const mail = await on.mail.waitFor(email, { subject: /Confirm your Porewise account/, timeoutMs: 20_000 });
+  const token = new URL(linkFrom(mail.text, '/confirm-sign-up')).searchParams.get('token')!;
+  return client.post('/api/auth/sign-up/confirm', { token });
+}
+
 describe('health', () => {
   it('reports the database', async () => {
     const res = await new Client(app.baseUrl).get('/api/health');
@@ -24,7 +31,10 @@ describe('sign-up, sign-in, sign-out', () => {
   it('signs up as owner of a new winery and sets an HttpOnly, SameSite=Lax session cookie', async () => {
     const client = new Client(app.baseUrl);
     const email = uniqueEmail();
-    const res = await client.post('/api/auth/sign-up', { name: 'Ada Field', email, password: TEST_PASSWORD, wineryName: 'Hillcrest Test' });
+    const asked = await client.post('/api/auth/sign-up', { name: 'Ada Field', email, password: TEST_PASSWORD, wineryName: 'Hillcrest Test' });
+    expect(asked.status).toBe(202);
+    expect(client.cookies.has('porewise_session')).toBe(false); // nothing exists until the mailed link is opened
+    const res = await confirmFromMail(client, email);
     expect(res.status).toBe(201);
     const cookie = client.lastSetCookie.find((c) => c.startsWith('porewise_session='))!;
     expect(cookie).toMatch(/HttpOnly/i);
@@ -40,18 +50,42 @@ describe('sign-up, sign-in, sign-out', () => {
     const secureApp = await startTestApp({ config: { secureCookies: true } });
     try {
       const client = new Client(secureApp.baseUrl);
-      await client.post('/api/auth/sign-up', { name: 'Sec', email: uniqueEmail(), password: TEST_PASSWORD, wineryName: 'W' });
+      const email = uniqueEmail();
+      await client.post('/api/auth/sign-up', { name: 'Sec', email, password: TEST_PASSWORD, wineryName: 'W' });
+      await confirmFromMail(client, email, secureApp);
       expect(client.lastSetCookie.find((c) => c.startsWith('porewise_session='))).toMatch(/Secure/);
     } finally {
       await secureApp.close();
     }
   });
 
-  it('refuses a second account with the same e-mail (409)', async () => {
+  // Finding 7 of the hardening issue: sign-up answered 409 email_taken, which told anyone which
+  // addresses have accounts. Now a taken address gets the same answer, and its owner a mail.
+  it('answers a taken address exactly like a new one, creates no second account, and mails the owner', async () => {
     const { email } = await signUp(app.baseUrl);
-    const res = await new Client(app.baseUrl).post('/api/auth/sign-up', { name: 'X', email: email.toUpperCase(), password: TEST_PASSWORD, wineryName: 'W' });
-    expect(res.status).toBe(409);
-    expect(res.body.error.code).toBe('email_taken');
+    const before = app.mail.messages.length;
+    const taken = await new Client(app.baseUrl).post('/api/auth/sign-up', { name: 'X', email: email.toUpperCase(), password: TEST_PASSWORD, wineryName: 'W' });
+    const fresh = await new Client(app.baseUrl).post('/api/auth/sign-up', { name: 'X', email: uniqueEmail(), password: TEST_PASSWORD, wineryName: 'W' });
+    expect(taken.status).toBe(202);
+    expect(taken.status).toBe(fresh.status);
+    expect(taken.body).toEqual(fresh.body);
+    expect(taken.headers.get('set-cookie')).toBe(fresh.headers.get('set-cookie'));
+    const note = await app.mail.waitFor(email, { after: before, subject: /tried to create/ });
+    expect(note.text).toMatch(/already has one/);
+    expect(note.text).not.toMatch(/confirm-sign-up/);
+    const users = await app.db.select().from(usersTable).where(eq(usersTable.email, email));
+    expect(users).toHaveLength(1);
+  });
+
+  it('a sign-up link works once; the second use is 410', async () => {
+    const client = new Client(app.baseUrl);
+    const email = uniqueEmail();
+    await client.post('/api/auth/sign-up', { name: 'Once', email, password: TEST_PASSWORD, wineryName: 'W' });
+    const mail = await app.mail.waitFor(email, { subject: /Confirm/, timeoutMs: 20_000 });
+    const token = new URL(linkFrom(mail.text, '/confirm-sign-up')).searchParams.get('token')!;
+    expect((await client.post('/api/auth/sign-up/confirm', { token })).status).toBe(201);
+    expect((await new Client(app.baseUrl).post('/api/auth/sign-up/confirm', { token })).status).toBe(410);
+    expect((await new Client(app.baseUrl).post('/api/auth/sign-up/confirm', { token: 'x'.repeat(40) })).status).toBe(410);
   });
 
   it('gives the same 401 for a wrong password and an unknown e-mail', async () => {

@@ -29,9 +29,15 @@ const unusedStorage: Storage = {
   remove: async () => {},
 };
 
+/** The fake mail server of each running test app, so signUp(baseUrl) can follow its link. */
+const mailOf = new Map<string, FakeSmtp>();
+
+/** The secret that opens the development outbox of a test app without signing in. */
+export const TEST_OUTBOX_KEY = 'test-outbox-key-5a1f0c9e';
+
 /** Starts the app; with `withStorage` also a fake S3 server in a temporary folder. */
-export async function startTestApp(opts: { config?: Partial<AppConfig>; withStorage?: boolean } = {}): Promise<TestApp> {
-  const { db, pool } = createDatabase(databaseUrl('porewise_test'), { max: 5 });
+export async function startTestApp(opts: { config?: Partial<AppConfig>; withStorage?: boolean; databaseUrl?: string } = {}): Promise<TestApp> {
+  const { db, pool } = createDatabase(opts.databaseUrl ?? databaseUrl('porewise_test'), { max: 5 });
   const mail = await startFakeSmtp();
   let storage = unusedStorage;
   let closeStorage = async () => {};
@@ -52,6 +58,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
       mailer,
       storage,
       outbox: mail,
+      outboxKey: TEST_OUTBOX_KEY,
       config: {
         appUrl: baseUrl,
         allowedOrigins: [],
@@ -68,6 +75,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
   await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   handler = app(baseUrl);
+  mailOf.set(baseUrl, mail);
   return {
     baseUrl,
     mail,
@@ -78,6 +86,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
         server.close(() => r());
         server.closeAllConnections();
       });
+      mailOf.delete(baseUrl);
       await mail.close();
       await closeStorage();
       await pool.end();
@@ -138,17 +147,24 @@ export function uniqueEmail(prefix = 'person') {
 
 export const TEST_PASSWORD = 'correct-horse-battery';
 
-/** Signs up a new person with their own winery; returns the signed-in client. */
+/** Signs up a new person with their own winery (and follows the mailed link); returns the signed-in client. */
 export async function signUp(baseUrl: string, opts: { name?: string; wineryName?: string; email?: string } = {}) {
   const client = new Client(baseUrl);
   const email = opts.email ?? uniqueEmail('owner');
+  const mail = mailOf.get(baseUrl);
+  if (!mail) throw new Error(`no test app listens at ${baseUrl}`);
+  const before = mail.messages.length;
   const res = await client.post('/api/auth/sign-up', {
     name: opts.name ?? 'Test Owner',
     email,
     password: TEST_PASSWORD,
     wineryName: opts.wineryName ?? 'Test Winery',
   });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${res.text}`);
+  if (res.status !== 202) throw new Error(`sign-up failed: ${res.status} ${res.text}`);
+  const message = await mail.waitFor(email, { after: before, subject: /Confirm your Porewise account/, timeoutMs: 20_000 });
+  const token = new URL(linkFrom(message.text, '/confirm-sign-up')).searchParams.get('token')!;
+  const confirmed = await client.post('/api/auth/sign-up/confirm', { token });
+  if (confirmed.status !== 201) throw new Error(`sign-up confirmation failed: ${confirmed.status} ${confirmed.text}`);
   const me = await client.get('/api/me');
   return { client, email, me: me.body as import('../../shared/types/api').MeDto };
 }

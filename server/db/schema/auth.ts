@@ -36,3 +36,23 @@ export const passwordResetsTable = pgTable(
   },
   (t) => [index('password_resets_user_idx').on(t.userId)],
 );
+
+/**
+ * A sign-up waiting for its e-mail link. Sign-up answers the same for a new and a taken address
+ * (nothing tells a stranger which addresses have accounts); the account is created only when the
+ * link mailed to the address is opened. The password is stored hashed, the token hashed.
+ */
+export const signUpRequestsTable = pgTable(
+  'sign_up_requests',
+  {
+    tokenHash: text('token_hash').primaryKey(),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    wineryName: text('winery_name').notNull(),
+    passwordHash: text('password_hash').notNull(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('sign_up_requests_email_idx').on(t.email)],
+);

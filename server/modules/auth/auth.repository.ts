@@ -1,6 +1,6 @@
 import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { membershipsTable, passwordResetsTable, usersTable, wineriesTable } from '../../db/schema';
+import { membershipsTable, passwordResetsTable, signUpRequestsTable, usersTable, wineriesTable } from '../../db/schema';
 import type { Role } from '../../../shared/permissions';
 
 export function createAuthRepository(db: DbOrTx) {
@@ -39,6 +39,18 @@ export function createAuthRepository(db: DbOrTx) {
         .update(passwordResetsTable)
         .set({ usedAt: now })
         .where(and(eq(passwordResetsTable.userId, userId), isNull(passwordResetsTable.usedAt)));
+    },
+    async insertSignUpRequest(r: { tokenHash: string; email: string; name: string; wineryName: string; passwordHash: string; expiresAt: Date }) {
+      await db.insert(signUpRequestsTable).values(r);
+    },
+    /** Marks a valid, unused, unexpired sign-up token as used and returns the request, atomically. */
+    async consumeSignUpRequest(tokenHash: string, now: Date) {
+      const [row] = await db
+        .update(signUpRequestsTable)
+        .set({ usedAt: now })
+        .where(and(eq(signUpRequestsTable.tokenHash, tokenHash), isNull(signUpRequestsTable.usedAt), gt(signUpRequestsTable.expiresAt, now)))
+        .returning();
+      return row ?? null;
     },
     /** Marks a valid, unused, unexpired reset token as used and returns its user, atomically. */
     async consumePasswordReset(tokenHash: string, now: Date) {

@@ -3,6 +3,7 @@ import {
   passwordResetConfirmInputSchema,
   passwordResetRequestInputSchema,
   signInInputSchema,
+  signUpConfirmInputSchema,
   signUpInputSchema,
 } from '../../../shared/schemas/auth';
 import type { Auth } from '../../lib/auth';
@@ -17,8 +18,14 @@ export function authRoutes(deps: { auth: Auth; service: AuthService; limits: Ret
   const setSession = (res: import('express').Response, sessionId: string) =>
     res.append('Set-Cookie', auth.createSessionCookie(sessionId).serialize());
 
-  router.post('/sign-up', ...limits.signUp, validateBody(signUpInputSchema), async (_req, res) => {
-    const session = await service.signUp(res.locals.body);
+  router.post('/sign-up', ...limits.signUp, validateBody(signUpInputSchema), async (req, res) => {
+    // The same answer, at once, for a new and a taken address; the mail is sent in the background.
+    void service.requestSignUp(res.locals.body).catch((err) => req.log?.error({ err }, 'sign-up mail failed'));
+    res.status(202).json({ ok: true, checkMail: true });
+  });
+
+  router.post('/sign-up/confirm', ...limits.passwordResetConfirm, validateBody(signUpConfirmInputSchema), async (_req, res) => {
+    const session = await service.confirmSignUp(res.locals.body);
     setSession(res, session.id);
     res.status(201).json({ ok: true });
   });

@@ -9,6 +9,7 @@ import { createToken, hashToken } from '../../lib/tokens';
 import { createAuthRepository } from './auth.repository';
 
 export const RESET_TOKEN_MINUTES = 60;
+export const SIGN_UP_TOKEN_HOURS = 24;
 
 type Deps = { db: Database; auth: Auth; mailer: Mailer; appUrl: string };
 
@@ -16,17 +17,55 @@ export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
   const repo = createAuthRepository(db);
 
   return {
+    /**
+     * Answers the same for a new and a taken address: a new address gets a link that creates the
+     * account; the owner of a taken address gets a note that someone tried (nothing is created).
+     */
+    async requestSignUp(input: SignUpInput, now = new Date()) {
+      const existing = await repo.findUserByEmail(input.email);
+      if (existing) {
+        await mailer.send({
+          to: existing.email,
+          subject: 'Someone tried to create a Porewise account with your address',
+          text:
+            `Hello ${existing.name},\n\nSomeone (perhaps you) tried to create a new Porewise account with this e-mail address, ` +
+            `which already has one. Nothing was changed.\n\nSign in: ${appUrl}/sign-in\nForgot your password? ${appUrl}/forgot-password\n\n` +
+            `If it was not you, you can ignore this message.\n`,
+        });
+        return;
+      }
+      const token = createToken();
+      await repo.insertSignUpRequest({
+        tokenHash: await hashToken(token),
+        email: input.email,
+        name: input.name,
+        wineryName: input.wineryName,
+        passwordHash: await hashPassword(input.password),
+        expiresAt: new Date(now.getTime() + SIGN_UP_TOKEN_HOURS * 3_600_000),
+      });
+      const link = `${appUrl}/confirm-sign-up?token=${encodeURIComponent(token)}`;
+      await mailer.send({
+        to: input.email,
+        subject: 'Confirm your Porewise account',
+        text:
+          `Hello ${input.name},\n\nOpen this link within ${SIGN_UP_TOKEN_HOURS} hours to finish creating your Porewise account ` +
+          `for ${input.wineryName}:\n\n${link}\n\nIf you did not ask for this, ignore this message; no account is created.\n`,
+      });
+    },
+
     /** Creates the person, their winery and their owner membership in one transaction; opens a session. */
-    async signUp(input: SignUpInput) {
-      const passwordHash = await hashPassword(input.password);
+    async confirmSignUp(input: { token: string }, now = new Date()) {
+      const tokenHash = await hashToken(input.token);
       const userId = generateIdFromEntropySize(10);
       await db.transaction(async (tx) => {
         const txRepo = createAuthRepository(tx);
-        if (await txRepo.findUserByEmail(input.email)) {
+        const request = await txRepo.consumeSignUpRequest(tokenHash, now);
+        if (!request) throw gone('This sign-up link has expired or was already used. Sign up again.');
+        if (await txRepo.findUserByEmail(request.email)) {
           throw conflict('An account with this e-mail already exists. Sign in instead.', 'email_taken');
         }
-        const winery = await txRepo.insertWinery(input.wineryName);
-        const user = await txRepo.insertUser({ id: userId, email: input.email, name: input.name, passwordHash, activeWineryId: winery.id });
+        const winery = await txRepo.insertWinery(request.wineryName);
+        const user = await txRepo.insertUser({ id: userId, email: request.email, name: request.name, passwordHash: request.passwordHash, activeWineryId: winery.id });
         if (!user) throw conflict('An account with this e-mail already exists. Sign in instead.', 'email_taken');
         await txRepo.insertMembership({ wineryId: winery.id, userId, role: 'owner' });
       });

@@ -1,4 +1,4 @@
-import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useSearchParams } from 'react-router-dom';
 import { AuthLayout } from '@/components/layouts/auth-layout';
 import { SignUpForm } from '@/features/auth/components/sign-up-form';
 import { paths, safeNext } from '@/config/paths';
@@ -6,7 +6,6 @@ import { useMe } from '@/lib/session';
 
 export default function SignUpRoute() {
   const [params] = useSearchParams();
-  const navigate = useNavigate();
   const me = useMe();
   const next = safeNext(params.get('next'));
   if (me.data) return <Navigate to={next} replace />;
@@ -23,7 +22,7 @@ export default function SignUpRoute() {
         </>
       }
     >
-      <SignUpForm onSignedUp={() => navigate(next, { replace: true })} />
+      <SignUpForm />
     </AuthLayout>
   );
 }
