@@ -49,6 +49,21 @@ export default defineConfig({
         },
       },
       {
+        // Faults (database restart, SIGKILL, stopping npm start) run after everything else, so a
+        // restarted cluster never disturbs another test.
+        resolve: { alias },
+        test: {
+          name: 'faults',
+          environment: 'node',
+          include: ['tests/faults/**/*.test.ts'],
+          globalSetup: ['tests/setup/global-db.ts'],
+          fileParallelism: false,
+          sequence: { groupOrder: 1 },
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
         resolve: { alias },
         test: {
           name: 'e2e',

@@ -105,17 +105,18 @@ export function createApp(deps: AppDeps): Express {
   api.use(wellFormedInput);
   api.use(hostCheck([config.appUrl, ...config.allowedOrigins]));
   api.use(originCheck([config.appUrl, ...config.allowedOrigins]));
-  api.use(authenticate(auth));
   api.use((_req, res, next) => {
     res.set('Cache-Control', 'no-store');
     next();
   });
+  // Before authenticate: health answers {db:false} even with a session cookie while the database is away.
+  api.use('/health', healthRoutes({ db }));
+  api.use(authenticate(auth));
 
   const limits = createAuthRateLimits(config.rateLimitScale);
   const authService = createAuthService({ db, auth, mailer, appUrl: config.appUrl });
   const teamService = createTeamService({ db, auth, mailer, appUrl: config.appUrl });
 
-  api.use('/health', healthRoutes({ db }));
   api.use('/app-info', appInfoRoutes({ mailOutbox: Boolean(deps.outbox) }));
   api.use('/auth', authRoutes({ auth, service: authService, limits }));
   api.use('/me', accountRoutes({ service: createAccountService({ db }) }));
