@@ -4,6 +4,7 @@ import { spawnSync, execFileSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { runMigrations } from '../server/db/migrate';
+import { runAudit } from './lib/audit';
 import { buildClientIfChanged } from './lib/build';
 import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './lib/postgres';
 
@@ -33,6 +34,7 @@ async function main() {
     console.log('[porewise] type-checking and linting …');
     execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });
     execFileSync(join(root, 'node_modules/.bin/eslint'), ['.', '--max-warnings=0'], { cwd: root, stdio: 'inherit' });
+    const auditOk = runAudit(root);
 
     const tmp = join(root, '.data', 'tmp');
     rmSync(tmp, { recursive: true, force: true });
@@ -50,6 +52,10 @@ async function main() {
       },
     );
     status = run.status ?? 1;
+    if (!auditOk && status === 0) {
+      console.log('[porewise] the suite passed, but npm audit found high or critical advisories with a fix (see above)');
+      status = 1;
+    }
     if (existsSync(report)) {
       const { numPassedTests, numFailedTests } = JSON.parse(readFileSync(report, 'utf8'));
       console.log(`\n${numPassedTests} passed, ${numFailedTests} failed`);
