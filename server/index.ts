@@ -5,6 +5,7 @@ import { startServer } from './server';
 
 const running = await startServer(parseEnv());
 logger.info(`Porewise is serving ${running.url}`);
+if (running.outboxKey) logger.info(`Development mail outbox: ${running.url}/outbox?key=${running.outboxKey}`);
 
 let stopping = false;
 for (const signal of ['SIGINT', 'SIGTERM'] as const) {

@@ -34,7 +34,7 @@ export function ForgotPasswordForm() {
     return (
       <div className="flex flex-col gap-3 text-sm text-ink-700" role="status">
         <p className="flex items-start gap-2 text-base text-ink-900">
-          <MailCheck aria-hidden="true" className="mt-0.5 size-5 text-primary-600" />
+          <MailCheck aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-primary-600" />
           <span>If an account exists for {sentTo}, a reset link is on its way. It works once, for one hour.</span>
         </p>
         {appInfo.data?.mailOutbox ? (

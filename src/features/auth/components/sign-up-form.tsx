@@ -39,7 +39,7 @@ export function SignUpForm() {
     return (
       <div className="flex flex-col gap-3 text-sm text-ink-700" role="status">
         <p className="flex items-start gap-2 text-base text-ink-900">
-          <MailCheck aria-hidden="true" className="mt-0.5 size-5 text-primary-600" />
+          <MailCheck aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-primary-600" />
           <span>Check your mail: we sent a link to {sentTo}. Open it within 24 hours to finish creating your account.</span>
         </p>
         <p>If this address already has an account, the mail says so instead; sign in or reset your password from there.</p>

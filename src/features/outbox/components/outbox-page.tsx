@@ -38,6 +38,7 @@ export function OutboxPage({ outboxKey }: { outboxKey?: string }) {
         <LoadingState />
       ) : outbox.isError ? (
         <ErrorState
+          title={outbox.error instanceof ApiError && outbox.error.status === 404 ? 'The outbox is closed' : undefined}
           message={
             outbox.error instanceof ApiError && outbox.error.status === 404
               ? 'The outbox opens only for an owner who is signed in, or with the outbox link printed beside the address where Porewise was started (npm start).'
