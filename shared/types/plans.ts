@@ -125,6 +125,8 @@ export type PlanDto = {
   requiredFlowLh: number | null;
   approvedBy: string | null;
   approvedAt: string | null;
+  /** Cautions accepted at approval with the approver's written reason, or null. */
+  approvalOverride: { cautions: string[]; reason: string } | null;
   createdBy: string | null;
   createdAt: string;
   updatedAt: string;

@@ -131,6 +131,7 @@ export function createPlansRepository(db: DbOrTx) {
           designFluxLhPer10in: cartridgeTypesTable.designFluxLhPer10in,
           pricePer10in: cartridgeTypesTable.pricePer10in,
           currency: cartridgeTypesTable.currency,
+          ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
         })
         .from(cartridgeTypesTable)
         .where(eq(cartridgeTypesTable.wineryId, wineryId))
