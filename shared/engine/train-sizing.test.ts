@@ -3,6 +3,8 @@ import fc from 'fast-check';
 import {
   CLEAN_DP_MAX_FRACTION_OF_TERMINAL,
   DEFAULT_FLOW_MARGIN_PCT,
+  DEFAULT_VMAX_SAFETY_FACTOR,
+  capacityFromVmax,
   SANITATION_TEMP_C,
   requiredFlowLh,
   sizeTrain,
@@ -650,5 +652,34 @@ describe('suggestTrain — one housing per stage', () => {
     const alone = suggestTrain(input, { housingOptions: [big], maxHousingsPerStage: 1 });
     expect(alone.ok).toBe(false);
     if (!alone.ok) expect(alone.reason).toMatch(/earlier stage/);
+  });
+});
+
+describe('capacity from the lot’s Vmax disc test', () => {
+  it('v_T = v_max(1 − √(ΔP0/ΔP_T)): 200 L/m², 0.2 → 2.0 bar gives 136.754 L/m² (shared reference "engineering" §7.4 table, standard blocking at r = 10)', () => {
+    expect(capacityFromVmax({ vmaxLPerM2: 200, cleanDpBar: 0.2, terminalDpBar: 2, safetyFactor: 1 })).toBeCloseTo(136.754, 3);
+  });
+  it('divides by the safety factor (default 1.5; "SF commonly 1.5–2", §7.5, from memory)', () => {
+    expect(DEFAULT_VMAX_SAFETY_FACTOR).toBe(1.5);
+    expect(capacityFromVmax({ vmaxLPerM2: 200, cleanDpBar: 0.2, terminalDpBar: 2 })).toBeCloseTo(136.754 / 1.5, 3);
+  });
+  it('is 0 when the clean ΔP reaches the terminal ΔP, and refuses a safety factor below 1', () => {
+    expect(capacityFromVmax({ vmaxLPerM2: 500, cleanDpBar: 1.25, terminalDpBar: 1.2 })).toBe(0);
+    expect(() => capacityFromVmax({ vmaxLPerM2: 500, cleanDpBar: 0.1, terminalDpBar: 1.2, safetyFactor: 0.5 })).toThrow(RangeError);
+  });
+  it('sizes a membrane stage without a typed capacity from the lot’s Vmax at the stage’s own clean ΔP, and says so', () => {
+    const input = baseInput();
+    delete input.stages[1].cartridgeType.capacityLPerM2;
+    input.wine.vmaxLPerM2 = 900;
+    const r = sizeTrain(input);
+    const m = r.stages[1];
+    expect(m.capacitySource).toBe('vmax');
+    const expected = capacityFromVmax({ vmaxLPerM2: 900, cleanDpBar: m.cleanDpBar, terminalDpBar: m.terminalDpBar });
+    expect(m.capacityLPerM2).toBeCloseTo(expected, 9);
+    expect(m.capacityL).toBeCloseTo(expected * m.areaM2, 6);
+    // A typed capacity wins; prefilters never take the membrane disc's Vmax.
+    expect(r.stages[0].capacitySource).toBe('stage');
+    delete input.stages[0].cartridgeType.capacityLPerM2;
+    expect(sizeTrain(input).stages[0].capacitySource).toBeNull();
   });
 });

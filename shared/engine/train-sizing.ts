@@ -70,6 +70,36 @@ export const SIZING_VALID_TEMP_C = { minC: 2, maxC: 50 } as const;
  */
 export const SANITATION_TEMP_C = { 'hot-water': 82, steam: 121 } as const;
 
+/**
+ * Default safety factor on capacity from a Vmax disc test (1.5; "SF commonly 1.5–2", shared
+ * reference "engineering" §7.5, from memory).
+ */
+export const DEFAULT_VMAX_SAFETY_FACTOR = 1.5;
+
+/**
+ * Litres per m² a membrane takes to its terminal ΔP at constant flow, from the lot's Vmax
+ * disc test: v_T = v_max·(1 − √(ΔP0/ΔP_terminal)) / SF (standard blocking at constant flux,
+ * shared reference "engineering" §7.6; Hermia 1982; Zydney & Ho 2002). ΔP0 is the stage's own
+ * clean ΔP with this wine at its temperature. A clean ΔP at or above the terminal ΔP leaves
+ * no capacity (0). v_max holds for the test's ΔP, temperature and wine lot only.
+ *
+ * @param p.vmaxLPerM2 v_max of the disc test, L/m² (> 0)
+ * @param p.cleanDpBar the stage's clean ΔP, bar (> 0)
+ * @param p.terminalDpBar the stage's terminal ΔP, bar (> 0)
+ * @param p.safetyFactor SF ≥ 1 (default {@link DEFAULT_VMAX_SAFETY_FACTOR})
+ * @returns L/m² to terminal ΔP
+ */
+export function capacityFromVmax(p: { vmaxLPerM2: number; cleanDpBar: number; terminalDpBar: number; safetyFactor?: number }): number {
+  requirePositive('Vmax per area (L/m²)', p.vmaxLPerM2);
+  requirePositive('clean ΔP (bar)', p.cleanDpBar);
+  requirePositive('terminal ΔP (bar)', p.terminalDpBar);
+  const sf = p.safetyFactor ?? DEFAULT_VMAX_SAFETY_FACTOR;
+  requireFinite('safety factor', sf);
+  if (sf < 1) throw new RangeError(`Safety factor must be at least 1 (got ${String(sf)}).`);
+  if (p.cleanDpBar >= p.terminalDpBar) return 0;
+  return (p.vmaxLPerM2 * (1 - Math.sqrt(p.cleanDpBar / p.terminalDpBar))) / sf;
+}
+
 /** Default largest number of parallel housings per stage that {@link suggestTrain} tries (4). A planning limit, not a physical one. */
 export const DEFAULT_MAX_HOUSINGS_PER_STAGE = 4;
 
@@ -89,6 +119,10 @@ export interface SizingWine {
   sugarGPerL?: number;
   /** Dry-extract viscosity factor (default 1.00). */
   extractFactor?: number;
+  /** v_max of the lot's latest Vmax disc test, L/m²; gives membrane stages their capacity when none is typed. */
+  vmaxLPerM2?: number;
+  /** Safety factor on that capacity (default {@link DEFAULT_VMAX_SAFETY_FACTOR}). */
+  vmaxSafetyFactor?: number;
 }
 
 /** The bottling line, which sets the flow the train must carry. */
@@ -273,6 +307,10 @@ export interface StageSizing {
   inletPressureEndOfRunBar: number;
   /** Litres to terminal ΔP for one set (capacityLPerM2 × areaM2), or null when unknown. */
   capacityL: number | null;
+  /** Capacity per m² used, L/m², or null when unknown. */
+  capacityLPerM2: number | null;
+  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, or unknown. */
+  capacitySource: 'stage' | 'vmax' | null;
   /** Hours of run to terminal ΔP for one set, or null when unknown. */
   hoursToTerminal: number | null;
   /** Fresh or regenerated loads the lot needs, ceil(batch/capacity), or null when capacity is unknown. */
@@ -605,14 +643,20 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
     let kind: InterventionKind | null = null;
     let setsUsed = 1;
     const infeasible = dp >= c.terminalDpBar;
+    let capPerM2: number | null = c.capacityLPerM2 ?? null;
+    let capacitySource: StageSizing['capacitySource'] = capPerM2 === null ? null : 'stage';
+    if (capPerM2 === null && c.kind === 'membrane' && wine.vmaxLPerM2 !== undefined && !infeasible) {
+      capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
+      capacitySource = 'vmax';
+    }
     if (infeasible) {
       // No room to foul: the set reaches its terminal ΔP clean, so it holds no wine at all.
       capacityL = 0;
       hoursToTerminal = 0;
       limitingCap = 0;
       limitingIndex = i;
-    } else if (c.capacityLPerM2 !== undefined) {
-      capacityL = c.capacityLPerM2 * areaM2;
+    } else if (capPerM2 !== null) {
+      capacityL = capPerM2 * areaM2;
       hoursToTerminal = capacityL / flowLh;
       // Guard against 10000/10000.000000001 style rounding pushing ceil up by one.
       loads = Math.max(1, Math.ceil(batchL / capacityL - 1e-9));
@@ -744,6 +788,8 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       inletPressureCleanBar: 0,
       inletPressureEndOfRunBar: 0,
       capacityL,
+      capacityLPerM2: infeasible ? 0 : capPerM2,
+      capacitySource,
       hoursToTerminal,
       loadsNeeded: loads,
       interventions,

@@ -221,7 +221,7 @@ export type SizingCatalogueHousing = {
   holdUpL: number;
 };
 
-export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number };
+export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number; vmaxLPerM2?: number | null };
 export type SizingLineSource = { bottlesPerHour: number; bottleMl: number };
 
 /** What a train needs to be sized: the lot's wine and volume, the plan's line, the stages and the catalogue. */
@@ -293,7 +293,12 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
   return {
     ok: true,
     input: {
-      wine: { tempC: src.wine.tempC, ethanolPctVol: src.wine.ethanolPctVol, sugarGPerL: src.wine.sugarGPerL },
+      wine: {
+        tempC: src.wine.tempC,
+        ethanolPctVol: src.wine.ethanolPctVol,
+        sugarGPerL: src.wine.sugarGPerL,
+        ...(src.wine.vmaxLPerM2 ? { vmaxLPerM2: src.wine.vmaxLPerM2 } : {}),
+      },
       line: { bottlesPerHour: src.line.bottlesPerHour, bottleMl: src.line.bottleMl },
       batchL: src.volumeL,
       lineLosses: hoses.length > 0 ? { hoses } : undefined,

@@ -60,6 +60,8 @@ export type PlanLotDto = {
     tempC: number;
     ethanolPctVol: number;
     sugarGPerL: number;
+    /** v_max of the latest Vmax disc test, L/m², or null; membrane stages without a typed capacity take theirs from it. */
+    vmaxLPerM2: number | null;
   };
   trains: PlanTrainDto[];
 };

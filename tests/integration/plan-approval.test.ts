@@ -4,7 +4,7 @@
 // and cautions (flux above design, a lot not ready) pass only with a written reason.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
-import { createLabResult, createLot } from '../factories/cellar';
+import { createLabResult, createLot, discPoints } from '../factories/cellar';
 import { createCartridgeType } from '../factories/equipment';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -112,5 +112,22 @@ describe('approval with cautions needs a written reason, kept with the approval'
     const res = await owner.post(`/api/plans/${clean.planId}/approve`);
     expect(res.status).toBe(200);
     expect(res.body.approvalOverride).toBeNull();
+  });
+});
+
+describe('capacity from the lot’s Vmax disc test', () => {
+  it('a membrane stage without a typed capacity takes it from the lot’s latest disc test, at its own clean ΔP', async () => {
+    const lot = await createLot(owner, { volumeL: 5000, tempC: 12 });
+    await createLabResult(owner, lot.id, { discDiameterMm: 47, discPressureBar: 2, discPoints: discPoints(2.4, 5000, 10) });
+    const body = trainBody(world);
+    delete (body.stages[1] as { capacityLPerM2?: number }).capacityLPerM2;
+    const { detail } = await chosenDraft(body, { lotId: lot.id });
+    const vmax = detail.lots[0].lot.vmaxLPerM2!;
+    expect(vmax).toBeGreaterThan(0);
+    const m = detail.lots[0].trains[0].sizing!.stages[1];
+    expect(m.capacitySource).toBe('vmax');
+    // v_T = v_max(1 − √(ΔP0/ΔP_T))/1.5 (shared reference "engineering" §7.6; SF 1.5 from memory)
+    expect(m.capacityLPerM2).toBeCloseTo((vmax * (1 - Math.sqrt(m.cleanDpBar / m.terminalDpBar))) / 1.5, 6);
+    expect(detail.lots[0].trains[0].sizing!.stages[0].capacitySource).toBe('stage');
   });
 });

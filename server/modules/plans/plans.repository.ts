@@ -1,10 +1,11 @@
-import { and, asc, count, eq, ilike, inArray, max, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, max, or, sql } from 'drizzle-orm';
 import type { PlanListQuery, PlanValues } from '../../../shared/schemas/plans';
 import type { DbOrTx } from '../../db/client';
 import {
   cartridgesTable,
   cartridgeTypesTable,
   housingsTable,
+  labResultsTable,
   linesTable,
   lotsTable,
   planLotsTable,
@@ -102,6 +103,24 @@ export function createPlansRepository(db: DbOrTx) {
         .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
         .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.planId, planId)))
         .orderBy(asc(planLotsTable.position), asc(planLotsTable.createdAt));
+    },
+
+    /** The latest lab result's disc test of each given lot (one query), for capacity from Vmax. */
+    async latestDiscTests(wineryId: string, lotIds: string[]) {
+      if (lotIds.length === 0) return [];
+      return db
+        .selectDistinctOn([labResultsTable.lotId], {
+          lotId: labResultsTable.lotId,
+          turbidityNtu: labResultsTable.turbidityNtu,
+          t200s: labResultsTable.t200s,
+          t400s: labResultsTable.t400s,
+          discDiameterMm: labResultsTable.discDiameterMm,
+          discPressureBar: labResultsTable.discPressureBar,
+          discPoints: labResultsTable.discPoints,
+        })
+        .from(labResultsTable)
+        .where(and(eq(labResultsTable.wineryId, wineryId), inArray(labResultsTable.lotId, lotIds)))
+        .orderBy(labResultsTable.lotId, desc(labResultsTable.sampledAt), desc(labResultsTable.createdAt));
     },
 
     /** Every train of the given plan lots, oldest first (one query). */

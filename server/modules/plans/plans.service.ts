@@ -20,6 +20,7 @@ import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../cellar/db-errors';
 import { createCellarService } from '../cellar/cellar.service';
+import { analyseLabResult } from '../cellar/lab-analysis';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
 import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
 
@@ -65,10 +66,22 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
   const [planLots, types, housings, stock] = opts.inTransaction
     ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
     : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
-  const trains = await repo.trains(
-    wineryId,
-    planLots.map((p) => p.planLot.id),
-  );
+  const [trains, discTests] = await Promise.all([
+    repo.trains(
+      wineryId,
+      planLots.map((p) => p.planLot.id),
+    ),
+    repo.latestDiscTests(
+      wineryId,
+      planLots.map((p) => p.lot.id),
+    ),
+  ]);
+  // Capacity of membrane stages from each lot's latest Vmax disc test (when it has one).
+  const vmaxByLot = new Map<string, number>();
+  for (const t of discTests) {
+    const disc = analyseLabResult(t).disc;
+    if (disc?.computable) vmaxByLot.set(t.lotId, disc.vmaxLPerM2);
+  }
   const line = row.line;
   const lineSource = line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null;
   const housingById = new Map(housings.map((h) => [h.id, h]));
@@ -81,7 +94,8 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
   type NeedAcc = Omit<PlanNeedDto, 'cartridgesAvailable' | 'inStock' | 'installed' | 'elementEquivalentsAvailable' | 'shortfall' | 'verdict'>;
   const needs = new Map<string, NeedAcc>();
   const lots: PlanLotDto[] = [];
-  for (const { planLot, lot } of planLots) {
+  for (const { planLot, lot: lotRow } of planLots) {
+    const lot = { ...lotRow, vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null };
     const ownTrains = trains.filter((t) => t.planLotId === planLot.id);
     const dtos = ownTrains.map((t) => {
       const outcome = sizePlanTrain({ wine: lot, volumeL: planLot.volumeL, line: lineSource, stages: t.stages, hoses: t.hoses, types, housings, sanitationKind: row.plan.sanitationKind });

@@ -103,7 +103,10 @@ function StageFigures({ s }: { s: StageSizing }) {
         ) : s.capacityL === null ? (
           <span className="font-normal text-ink-600">unknown</span>
         ) : (
-          u.format('volume', s.capacityL)
+          <>
+            {u.format('volume', s.capacityL)}
+            <span className="block text-xs font-normal text-ink-600">{s.capacitySource === 'vmax' ? 'from the lot’s Vmax test' : 'from the stage’s capacity'}</span>
+          </>
         )}
       </Figure>
       <Figure label="Regenerations or changes" testId="stage-interventions">
