@@ -13,6 +13,7 @@ import { useCreateTrain } from '../api/create-train';
 import { useRemovePlanLot } from '../api/remove-plan-lot';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { TrainCard } from './train-card';
+import { parseNumberText } from '@/lib/number-input';
 
 const letter = (n: number) => String.fromCharCode(65 + (n % 26));
 
@@ -46,7 +47,7 @@ export function PlanLotSection({ plan, planLot, editable, isFirst, isLast }: { p
   useEffect(() => setVolume(units.toInput('volume', planLot.volumeL, 1)), [planLot.volumeL, units.system]);
 
   const saveVolume = () => {
-    const typed = Number(volume.trim().replace(',', '.'));
+    const typed = parseNumberText(volume) ?? Number.NaN;
     if (!volume.trim() || !(typed > 0)) return setVolumeError('Enter the volume to bottle, more than 0.');
     setVolumeError(null);
     const litres = units.fromInput('volume', typed);

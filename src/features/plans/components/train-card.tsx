@@ -21,6 +21,7 @@ import { cn } from '@/utils/cn';
 import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
+import { parseNumberText } from '@/lib/number-input';
 
 /** A stage as typed: text fields stay text until sized or saved. */
 type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
@@ -34,12 +35,7 @@ const toDraft = (t: PlanTrainDto): DraftStage[] =>
     capacity: s.capacityLPerM2 === null ? '' : String(s.capacityLPerM2),
   }));
 
-const parseNumber = (text: string) => {
-  const s = text.trim().replace(',', '.');
-  if (!s) return undefined;
-  const n = Number(s);
-  return Number.isFinite(n) ? n : Number.NaN;
-};
+const parseNumber = (text: string) => parseNumberText(text) ?? undefined;
 
 const toStages = (draft: DraftStage[]): TrainStageInput[] =>
   draft.map((d) => {
