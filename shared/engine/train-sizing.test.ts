@@ -3,6 +3,9 @@ import fc from 'fast-check';
 import {
   CLEAN_DP_MAX_FRACTION_OF_TERMINAL,
   DEFAULT_FLOW_MARGIN_PCT,
+  DEFAULT_VMAX_SAFETY_FACTOR,
+  capacityFromVmax,
+  SANITATION_TEMP_C,
   requiredFlowLh,
   sizeTrain,
   suggestTrain,
@@ -256,8 +259,9 @@ describe('sizeTrain — warnings', () => {
     ['clean ΔP above a third of terminal (common practice, no source)', 'clean-dp-above-third-of-terminal', 1, (i) => { i.stages[1].cartridgeType.terminalDpBar = 0.24; }],
     // Prefilter inlet at end of run 3.726 bar > 3.5 bar housing (hand calculation above).
     ['inlet pressure above housing rating', 'inlet-pressure-above-housing-rating', 0, (i) => { i.stages[0].housing.maxPressureBar = 3.5; }],
-    // Prefilter inlet 3.726 bar > cartridge max forward ΔP 3.5 bar.
-    ['inlet pressure above cartridge max forward ΔP', 'inlet-pressure-above-cartridge-max-dp', 0, (i) => { i.stages[0].cartridgeType.maxDpForwardBar = 3.5; }],
+    // The forward-ΔP rating limits the ΔP across the cartridge (its terminal ΔP at the end of
+    // the run), not the line pressure at its inlet (maker data sheets, common practice, no source).
+    ['stage ΔP at terminal above cartridge max forward ΔP', 'stage-dp-above-cartridge-max-dp', 0, (i) => { i.stages[0].cartridgeType.maxDpForwardBar = i.stages[0].cartridgeType.terminalDpBar - 0.1; }],
     ['membrane with no prefilter before it', 'membrane-without-prefilter', 0, (i) => { i.stages = [i.stages[1]]; }],
     ['wine above the cartridge’s maximum temperature', 'temp-above-cartridge-max', 1, (i) => { i.stages[1].cartridgeType.maxTempC = 15; }],
     ['wine above the housing’s maximum temperature', 'temp-above-housing-max', 0, (i) => { i.stages[0].housing.maxTempC = 15; }],
@@ -327,7 +331,7 @@ const LIMIT_CODES: SizingWarningCode[] = [
   'flux-above-design',
   'clean-dp-above-third-of-terminal',
   'inlet-pressure-above-housing-rating',
-  'inlet-pressure-above-cartridge-max-dp',
+  'stage-dp-above-cartridge-max-dp',
   'temp-above-housing-max',
   'temp-above-cartridge-max',
 ];
@@ -389,7 +393,8 @@ describe('suggestTrain', () => {
     // prefilter inlet at end of run 3.73 bar > 3 bar housings
     ['every housing rated below the inlet pressure', () => {}, OPTIONS.map((h) => ({ ...h, maxPressureBar: 3 })), 4, 0],
     ['wine hotter than the cartridge allows', (i) => { i.stages[1].cartridgeType.maxTempC = 15; }, OPTIONS, 4, 1],
-    ['inlet above the cartridge’s max forward ΔP', (i) => { i.stages[0].cartridgeType.maxDpForwardBar = 3; }, OPTIONS, 4, 0],
+    // terminal 2 bar across the prefilter > its 1.5 bar forward rating (the rating limits the ΔP across the cartridge)
+    ['terminal ΔP above the cartridge’s max forward ΔP', (i) => { i.stages[0].cartridgeType.maxDpForwardBar = 1.5; }, OPTIONS, 4, 0],
     ['no housings', () => {}, [], 4, 0],
   ])('gives a reason when none fits: %s', (_label, mutate, options, maxHousings, stageIndex) => {
     const input = baseInput();
@@ -506,5 +511,175 @@ describe('elementEquivalents', () => {
     [3, 25],
   ])('refuses %d cartridges of %d inches', (cartridges, lengthIn) => {
     expect(() => elementEquivalents({ cartridges, lengthIn })).toThrow(RangeError);
+  });
+});
+
+// ---------------------------------------------------------------------------------------
+// Plans you can approve with confidence (limits, feasibility, cost spread, housings)
+// ---------------------------------------------------------------------------------------
+
+describe('sizeTrain — limits a plan must not break', () => {
+  it('a stage whose clean ΔP reaches its terminal ΔP is infeasible: capacity 0, no loads, a stop warning', () => {
+    // Cold wine raises viscosity (Darcy: ΔP ∝ μ); a terminal ΔP just below the clean ΔP makes the
+    // stage unable to hold any wine — by definition of the terminal ΔP (common practice, no source).
+    const input = baseInput();
+    const clean = sizeTrain(input).stages[1].cleanDpBar;
+    input.stages[1].cartridgeType.terminalDpBar = clean * 0.96;
+    const r = sizeTrain(input);
+    const s = r.stages[1];
+    expect(s.infeasible).toBe(true);
+    expect(s.capacityL).toBe(0);
+    expect(s.loadsNeeded).toBeNull();
+    expect(r.totals.limitingStageIndex).toBe(1);
+    expect(r.totals.limitingCapacityL).toBe(0);
+    expect(r.warnings.map((w) => w.code)).toContain('stage-infeasible');
+    expect(Number.isFinite(s.costPerHl ?? 0)).toBe(true);
+  });
+
+  it('at 2 °C a membrane with clean ΔP 1.25 bar above its terminal 1.20 bar reports no capacity (issue example)', () => {
+    const input = baseInput();
+    input.wine.tempC = 2;
+    const clean = sizeTrain(input).stages[1].cleanDpBar;
+    // Scale the medium so the clean ΔP at 2 °C is 1.25 bar (ΔP ∝ 1/water flow at a given water ΔP, Darcy 1856).
+    input.stages[1].cartridgeType.waterFlowLhPer10in *= clean / 1.25;
+    input.stages[1].cartridgeType.terminalDpBar = 1.2;
+    input.stages[1].cartridgeType.maxDpForwardBar = 5;
+    const s = sizeTrain(input).stages[1];
+    expect(s.cleanDpBar).toBeCloseTo(1.25, 6);
+    expect(s.capacityL).toBe(0);
+    expect(s.infeasible).toBe(true);
+  });
+
+  it('checks the forward-ΔP rating against the stage’s own ΔP, not the inlet pressure (maker data sheets, common practice, no source)', () => {
+    const input = baseInput();
+    input.lineLosses = { hoses: [], staticHeadBar: 0, fillerInletBar: 4 }; // inlet 6+ bar, stage ΔP ≤ 2 bar
+    const r = sizeTrain(input);
+    expect(r.stages[0].inletPressureEndOfRunBar).toBeGreaterThan(5);
+    expect(r.warnings.map((w) => w.code)).not.toContain('stage-dp-above-cartridge-max-dp');
+  });
+
+  it('does not ask for a prefilter before a membrane that follows another membrane (common practice, no source)', () => {
+    const input = baseInput();
+    const membrane = input.stages[1];
+    input.stages = [
+      { ...membrane, name: '0.65 µm', cartridgeType: { ...membrane.cartridgeType, ratingUm: 0.65 } },
+      { ...membrane, name: '0.45 µm' },
+    ];
+    const codes = sizeTrain(input).warnings.filter((w) => w.code === 'membrane-without-prefilter');
+    expect(codes.map((w) => w.stageIndex)).toEqual([0]);
+  });
+
+  it('one housing in two stages is a stop', () => {
+    const input = baseInput();
+    input.stages[0].housingId = 'h-1';
+    input.stages[1].housingId = 'h-1';
+    const hit = sizeTrain(input).warnings.filter((w) => w.code === 'housing-in-two-stages');
+    expect(hit).toHaveLength(1);
+    expect(hit[0].stageIndex).toBe(1);
+    input.stages[1].housingId = 'h-2';
+    expect(sizeTrain(input).warnings.map((w) => w.code)).not.toContain('housing-in-two-stages');
+  });
+
+  it('checks sanitation against every rating: steam at 121 °C over cartridges rated 80 °C (SIP 121 °C from memory; hot water 82 °C, trade practice §5.2)', () => {
+    expect(SANITATION_TEMP_C.steam).toBe(121);
+    expect(SANITATION_TEMP_C['hot-water']).toBe(82);
+    const input = baseInput();
+    input.stages[0].cartridgeType.maxTempC = 80;
+    input.stages[1].cartridgeType.maxTempC = 140;
+    input.stages[1].housing.maxTempC = 100;
+    input.sanitation = { kind: 'steam' };
+    const codes = sizeTrain(input).warnings.map((w) => `${w.code}@${String(w.stageIndex)}`);
+    expect(codes).toContain('sanitation-above-cartridge-max@0');
+    expect(codes).toContain('sanitation-above-housing-max@1');
+    expect(codes).not.toContain('sanitation-above-cartridge-max@1');
+    input.sanitation = { kind: 'hot-water' };
+    expect(sizeTrain(input).warnings.map((w) => w.code)).toContain('sanitation-above-cartridge-max'); // 82 > 80
+    input.stages[0].cartridgeType.maxTempC = 90;
+    input.stages[1].housing.maxTempC = 130;
+    expect(sizeTrain(input).warnings.map((w) => w.code).filter((c) => c.startsWith('sanitation'))).toEqual([]);
+  });
+});
+
+describe('sizeTrain — cost per hL spread over a regenerable set’s life', () => {
+  // Hand calculation (common practice, no source): a regenerable set of 3 × 30-inch membranes
+  // (9 modules × 180 € = 1,620 €) that serves 51 loads in its life (50 rated hot-water cycles + 1)
+  // costs 1,620 × loads / 51 per lot; single-use sets are charged whole to the lot.
+  function regenInput(batchL: number) {
+    const input = baseInput();
+    input.batchL = batchL;
+    input.stages[1].cartridgeType.serviceLifeLoads = 51;
+    return input;
+  }
+
+  it('a 12,000 L white pays its share of the set, not the whole set', () => {
+    const r = sizeTrain(regenInput(12_000));
+    const m = r.stages[1];
+    expect(m.costBasis).toBe('service-life');
+    const loads = m.loadsNeeded ?? 1;
+    expect(m.costTotal).toBeCloseTo((m.costPerSet! * loads) / 51, 9);
+    expect(m.costPerHl!).toBeLessThan(5);
+    const whole = sizeTrain({ ...regenInput(12_000), stages: [baseInput().stages[0], { ...baseInput().stages[1] }] }).stages[1];
+    expect(whole.costBasis).toBe('whole-set');
+    expect(whole.costPerHl!).toBeGreaterThan(m.costPerHl! * 10);
+  });
+
+  it('a 100 L lot no longer carries thousands per hL', () => {
+    const m = sizeTrain(regenInput(100)).stages[1];
+    expect(m.costTotal).toBeCloseTo(m.costPerSet! / 51, 9);
+    expect(m.costPerHl!).toBeCloseTo(m.costPerSet! / 51 / 1, 9);
+  });
+
+  it('single-use prefilters are charged whole to the lot, and "at least" carries to the total', () => {
+    const input = regenInput(12_000);
+    delete input.stages[0].cartridgeType.capacityLPerM2;
+    const r = sizeTrain(input);
+    expect(r.stages[0].costBasis).toBe('single-use');
+    expect(r.stages[0].costIsLowerBound).toBe(true);
+    expect(r.totals.costIsLowerBound).toBe(true);
+    expect(sizeTrain(regenInput(12_000)).totals.costIsLowerBound).toBe(false);
+  });
+});
+
+describe('suggestTrain — one housing per stage', () => {
+  it('never gives the same housing to two stages', () => {
+    const input = baseInput();
+    const big = { ...OPTIONS[3], id: 'big' };
+    const other = { ...OPTIONS[3], id: 'other', holdUpL: 25 };
+    const res = suggestTrain(input, { housingOptions: [big, other], maxHousingsPerStage: 1 });
+    if (!res.ok) throw new Error(res.reason);
+    expect(res.input.stages.map((st) => st.housingId)).toEqual(['big', 'other']);
+    expect(sizeTrain(res.input).warnings.map((w) => w.code)).not.toContain('housing-in-two-stages');
+    const alone = suggestTrain(input, { housingOptions: [big], maxHousingsPerStage: 1 });
+    expect(alone.ok).toBe(false);
+    if (!alone.ok) expect(alone.reason).toMatch(/earlier stage/);
+  });
+});
+
+describe('capacity from the lot’s Vmax disc test', () => {
+  it('v_T = v_max(1 − √(ΔP0/ΔP_T)): 200 L/m², 0.2 → 2.0 bar gives 136.754 L/m² (shared reference "engineering" §7.4 table, standard blocking at r = 10)', () => {
+    expect(capacityFromVmax({ vmaxLPerM2: 200, cleanDpBar: 0.2, terminalDpBar: 2, safetyFactor: 1 })).toBeCloseTo(136.754, 3);
+  });
+  it('divides by the safety factor (default 1.5; "SF commonly 1.5–2", §7.5, from memory)', () => {
+    expect(DEFAULT_VMAX_SAFETY_FACTOR).toBe(1.5);
+    expect(capacityFromVmax({ vmaxLPerM2: 200, cleanDpBar: 0.2, terminalDpBar: 2 })).toBeCloseTo(136.754 / 1.5, 3);
+  });
+  it('is 0 when the clean ΔP reaches the terminal ΔP, and refuses a safety factor below 1', () => {
+    expect(capacityFromVmax({ vmaxLPerM2: 500, cleanDpBar: 1.25, terminalDpBar: 1.2 })).toBe(0);
+    expect(() => capacityFromVmax({ vmaxLPerM2: 500, cleanDpBar: 0.1, terminalDpBar: 1.2, safetyFactor: 0.5 })).toThrow(RangeError);
+  });
+  it('sizes a membrane stage without a typed capacity from the lot’s Vmax at the stage’s own clean ΔP, and says so', () => {
+    const input = baseInput();
+    delete input.stages[1].cartridgeType.capacityLPerM2;
+    input.wine.vmaxLPerM2 = 900;
+    const r = sizeTrain(input);
+    const m = r.stages[1];
+    expect(m.capacitySource).toBe('vmax');
+    const expected = capacityFromVmax({ vmaxLPerM2: 900, cleanDpBar: m.cleanDpBar, terminalDpBar: m.terminalDpBar });
+    expect(m.capacityLPerM2).toBeCloseTo(expected, 9);
+    expect(m.capacityL).toBeCloseTo(expected * m.areaM2, 6);
+    // A typed capacity wins; prefilters never take the membrane disc's Vmax.
+    expect(r.stages[0].capacitySource).toBe('stage');
+    delete input.stages[0].cartridgeType.capacityLPerM2;
+    expect(sizeTrain(input).stages[0].capacitySource).toBeNull();
   });
 });

@@ -14,6 +14,7 @@
  */
 import { requireFinite, requireNonNegative, requirePositive, requireRange } from './errors';
 import { ethanolMassFraction, ethanolWaterDensity, wineViscosity } from './fluids';
+import type { SanitationKind } from './day-timeline';
 import { cleanDpBar, lineLossBar, mediumResistance } from './flow';
 
 // ---------------------------------------------------------------------------------------
@@ -60,6 +61,45 @@ export const SUGAR_DENSITY_RISE_PER_G_L = 0.38;
  */
 export const SIZING_VALID_TEMP_C = { minC: 2, maxC: 50 } as const;
 
+/**
+ * Usual sanitation temperatures before a bottling day, °C: hot water at 82 °C (180 °F) for
+ * at least 20–30 min measured at the point furthest from the heater (US wine microbiology
+ * practice and the UC Davis bottling workshop, see shared reference "trade practice" §5.2),
+ * and saturated steam at 121 °C (≈1 bar gauge) for in-place sterilisation (typical maker
+ * data, from memory; §5.3).
+ */
+export const SANITATION_TEMP_C = { 'hot-water': 82, steam: 121 } as const;
+
+/**
+ * Default safety factor on capacity from a Vmax disc test (1.5; "SF commonly 1.5–2", shared
+ * reference "engineering" §7.5, from memory).
+ */
+export const DEFAULT_VMAX_SAFETY_FACTOR = 1.5;
+
+/**
+ * Litres per m² a membrane takes to its terminal ΔP at constant flow, from the lot's Vmax
+ * disc test: v_T = v_max·(1 − √(ΔP0/ΔP_terminal)) / SF (standard blocking at constant flux,
+ * shared reference "engineering" §7.6; Hermia 1982; Zydney & Ho 2002). ΔP0 is the stage's own
+ * clean ΔP with this wine at its temperature. A clean ΔP at or above the terminal ΔP leaves
+ * no capacity (0). v_max holds for the test's ΔP, temperature and wine lot only.
+ *
+ * @param p.vmaxLPerM2 v_max of the disc test, L/m² (> 0)
+ * @param p.cleanDpBar the stage's clean ΔP, bar (> 0)
+ * @param p.terminalDpBar the stage's terminal ΔP, bar (> 0)
+ * @param p.safetyFactor SF ≥ 1 (default {@link DEFAULT_VMAX_SAFETY_FACTOR})
+ * @returns L/m² to terminal ΔP
+ */
+export function capacityFromVmax(p: { vmaxLPerM2: number; cleanDpBar: number; terminalDpBar: number; safetyFactor?: number }): number {
+  requirePositive('Vmax per area (L/m²)', p.vmaxLPerM2);
+  requirePositive('clean ΔP (bar)', p.cleanDpBar);
+  requirePositive('terminal ΔP (bar)', p.terminalDpBar);
+  const sf = p.safetyFactor ?? DEFAULT_VMAX_SAFETY_FACTOR;
+  requireFinite('safety factor', sf);
+  if (sf < 1) throw new RangeError(`Safety factor must be at least 1 (got ${String(sf)}).`);
+  if (p.cleanDpBar >= p.terminalDpBar) return 0;
+  return (p.vmaxLPerM2 * (1 - Math.sqrt(p.cleanDpBar / p.terminalDpBar))) / sf;
+}
+
 /** Default largest number of parallel housings per stage that {@link suggestTrain} tries (4). A planning limit, not a physical one. */
 export const DEFAULT_MAX_HOUSINGS_PER_STAGE = 4;
 
@@ -79,6 +119,10 @@ export interface SizingWine {
   sugarGPerL?: number;
   /** Dry-extract viscosity factor (default 1.00). */
   extractFactor?: number;
+  /** v_max of the lot's latest Vmax disc test, L/m²; gives membrane stages their capacity when none is typed. */
+  vmaxLPerM2?: number;
+  /** Safety factor on that capacity (default {@link DEFAULT_VMAX_SAFETY_FACTOR}). */
+  vmaxSafetyFactor?: number;
 }
 
 /** The bottling line, which sets the flow the train must carry. */
@@ -142,6 +186,12 @@ export interface SizingCartridgeType {
   maxRegenerationsPerLot?: number;
   /** Price per 10-inch module (a 30-inch cartridge costs 3×). */
   pricePer10in?: number;
+  /**
+   * Loads one set of a regenerable type serves over its whole service life (its rated
+   * regeneration cycles + 1, or the winery's own history). When given, the cost of a
+   * regenerable set is spread over its life instead of charged whole to one lot.
+   */
+  serviceLifeLoads?: number;
   /** Currency code of the price, e.g. "EUR". */
   currency?: string;
 }
@@ -159,6 +209,8 @@ export function elementEquivalents(p: { cartridges: number; lengthIn: number }):
 
 /** A housing. */
 export interface SizingHousing {
+  /** Identity of the physical housing; {@link suggestTrain} never gives one housing to two stages. */
+  id?: string;
   /** Cartridge positions. */
   rounds: number;
   /** Cartridge length, inches. */
@@ -174,6 +226,8 @@ export interface SizingHousing {
 /** One stage of the train (stages are listed from the tank towards the filler). */
 export interface SizingStage {
   name?: string;
+  /** Identity of the physical housing, so one housing placed in two stages is caught (optional). */
+  housingId?: string;
   cartridgeType: SizingCartridgeType;
   housing: SizingHousing;
   /** Identical housings in parallel (default 1). */
@@ -188,6 +242,8 @@ export interface TrainSizingInput {
   batchL: number;
   lineLosses?: SizingLineLosses;
   stages: SizingStage[];
+  /** Sanitation before the wine; its temperature is checked against every cartridge's and housing's rating. */
+  sanitation?: { kind: SanitationKind; tempC?: number };
 }
 
 // ---------------------------------------------------------------------------------------
@@ -199,11 +255,15 @@ export type SizingWarningCode =
   | 'flux-above-design'
   | 'clean-dp-above-third-of-terminal'
   | 'inlet-pressure-above-housing-rating'
-  | 'inlet-pressure-above-cartridge-max-dp'
+  | 'stage-dp-above-cartridge-max-dp'
+  | 'stage-infeasible'
+  | 'housing-in-two-stages'
   | 'membrane-without-prefilter'
   | 'temp-above-cartridge-max'
   | 'temp-above-housing-max'
   | 'temp-outside-valid-range'
+  | 'sanitation-above-cartridge-max'
+  | 'sanitation-above-housing-max'
   | 'mixed-currencies';
 
 /** A broken limit, with a plain message. `stageIndex` is absent for train-level warnings. */
@@ -247,6 +307,10 @@ export interface StageSizing {
   inletPressureEndOfRunBar: number;
   /** Litres to terminal ΔP for one set (capacityLPerM2 × areaM2), or null when unknown. */
   capacityL: number | null;
+  /** Capacity per m² used, L/m², or null when unknown. */
+  capacityLPerM2: number | null;
+  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, or unknown. */
+  capacitySource: 'stage' | 'vmax' | null;
   /** Hours of run to terminal ΔP for one set, or null when unknown. */
   hoursToTerminal: number | null;
   /** Fresh or regenerated loads the lot needs, ceil(batch/capacity), or null when capacity is unknown. */
@@ -269,8 +333,16 @@ export interface StageSizing {
   costTotal: number | null;
   /** costTotal per hL of the lot, or null without a price. */
   costPerHl: number | null;
-  /** True when capacity is unknown, so the cost counts one set only (a lower bound). */
+  /** True when capacity is unknown, so the cost counts one set or load only (a lower bound). */
   costIsLowerBound: boolean;
+  /**
+   * How the cost was charged: `single-use` sets charged whole to the lot; `service-life` a
+   * regenerable set's price spread over the loads it serves in its life; `whole-set` a
+   * regenerable set charged whole because its service life is unknown (an upper bound).
+   */
+  costBasis: 'single-use' | 'service-life' | 'whole-set' | null;
+  /** True when the clean ΔP already reaches the terminal ΔP: the stage cannot filter this wine (capacity 0). */
+  infeasible: boolean;
   currency: string | null;
   warnings: SizingWarning[];
 }
@@ -295,6 +367,8 @@ export interface TrainTotals {
   /** Sum of the priced stages' costs, or null when none is priced or currencies differ. */
   costTotal: number | null;
   costPerHl: number | null;
+  /** True when any priced stage's cost is a lower bound, or a stage has no price: the total is "at least". */
+  costIsLowerBound: boolean;
   currency: string | null;
   /** Indices of stages without a price. */
   unpricedStages: number[];
@@ -348,6 +422,7 @@ function validateCartridge(c: SizingCartridgeType, s: string): void {
     }
   }
   if (c.pricePer10in !== undefined) requireNonNegative(`${s} price per 10-inch module`, c.pricePer10in);
+  if (c.serviceLifeLoads !== undefined) requirePositive(`${s} service life (loads)`, c.serviceLifeLoads);
 }
 
 function validateHousing(h: SizingHousing, s: string): void {
@@ -535,7 +610,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
   let sumClean = 0;
   let sumEnd = 0;
   let holdUpTotal = 0;
-  let seenPrefilter = false;
+  let seenEarlierStage = false;
   let limitingIndex: number | null = null;
   let limitingCap = Infinity;
 
@@ -567,8 +642,21 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
     let changes: number | null = null;
     let kind: InterventionKind | null = null;
     let setsUsed = 1;
-    if (c.capacityLPerM2 !== undefined) {
-      capacityL = c.capacityLPerM2 * areaM2;
+    const infeasible = dp >= c.terminalDpBar;
+    let capPerM2: number | null = c.capacityLPerM2 ?? null;
+    let capacitySource: StageSizing['capacitySource'] = capPerM2 === null ? null : 'stage';
+    if (capPerM2 === null && c.kind === 'membrane' && wine.vmaxLPerM2 !== undefined && !infeasible) {
+      capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
+      capacitySource = 'vmax';
+    }
+    if (infeasible) {
+      // No room to foul: the set reaches its terminal ΔP clean, so it holds no wine at all.
+      capacityL = 0;
+      hoursToTerminal = 0;
+      limitingCap = 0;
+      limitingIndex = i;
+    } else if (capPerM2 !== null) {
+      capacityL = capPerM2 * areaM2;
       hoursToTerminal = capacityL / flowLh;
       // Guard against 10000/10000.000000001 style rounding pushing ceil up by one.
       loads = Math.max(1, Math.ceil(batchL / capacityL - 1e-9));
@@ -591,9 +679,17 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
     let costPerSet: number | null = null;
     let costTotal: number | null = null;
     let costPerHl: number | null = null;
+    let costBasis: StageSizing['costBasis'] = null;
     if (c.pricePer10in !== undefined) {
       costPerSet = eq * c.pricePer10in;
-      costTotal = costPerSet * setsUsed;
+      if (c.regenerable === true && c.serviceLifeLoads !== undefined) {
+        // A regenerable set serves serviceLifeLoads loads in its life; this lot uses `loads` of them.
+        costBasis = 'service-life';
+        costTotal = (costPerSet * (loads ?? 1)) / c.serviceLifeLoads;
+      } else {
+        costBasis = c.regenerable === true ? 'whole-set' : 'single-use';
+        costTotal = costPerSet * setsUsed;
+      }
       costPerHl = costTotal / hl;
     }
 
@@ -612,20 +708,58 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
         message: `${label}: clean ΔP ${fmt(dp, 3)} bar is above a third of the terminal ${fmt(c.terminalDpBar, 2)} bar, leaving little room to foul (common practice).`,
       });
     }
-    if (c.kind === 'membrane' && !seenPrefilter) {
+    if (infeasible) {
+      sw.push({
+        code: 'stage-infeasible',
+        stageIndex: i,
+        message: `${label}: clean ΔP ${fmt(dp, 2)} bar already reaches the terminal ${fmt(c.terminalDpBar, 2)} bar with this wine at ${fmt(tempC, 1)} °C, so the stage cannot filter it; warm the wine, add housings or choose a more open cartridge.`,
+      });
+    }
+    if (stage.housingId !== undefined) {
+      for (let j = 0; j < i; j++) {
+        if (stages[j].housingId === stage.housingId) {
+          sw.push({
+            code: 'housing-in-two-stages',
+            stageIndex: i,
+            message: `${label}: uses the same housing as ${stageLabel(stages[j], j)}; one housing can hold only one stage.`,
+          });
+          break;
+        }
+      }
+    }
+    if (c.kind === 'membrane' && !seenEarlierStage) {
       sw.push({
         code: 'membrane-without-prefilter',
         stageIndex: i,
         message: `${label}: membrane stage with no prefilter before it; it will blind early.`,
       });
     }
-    if (c.kind === 'prefilter') seenPrefilter = true;
+    // Any stage before a membrane protects it (a 0.65 µm membrane before a 0.45 µm one counts).
+    seenEarlierStage = true;
     if (c.maxTempC !== undefined && tempC > c.maxTempC) {
       sw.push({
         code: 'temp-above-cartridge-max',
         stageIndex: i,
         message: `${label}: wine at ${fmt(tempC, 1)} °C is above the cartridge's ${fmt(c.maxTempC, 1)} °C maximum.`,
       });
+    }
+    if (input.sanitation !== undefined) {
+      const sanC = input.sanitation.tempC ?? SANITATION_TEMP_C[input.sanitation.kind];
+      const what = input.sanitation.kind === 'steam' ? 'Steam' : 'Hot water';
+      if (c.maxTempC !== undefined && sanC > c.maxTempC) {
+        sw.push({
+          code: 'sanitation-above-cartridge-max',
+          stageIndex: i,
+          message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the cartridges' ${fmt(c.maxTempC, 0)} °C rating; sanitise another way or choose cartridges rated for it.`,
+        });
+      }
+      if (h.maxTempC !== undefined && sanC > h.maxTempC) {
+        sw.push({
+          code: 'sanitation-above-housing-max',
+          stageIndex: i,
+          message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the housing's ${fmt(h.maxTempC, 0)} °C rating.`,
+        });
+      }
     }
     if (h.maxTempC !== undefined && tempC > h.maxTempC) {
       sw.push({
@@ -654,6 +788,8 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       inletPressureCleanBar: 0,
       inletPressureEndOfRunBar: 0,
       capacityL,
+      capacityLPerM2: infeasible ? 0 : capPerM2,
+      capacitySource,
       hoursToTerminal,
       loadsNeeded: loads,
       interventions,
@@ -667,6 +803,8 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       costTotal,
       costPerHl,
       costIsLowerBound: c.pricePer10in !== undefined && capacityL === null,
+      costBasis,
+      infeasible,
       currency: c.pricePer10in !== undefined ? (c.currency ?? null) : null,
       warnings: sw,
     };
@@ -691,11 +829,13 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
         message: `${s.name}: inlet pressure reaches ${fmt(downEnd, 2)} bar at the end of the run, above the housing's ${fmt(h.maxPressureBar, 2)} bar rating.`,
       });
     }
-    if (downEnd > c.maxDpForwardBar) {
+    // The forward-ΔP rating limits the ΔP across the cartridge itself, not the line pressure.
+    const ownEndDp = s.cleanDpBar > s.terminalDpBar ? s.cleanDpBar : s.terminalDpBar;
+    if (ownEndDp > c.maxDpForwardBar) {
       s.warnings.push({
-        code: 'inlet-pressure-above-cartridge-max-dp',
+        code: 'stage-dp-above-cartridge-max-dp',
         stageIndex: i,
-        message: `${s.name}: inlet pressure reaches ${fmt(downEnd, 2)} bar at the end of the run, above the cartridge's ${fmt(c.maxDpForwardBar, 2)} bar maximum forward ΔP.`,
+        message: `${s.name}: ΔP across the cartridges reaches ${fmt(ownEndDp, 2)} bar at the end of the run, above their ${fmt(c.maxDpForwardBar, 2)} bar maximum forward ΔP; lower the terminal ΔP.`,
       });
     }
   }
@@ -705,6 +845,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
   let mixed = false;
   let costSum = 0;
   let priced = 0;
+  let lowerBound = false;
   const unpricedStages: number[] = [];
   for (let i = 0; i < n; i++) {
     const s = out[i];
@@ -712,6 +853,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       unpricedStages.push(i);
       continue;
     }
+    if (s.costIsLowerBound) lowerBound = true;
     priced++;
     costSum += s.costTotal;
     if (s.currency !== null) {
@@ -750,6 +892,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       holdUpL: holdUpTotal,
       costTotal,
       costPerHl: costTotal === null ? null : costTotal / hl,
+      costIsLowerBound: costTotal !== null && (lowerBound || unpricedStages.length > 0),
       currency: mixed ? null : currency,
       unpricedStages,
       limitingStageIndex: limitingIndex,
@@ -825,6 +968,7 @@ export function suggestTrain(input: TrainSizingInput, options: SuggestTrainOptio
   }
 
   const chosen: SizingStage[] = new Array<SizingStage>(n);
+  const taken = new Set<string>();
   for (let i = 0; i < n; i++) {
     const stage = stages[i];
     const label = stageLabel(stage, i);
@@ -832,11 +976,11 @@ export function suggestTrain(input: TrainSizingInput, options: SuggestTrainOptio
     if (c.maxTempC !== undefined && tempC > c.maxTempC) {
       return { ok: false, stageIndex: i, reason: `${label}: wine at ${fmt(tempC, 1)} °C is above the cartridge's ${fmt(c.maxTempC, 1)} °C maximum; no housing changes that.` };
     }
-    if (inletEnd[i] > c.maxDpForwardBar) {
+    if (c.terminalDpBar > c.maxDpForwardBar) {
       return {
         ok: false,
         stageIndex: i,
-        reason: `${label}: the end-of-run inlet pressure (${fmt(inletEnd[i], 2)} bar) is above the cartridge's ${fmt(c.maxDpForwardBar, 2)} bar maximum forward ΔP; lower the terminal ΔPs or the line losses.`,
+        reason: `${label}: the terminal ΔP (${fmt(c.terminalDpBar, 2)} bar) is above the cartridge's ${fmt(c.maxDpForwardBar, 2)} bar maximum forward ΔP; lower the terminal ΔP.`,
       };
     }
     const own = options.housingCatalog?.[i];
@@ -859,6 +1003,10 @@ export function suggestTrain(input: TrainSizingInput, options: SuggestTrainOptio
     let why = '';
     for (const cand of candidates) {
       const h = cand.housing;
+      if (h.id !== undefined && taken.has(h.id)) {
+        why = 'every suitable housing already serves an earlier stage';
+        continue;
+      }
       if (h.maxTempC !== undefined && tempC > h.maxTempC) {
         why = 'too hot for the housings';
         continue;
@@ -886,7 +1034,8 @@ export function suggestTrain(input: TrainSizingInput, options: SuggestTrainOptio
         reason: `${label}: no housing set of up to ${String(maxHousings)} housings meets every limit (largest set tried: ${why}).`,
       };
     }
-    chosen[i] = { ...stage, housing: pick.housing, housingCount: pick.count };
+    if (pick.housing.id !== undefined) taken.add(pick.housing.id);
+    chosen[i] = { ...stage, housing: pick.housing, housingCount: pick.count, ...(pick.housing.id !== undefined ? { housingId: pick.housing.id } : {}) };
   }
 
   const chosenInput: TrainSizingInput = { ...input, stages: chosen };

@@ -31,13 +31,18 @@ export const sanitationKindLabels: Record<PlanSanitationKind, string> = { 'hot-w
 
 /**
  * Warnings that stop a plan from being approved: limits of the equipment itself (pressure and
- * temperature ratings). Flux and clean-ΔP warnings are advice and leave the choice to the planner.
+ * temperature ratings, sanitation included), a stage that cannot filter the wine at all, and one
+ * housing in two stages. Flux and clean-ΔP warnings are advice and leave the choice to the planner.
  */
 export const BLOCKING_WARNING_CODES: readonly SizingWarningCode[] = [
   'inlet-pressure-above-housing-rating',
-  'inlet-pressure-above-cartridge-max-dp',
+  'stage-dp-above-cartridge-max-dp',
+  'stage-infeasible',
+  'housing-in-two-stages',
   'temp-above-cartridge-max',
   'temp-above-housing-max',
+  'sanitation-above-cartridge-max',
+  'sanitation-above-housing-max',
 ];
 
 const id = (what: string) => z.uuid({ error: `Choose ${what}.` });
@@ -88,6 +93,18 @@ export const updatePlanInputSchema = z
   .partial()
   .refine((v) => Object.keys(v).length > 0, { error: 'Change at least one field.' });
 export type UpdatePlanInput = z.input<typeof updatePlanInputSchema>;
+
+export const APPROVAL_REASON_MAX = 1000;
+
+/** Approving a plan; a written reason is needed only to accept cautions (flux above design, a lot not ready, a stock shortfall). */
+export const approvePlanInputSchema = z.object({
+  reason: z
+    .string({ error: 'The reason is text.' })
+    .trim()
+    .max(APPROVAL_REASON_MAX, { error: `Reasons are at most ${APPROVAL_REASON_MAX} characters.` })
+    .optional(),
+});
+export type ApprovePlanInput = z.input<typeof approvePlanInputSchema>;
 
 export const planSortKeys = ['plannedDate', 'name', 'status', 'createdAt'] as const;
 export type PlanSortKey = (typeof planSortKeys)[number];
@@ -189,6 +206,8 @@ export type SizingCatalogueType = {
   designFluxLhPer10in: number;
   pricePer10in: number | null;
   currency: string;
+  /** Rated hot-water regeneration cycles of the type, or null when the maker gives none. */
+  ratedHotWaterCycles?: number | null;
 };
 
 /** The fields of a housing the sizing reads. */
@@ -202,7 +221,7 @@ export type SizingCatalogueHousing = {
   holdUpL: number;
 };
 
-export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number };
+export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number; vmaxLPerM2?: number | null };
 export type SizingLineSource = { bottlesPerHour: number; bottleMl: number };
 
 /** What a train needs to be sized: the lot's wine and volume, the plan's line, the stages and the catalogue. */
@@ -214,6 +233,8 @@ export type TrainSizingSource = {
   hoses?: TrainHoseInput[] | null;
   types: readonly SizingCatalogueType[];
   housings: readonly SizingCatalogueHousing[];
+  /** The plan's sanitation before the wine, checked against every rating. */
+  sanitationKind?: PlanSanitationKind;
 };
 
 export type TrainSizingOutcome = { ok: true; input: TrainSizingInput; result: TrainSizingResult } | { ok: false; error: string };
@@ -238,8 +259,10 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
     if (!h) return { ok: false, error: `${label}: choose a housing.` };
     const count = s.housingCount ?? 1;
     if (!Number.isInteger(count) || count < 1) return { ok: false, error: `${label}: the number of housings is a whole number, 1 or more.` };
+    const regenerable = t.maxDpReverseBar !== null;
     stages.push({
       name: label,
+      housingId: h.id,
       housingCount: count,
       housing: { rounds: h.rounds, lengthIn: h.lengthIn as 10 | 20 | 30 | 40, maxPressureBar: h.maxPressureBar, maxTempC: h.maxTempC, holdUpL: h.holdUpL },
       cartridgeType: {
@@ -253,7 +276,9 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
         terminalDpBar: t.terminalDpBar,
         designFluxLhPer10in: t.designFluxLhPer10in,
         capacityLPerM2: s.capacityLPerM2 ?? undefined,
-        regenerable: t.maxDpReverseBar !== null,
+        regenerable,
+        // A regenerable set serves its rated regeneration cycles + 1 loads over its life.
+        serviceLifeLoads: regenerable && t.ratedHotWaterCycles ? t.ratedHotWaterCycles + 1 : undefined,
         pricePer10in: t.pricePer10in ?? undefined,
         currency: t.currency,
       },
@@ -268,11 +293,17 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
   return {
     ok: true,
     input: {
-      wine: { tempC: src.wine.tempC, ethanolPctVol: src.wine.ethanolPctVol, sugarGPerL: src.wine.sugarGPerL },
+      wine: {
+        tempC: src.wine.tempC,
+        ethanolPctVol: src.wine.ethanolPctVol,
+        sugarGPerL: src.wine.sugarGPerL,
+        ...(src.wine.vmaxLPerM2 ? { vmaxLPerM2: src.wine.vmaxLPerM2 } : {}),
+      },
       line: { bottlesPerHour: src.line.bottlesPerHour, bottleMl: src.line.bottleMl },
       batchL: src.volumeL,
       lineLosses: hoses.length > 0 ? { hoses } : undefined,
       stages,
+      sanitation: src.sanitationKind ? { kind: src.sanitationKind } : undefined,
     },
   };
 }

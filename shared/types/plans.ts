@@ -60,6 +60,8 @@ export type PlanLotDto = {
     tempC: number;
     ethanolPctVol: number;
     sugarGPerL: number;
+    /** v_max of the latest Vmax disc test, L/m², or null; membrane stages without a typed capacity take theirs from it. */
+    vmaxLPerM2: number | null;
   };
   trains: PlanTrainDto[];
 };
@@ -125,6 +127,8 @@ export type PlanDto = {
   requiredFlowLh: number | null;
   approvedBy: string | null;
   approvedAt: string | null;
+  /** Cautions accepted at approval with the approver's written reason, or null. */
+  approvalOverride: { cautions: string[]; reason: string } | null;
   createdBy: string | null;
   createdAt: string;
   updatedAt: string;

@@ -351,6 +351,7 @@ describe('plans: the engine’s figures', () => {
       designFluxLhPer10in: t.designFluxLhPer10in,
       capacityLPerM2,
       regenerable: t.maxDpReverseBar !== null,
+      serviceLifeLoads: t.maxDpReverseBar !== null && t.ratedHotWaterCycles ? t.ratedHotWaterCycles + 1 : undefined,
       pricePer10in: t.pricePer10in ?? undefined,
       currency: t.currency,
     });
@@ -360,9 +361,10 @@ describe('plans: the engine’s figures', () => {
       line: { bottlesPerHour: 3000, bottleMl: 750 },
       batchL: 6000,
       stages: [
-        { name: 'Prefilter', cartridgeType: asEngine(pre, 3000), housing: { ...housing, maxPressureBar: 8 }, housingCount: 1 },
-        { name: 'Membrane', cartridgeType: asEngine(mem, 2000), housing: { ...housing, maxPressureBar: 10 }, housingCount: 2 },
+        { name: 'Prefilter', housingId: world.prefilterHousingId, cartridgeType: asEngine(pre, 3000), housing: { ...housing, maxPressureBar: 8 }, housingCount: 1 },
+        { name: 'Membrane', housingId: world.membraneHousingId, cartridgeType: asEngine(mem, 2000), housing: { ...housing, maxPressureBar: 10 }, housingCount: 2 },
       ],
+      sanitation: { kind: 'hot-water' },
     };
     expect(dto.lots[0].trains[0].sizing).toEqual(JSON.parse(JSON.stringify(sizeTrain(input))));
     const s = dto.lots[0].trains[0].sizing!;

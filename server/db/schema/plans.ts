@@ -34,6 +34,9 @@ export const plansTable = pgTable(
     notes: text('notes').notNull().default(''),
     approvedBy: text('approved_by').references(() => usersTable.id, { onDelete: 'set null' }),
     approvedAt: timestamp('approved_at', { withTimezone: true }),
+    /** Cautions the approver accepted (flux above design, a lot not ready, a stock shortfall) and their written reason. */
+    approvalCautions: jsonb('approval_cautions').$type<string[]>(),
+    approvalReason: text('approval_reason'),
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
   },
   (t) => [index('plans_winery_date_idx').on(t.wineryId, t.plannedDate), index('plans_winery_status_idx').on(t.wineryId, t.status)],

@@ -103,6 +103,7 @@ export const presentPlan = (p: {
   requiredFlowLh: p.requiredFlowLh,
   approvedBy: p.approverName,
   approvedAt: p.plan.approvedAt ? iso(p.plan.approvedAt) : null,
+  approvalOverride: p.plan.approvalReason ? { cautions: p.plan.approvalCautions ?? [], reason: p.plan.approvalReason } : null,
   createdBy: p.creatorName,
   createdAt: iso(p.plan.createdAt),
   updatedAt: iso(p.plan.updatedAt),

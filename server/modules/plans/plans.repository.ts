@@ -1,10 +1,11 @@
-import { and, asc, count, eq, ilike, inArray, max, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, max, or, sql } from 'drizzle-orm';
 import type { PlanListQuery, PlanValues } from '../../../shared/schemas/plans';
 import type { DbOrTx } from '../../db/client';
 import {
   cartridgesTable,
   cartridgeTypesTable,
   housingsTable,
+  labResultsTable,
   linesTable,
   lotsTable,
   planLotsTable,
@@ -104,6 +105,24 @@ export function createPlansRepository(db: DbOrTx) {
         .orderBy(asc(planLotsTable.position), asc(planLotsTable.createdAt));
     },
 
+    /** The latest lab result's disc test of each given lot (one query), for capacity from Vmax. */
+    async latestDiscTests(wineryId: string, lotIds: string[]) {
+      if (lotIds.length === 0) return [];
+      return db
+        .selectDistinctOn([labResultsTable.lotId], {
+          lotId: labResultsTable.lotId,
+          turbidityNtu: labResultsTable.turbidityNtu,
+          t200s: labResultsTable.t200s,
+          t400s: labResultsTable.t400s,
+          discDiameterMm: labResultsTable.discDiameterMm,
+          discPressureBar: labResultsTable.discPressureBar,
+          discPoints: labResultsTable.discPoints,
+        })
+        .from(labResultsTable)
+        .where(and(eq(labResultsTable.wineryId, wineryId), inArray(labResultsTable.lotId, lotIds)))
+        .orderBy(labResultsTable.lotId, desc(labResultsTable.sampledAt), desc(labResultsTable.createdAt));
+    },
+
     /** Every train of the given plan lots, oldest first (one query). */
     async trains(wineryId: string, planLotIds: string[]) {
       if (planLotIds.length === 0) return [];
@@ -131,6 +150,7 @@ export function createPlansRepository(db: DbOrTx) {
           designFluxLhPer10in: cartridgeTypesTable.designFluxLhPer10in,
           pricePer10in: cartridgeTypesTable.pricePer10in,
           currency: cartridgeTypesTable.currency,
+          ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
         })
         .from(cartridgeTypesTable)
         .where(eq(cartridgeTypesTable.wineryId, wineryId))

@@ -1,6 +1,7 @@
 import { Router, type Request } from 'express';
 import {
   addPlanLotInputSchema,
+  approvePlanInputSchema,
   createPlanInputSchema,
   createTrainInputSchema,
   planListQuerySchema,
@@ -71,8 +72,8 @@ export function plansRoutes({ db }: ModuleDeps) {
   });
 
   // Status
-  router.post('/plans/:id/approve', ...approve, async (req, res) => {
-    res.json(await service.approve(tenantOf(res), planId(req)));
+  router.post('/plans/:id/approve', ...approve, validateBody(approvePlanInputSchema), async (req, res) => {
+    res.json(await service.approve(tenantOf(res), planId(req), res.locals.body));
   });
   router.post('/plans/:id/reopen', ...approve, async (req, res) => {
     res.json(await service.reopen(tenantOf(res), planId(req)));

@@ -4,6 +4,7 @@ import {
   planStartMs,
   sizePlanTrain,
   type AddPlanLotInput,
+  type ApprovePlanInput,
   type PlanListQuery,
   type PlanValues,
   type TrainValues,
@@ -18,6 +19,8 @@ import type { PlanTrainHose, PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../cellar/db-errors';
+import { createCellarService } from '../cellar/cellar.service';
+import { analyseLabResult } from '../cellar/lab-analysis';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
 import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
 
@@ -63,10 +66,22 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
   const [planLots, types, housings, stock] = opts.inTransaction
     ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
     : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
-  const trains = await repo.trains(
-    wineryId,
-    planLots.map((p) => p.planLot.id),
-  );
+  const [trains, discTests] = await Promise.all([
+    repo.trains(
+      wineryId,
+      planLots.map((p) => p.planLot.id),
+    ),
+    repo.latestDiscTests(
+      wineryId,
+      planLots.map((p) => p.lot.id),
+    ),
+  ]);
+  // Capacity of membrane stages from each lot's latest Vmax disc test (when it has one).
+  const vmaxByLot = new Map<string, number>();
+  for (const t of discTests) {
+    const disc = analyseLabResult(t).disc;
+    if (disc?.computable) vmaxByLot.set(t.lotId, disc.vmaxLPerM2);
+  }
   const line = row.line;
   const lineSource = line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null;
   const housingById = new Map(housings.map((h) => [h.id, h]));
@@ -79,10 +94,11 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
   type NeedAcc = Omit<PlanNeedDto, 'cartridgesAvailable' | 'inStock' | 'installed' | 'elementEquivalentsAvailable' | 'shortfall' | 'verdict'>;
   const needs = new Map<string, NeedAcc>();
   const lots: PlanLotDto[] = [];
-  for (const { planLot, lot } of planLots) {
+  for (const { planLot, lot: lotRow } of planLots) {
+    const lot = { ...lotRow, vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null };
     const ownTrains = trains.filter((t) => t.planLotId === planLot.id);
     const dtos = ownTrains.map((t) => {
-      const outcome = sizePlanTrain({ wine: lot, volumeL: planLot.volumeL, line: lineSource, stages: t.stages, hoses: t.hoses, types, housings });
+      const outcome = sizePlanTrain({ wine: lot, volumeL: planLot.volumeL, line: lineSource, stages: t.stages, hoses: t.hoses, types, housings, sanitationKind: row.plan.sanitationKind });
       return { row: t, outcome, dto: presentTrain(t, outcome, blockingReasons(outcome)) };
     });
     const chosen = dtos.find((d) => d.row.id === planLot.chosenTrainId);
@@ -181,6 +197,26 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
 /** Bottling-day plans: lots in order, train options per lot sized by the engine, approval. */
 export function createPlansService(db: Database) {
   const repo = createPlansRepository(db);
+  const cellar = createCellarService(db);
+
+  /**
+   * What approval accepts only with a written reason: a chosen train's flux above design and a
+   * lot not ready for membrane filtration by its latest analysis.
+   */
+  async function approvalCautions(tenant: TenantContext, detail: PlanDto): Promise<string[]> {
+    const cautions: string[] = [];
+    for (const lot of detail.lots) {
+      const train = lot.trains.find((t) => t.id === lot.chosenTrainId);
+      for (const w of train?.sizing?.warnings ?? []) {
+        if (w.code === 'flux-above-design') cautions.push(`${lot.lot.code}: ${w.message}`);
+      }
+      const readiness = (await cellar.getLot(tenant, lot.lot.id)).readiness;
+      if (readiness.verdict === 'not-ready') cautions.push(`${lot.lot.code} is not ready for membrane filtration: ${readiness.reasons.join(' ')}`);
+    }
+    // A stock shortfall stays advice on the plan (Cartridges needed) until usable stock is counted
+    // per day by the engine; making it a caution is the next step.
+    return cautions;
+  }
 
   async function get(tenant: TenantContext, id: string): Promise<PlanDto> {
     const plan = await buildPlan(repo, tenant.wineryId, id);
@@ -349,7 +385,7 @@ export function createPlansService(db: Database) {
      * Approves a draft when every lot has a chosen train and no chosen train breaks a limit of
      * the equipment; otherwise 409 with the reasons (in `fields`, one per reason).
      */
-    async approve(tenant: TenantContext, id: string, now = new Date()): Promise<PlanDto> {
+    async approve(tenant: TenantContext, id: string, input: ApprovePlanInput = {}, now = new Date()): Promise<PlanDto> {
       await db.transaction(async (tx) => {
         const r = createPlansRepository(tx);
         const plan = await r.lockPlan(tenant.wineryId, id);
@@ -360,7 +396,19 @@ export function createPlansService(db: Database) {
           const fields = Object.fromEntries(detail.approvalBlockers.map((reason, i) => [`reasons.${i}`, reason]));
           throw new HttpError(409, 'plan_not_ready', `This plan cannot be approved yet: ${detail.approvalBlockers.join(' ')}`, fields);
         }
-        await r.updatePlan(tenant.wineryId, id, { status: 'approved', approvedBy: tenant.userId, approvedAt: now });
+        const cautions = await approvalCautions(tenant, detail);
+        const reason = input.reason?.trim() ?? '';
+        if (cautions.length > 0 && reason === '') {
+          const fields = Object.fromEntries(cautions.map((c, i) => [`cautions.${i}`, c]));
+          throw new HttpError(409, 'plan_needs_reason', `Approving this plan needs a written reason: ${cautions.join(' ')}`, fields);
+        }
+        await r.updatePlan(tenant.wineryId, id, {
+          status: 'approved',
+          approvedBy: tenant.userId,
+          approvedAt: now,
+          approvalCautions: cautions.length > 0 ? cautions : null,
+          approvalReason: cautions.length > 0 ? reason : null,
+        });
       });
       return get(tenant, id);
     },
@@ -373,7 +421,7 @@ export function createPlansService(db: Database) {
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is done; its record stays as it was.', 'plan_done');
         if (plan.status === 'draft') throw conflict('This plan is already a draft.', 'plan_not_approved');
-        await r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null });
+        await r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null, approvalCautions: null, approvalReason: null });
       });
       return get(tenant, id);
     },

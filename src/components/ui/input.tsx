@@ -1,4 +1,5 @@
-import { forwardRef, type CSSProperties, type InputHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { forwardRef, useState, type CSSProperties, type InputHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { ambiguousReading, useDecimalMark } from '@/lib/number-input';
 import { cn } from '@/utils/cn';
 
 /** Shared field look: 1 px border, 6 px radius, primary focus, stop border when aria-invalid. */
@@ -48,8 +49,14 @@ export const NumberInput = forwardRef<HTMLInputElement, NumberInputProps>(functi
   { unit, invalid, className, wrapperClassName, id, ...rest },
   ref,
 ) {
+  const mark = useDecimalMark();
+  // The text typed so far (registered fields are uncontrolled), to say how an ambiguous entry is read.
+  const [typed, setTyped] = useState(() => String(rest.defaultValue ?? ''));
+  const text = rest.value !== undefined ? String(rest.value) : typed;
+  const reading = ambiguousReading(text, mark);
   const unitId = unit && id ? `${id}-unit` : undefined;
-  const describedBy = [rest['aria-describedby'], unitId].filter(Boolean).join(' ') || undefined;
+  const readingId = reading && id ? `${id}-reading` : undefined;
+  const describedBy = [rest['aria-describedby'], unitId, readingId].filter(Boolean).join(' ') || undefined;
   return (
     <div className={cn('relative', wrapperClassName)}>
       <input
@@ -60,6 +67,10 @@ export const NumberInput = forwardRef<HTMLInputElement, NumberInputProps>(functi
         autoComplete="off"
         spellCheck={false}
         {...rest}
+        onChange={(e) => {
+          setTyped(e.target.value);
+          rest.onChange?.(e);
+        }}
         aria-describedby={describedBy}
         aria-invalid={invalid || rest['aria-invalid'] || undefined}
         className={cn(fieldClasses, 'num min-h-11 text-right', unit && 'pr-[calc(var(--unit-w)+1.25rem)]', className)}
@@ -73,6 +84,11 @@ export const NumberInput = forwardRef<HTMLInputElement, NumberInputProps>(functi
         >
           {unit}
         </span>
+      ) : null}
+      {reading ? (
+        <p id={readingId} className="mt-1 text-right text-sm text-watch-800" role="status" data-testid="number-reading">
+          {reading}
+        </p>
       ) : null}
     </div>
   );

@@ -1,12 +1,16 @@
 // Form text → request values: numbers typed with a decimal point or comma, in the person's units.
 import { z } from 'zod';
 import type { QuantityKind } from '@shared/engine/units';
+import { parseNumberText } from '@/lib/number-input';
 
-/** Typed text → number; empty → null; anything else → NaN, which the request schema rejects with its message. */
+/**
+ * Typed text → number with the person's decimal mark (src/lib/number-input.ts); empty → null;
+ * anything else → NaN, which the request schema rejects with its message.
+ */
 export const decimalText = z
   .string()
   .trim()
-  .transform((s) => (s === '' ? null : /^[-+]?(\d+([.,]\d*)?|[.,]\d+)$/.test(s) ? Number(s.replace(',', '.')) : Number.NaN));
+  .transform((s) => parseNumberText(s));
 
 /** Parses typed text the way the forms do, for live previews. */
 export const parseTyped = (s: string | undefined) => decimalText.parse(s ?? '');

@@ -84,7 +84,11 @@ export function LotFormDialog({ open, onClose, lot }: { open: boolean; onClose: 
     setAlert(null);
     try {
       if (lot) {
-        await update.mutateAsync({ id: lot.id, input });
+        // A figure shown in the person's units and not touched keeps its stored value exactly
+        // (a US-units round trip must never rewrite 3800 L as 3800.17 L).
+        const dirty = form.formState.dirtyFields;
+        const kept = { ...input, ...(dirty.volumeL ? {} : { volumeL: lot.volumeL }), ...(dirty.tempC ? {} : { tempC: lot.tempC }) };
+        await update.mutateAsync({ id: lot.id, input: kept });
         toast.success('Lot saved', `${input.code} · ${input.name}`);
         close();
       } else {

@@ -49,7 +49,8 @@ export function TankFormDialog({ open, onClose, tank }: { open: boolean; onClose
   const submit = form.handleSubmit(async (input) => {
     setAlert(null);
     try {
-      if (tank) await update.mutateAsync({ id: tank.id, input });
+      // An untouched capacity keeps its stored value exactly (no unit round trip).
+      if (tank) await update.mutateAsync({ id: tank.id, input: form.formState.dirtyFields.capacityL ? input : { ...input, capacityL: tank.capacityL } });
       else await create.mutateAsync(input);
       toast.success(tank ? 'Tank saved' : 'Tank added', input.name);
       close();

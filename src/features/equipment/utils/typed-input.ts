@@ -2,19 +2,15 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { FieldValues, Resolver } from 'react-hook-form';
 import { z } from 'zod';
+import { parseNumberText } from '@/lib/number-input';
 import type { QuantityKind } from '@/lib/units';
 
 /**
- * The number in a text field: empty → undefined, not a number → NaN. Accepts "1,5" as 1.5
- * and "3,000" as 3000.
+ * The number in a text field with the person's decimal mark (src/lib/number-input.ts): empty →
+ * undefined, not a number → NaN.
  */
 export function parseTyped(text: string | undefined | null): number | undefined {
-  let s = (text ?? '').trim().replace(/\s|\u00a0/g, '');
-  if (!s) return undefined;
-  if (/^-?\d{1,3}(,\d{3})+(\.\d+)?$/.test(s)) s = s.replace(/,/g, '');
-  else if (/^-?\d*,\d+$/.test(s)) s = s.replace(',', '.');
-  const n = Number(s);
-  return Number.isFinite(n) ? n : Number.NaN;
+  return parseNumberText(text) ?? undefined;
 }
 
 type FromInput = (kind: QuantityKind, typed: number) => number;

@@ -10,6 +10,7 @@ import { ApiError, errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
 import { useAddPlanLot } from '../api/add-plan-lot';
 import { useLotOptions } from '../api/get-lot-options';
+import { parseNumberText } from '@/lib/number-input';
 
 const verdictWords = { ready: 'ready', borderline: 'borderline', 'not-ready': 'not ready', unknown: 'no verdict' } as const;
 
@@ -35,7 +36,7 @@ export function AddLotDialog({ plan, open, onClose }: { plan: PlanDto; open: boo
 
   const onSubmit = async (event: React.FormEvent) => {
     event.preventDefault();
-    const typed = volume.trim() ? Number(volume.trim().replace(',', '.')) : undefined;
+    const typed = parseNumberText(volume) ?? undefined;
     if (!lotId) return setErrors({ lotId: 'Choose a lot from the cellar.' });
     if (typed !== undefined && !(typed > 0)) return setErrors({ volumeL: 'The volume to bottle must be more than 0.' });
     try {

@@ -13,6 +13,7 @@ import { useCreateTrain } from '../api/create-train';
 import { useRemovePlanLot } from '../api/remove-plan-lot';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { TrainCard } from './train-card';
+import { parseNumberText } from '@/lib/number-input';
 
 const letter = (n: number) => String.fromCharCode(65 + (n % 26));
 
@@ -23,11 +24,13 @@ function startingStages(plan: PlanDto, lot: PlanLotDto): TrainStageInput[] {
   const { cartridgeTypes: types, housings } = plan.catalogue;
   const pre = types.find((t) => t.kind === 'prefilter');
   const mem = types.find((t) => t.kind === 'membrane');
-  const h0 = housings[0]?.id ?? '';
-  const h1 = housings[1]?.id ?? h0;
+  // A housing named for its kind serves that kind; never the same housing for both stages.
+  const named = (word: string) => housings.find((h) => h.name.toLowerCase().includes(word));
+  const hPre = (named('prefilter') ?? housings[0])?.id ?? '';
+  const hMem = (named('membrane') ?? housings.find((h) => h.id !== hPre) ?? housings[0])?.id ?? '';
   const stages: TrainStageInput[] = [];
-  if (pre) stages.push({ name: 'Prefilter', cartridgeTypeId: pre.id, housingId: h0, housingCount: 1 });
-  if (mem) stages.push({ name: 'Membrane', cartridgeTypeId: mem.id, housingId: pre ? h1 : h0, housingCount: 1 });
+  if (pre) stages.push({ name: 'Prefilter', cartridgeTypeId: pre.id, housingId: hPre, housingCount: 1 });
+  if (mem) stages.push({ name: 'Membrane', cartridgeTypeId: mem.id, housingId: pre ? (hMem !== hPre ? hMem : (housings.find((h) => h.id !== hPre)?.id ?? hMem)) : hMem, housingCount: 1 });
   return stages;
 }
 
@@ -44,7 +47,7 @@ export function PlanLotSection({ plan, planLot, editable, isFirst, isLast }: { p
   useEffect(() => setVolume(units.toInput('volume', planLot.volumeL, 1)), [planLot.volumeL, units.system]);
 
   const saveVolume = () => {
-    const typed = Number(volume.trim().replace(',', '.'));
+    const typed = parseNumberText(volume) ?? Number.NaN;
     if (!volume.trim() || !(typed > 0)) return setVolumeError('Enter the volume to bottle, more than 0.');
     setVolumeError(null);
     const litres = units.fromInput('volume', typed);

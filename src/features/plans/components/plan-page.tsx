@@ -8,6 +8,8 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
+import { FormField } from '@/components/ui/form-field';
+import { Textarea } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
@@ -65,6 +67,8 @@ export function PlanPage({ planId }: { planId: string }) {
   const [editing, setEditing] = useState(false);
   const [deleting, setDeleting] = useState(false);
   const [refused, setRefused] = useState<{ at: string; reasons: string[] } | null>(null);
+  const [cautions, setCautions] = useState<string[] | null>(null);
+  const [reason, setReason] = useState('');
 
   const back = (
     <Link to={paths.plans} className="inline-flex min-h-9 items-center gap-1 text-primary-700 underline-offset-2 hover:underline">
@@ -91,19 +95,28 @@ export function PlanPage({ planId }: { planId: string }) {
   const setRefusal = (reasons: string[] | null) => setRefused(reasons ? { at: p.updatedAt, reasons } : null);
   const editable = p.status === 'draft' && mayDraft;
 
-  const onApprove = () =>
-    approve.mutate(p.id, {
-      onSuccess: () => {
-        setRefusal(null);
-        toast.success('Plan approved', 'It is read-only now; reopen it to change it.');
+  const onApprove = (withReason?: string) =>
+    approve.mutate(
+      { planId: p.id, reason: withReason },
+      {
+        onSuccess: () => {
+          setRefusal(null);
+          setCautions(null);
+          setReason('');
+          toast.success('Plan approved', 'It is read-only now; reopen it to change it.');
+        },
+        onError: (e) => {
+          if (e instanceof ApiError && e.status === 409 && e.code === 'plan_needs_reason') return setCautions(Object.values(e.fields));
+          if (e instanceof ApiError && e.status === 409 && Object.keys(e.fields).length) return setRefusal(Object.values(e.fields));
+          toast.error('Not approved', errorMessage(e));
+        },
       },
-      onError: (e) => (e instanceof ApiError && e.status === 409 && Object.keys(e.fields).length ? setRefusal(Object.values(e.fields)) : toast.error('Not approved', errorMessage(e))),
-    });
+    );
 
   const actions = (
     <>
       {mayApprove && p.status === 'draft' ? (
-        <Button icon={<ClipboardCheck />} loading={approve.isPending} onClick={onApprove}>
+        <Button icon={<ClipboardCheck />} loading={approve.isPending} onClick={() => onApprove()}>
           Approve plan
         </Button>
       ) : null}
@@ -148,6 +161,11 @@ export function PlanPage({ planId }: { planId: string }) {
       {p.status !== 'draft' ? (
         <p className="text-sm text-ink-700">
           {p.status === 'approved' ? 'Approved plans are read-only. An owner or cellar master can reopen it to change it.' : 'This plan is done; its record stays as it was.'}
+          {p.approvalOverride ? (
+            <span className="mt-1 block" data-testid="approval-override">
+              Approved despite: {p.approvalOverride.cautions.join(' ')} Reason given: “{p.approvalOverride.reason}”
+            </span>
+          ) : null}
         </p>
       ) : refusal || (mayApprove && p.approvalBlockers.length > 0) ? (
         <div role={refusal ? 'alert' : undefined} className="rounded border border-watch-200 bg-watch-50 px-4 py-3">
@@ -189,6 +207,31 @@ export function PlanPage({ planId }: { planId: string }) {
         <PlanCautions sanitationKind={p.sanitationKind} />
       </Card>
 
+      <Dialog
+        open={cautions !== null}
+        onClose={() => setCautions(null)}
+        title="Approve with a written reason?"
+        description="These are not broken ratings, but they need a reason that stays with the approval."
+        footer={
+          <>
+            <Button variant="secondary" onClick={() => setCautions(null)}>
+              Back to the plan
+            </Button>
+            <Button icon={<ClipboardCheck />} loading={approve.isPending} disabled={reason.trim() === ''} onClick={() => onApprove(reason.trim())}>
+              Approve with this reason
+            </Button>
+          </>
+        }
+      >
+        <ul className="mb-3 list-disc pl-6 text-sm text-ink-800" aria-label="Cautions">
+          {(cautions ?? []).map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+        <FormField label="Reason for approving anyway" htmlFor="approval-reason">
+          <Textarea id="approval-reason" rows={3} value={reason} onChange={(e) => setReason(e.target.value)} maxLength={1000} />
+        </FormField>
+      </Dialog>
       <AddLotDialog plan={p} open={addingLot} onClose={() => setAddingLot(false)} />
       <PlanFormDialog open={editing} plan={p} onClose={() => setEditing(false)} />
       <Dialog

@@ -21,6 +21,7 @@ import { cn } from '@/utils/cn';
 import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
+import { parseNumberText } from '@/lib/number-input';
 
 /** A stage as typed: text fields stay text until sized or saved. */
 type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
@@ -34,12 +35,7 @@ const toDraft = (t: PlanTrainDto): DraftStage[] =>
     capacity: s.capacityLPerM2 === null ? '' : String(s.capacityLPerM2),
   }));
 
-const parseNumber = (text: string) => {
-  const s = text.trim().replace(',', '.');
-  if (!s) return undefined;
-  const n = Number(s);
-  return Number.isFinite(n) ? n : Number.NaN;
-};
+const parseNumber = (text: string) => parseNumberText(text) ?? undefined;
 
 const toStages = (draft: DraftStage[]): TrainStageInput[] =>
   draft.map((d) => {
@@ -98,7 +94,16 @@ function StageFigures({ s }: { s: StageSizing }) {
         <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: '33.33%' }} />
       </div>
       <Figure label="To terminal ΔP" testId="stage-capacity">
-        {s.capacityL === null ? <span className="font-normal text-ink-600">unknown</span> : u.format('volume', s.capacityL)}
+        {s.infeasible ? (
+          <span className="text-stop-700">none: clean ΔP already at terminal</span>
+        ) : s.capacityL === null ? (
+          <span className="font-normal text-ink-600">unknown</span>
+        ) : (
+          <>
+            {u.format('volume', s.capacityL)}
+            <span className="block text-xs font-normal text-ink-600">{s.capacitySource === 'vmax' ? 'from the lot’s Vmax test' : 'from the stage’s capacity'}</span>
+          </>
+        )}
       </Figure>
       <Figure label="Regenerations or changes" testId="stage-interventions">
         <span className="font-normal">{interventionWords(s)}</span>
@@ -106,6 +111,8 @@ function StageFigures({ s }: { s: StageSizing }) {
       <Figure label="Cost per hL" testId="stage-cost">
         {s.costIsLowerBound ? 'at least ' : ''}
         {money(s.costPerHl, s.currency)}
+        {s.costBasis === 'service-life' ? <span className="font-normal text-ink-600"> (set spread over its life)</span> : null}
+        {s.costBasis === 'whole-set' ? <span className="font-normal text-ink-600"> (whole set: no rated cycles)</span> : null}
       </Figure>
     </dl>
   );
@@ -140,18 +147,19 @@ function Warnings({ warnings }: { warnings: SizingWarning[] }) {
 
 function Totals({ r }: { r: TrainSizingResult }) {
   const u = useUnits();
-  const hours = r.totals.runHours;
+  const minutes = Math.round(r.totals.runHours * 60);
   return (
     <dl className="rounded border border-ink-200 px-2.5 py-1.5" data-testid="train-totals">
       <Figure label="Flow">{u.format('flow', r.flowLh)}</Figure>
-      <Figure label="Run time">{`${Math.floor(hours)} h ${String(Math.round((hours % 1) * 60)).padStart(2, '0')} min`}</Figure>
+      <Figure label="Run time">{`${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`}</Figure>
       <Figure label="Pump pressure, clean → end">
         {u.format('pressure', r.totals.pumpPressureCleanBar)} → {u.format('pressure', r.totals.pumpPressureEndOfRunBar)}
       </Figure>
       <Figure label="Hold-up">{u.format('volume', r.totals.holdUpL, 1)}</Figure>
       <Figure label="Cost per hL, train" testId="train-cost">
-        {r.totals.unpricedStages.length > 0 && r.totals.costPerHl !== null ? 'priced stages: ' : ''}
+        {r.totals.costIsLowerBound && r.totals.costPerHl !== null ? 'at least ' : ''}
         {money(r.totals.costPerHl, r.totals.currency)}
+        {r.totals.unpricedStages.length > 0 && r.totals.costPerHl !== null ? <span className="font-normal text-ink-600"> (priced stages only)</span> : null}
       </Figure>
     </dl>
   );
@@ -187,10 +195,10 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
   const chosen = planLot.chosenTrainId === train.id;
 
   const stages = useMemo(() => toStages(draft), [draft]);
-  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses };
+  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses, sanitationKind: plan.sanitationKind };
   const sized = useMemo(
     () => sizePlanTrain(source),
-    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, train.hoses],
+    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, train.hoses, plan.sanitationKind],
   );
 
   const setStage = (i: number, patch: Partial<DraftStage>) => setDraft((d) => d.map((s, k) => (k === i ? { ...s, ...patch } : s)));
@@ -200,12 +208,12 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
     const filled = stages.map((s) => ({ ...s, housingId: s.housingId || housings[0]?.id || '' }));
     const built = buildTrainSizingInput({ ...source, stages: filled });
     if (!built.ok) return setSuggestNote(built.error);
-    const options: SizingHousing[] = housings.map((h) => ({ rounds: h.rounds, lengthIn: h.lengthIn as SizingHousing['lengthIn'], maxPressureBar: h.maxPressureBar, maxTempC: h.maxTempC, holdUpL: h.holdUpL }));
+    const options: SizingHousing[] = housings.map((h) => ({ id: h.id, rounds: h.rounds, lengthIn: h.lengthIn as SizingHousing['lengthIn'], maxPressureBar: h.maxPressureBar, maxTempC: h.maxTempC, holdUpL: h.holdUpL }));
     const idOf = new Map(options.map((o, k) => [o, housings[k].id]));
     try {
       const out = suggestTrain(built.input, { housingOptions: options });
       if (!out.ok) return setSuggestNote(out.reason);
-      setDraft((d) => d.map((s, k) => ({ ...s, housingId: idOf.get(out.input.stages[k].housing) ?? s.housingId, housingCount: String(out.input.stages[k].housingCount ?? 1) })));
+      setDraft((d) => d.map((s, k) => ({ ...s, housingId: out.input.stages[k].housingId ?? idOf.get(out.input.stages[k].housing) ?? s.housingId, housingCount: String(out.input.stages[k].housingCount ?? 1) })));
       setSuggestNote('Smallest housing sets that meet every limit. Save the train to keep them.');
     } catch (error) {
       setSuggestNote(error instanceof RangeError ? error.message : 'No suggestion could be made.');

@@ -8,16 +8,15 @@ import { Select } from '@/components/ui/select';
 import { ApiError, errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
 import { useLogReading } from '../api/log-reading';
+import { parseNumberText } from '@/lib/number-input';
 
 function newKey() {
   return Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
 const parse = (s: string): number | null => {
-  const t = s.trim().replace(',', '.');
-  if (t === '') return null;
-  const n = Number(t);
-  return Number.isFinite(n) ? n : null;
+  const n = parseNumberText(s);
+  return n !== null && Number.isFinite(n) ? n : null;
 };
 
 type Fields = { volumeL?: string; upstreamBar?: string; downstreamBar?: string; stageIndex?: string; flowLh?: string; tempC?: string };

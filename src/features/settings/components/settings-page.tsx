@@ -11,6 +11,7 @@ import { Input } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
 import { useToast } from '@/components/ui/toast';
 import { applyServerErrors } from '@/lib/form-errors';
+import { decimalMarkChosen, localeDecimalMark, setDecimalMark, useDecimalMark, type DecimalMark } from '@/lib/number-input';
 import { useSetActiveWinery } from '@/lib/session';
 import { cn } from '@/utils/cn';
 import { useUpdateMe } from '../api/update-me';
@@ -78,6 +79,7 @@ export function SettingsPage({ me }: { me: MeDto }) {
           </div>
         </form>
       </Card>
+      <DecimalMarkCard />
       <ReadinessThresholdsCard />
       <Card title="Your wineries" description="Switch to work in another winery's records.">
         <ul className="divide-y divide-ink-100">
@@ -99,5 +101,49 @@ export function SettingsPage({ me }: { me: MeDto }) {
         </ul>
       </Card>
     </div>
+  );
+}
+
+const markChoices: { value: DecimalMark | 'auto'; label: string; example: string }[] = [
+  { value: 'auto', label: 'As my browser’s language', example: '' },
+  { value: '.', label: 'Decimal point', example: '3.5 · 3,000 is three thousand' },
+  { value: ',', label: 'Decimal comma', example: '3,5 · 3.000 is three thousand' },
+];
+
+/** How this device reads typed numbers: the decimal mark, from the browser's language unless chosen. */
+function DecimalMarkCard() {
+  const mark = useDecimalMark();
+  const chosen = decimalMarkChosen() ? mark : 'auto';
+  const fromBrowser = localeDecimalMark(globalThis.navigator?.language);
+  return (
+    <Card title="Typing numbers" description="How figures typed on this device are read. An entry that could be read two ways, such as 3,000, says how it was read before you save.">
+      <fieldset className="flex max-w-xl flex-col gap-2">
+        <legend className="sr-only">Decimal mark</legend>
+        <div className="grid gap-2 sm:grid-cols-3">
+          {markChoices.map((c) => (
+            <label
+              key={c.value}
+              className={cn(
+                'flex min-h-11 cursor-pointer items-start gap-3 rounded-md border p-3',
+                chosen === c.value ? 'border-primary-600 bg-primary-50' : 'border-ink-200 bg-white hover:border-ink-300',
+              )}
+            >
+              <input
+                type="radio"
+                name="decimal-mark"
+                value={c.value}
+                checked={chosen === c.value}
+                onChange={() => setDecimalMark(c.value === 'auto' ? null : c.value)}
+                className="mt-1 accent-primary-600"
+              />
+              <span>
+                <span className="block font-semibold text-ink-900">{c.label}</span>
+                <span className="block text-sm text-ink-600">{c.value === 'auto' ? `Now: decimal ${fromBrowser === ',' ? 'comma' : 'point'}` : c.example}</span>
+              </span>
+            </label>
+          ))}
+        </div>
+      </fieldset>
+    </Card>
   );
 }

@@ -57,15 +57,17 @@ export function TeamPage({ me }: { me: MeDto }) {
               aria-label={`Role of ${row.original.name}`}
               value={row.original.role}
               disabled={changeRole.isPending}
-              onChange={(e) =>
+              onChange={(e) => {
+                // Read the choice now: by the time the answer comes the select shows the stored role again.
+                const role = e.target.value as Role;
                 changeRole.mutate(
-                  { userId: row.original.userId, role: e.target.value as Role },
+                  { userId: row.original.userId, role },
                   {
-                    onSuccess: () => toast.success('Role changed', `${row.original.name} is now ${roleLabels[e.target.value as Role].toLowerCase()}.`),
+                    onSuccess: () => toast.success('Role changed', `${row.original.name} is now ${roleLabels[role].toLowerCase()}.`),
                     onError: (error) => toast.error('Role not changed', errorMessage(error)),
                   },
-                )
-              }
+                );
+              }}
               options={roles.map((r) => ({ value: r, label: roleLabels[r] }))}
               wrapperClassName="min-w-40"
             />

@@ -1,0 +1,133 @@
+// @vitest-environment node
+// Approval stops at broken limits (issue: plans you can approve with confidence): the same
+// housing in two stages, sanitation hotter than a rating, a stage that cannot filter the wine;
+// and cautions (flux above design, a lot not ready) pass only with a written reason.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { PlanDto } from '../../shared/types/plans';
+import { createLabResult, createLot, discPoints } from '../factories/cellar';
+import { createCartridgeType } from '../factories/equipment';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let owner: Client;
+let world: PlanWorld;
+
+beforeAll(async () => {
+  app = await startTestApp();
+  owner = (await signUp(app.baseUrl, { wineryName: 'Approval Test Winery' })).client;
+  world = await createPlanWorld(owner);
+});
+afterAll(async () => {
+  await app?.close();
+});
+
+/** A draft for one lot whose only train is chosen. */
+async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam' } = {}) {
+  const plan = await createPlan(owner, world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
+  const withLot = await addPlanLot(owner, plan.id, opts.lotId ?? world.lotId);
+  const planLotId = withLot.lots[0].id;
+  const withTrain = await addTrain(owner, plan.id, planLotId, train);
+  const trainId = withTrain.lots[0].trains[0].id;
+  const chosen = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+  expect(chosen.status).toBe(200);
+  return { planId: plan.id, detail: chosen.body as PlanDto };
+}
+
+describe('approval refuses broken limits (409 plan_not_ready with the reasons)', () => {
+  it('the same housing in two stages', async () => {
+    const body = trainBody(world);
+    body.stages[1].housingId = body.stages[0].housingId;
+    const { planId, detail } = await chosenDraft(body);
+    expect(detail.lots[0].trains[0].blockingReasons.join(' ')).toMatch(/same housing/);
+    const res = await owner.post(`/api/plans/${planId}/approve`);
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('plan_not_ready');
+    expect(Object.values(res.body.error.fields).join(' ')).toMatch(/same housing as Prefilter/);
+  });
+
+  it('steam (121 °C, from memory) over cartridges rated 80 °C', async () => {
+    const cool = await createCartridgeType(owner, { kind: 'prefilter', media: 'polypropylene', ratingUm: 1, maxTempC: 80, bubblePointMinBar: null, diffusionMaxMlMinPer10in: null, designFluxLhPer10in: 800 });
+    const body = trainBody(world);
+    body.stages[0].cartridgeTypeId = cool.id;
+    const { planId } = await chosenDraft(body, { sanitationKind: 'steam' });
+    const res = await owner.post(`/api/plans/${planId}/approve`);
+    expect(res.status).toBe(409);
+    expect(Object.values(res.body.error.fields).join(' ')).toMatch(/steam sanitation at 121 °C is above the cartridges' 80 °C rating/);
+    // Hot water (82 °C) is also above 80 °C: still refused, never "no limit broken".
+    const hot = await chosenDraft(body, { sanitationKind: 'hot-water' });
+    expect((await owner.post(`/api/plans/${hot.planId}/approve`)).status).toBe(409);
+  });
+
+  it('a stage whose clean ΔP already reaches its terminal ΔP (cold wine, tight membrane)', async () => {
+    const cold = await createLot(owner, { volumeL: 4000, tempC: 2, ethanolPctVol: 12.5, sugarGPerL: 2 });
+    const tight = await createCartridgeType(owner, { waterFlowLhPer10in: 150, waterDpBar: 1, terminalDpBar: 1.2, maxDpForwardBar: 5 });
+    const body = trainBody(world);
+    body.stages[1].cartridgeTypeId = tight.id;
+    const { planId, detail } = await chosenDraft(body, { lotId: cold.id });
+    const stage = detail.lots[0].trains[0].sizing!.stages[1];
+    expect(stage.infeasible).toBe(true);
+    expect(stage.capacityL).toBe(0);
+    expect(stage.loadsNeeded).toBeNull();
+    const res = await owner.post(`/api/plans/${planId}/approve`);
+    expect(res.status).toBe(409);
+    expect(Object.values(res.body.error.fields).join(' ')).toMatch(/cannot filter it/);
+  });
+});
+
+describe('approval with cautions needs a written reason, kept with the approval', () => {
+  it('membrane flux above design: refused without a reason, approved with one, cleared on reopen', async () => {
+    const busy = await createCartridgeType(owner, { designFluxLhPer10in: 200 });
+    const body = trainBody(world);
+    body.stages[1].cartridgeTypeId = busy.id;
+    const { planId } = await chosenDraft(body);
+    const bare = await owner.post(`/api/plans/${planId}/approve`);
+    expect(bare.status).toBe(409);
+    expect(bare.body.error.code).toBe('plan_needs_reason');
+    expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/above the design 200 L\/h/);
+    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: '   ' })).status).toBe(409);
+    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: 7 })).status).toBe(400);
+
+    const ok = await owner.post(`/api/plans/${planId}/approve`, { reason: 'Short lot; the set is changed after it anyway.' });
+    expect(ok.status).toBe(200);
+    expect(ok.body.status).toBe('approved');
+    expect(ok.body.approvalOverride.reason).toBe('Short lot; the set is changed after it anyway.');
+    expect(ok.body.approvalOverride.cautions.join(' ')).toMatch(/above the design/);
+
+    const reopened = await owner.post(`/api/plans/${planId}/reopen`);
+    expect(reopened.body.approvalOverride).toBeNull();
+  });
+
+  it('a lot not ready (9.5 NTU) needs a reason; a plan without cautions approves without one', async () => {
+    const hazy = await createLot(owner, { volumeL: 5000, tempC: 12 });
+    await createLabResult(owner, hazy.id, { turbidityNtu: 9.5 });
+    const { planId } = await chosenDraft(trainBody(world), { lotId: hazy.id });
+    const bare = await owner.post(`/api/plans/${planId}/approve`);
+    expect(bare.status).toBe(409);
+    expect(bare.body.error.code).toBe('plan_needs_reason');
+    expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/not ready/);
+    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: 'Lab re-test at 08:00 before the filler starts.' })).status).toBe(200);
+
+    const clean = await chosenDraft(trainBody(world));
+    const res = await owner.post(`/api/plans/${clean.planId}/approve`);
+    expect(res.status).toBe(200);
+    expect(res.body.approvalOverride).toBeNull();
+  });
+});
+
+describe('capacity from the lot’s Vmax disc test', () => {
+  it('a membrane stage without a typed capacity takes it from the lot’s latest disc test, at its own clean ΔP', async () => {
+    const lot = await createLot(owner, { volumeL: 5000, tempC: 12 });
+    await createLabResult(owner, lot.id, { discDiameterMm: 47, discPressureBar: 2, discPoints: discPoints(2.4, 5000, 10) });
+    const body = trainBody(world);
+    delete (body.stages[1] as { capacityLPerM2?: number }).capacityLPerM2;
+    const { detail } = await chosenDraft(body, { lotId: lot.id });
+    const vmax = detail.lots[0].lot.vmaxLPerM2!;
+    expect(vmax).toBeGreaterThan(0);
+    const m = detail.lots[0].trains[0].sizing!.stages[1];
+    expect(m.capacitySource).toBe('vmax');
+    // v_T = v_max(1 − √(ΔP0/ΔP_T))/1.5 (shared reference "engineering" §7.6; SF 1.5 from memory)
+    expect(m.capacityLPerM2).toBeCloseTo((vmax * (1 - Math.sqrt(m.cleanDpBar / m.terminalDpBar))) / 1.5, 6);
+    expect(detail.lots[0].trains[0].sizing!.stages[0].capacitySource).toBe('stage');
+  });
+});
