@@ -28,6 +28,8 @@ const FOOTER = 46;
 
 const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined || !Number.isFinite(v) ? '—' : `${formatNumber(v, digits)}${unit ? ` ${unit}` : ''}`);
 const when = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : '—');
+/** Date and time in a table cell; the column says UTC. */
+const stamp = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)}` : '—');
 const lawNames: Record<string, string> = { complete: 'complete blocking', standard: 'standard blocking', intermediate: 'intermediate blocking', cake: 'cake filtration' };
 
 type Column = { label: string; width: number; align?: 'left' | 'right' };
@@ -125,7 +127,9 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
     ensure(rowH * 2);
     header();
     for (const r of rows) {
-      if (doc.y + rowH > bottom()) {
+      doc.font('body').fontSize(8.5);
+      const h = Math.max(rowH, ...r.cells.map((cell, i) => doc.heightOfString(cell || ' ', { width: cols[i].width * scale - 4 }) + 3));
+      if (doc.y + h > bottom()) {
         doc.addPage();
         header();
       }
@@ -135,10 +139,10 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
           .font('body')
           .fontSize(8.5)
           .fillColor(r.color?.[i] ?? INK)
-          .text(cell, xs[i] + 2, y + 2, { width: cols[i].width * scale - 4, align: cols[i].align ?? 'left', lineBreak: false, ellipsis: true });
+          .text(cell, xs[i] + 2, y + 2, { width: cols[i].width * scale - 4, align: cols[i].align ?? 'left' });
       });
-      doc.moveTo(left, y + rowH).lineTo(left + width(), y + rowH).lineWidth(0.3).strokeColor(RULE).stroke();
-      doc.y = y + rowH;
+      doc.moveTo(left, y + h).lineTo(left + width(), y + h).lineWidth(0.3).strokeColor(RULE).stroke();
+      doc.y = y + h;
     }
     doc.x = left;
     doc.moveDown(0.5);
@@ -196,17 +200,17 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
 
   const integrityRows = (tests: RecordIntegrityTestDto[]) =>
     tests.map((t) => ({
-      cells: [t.serial, integrityTestLabels[t.test], fmt(t.measured, 2, t.unit), `${t.limitKind === 'min' ? 'at least' : 'at most'} ${fmt(t.limit, 2, t.unit)}`, t.pass ? 'PASS' : 'FAIL', t.byName ?? '—', when(t.at)],
+      cells: [t.serial, integrityTestLabels[t.test], fmt(t.measured, 2, t.unit), `${t.limitKind === 'min' ? 'at least' : 'at most'} ${fmt(t.limit, 2, t.unit)}`, t.pass ? 'PASS' : 'FAIL', t.byName ?? '—', stamp(t.at)],
       color: [undefined, undefined, undefined, undefined, t.pass ? GOOD : BAD],
     }));
   const integrityCols: Column[] = [
-    { label: 'Serial', width: 80 },
-    { label: 'Test', width: 70 },
+    { label: 'Serial', width: 105 },
+    { label: 'Test', width: 60 },
     { label: 'Measured', width: 70, align: 'right' },
     { label: 'Limit', width: 90, align: 'right' },
     { label: 'Result', width: 40 },
     { label: 'By', width: 80 },
-    { label: 'When', width: 85 },
+    { label: 'When (UTC)', width: 85 },
   ];
 
   const stageSection = (run: RecordRunDto, s: RecordStageDto) => {
@@ -217,9 +221,9 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
     else
       table(
         [
-          { label: 'Serial', width: 80 },
-          { label: 'Batch', width: 60 },
-          { label: 'Type', width: 100 },
+          { label: 'Serial', width: 105 },
+          { label: 'Batch', width: 75 },
+          { label: 'Type', width: 85 },
           { label: 'Rating', width: 45, align: 'right' },
           { label: 'Length', width: 40, align: 'right' },
           { label: 'Litres carried', width: 65, align: 'right' },
@@ -248,15 +252,15 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
     else
       table(
         [
-          { label: 'Serial', width: 80 },
-          { label: 'Cycle', width: 80 },
+          { label: 'Serial', width: 105 },
+          { label: 'Cycle', width: 65 },
           { label: 'Temperature', width: 60, align: 'right' },
           { label: 'Duration', width: 55, align: 'right' },
           { label: 'Agent', width: 80 },
           { label: 'By', width: 80 },
-          { label: 'When', width: 90 },
+          { label: 'When (UTC)', width: 90 },
         ],
-        s.sanitation.map((x) => ({ cells: [x.serial, cycleKindLabels[x.kind], fmt(x.tempC, 0, '°C'), fmt(x.durationMin, 0, 'min'), x.agent ?? '—', x.byName ?? '—', when(x.at)] })),
+        s.sanitation.map((x) => ({ cells: [x.serial, cycleKindLabels[x.kind], fmt(x.tempC, 0, '°C'), fmt(x.durationMin, 0, 'min'), x.agent ?? '—', x.byName ?? '—', stamp(x.at)] })),
       );
     if (s.integrity) {
       text('Integrity tests before the run', { bold: true, gap: 0.1 });
@@ -332,7 +336,7 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
       table(
         [
           { label: 'Stage', width: 35 },
-          { label: 'When', width: 80 },
+          { label: 'When (UTC)', width: 80 },
           { label: 'Litres', width: 55, align: 'right' },
           { label: 'Up bar', width: 40, align: 'right' },
           { label: 'Down bar', width: 45, align: 'right' },
@@ -350,7 +354,7 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
               ? `voided: ${c.reason} (${c.byName ?? '?'})`
               : `corrected to ${fmt(c.volumeL, 0, 'L')}, ${fmt(c.upstreamBar, 2)}/${fmt(c.downstreamBar, 2)} bar: ${c.reason} (${c.byName ?? '?'})`;
           return {
-            cells: [String(s.index + 1), when(r.at), fmt(r.volumeL, 0), fmt(r.upstreamBar, 2), fmt(r.downstreamBar, 2), fmt(r.dpBar, 2), fmt(r.flowLh, 0), fmt(r.tempC, 1), r.byName ?? '—', note],
+            cells: [String(s.index + 1), stamp(r.at), fmt(r.volumeL, 0), fmt(r.upstreamBar, 2), fmt(r.downstreamBar, 2), fmt(r.dpBar, 2), fmt(r.flowLh, 0), fmt(r.tempC, 1), r.byName ?? '—', note],
             color: c ? [MUTED, MUTED, MUTED, MUTED, MUTED, MUTED, MUTED, MUTED, MUTED, BAD] : undefined,
           };
         }),
