@@ -18,6 +18,8 @@ export const paths = {
   runs: '/runs',
   run: (id: string) => `/runs/${id}`,
   care: '/care',
+  records: '/records',
+  record: (lotId: string) => `/records/lots/${lotId}`,
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',
