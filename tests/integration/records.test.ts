@@ -10,7 +10,7 @@ import type { FilterRecordDto, RecordLotListDto } from '../../shared/types/recor
 import { runReadingsTable } from '../../server/db/schema';
 import { canonicalJson, sha256OfCanonical } from '../../server/lib/canonical-json';
 import { csvSafeCell } from '../../server/lib/csv-safe';
-import { createBottledLot, createRecordWorld, logReadings, sanitiseAndTest, startRunOf, type BottledWorld } from '../factories/records';
+import { createBottledLot, createRecordWorld, logReadings, startRunOf, type BottledWorld } from '../factories/records';
 import { createLot } from '../factories/cellar';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 

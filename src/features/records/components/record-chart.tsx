@@ -3,7 +3,7 @@ import { useUnits } from '@/lib/units';
 
 const W = 640;
 const H = 220;
-const PAD = { left: 52, right: 12, top: 10, bottom: 30 };
+const PAD = { left: 60, right: 16, top: 12, bottom: 36 };
 
 /** Effective points of a stage's readings (the latest correction wins; voided ones left out). */
 export function effectivePoints(stage: RecordStageDto) {
@@ -37,10 +37,10 @@ export function RecordChart({ stage }: { stage: RecordStageDto }) {
         {ticks.map((i) => (
           <g key={i}>
             <line x1={PAD.left} x2={W - PAD.right} y1={y((maxDp * i) / 4)} y2={y((maxDp * i) / 4)} stroke="#e3e8e5" />
-            <text x={PAD.left - 6} y={y((maxDp * i) / 4) + 4} fontSize="11" textAnchor="end" fill="#5b6760">
+            <text x={PAD.left - 6} y={y((maxDp * i) / 4) + 5} fontSize="15" textAnchor="end" fill="#5b6760">
               {dpLabel((maxDp * i) / 4)}
             </text>
-            <text x={x((maxV * i) / 4)} y={H - PAD.bottom + 16} fontSize="11" textAnchor="middle" fill="#5b6760">
+            <text x={x((maxV * i) / 4)} y={H - PAD.bottom + 22} fontSize="15" textAnchor="middle" fill="#5b6760">
               {vLabel((maxV * i) / 4)}
             </text>
           </g>
@@ -48,7 +48,7 @@ export function RecordChart({ stage }: { stage: RecordStageDto }) {
         {stage.terminalDpBar > 0 ? <line x1={PAD.left} x2={W - PAD.right} y1={y(stage.terminalDpBar)} y2={y(stage.terminalDpBar)} stroke="#b42318" strokeDasharray="6 4" strokeWidth="1.5" /> : null}
         {curve.length > 1 ? <polyline points={curve.map((p) => `${x(p.volumeL).toFixed(1)},${y(p.dpBar).toFixed(1)}`).join(' ')} fill="none" stroke="#2f6f5e" strokeWidth="2" /> : null}
         {points.map((p, i) => (
-          <circle key={i} cx={x(p.volumeL)} cy={y(p.dpBar)} r="3.5" fill="#1f2a24" />
+          <circle key={i} cx={x(p.volumeL)} cy={y(p.dpBar)} r="4.5" fill="#1f2a24" />
         ))}
       </svg>
       <figcaption className="text-sm text-ink-600">

@@ -71,15 +71,17 @@ function IntegrityTable({ caption, tests }: { caption: string; tests: RecordInte
   return (
     <Table
       caption={caption}
-      head={['Serial', 'Test', 'Measured', 'Limit', 'Result', 'By', 'When']}
+      head={['Serial', 'Result', 'Test', 'Measured', 'Limit', 'By', 'When']}
       rows={tests.map((t) => [
-        t.serial,
-        integrityTestLabels[t.test],
-        value(t, t.measured),
-        `${t.limitKind === 'min' ? 'at least' : 'at most'} ${value(t, t.limit)}`,
+        <span key="s" className="whitespace-nowrap">
+          {t.serial}
+        </span>,
         <StatusBadge key="r" size="sm" tone={t.pass ? 'ok' : 'stop'}>
           {t.pass ? 'Pass' : 'Fail'}
         </StatusBadge>,
+        integrityTestLabels[t.test],
+        value(t, t.measured),
+        `${t.limitKind === 'min' ? 'at least' : 'at most'} ${value(t, t.limit)}`,
         t.byName ?? '—',
         when(t.at),
       ])}
@@ -104,7 +106,7 @@ function Stage({ run, stage }: { run: RecordRunDto; stage: RecordStageDto }) {
           caption={`Cartridges of stage ${stage.index + 1}`}
           head={['Serial', 'Batch', 'Type', 'Rating', 'Length', 'Litres carried', 'Litres before', 'Cycles before (steam / hot water / chemical)']}
           rows={stage.cartridges.map((c) => [
-            <span key="s" className="font-semibold">
+            <span key="s" className="font-semibold whitespace-nowrap">
               {c.serial}
             </span>,
             c.batch || '—',
