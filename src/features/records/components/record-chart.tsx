@@ -1,8 +1,8 @@
 import type { RecordStageDto } from '@shared/types/records';
 import { useUnits } from '@/lib/units';
 
-const W = 640;
-const H = 220;
+const W = 480;
+const H = 210;
 const PAD = { left: 60, right: 16, top: 12, bottom: 36 };
 
 /** Effective points of a stage's readings (the latest correction wins; voided ones left out). */
@@ -32,15 +32,15 @@ export function RecordChart({ stage }: { stage: RecordStageDto }) {
   const dpLabel = (b: number) => Number(units.toInput('dp', b, 2)).toFixed(2);
   return (
     <figure className="record-keep flex flex-col gap-1">
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full max-w-2xl" role="img" aria-label={`ΔP against litres for stage ${stage.index + 1}, ${stage.name}, with the fitted law and the terminal ΔP`}>
+      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full max-w-xl" role="img" aria-label={`ΔP against litres for stage ${stage.index + 1}, ${stage.name}, with the fitted law and the terminal ΔP`}>
         <rect x={PAD.left} y={PAD.top} width={W - PAD.left - PAD.right} height={H - PAD.top - PAD.bottom} fill="none" stroke="#c9d1cc" />
         {ticks.map((i) => (
           <g key={i}>
             <line x1={PAD.left} x2={W - PAD.right} y1={y((maxDp * i) / 4)} y2={y((maxDp * i) / 4)} stroke="#e3e8e5" />
-            <text x={PAD.left - 6} y={y((maxDp * i) / 4) + 5} fontSize="15" textAnchor="end" fill="#5b6760">
+            <text x={PAD.left - 6} y={y((maxDp * i) / 4) + 5} fontSize="14" textAnchor="end" fill="#5b6760">
               {dpLabel((maxDp * i) / 4)}
             </text>
-            <text x={x((maxV * i) / 4)} y={H - PAD.bottom + 22} fontSize="15" textAnchor="middle" fill="#5b6760">
+            <text x={x((maxV * i) / 4)} y={H - PAD.bottom + 22} fontSize="14" textAnchor="middle" fill="#5b6760">
               {vLabel((maxV * i) / 4)}
             </text>
           </g>
