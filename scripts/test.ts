@@ -23,6 +23,20 @@ function ensureChromium() {
   });
 }
 
+/** pdftotext, pdfinfo and pdffonts (Debian's poppler-utils) read the record PDFs from outside the project. */
+function ensurePoppler() {
+  if (existsSync('/usr/bin/pdftotext')) return;
+  if (process.getuid?.() !== 0) {
+    throw new Error('poppler-utils is needed to check the record PDFs. Install it with: sudo apt-get install -y poppler-utils');
+  }
+  console.log('[porewise] installing poppler-utils from Debian packages (apt-get) …');
+  execFileSync('apt-get', ['update'], { stdio: 'inherit' });
+  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'poppler-utils'], {
+    stdio: 'inherit',
+    env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+  });
+}
+
 async function main() {
   const startedCluster = startCluster();
   let status = 1;
@@ -30,6 +44,7 @@ async function main() {
     ensureDatabase('porewise_test', { fresh: true });
     await runMigrations(databaseUrl('porewise_test'));
     ensureChromium();
+    ensurePoppler();
     buildClientIfChanged();
     console.log('[porewise] type-checking and linting …');
     execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });

@@ -32,6 +32,7 @@ import type { ModuleDeps } from './modules/module-deps';
 import { plansRoutes } from './modules/plans/plans.routes';
 import { careRoutes } from './modules/care/care.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
+import { recordsRoutes } from './modules/records/records.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -135,6 +136,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(plansRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
+  api.use(recordsRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

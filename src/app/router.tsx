@@ -30,6 +30,8 @@ export function createRouter() {
         { path: paths.runs, lazy: lazyPage(() => import('./routes/app/runs')) },
         { path: '/runs/:runId', lazy: lazyPage(() => import('./routes/app/run')) },
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
+        { path: paths.records, lazy: lazyPage(() => import('./routes/app/records')) },
+        { path: '/records/lots/:lotId', lazy: lazyPage(() => import('./routes/app/record')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
       ],

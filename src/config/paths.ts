@@ -19,6 +19,8 @@ export const paths = {
   runs: '/runs',
   run: (id: string) => `/runs/${id}`,
   care: '/care',
+  records: '/records',
+  record: (lotId: string) => `/records/lots/${lotId}`,
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',

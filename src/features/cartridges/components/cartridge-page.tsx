@@ -22,6 +22,7 @@ import { InstallDialog } from './install-dialog';
 import { LifeGauge } from './life-gauge';
 import { Measure } from './measure';
 import { EditDetailsDialog } from './edit-details-dialog';
+import { FilteredLots } from './filtered-lots';
 import { RetireDialog } from './retire-dialog';
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
@@ -125,6 +126,7 @@ export function CartridgePage({ id }: { id: string }) {
       />
       <Facts c={c} />
       <LifeGauge life={c.life} lifeError={c.lifeError} />
+      <FilteredLots id={c.id} serial={c.serial} />
       <HistoryTimeline events={c.events} />
       <InstallDialog cartridge={c} open={dialog === 'install'} onClose={() => setDialog(null)} />
       <RetireDialog cartridge={c} open={dialog === 'retire'} onClose={() => setDialog(null)} />

@@ -1,0 +1,343 @@
+import { aliasedTable, and, asc, desc, eq, exists, gte, ilike, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
+import type { RecordLotsQuery } from '../../../shared/schemas/records';
+import type { DbOrTx } from '../../db/client';
+import {
+  cartridgeEventsTable,
+  cartridgesTable,
+  cartridgeTypesTable,
+  housingsTable,
+  labResultsTable,
+  linesTable,
+  lotsTable,
+  planLotsTable,
+  plansTable,
+  planTrainsTable,
+  runReadingsTable,
+  runsTable,
+  usersTable,
+} from '../../db/schema';
+
+export type RecordRunRow = Awaited<ReturnType<ReturnType<typeof createRecordsRepository>['runsOfLot']>>[number];
+export type RecordReadingRow = Awaited<ReturnType<ReturnType<typeof createRecordsRepository>['readings']>>[number];
+export type RecordEventRow = Awaited<ReturnType<ReturnType<typeof createRecordsRepository>['cartridgeHistory']>>[number];
+
+/** A cartridge that served a stage of a run, as the repository derives it. */
+export type StageCartridgeRow = {
+  stageIndex: number;
+  cartridgeId: string;
+  serial: string;
+  batch: string;
+  typeName: string;
+  kind: 'prefilter' | 'membrane';
+  ratingUm: number;
+  lengthIn: number;
+  /** Litres through the train while it was in; null while the run is open. */
+  litresCarried: number | null;
+  /** Counters as they stand now (the service subtracts what happened since the start). */
+  litresNow: number;
+  steamNow: number;
+  hotWaterNow: number;
+  chemicalNow: number;
+  installedAtVolumeL: number;
+  removedAtVolumeL: number | null;
+};
+
+/** A change or regeneration during a run. */
+export type RunChangeRow = {
+  stageIndex: number;
+  kind: 'change' | 'regeneration';
+  atVolumeL: number;
+  removedSerials: string[];
+  installedSerials: string[];
+  byName: string | null;
+  at: Date;
+};
+
+/** A correction or voiding of a reading (the reading row itself is never changed). */
+export type ReadingCorrectionRow = {
+  readingId: string;
+  kind: 'correct' | 'void';
+  volumeL: number | null;
+  upstreamBar: number | null;
+  downstreamBar: number | null;
+  flowLh: number | null;
+  tempC: number | null;
+  reason: string;
+  byName: string | null;
+  at: Date;
+};
+
+const starter = aliasedTable(usersTable, 'starter');
+const closer = aliasedTable(usersTable, 'closer');
+const approver = aliasedTable(usersTable, 'approver');
+
+/** A run event of a cartridge (written at close) names its run in details.runId. */
+const runIdOfEvent = sql<string>`${cartridgeEventsTable.details} ->> 'runId'`;
+
+export function createRecordsRepository(db: DbOrTx) {
+  /** Closed runs' ids whose cartridges match the serial or batch (the reverse trace). */
+  function runsThroughCartridges(wineryId: string, filter: { serial?: string; batch?: string }): SQL {
+    // Switches to run_stage_cartridges (serial, batch copied at start) when that table lands.
+    const conds: SQL[] = [eq(cartridgeEventsTable.wineryId, wineryId), eq(cartridgeEventsTable.kind, 'run'), sql`${runIdOfEvent} = ${runsTable.id}::text`];
+    if (filter.serial) conds.push(sql`lower(${cartridgesTable.serial}) = lower(${filter.serial})`);
+    if (filter.batch) conds.push(sql`lower(${cartridgesTable.batch}) = lower(${filter.batch})`);
+    return exists(
+      db
+        .select({ one: sql`1` })
+        .from(cartridgeEventsTable)
+        .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
+        .where(and(...conds)),
+    );
+  }
+
+  return {
+    async lot(wineryId: string, lotId: string) {
+      const [row] = await db
+        .select({
+          id: lotsTable.id,
+          code: lotsTable.code,
+          name: lotsTable.name,
+          style: lotsTable.style,
+          vintage: lotsTable.vintage,
+          volumeL: lotsTable.volumeL,
+          tempC: lotsTable.tempC,
+          ethanolPctVol: lotsTable.ethanolPctVol,
+          sugarGPerL: lotsTable.sugarGPerL,
+        })
+        .from(lotsTable)
+        .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, lotId)));
+      return row ?? null;
+    },
+
+    /** Every run of the lot (oldest first) with its plan, chosen train, line and the names of who acted. */
+    async runsOfLot(wineryId: string, lotId: string) {
+      return db
+        .select({
+          run: runsTable,
+          planLot: planLotsTable,
+          plan: plansTable,
+          train: planTrainsTable,
+          line: linesTable,
+          startedByName: starter.name,
+          closedByName: closer.name,
+          approvedByName: approver.name,
+        })
+        .from(runsTable)
+        .innerJoin(planLotsTable, eq(planLotsTable.id, runsTable.planLotId))
+        .innerJoin(plansTable, eq(plansTable.id, runsTable.planId))
+        .leftJoin(planTrainsTable, and(eq(planTrainsTable.id, planLotsTable.chosenTrainId), eq(planTrainsTable.wineryId, wineryId)))
+        .leftJoin(linesTable, and(eq(linesTable.id, plansTable.lineId), eq(linesTable.wineryId, wineryId)))
+        .leftJoin(starter, eq(starter.id, runsTable.startedBy))
+        .leftJoin(closer, eq(closer.id, runsTable.closedBy))
+        .leftJoin(approver, eq(approver.id, plansTable.approvedBy))
+        .where(and(eq(runsTable.wineryId, wineryId), eq(planLotsTable.lotId, lotId)))
+        .orderBy(asc(runsTable.startedAt), asc(runsTable.id));
+    },
+
+    async labResults(wineryId: string, lotId: string) {
+      return db
+        .select()
+        .from(labResultsTable)
+        .where(and(eq(labResultsTable.wineryId, wineryId), eq(labResultsTable.lotId, lotId)))
+        .orderBy(asc(labResultsTable.sampledAt), asc(labResultsTable.id));
+    },
+
+    async catalogue(wineryId: string, typeIds: string[], housingIds: string[]) {
+      const [types, housings] = await Promise.all([
+        typeIds.length === 0
+          ? []
+          : db
+              .select({ id: cartridgeTypesTable.id, name: cartridgeTypesTable.name, kind: cartridgeTypesTable.kind, terminalDpBar: cartridgeTypesTable.terminalDpBar })
+              .from(cartridgeTypesTable)
+              .where(and(eq(cartridgeTypesTable.wineryId, wineryId), inArray(cartridgeTypesTable.id, typeIds))),
+        housingIds.length === 0
+          ? []
+          : db
+              .select({ id: housingsTable.id, name: housingsTable.name })
+              .from(housingsTable)
+              .where(and(eq(housingsTable.wineryId, wineryId), inArray(housingsTable.id, housingIds))),
+      ]);
+      return { types, housings };
+    },
+
+    async readings(wineryId: string, runId: string) {
+      return db
+        .select({ reading: runReadingsTable, byName: usersTable.name })
+        .from(runReadingsTable)
+        .leftJoin(usersTable, eq(usersTable.id, runReadingsTable.createdBy))
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)))
+        .orderBy(asc(runReadingsTable.stageIndex), asc(runReadingsTable.volumeL), asc(runReadingsTable.at), asc(runReadingsTable.id));
+    },
+
+    /**
+     * The cartridges that served each stage of a run. Today derived from what exists: for a closed
+     * run, the cartridges its close credited with litres (run events naming the run); else (an open
+     * run, or one closed at 0 L) those installed in the stage's housing when the run started,
+     * rebuilt from the install/remove events, and for an open run those installed now.
+     * TODO(run_stage_cartridges): switch to the snapshot table when it lands — one query on
+     * run_stage_cartridges by run id, ordered by stage_index and serial; nothing else changes.
+     */
+    async stageCartridgesForRun(
+      wineryId: string,
+      run: { id: string; status: 'running' | 'closed'; startedAt: Date },
+      stageHousingIds: string[],
+    ): Promise<StageCartridgeRow[]> {
+      if (stageHousingIds.length === 0) return [];
+      const stageOfHousing = (housingId: string | null) => (housingId ? stageHousingIds.indexOf(housingId) : -1);
+      const columns = {
+        cartridgeId: cartridgesTable.id,
+        serial: cartridgesTable.serial,
+        batch: cartridgesTable.batch,
+        typeName: cartridgeTypesTable.name,
+        kind: cartridgeTypesTable.kind,
+        ratingUm: cartridgeTypesTable.ratingUm,
+        lengthIn: cartridgesTable.lengthIn,
+        litresNow: cartridgesTable.litresFiltered,
+        steamNow: cartridgesTable.steamCycles,
+        hotWaterNow: cartridgesTable.hotWaterCycles,
+        chemicalNow: cartridgesTable.chemicalCycles,
+      };
+      const out = new Map<string, StageCartridgeRow>();
+      const add = (row: Omit<StageCartridgeRow, 'stageIndex' | 'litresCarried' | 'installedAtVolumeL' | 'removedAtVolumeL'>, housingId: string | null, litres: number | null) => {
+        const stageIndex = stageOfHousing(housingId);
+        if (stageIndex < 0 || out.has(row.cartridgeId)) return;
+        out.set(row.cartridgeId, { ...row, stageIndex, litresCarried: litres, installedAtVolumeL: 0, removedAtVolumeL: null });
+      };
+
+      if (run.status === 'closed') {
+        const credited = await db
+          .select({ ...columns, housingId: cartridgeEventsTable.housingId, details: cartridgeEventsTable.details })
+          .from(cartridgeEventsTable)
+          .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
+          .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+          .where(and(eq(cartridgeEventsTable.wineryId, wineryId), eq(cartridgeEventsTable.kind, 'run'), sql`${runIdOfEvent} = ${run.id}`));
+        for (const { housingId, details, ...row } of credited) {
+          const litres = typeof details.litres === 'number' && Number.isFinite(details.litres) ? details.litres : 0;
+          add(row, housingId, litres);
+        }
+      } else {
+        const installed = await db
+          .select({ ...columns, housingId: cartridgesTable.housingId })
+          .from(cartridgesTable)
+          .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+          .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.status, 'installed'), inArray(cartridgesTable.housingId, stageHousingIds)));
+        for (const { housingId, ...row } of installed) add(row, housingId, null);
+      }
+
+      if (out.size === 0) {
+        // In the housing at the start: the last install/remove event of each cartridge before the start.
+        const moves = await db
+          .select({ ...columns, housingId: cartridgeEventsTable.housingId, kind2: cartridgeEventsTable.kind, at: cartridgeEventsTable.at })
+          .from(cartridgeEventsTable)
+          .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
+          .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+          .where(
+            and(
+              eq(cartridgeEventsTable.wineryId, wineryId),
+              inArray(cartridgeEventsTable.kind, ['installed', 'removed', 'retired']),
+              lt(cartridgeEventsTable.at, run.startedAt),
+              or(inArray(cartridgeEventsTable.housingId, stageHousingIds), eq(cartridgeEventsTable.kind, 'retired')),
+            ),
+          )
+          .orderBy(asc(cartridgeEventsTable.at));
+        const last = new Map<string, (typeof moves)[number]>();
+        for (const m of moves) last.set(m.cartridgeId, m);
+        for (const { housingId, kind2, at: _at, ...row } of last.values()) {
+          if (kind2 === 'installed') add(row, housingId, run.status === 'closed' ? 0 : null);
+        }
+      }
+      return [...out.values()].sort((a, b) => a.stageIndex - b.stageIndex || a.serial.localeCompare(b.serial));
+    },
+
+    /**
+     * Changes and regenerations during a run. Today there are none to read (runs record no
+     * changes yet). TODO(run_changes): read run_changes by run id when that table lands.
+     */
+    async runChanges(_wineryId: string, _runId: string): Promise<RunChangeRow[]> {
+      return [];
+    },
+
+    /**
+     * Corrections and voidings of a run's readings. Today there are none (readings cannot be
+     * corrected yet). TODO(run_reading_corrections): read that table by run id, oldest first.
+     */
+    async readingCorrections(_wineryId: string, _runId: string): Promise<ReadingCorrectionRow[]> {
+      return [];
+    },
+
+    /** Cycles, integrity tests and run credits of these cartridges, oldest first, with who. */
+    async cartridgeHistory(wineryId: string, cartridgeIds: string[]) {
+      if (cartridgeIds.length === 0) return [];
+      return db
+        .select({
+          id: cartridgeEventsTable.id,
+          cartridgeId: cartridgeEventsTable.cartridgeId,
+          kind: cartridgeEventsTable.kind,
+          details: cartridgeEventsTable.details,
+          at: cartridgeEventsTable.at,
+          byName: usersTable.name,
+        })
+        .from(cartridgeEventsTable)
+        .leftJoin(usersTable, eq(usersTable.id, cartridgeEventsTable.actorId))
+        .where(
+          and(
+            eq(cartridgeEventsTable.wineryId, wineryId),
+            inArray(cartridgeEventsTable.cartridgeId, cartridgeIds),
+            inArray(cartridgeEventsTable.kind, ['cycle', 'integrity', 'run']),
+          ),
+        )
+        .orderBy(asc(cartridgeEventsTable.at), asc(cartridgeEventsTable.id));
+    },
+
+    /** Bottled lots (with at least one closed run), newest bottling first, filtered and paged. */
+    async bottledLots(wineryId: string, q: RecordLotsQuery) {
+      const conds: SQL[] = [eq(runsTable.wineryId, wineryId), eq(runsTable.status, 'closed')];
+      if (q.from) conds.push(gte(runsTable.closedAt, new Date(`${q.from}T00:00:00Z`)));
+      if (q.to) conds.push(lt(runsTable.closedAt, new Date(new Date(`${q.to}T00:00:00Z`).getTime() + 86_400_000)));
+      if (q.style) conds.push(eq(lotsTable.style, q.style));
+      if (q.q) {
+        const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+        conds.push(or(ilike(lotsTable.code, like), ilike(lotsTable.name, like), ilike(plansTable.name, like))!);
+      }
+      if (q.serial || q.batch) conds.push(runsThroughCartridges(wineryId, { serial: q.serial, batch: q.batch }));
+      const volume = sql<number>`coalesce((select max(${runReadingsTable.volumeL}) from ${runReadingsTable} where ${runReadingsTable.runId} = ${runsTable.id}), 0)`;
+      const base = db
+        .select({
+          lotId: lotsTable.id,
+          code: lotsTable.code,
+          name: lotsTable.name,
+          style: lotsTable.style,
+          volumeL: lotsTable.volumeL,
+          runCount: sql<number>`count(*)`.mapWith(Number),
+          volumeFilteredL: sql<number>`sum(${volume})`.mapWith(Number),
+          lastBottledAt: sql<Date>`max(${runsTable.closedAt})`.mapWith((v: string | Date) => new Date(v)),
+          planNames: sql<string[]>`array_agg(distinct ${plansTable.name})`,
+          total: sql<number>`count(*) over ()`.mapWith(Number),
+        })
+        .from(runsTable)
+        .innerJoin(planLotsTable, eq(planLotsTable.id, runsTable.planLotId))
+        .innerJoin(plansTable, eq(plansTable.id, runsTable.planId))
+        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+        .where(and(...conds))
+        .groupBy(lotsTable.id)
+        .orderBy(desc(sql`max(${runsTable.closedAt})`), asc(lotsTable.code))
+        .limit(q.pageSize)
+        .offset((q.page - 1) * q.pageSize);
+      const rows = await base;
+      return { rows, total: rows[0]?.total ?? (q.page > 1 ? await countBottled() : 0) };
+
+      async function countBottled() {
+        const [row] = await db
+          .select({ n: sql<number>`count(distinct ${lotsTable.id})`.mapWith(Number) })
+          .from(runsTable)
+          .innerJoin(planLotsTable, eq(planLotsTable.id, runsTable.planLotId))
+          .innerJoin(plansTable, eq(plansTable.id, runsTable.planId))
+          .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+          .where(and(...conds));
+        return row?.n ?? 0;
+      }
+    },
+  };
+}
+
+export type RecordsRepository = ReturnType<typeof createRecordsRepository>;

@@ -1,0 +1,5 @@
+import { RecordsPage } from '@/features/records/components/records-page';
+
+export default function RecordsRoute() {
+  return <RecordsPage />;
+}
