@@ -74,7 +74,7 @@ export function createTodayRepository(db: DbOrTx) {
         .orderBy(asc(cartridgesTable.serial));
     },
 
-    /** The forecast's events of the given cartridges, in one query (grouped by the caller). */
+    /** The forecast's events of the given cartridges, in one query with the ids as one array parameter (grouped by the caller). */
     async lifeEvents(wineryId: string, cartridgeIds: string[]) {
       if (cartridgeIds.length === 0) return [];
       return db
@@ -83,7 +83,7 @@ export function createTodayRepository(db: DbOrTx) {
         .where(
           and(
             eq(cartridgeEventsTable.wineryId, wineryId),
-            inArray(cartridgeEventsTable.cartridgeId, cartridgeIds),
+            sql`${cartridgeEventsTable.cartridgeId} = any(${sql.param(cartridgeIds)}::uuid[])`,
             inArray(cartridgeEventsTable.kind, [...LIFE_EVENT_KINDS]),
           ),
         );
