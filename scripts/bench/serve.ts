@@ -27,6 +27,8 @@ async function main() {
     const { startServer } = await import('../../server/server');
     await startServer(parseEnv({ ...process.env, PORT: String(port), HOST: '127.0.0.1', CLIENT_DIR: '.data/bench-no-client' }));
   }
+  // A clean exit on SIGTERM, so `node --cpu-prof` writes its profile.
+  process.on('SIGTERM', () => process.exit(0));
   process.stdout.write('ready\n');
 }
 

@@ -11,7 +11,6 @@ export type TenantContext = { wineryId: string; role: Role; userId: string };
  * person's active winery; their role there must allow the action (403 otherwise). The role
  * comes with the session, read in the same query on this request (server/lib/auth.ts).
  */
-// eslint-disable-next-line @typescript-eslint/no-unused-vars -- routes pass the database; the role no longer needs a query of its own
 export function authorize(_db: Database, action: Action): RequestHandler {
   return (_req, res, next) => {
     const { user } = authOf(res);

@@ -43,6 +43,9 @@ import {
 const CYCLE_KINDS: readonly CareCycleKind[] = ['steam', 'hot-water', 'chemical', 'backflush'];
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
 
+/** The type's ratings the life forecast reads. */
+type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct'>;
+
 const duplicateSerial = (serial: string) => conflict(`Serial ${serial} is already registered in this winery.`, 'duplicate_serial');
 
 /**
@@ -61,7 +64,7 @@ export function lifeFromHistory(
 
 /** As {@link lifeFromHistory}, the figures and verdict only (no plain-words account): for many cartridges at once. */
 export function lifeVerdictFromHistory(
-  type: CartridgeTypeRow,
+  type: LifeRatings,
   cartridge: Pick<CartridgeRow, 'litresFiltered'>,
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,
@@ -71,7 +74,7 @@ export function lifeVerdictFromHistory(
 
 function forecastFromHistory<T>(
   forecast: (...args: Parameters<typeof cartridgeLife>) => T,
-  type: CartridgeTypeRow,
+  type: LifeRatings,
   cartridge: Pick<CartridgeRow, 'litresFiltered'>,
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,

@@ -9,7 +9,7 @@ import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/c
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { presentStockType, presentTodayCartridge, presentTodayLot, presentTodayPlan } from './today.presenter';
-import { createTodayRepository, type TodayCartridgeRow } from './today.repository';
+import { createTodayRepository, type TodayCartridgeRow, type TodayLifeType } from './today.repository';
 
 /** Lots shown on the page; the total is given beside them. */
 export const TODAY_LOTS_MAX = 8;
@@ -124,27 +124,20 @@ export function createTodayService(db: Database) {
     return details.flatMap((p) => (p.status !== 'done' ? [presentTodayPlan({ ...p, status: p.status })] : []));
   }
 
-  /** Cartridges to look at, most urgent first: two queries whatever their number (the rows, then all their events). */
+  /** Cartridges to look at, most urgent first: two queries whatever their number (the types, then the cartridges with their events). */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
-    const rows = await repo.cartridgesInUse(wineryId);
-    const events = await repo.lifeEvents(
-      wineryId,
-      rows.map((r) => r.cartridge.id),
-    );
-    const byCartridge = new Map<string, typeof events>();
-    for (const e of events) {
-      const list = byCartridge.get(e.cartridgeId);
-      if (list) list.push(e);
-      else byCartridge.set(e.cartridgeId, [e]);
-    }
-    const flagged: { row: TodayCartridgeRow; findings: Finding[] }[] = [];
+    const [types, rows] = await Promise.all([repo.lifeTypes(wineryId), repo.cartridgesInUse(wineryId)]);
+    const typeById = new Map(types.map((t) => [t.id, t]));
+    const flagged: { row: TodayCartridgeRow; type: TodayLifeType; findings: Finding[] }[] = [];
     for (const row of rows) {
-      const history = byCartridge.get(row.cartridge.id) ?? [];
-      const { life } = lifeVerdictFromHistory(row.type, row.cartridge, history, now);
+      const type = typeById.get(row.cartridge.typeId);
+      if (!type) continue;
+      const history = (row.events ?? []).map(([kind, atMs, details]) => ({ kind, at: new Date(atMs), details: details ?? {} }));
+      const { life } = lifeVerdictFromHistory(type, row.cartridge, history, now);
       if (!life) continue;
       const integrityAt = history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
       const findings = findingsOf(life, integrityAt);
-      if (findings.length) flagged.push({ row, findings });
+      if (findings.length) flagged.push({ row, type, findings });
     }
     flagged.sort(
       (a, b) =>
@@ -153,8 +146,8 @@ export function createTodayService(db: Database) {
         a.row.cartridge.serial.localeCompare(b.row.cartridge.serial),
     );
     return {
-      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, findings: [lead, ...rest] }) =>
-        presentTodayCartridge(row, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
+      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, type, findings: [lead, ...rest] }) =>
+        presentTodayCartridge(row, type.name, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
       ),
       attentionTotal: flagged.length,
     };
