@@ -29,6 +29,7 @@ const BIG_WINERY = '7a2e0c1d-0000-4000-8000-00000000a10c';
 const BIG_OWNER = 'benchowner10k001';
 
 type Load = { rps: number; p50: number; p95: number; errors: number; n: number };
+type Slice = { latencies: number[]; elapsed: number; errors: number };
 
 const fmt = (v: number) => (v >= 100 ? v.toFixed(0) : v >= 10 ? v.toFixed(1) : v.toFixed(2));
 
@@ -38,7 +39,7 @@ function quantile(sorted: number[], q: number) {
 }
 
 /** `connections` keep-alive loops, each sending one GET after the other for `seconds`. */
-async function load(port: number, urlPath: string, headers: Record<string, string>, connections: number, seconds: number): Promise<Load> {
+async function slice(port: number, urlPath: string, headers: Record<string, string>, connections: number, seconds: number): Promise<Slice> {
   const agent = new http.Agent({ keepAlive: true, maxSockets: connections });
   const latencies: number[] = [];
   let errors = 0;
@@ -67,8 +68,25 @@ async function load(port: number, urlPath: string, headers: Record<string, strin
   );
   const elapsed = (performance.now() - start) / 1000;
   agent.destroy();
-  latencies.sort((a, b) => a - b);
-  return { rps: latencies.length / elapsed, p50: quantile(latencies, 0.5), p95: quantile(latencies, 0.95), errors, n: latencies.length };
+  return { latencies, elapsed, errors };
+}
+
+function summarise(slices: Slice[]): Load {
+  const latencies = slices.flatMap((s) => s.latencies).sort((a, b) => a - b);
+  const elapsed = slices.reduce((t, s) => t + s.elapsed, 0);
+  return { rps: latencies.length / elapsed, p50: quantile(latencies, 0.5), p95: quantile(latencies, 0.95), errors: slices.reduce((t, s) => t + s.errors, 0), n: latencies.length };
+}
+
+/**
+ * The app and its peer in alternating half-second slices, so both see the same load from
+ * anything else on the machine; `seconds` of each in all.
+ */
+async function compare(targets: { port: number; path: string; headers: Record<string, string> }[], connections: number, seconds: number): Promise<Load[]> {
+  const slices: Slice[][] = targets.map(() => []);
+  for (let round = 0; round < seconds * 2; round++) {
+    for (const [i, t] of targets.entries()) slices[i].push(await slice(t.port, t.path, t.headers, connections, 0.5));
+  }
+  return slices.map(summarise);
 }
 
 function startProcess(args: string[], env: NodeJS.ProcessEnv): Promise<ChildProcess> {
@@ -193,56 +211,53 @@ export async function report() {
     const bare = await startProcess(['bare', String(barePort), file], env);
     children.push(bare);
 
-    console.log(`  ${String(CONNECTIONS)} connections, ${String(SECONDS)} s each, best of two rounds per side`);
+    console.log(`  ${String(CONNECTIONS)} connections, ${String(SECONDS)} s each, app and bare in alternating half-second slices`);
     const headers = { cookie };
     for (const [name, p] of endpoints) {
-      const best = (a: Load, b: Load) => (a.rps >= b.rps ? a : b);
-      await load(appPort, p, headers, CONNECTIONS, 0.5); // warm-up
-      await load(barePort, p, {}, CONNECTIONS, 0.5);
-      const a1 = await load(appPort, p, headers, CONNECTIONS, SECONDS);
-      const b1 = await load(barePort, p, {}, CONNECTIONS, SECONDS);
-      const b2 = await load(barePort, p, {}, CONNECTIONS, SECONDS);
-      const a2 = await load(appPort, p, headers, CONNECTIONS, SECONDS);
-      const a = best(a1, a2);
-      const b = best(b1, b2);
+      await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, 0.5); // warm-up
+      const [a, b] = await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, SECONDS);
       const kb = (JSON.stringify(bodies[p]).length / 1024).toFixed(1);
       console.log(
         `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s (p50 ${fmt(a.p50)} ms, p95 ${fmt(a.p95)} ms)   bare ${fmt(b.rps).padStart(6)} req/s   → app at ${((a.rps / b.rps) * 100).toFixed(0)} % of bare   (${kb} KB${a.errors ? `, ${String(a.errors)} errors` : ''})`,
       );
     }
 
-    console.log(`  ${String(WIDE)} connections on the app, ${String(SECONDS)} s each`);
+    console.log(`  ${String(WIDE)} connections on the app, ${String(SECONDS)} s each (health alongside, as the idle peer)`);
     for (const [name, p] of endpoints) {
-      const a = await load(appPort, p, headers, WIDE, SECONDS);
-      console.log(`  ${name.padEnd(15)} ${fmt(a.rps).padStart(6)} req/s   p50 ${fmt(a.p50)} ms   p95 ${fmt(a.p95)} ms${a.errors ? `   ${String(a.errors)} errors` : ''}`);
+      const [a, h] = await compare([{ port: appPort, path: p, headers }, { port: appPort, path: '/api/health', headers: {} }], WIDE, SECONDS);
+      console.log(
+        `  ${name.padEnd(15)} ${fmt(a.rps).padStart(6)} req/s   p50 ${fmt(a.p50)} ms   p95 ${fmt(a.p95)} ms   (health p95 ${fmt(h.p95)} ms)${a.errors ? `   ${String(a.errors)} errors` : ''}`,
+      );
     }
 
     // Today at 10,000 cartridges: one request at a time, against Today on the demo.
     const bigCookie = await signIn(appPort, 'owner@bench10k.test');
-    const sequential = async (c: string, p: string, n: number) => {
-      const times: number[] = [];
-      for (let i = 0; i < n; i++) {
-        const t0 = performance.now();
-        const res = await request(appPort, 'GET', p, undefined, c);
-        if (res.status !== 200) throw new Error(`${p}: ${String(res.status)}`);
-        times.push(performance.now() - t0);
-      }
-      times.sort((x, y) => x - y);
-      return quantile(times, 0.5);
+    const once = async (c: string, p: string) => {
+      const t0 = performance.now();
+      const res = await request(appPort, 'GET', p, undefined, c);
+      if (res.status !== 200) throw new Error(`${p}: ${String(res.status)}`);
+      return performance.now() - t0;
     };
-    await sequential(cookie, '/api/today', 5);
-    await sequential(bigCookie, '/api/today', 3);
-    const demoToday = await sequential(cookie, '/api/today', 30);
-    const bigToday = await sequential(bigCookie, '/api/today', 15);
+    /** Median of n requests to each path, one at a time, the paths taking turns (same machine load for both). */
+    const alternating = async (n: number, ...targets: [string, string][]) => {
+      const times: number[][] = targets.map(() => []);
+      for (let i = 0; i < n; i++) for (const [j, [c, p]] of targets.entries()) times[j].push(await once(c, p));
+      return times.map((t) => quantile(t.sort((x, y) => x - y), 0.5));
+    };
+    await alternating(4, [cookie, '/api/today'], [bigCookie, '/api/today']);
+    const [demoToday, bigToday] = await alternating(20, [cookie, '/api/today'], [bigCookie, '/api/today']);
     const bigBody = (await request(appPort, 'GET', '/api/today', undefined, bigCookie)).json;
-    console.log('  Today, one request at a time (median)');
+    console.log('  Today, one request at a time, demo and 10k taking turns (median)');
     console.log(`  demo data        ${fmt(demoToday)} ms`);
     console.log(
       `  10,000 cartridges ${fmt(bigToday)} ms   → ${(bigToday / demoToday).toFixed(1)}× the demo   (${String(bigBody.cartridges.attentionTotal)} cartridges to look at)`,
     );
-    const bySort = await sequential(bigCookie, '/api/cartridges?sort=receivedAt&order=desc&page=3&pageSize=50', 15);
-    const search = await sequential(bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50', 15);
-    const demoList = await sequential(cookie, '/api/cartridges?page=1&pageSize=50', 15);
+    const [demoList, bySort, search] = await alternating(
+      15,
+      [cookie, '/api/cartridges?page=1&pageSize=50'],
+      [bigCookie, '/api/cartridges?sort=receivedAt&order=desc&page=3&pageSize=50'],
+      [bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50'],
+    );
     console.log(`  cartridge list, demo ${fmt(demoList)} ms; at 10k sorted by received date ${fmt(bySort)} ms (${(bySort / demoList).toFixed(1)}×), searched ${fmt(search)} ms (${(search / demoList).toFixed(1)}×)`);
     const plan10k = async (sql: string, params: unknown[]) => {
       const res = await client.query(`explain ${sql}`, params);
