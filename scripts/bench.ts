@@ -7,6 +7,9 @@
  * and may export `external` comparisons: the same data written to a JSON file in .data/
  * and timed by another program (e.g. a Python/scipy script), printed beside the case it
  * is compared to. A missing interpreter or library prints a note and the run carries on.
+ * A module may instead (or also) export `report(): Promise<void>`, which measures and prints
+ * on its own (the HTTP and bundle benchmarks: servers, load, sizes).
+ * `npm run bench -- http bundle` runs only the modules whose file names contain those words.
  * This is a benchmark, not a test: nothing fails on a slow machine.
  */
 import { spawnSync } from 'node:child_process';
@@ -100,14 +103,21 @@ async function main(): Promise<void> {
   console.log(`  Memory  ${(os.totalmem() / 2 ** 30).toFixed(1)} GiB`);
   console.log('');
 
+  const only = process.argv.slice(2).filter((a) => !a.startsWith('-'));
   const files = readdirSync(benchDir)
-    .filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts') && !f.endsWith('.d.ts'))
+    .filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts') && !f.endsWith('.d.ts') && f !== 'serve.ts')
+    .filter((f) => only.length === 0 || only.some((o) => f.includes(o)))
     .sort();
   const medians = new Map<string, number>();
   for (const f of files) {
-    const mod = (await import(pathToFileURL(path.join(benchDir, f)).href)) as { cases?: Case[]; external?: External[] };
+    const mod = (await import(pathToFileURL(path.join(benchDir, f)).href)) as { cases?: Case[]; external?: External[]; report?: () => Promise<void> };
+    if (typeof mod.report === 'function') {
+      console.log(`${f}`);
+      await mod.report();
+      console.log('');
+    }
     if (!Array.isArray(mod.cases)) {
-      console.log(`${f}: no \`cases\` export, skipped`);
+      if (typeof mod.report !== 'function') console.log(`${f}: no \`cases\` export, skipped`);
       continue;
     }
     console.log(`${f}`);
@@ -144,7 +154,10 @@ async function main(): Promise<void> {
   void sink;
 }
 
-main().catch((e: unknown) => {
-  console.error(e);
-  process.exit(1);
-});
+main().then(
+  () => process.exit(0),
+  (e: unknown) => {
+    console.error(e);
+    process.exit(1);
+  },
+);

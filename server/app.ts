@@ -1,8 +1,8 @@
+import compression from 'compression';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { pinoHttp } from 'pino-http';
 import type { Database } from './db/client';
 import { createAuth } from './lib/auth';
 import type { FakeSmtp } from './lib/fake-services';
@@ -12,6 +12,7 @@ import { logger } from './lib/logger';
 import { authenticate } from './middleware/authenticate';
 import { errorHandler, JSON_SHAPE_ERROR, notFoundHandler } from './middleware/error-handler';
 import { hostCheck, originCheck } from './middleware/origin-check';
+import { requestLog } from './middleware/request-log';
 import { createAuthRateLimits } from './middleware/rate-limit';
 import { wellFormedInput } from './middleware/validate';
 import { checkJsonShape } from '../shared/schemas/text';
@@ -99,7 +100,9 @@ export function createApp(deps: AppDeps): Express {
     if (req.secure) res.set('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
     next();
   });
-  if (config.logRequests) app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => !req.url?.startsWith('/api') } }));
+  if (config.logRequests) app.use(requestLog(logger));
+  // gzip or brotli for every text answer (API and client files) the browser accepts.
+  app.use(compression());
 
   const api = express.Router();
   api.use(express.json({ limit: JSON_BODY_LIMIT, verify: refuseComplexJson }));

@@ -8,7 +8,8 @@ export type Database = NodePgDatabase<typeof schema>;
 export type DbOrTx = Database | Parameters<Parameters<Database['transaction']>[0]>[0];
 
 export function createDatabase(url: string, opts: { max?: number } = {}) {
-  const pool = new pg.Pool({ connectionString: url, max: opts.max ?? 10, connectionTimeoutMillis: 5_000 });
+  // JIT compilation costs more than it saves on the app's short queries (a 10k-row Today plan spent most of its time compiling).
+  const pool = new pg.Pool({ connectionString: url, max: opts.max ?? 10, connectionTimeoutMillis: 5_000, options: '-c jit=off' });
   // An idle client whose connection the server ends (restart, failover, admin command) emits
   // 'error' on the pool; without a listener Node would exit. The pool drops that client and
   // opens a new connection on the next query, so the server recovers by itself.

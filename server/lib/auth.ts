@@ -1,14 +1,58 @@
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
-import { Lucia, TimeSpan } from 'lucia';
+import { and, eq, sql } from 'drizzle-orm';
+import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
+import type { Role } from '../../shared/permissions';
 import type { Database } from '../db/client';
-import { sessionsTable, usersTable } from '../db/schema';
+import { membershipsTable, sessionsTable, usersTable } from '../db/schema';
 
 export const SESSION_COOKIE = 'porewise_session';
 
+/**
+ * The Drizzle adapter, with the per-request lookup replaced by one prepared query: the
+ * session, the person (never the password hash) and their role in their active winery.
+ */
+function sessionAdapter(db: Database): Adapter {
+  const base = new DrizzlePostgreSQLAdapter(db, sessionsTable, usersTable);
+  const lookup = db
+    .select({
+      id: sessionsTable.id,
+      userId: sessionsTable.userId,
+      expiresAt: sessionsTable.expiresAt,
+      email: usersTable.email,
+      name: usersTable.name,
+      units: usersTable.units,
+      activeWineryId: usersTable.activeWineryId,
+      activeRole: membershipsTable.role,
+    })
+    .from(sessionsTable)
+    .innerJoin(usersTable, eq(usersTable.id, sessionsTable.userId))
+    .leftJoin(membershipsTable, and(eq(membershipsTable.userId, usersTable.id), eq(membershipsTable.wineryId, usersTable.activeWineryId)))
+    .where(eq(sessionsTable.id, sql.placeholder('id')))
+    .prepare('porewise_session_lookup');
+  return {
+    getUserSessions: (userId) => base.getUserSessions(userId),
+    setSession: (session) => base.setSession(session),
+    updateSessionExpiration: (id, expiresAt) => base.updateSessionExpiration(id, expiresAt),
+    deleteSession: (id) => base.deleteSession(id),
+    deleteUserSessions: (userId) => base.deleteUserSessions(userId),
+    deleteExpiredSessions: () => base.deleteExpiredSessions(),
+    async getSessionAndUser(id): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+      const [row] = await lookup.execute({ id });
+      if (!row) return [null, null];
+      return [
+        { id: row.id, userId: row.userId, expiresAt: row.expiresAt, attributes: {} },
+        {
+          id: row.userId,
+          attributes: { email: row.email, name: row.name, units: row.units, activeWineryId: row.activeWineryId, activeRole: row.activeRole },
+        },
+      ];
+    },
+  };
+}
+
 /** Lucia sessions stored in PostgreSQL. Kept small so the session layer can be swapped later. */
 export function createAuth(db: Database, opts: { secureCookies: boolean }) {
-  const adapter = new DrizzlePostgreSQLAdapter(db, sessionsTable, usersTable);
-  return new Lucia(adapter, {
+  return new Lucia(sessionAdapter(db), {
     sessionExpiresIn: new TimeSpan(30, 'd'),
     sessionCookie: {
       name: SESSION_COOKIE,
@@ -20,6 +64,7 @@ export function createAuth(db: Database, opts: { secureCookies: boolean }) {
       name: row.name,
       units: row.units,
       activeWineryId: row.activeWineryId,
+      activeRole: row.activeRole,
     }),
   });
 }
@@ -34,6 +79,8 @@ declare module 'lucia' {
       name: string;
       units: 'metric' | 'us';
       activeWineryId: string | null;
+      /** The person's role in their active winery, read with the session (null if not a member). */
+      activeRole: Role | null;
     };
   }
 }

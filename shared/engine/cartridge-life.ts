@@ -458,9 +458,40 @@ export function cartridgeLife(
   history: CartridgeHistory,
   options: CartridgeLifeOptions = {},
 ): CartridgeLife {
+  return lifeForecast(ratings, history, options, true);
+}
+
+/** The forecast's figures and verdict, without its plain-words account (`known`, `missing`). */
+export type CartridgeLifeVerdict = Omit<CartridgeLife, 'known' | 'missing'>;
+
+/**
+ * The same forecast as {@link cartridgeLife}, field for field, without building the plain
+ * statements of what it knows and misses: for screens that only need the verdict and the
+ * figures of many cartridges at once (Today). Same validation and errors; same sources.
+ *
+ * @throws RangeError for invalid ratings, history or options
+ */
+export function cartridgeLifeVerdict(
+  ratings: CartridgeRatings,
+  history: CartridgeHistory,
+  options: CartridgeLifeOptions = {},
+): CartridgeLifeVerdict {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { known, missing, ...verdict } = lifeForecast(ratings, history, options, false);
+  return verdict;
+}
+
+const ignore = (): void => {};
+const collect = (list: string[], line: () => string): void => {
+  list.push(line());
+};
+
+function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, options: CartridgeLifeOptions, explain: boolean): CartridgeLife {
   validate(ratings, history, options);
   const known: string[] = [];
   const missing: string[] = [];
+  // The plain statements are built only when asked for (each line is a closure, evaluated by `collect`).
+  const say: (list: string[], line: () => string) => void = explain ? collect : ignore;
   const cycles = orderCycles(history.cycles);
   const total = cycles.length;
   const count = (k: CareCycleKind) => cycles.filter((c) => c.kind === k).length;
@@ -477,12 +508,12 @@ export function cartridgeLife(
     [ratings.ratedLitres, 'rated litres', ' L'],
   ];
   for (const [v, name, unit] of ratingLines) {
-    if (v !== undefined) known.push(`${name[0].toUpperCase()}${name.slice(1)}: ${fmtNum(v)}${unit}.`);
-    else missing.push(`The cartridge type gives no ${name}.`);
+    if (v !== undefined) say(known, () => `${name[0].toUpperCase()}${name.slice(1)}: ${fmtNum(v)}${unit}.`);
+    else say(missing, () => `The cartridge type gives no ${name}.`);
   }
-  known.push(`Flow recovery floor: ${fmtNum(ratings.flowRecoveryMinPct)} %.`);
-  known.push(`Litres filtered: ${fmtNum(litres, 0)} L.`);
-  known.push(
+  say(known, () => `Flow recovery floor: ${fmtNum(ratings.flowRecoveryMinPct)} %.`);
+  say(known, () => `Litres filtered: ${fmtNum(litres, 0)} L.`);
+  say(known, () => 
     `${String(total)} care cycle${total === 1 ? '' : 's'} logged (${String(counts.steam)} steam, ${String(counts.hotWater)} hot-water, ${String(counts.chemical)} chemical, ${String(counts.backflush)} backflush).`,
   );
 
@@ -493,7 +524,7 @@ export function cartridgeLife(
     cycleBudget('chemical cycles', counts.chemical, ratings.ratedChemicalCycles),
   ];
   for (const b of budgets) {
-    if (b.rated === null && b.used !== null && b.used > 0) missing.push(`No rating for ${b.factor}, though the cartridge has had ${String(b.used)}.`);
+    if (b.rated === null && b.used !== null && b.used > 0) say(missing, () => `No rating for ${b.factor}, though the cartridge has had ${String(b.used)}.`);
   }
 
   // steam minutes
@@ -506,12 +537,12 @@ export function cartridgeLife(
   else if (longest === null) steamMinutesUsed = null;
   else steamMinutesUsed = durations.reduce((s, d) => s + d, 0) + unknownDur * longest;
   if (steam.length > 0) {
-    if (unknownDur === 0) known.push(`Steam time: ${fmtNum(steamMinutesUsed as number)} min over ${String(steam.length)} steam cycles.`);
+    if (unknownDur === 0) say(known, () => `Steam time: ${fmtNum(steamMinutesUsed as number)} min over ${String(steam.length)} steam cycles.`);
     else if (longest !== null)
-      missing.push(
+      say(missing, () => 
         `Duration of ${String(unknownDur)} of ${String(steam.length)} steam cycles (counted at the longest logged, ${fmtNum(longest)} min).`,
       );
-    else missing.push(`Duration of all ${String(steam.length)} steam cycles, so steam time is unknown.`);
+    else say(missing, () => `Duration of all ${String(steam.length)} steam cycles, so steam time is unknown.`);
   }
   {
     const rated = ratings.ratedSteamMinutes;
@@ -550,11 +581,11 @@ export function cartridgeLife(
         cyclesLeft: remaining === 0 ? 0 : litresPerCycle !== null ? remaining / litresPerCycle : null,
       });
       if (litresPerCycle === null) {
-        missing.push('Litres per cycle (no cycles or no litres logged yet), so the litres budget cannot be counted in cycles.');
+        say(missing, () => 'Litres per cycle (no cycles or no litres logged yet), so the litres budget cannot be counted in cycles.');
       }
     }
   }
-  if (litresPerCycle !== null) known.push(`Litres per care cycle so far: ${fmtNum(litresPerCycle, 0)} L.`);
+  if (litresPerCycle !== null) say(known, () => `Litres per care cycle so far: ${fmtNum(litresPerCycle, 0)} L.`);
 
   // --- flow recovery
   const minPct = ratings.flowRecoveryMinPct;
@@ -565,10 +596,11 @@ export function cartridgeLife(
   let basisLh: number | null = null;
   if (history.waterFlowNewLh !== undefined) {
     basis = 'new';
-    basisLh = history.waterFlowNewLh;
-    known.push(`As-new clean-water flow: ${fmtNum(basisLh, 0)} L/h.`);
+    const newLh = history.waterFlowNewLh;
+    basisLh = newLh;
+    say(known, () => `As-new clean-water flow: ${fmtNum(newLh, 0)} L/h.`);
   } else {
-    missing.push('As-new clean-water flow, so recovery is measured against the first flow after a regeneration (this overstates recovery).');
+    say(missing, () => 'As-new clean-water flow, so recovery is measured against the first flow after a regeneration (this overstates recovery).');
     const firstPositive = measured.find((p) => (p.c.waterFlowAfterLh as number) > 0);
     if (firstPositive) {
       basis = 'first-after';
@@ -590,18 +622,18 @@ export function cartridgeLife(
           };
         });
   if (points.length > 0) {
-    known.push(`Water flow after the cycle for ${String(points.length)} of ${String(total)} cycles.`);
+    say(known, () => `Water flow after the cycle for ${String(points.length)} of ${String(total)} cycles.`);
   } else if (total > 0) {
-    missing.push('Water flow after regeneration, so flow recovery cannot be followed.');
+    say(missing, () => 'Water flow after regeneration, so flow recovery cannot be followed.');
   } else {
-    missing.push('Care cycles with water flow after regeneration (none logged yet).');
+    say(missing, () => 'Care cycles with water flow after regeneration (none logged yet).');
   }
   const trend = fitRecoveryTrend(points, minPct);
-  if (points.length === 1) missing.push('A second flow-recovery measurement, needed for a trend.');
+  if (points.length === 1) say(missing, () => 'A second flow-recovery measurement, needed for a trend.');
   const latestPct = points.length ? points[points.length - 1].recoveryPct : null;
   let flowCyclesLeft: number | null = null;
   if (trend) {
-    known.push(
+    say(known, () => 
       trend.model === 'linear'
         ? `Flow recovery trend: linear, ${fmtNum(trend.slopePctPerCycle as number, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`
         : `Flow recovery trend: exponential, ${fmtNum((Math.exp(trend.ratePerCycle as number) - 1) * 100, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`,
@@ -617,9 +649,9 @@ export function cartridgeLife(
       : tests;
   const failures = tests.filter((t) => !t.pass).length;
   const latestPass = orderedTests.length ? orderedTests[orderedTests.length - 1].pass : null;
-  if (tests.length === 0) missing.push('Integrity test results.');
+  if (tests.length === 0) say(missing, () => 'Integrity test results.');
   else
-    known.push(
+    say(known, () => 
       `${String(tests.length)} integrity test${tests.length === 1 ? '' : 's'}, ${String(failures)} failed; latest ${latestPass ? 'passed' : 'failed'}.`,
     );
 
@@ -676,7 +708,7 @@ export function cartridgeLife(
     if (remainingCycles !== null && litresPerCycle !== null) litreOptions.push(litresPerCycle * remainingCycles);
     if (litreOptions.length) remainingLitres = Math.min(...litreOptions);
     if (limitingFactor === null && litresBudget.remaining !== null) limitingFactor = 'litres';
-    if (limitingFactor === null) missing.push('Any rating or trend that limits life, so no forecast can be made.');
+    if (limitingFactor === null) say(missing, () => 'Any rating or trend that limits life, so no forecast can be made.');
   }
 
   // --- date
@@ -684,7 +716,7 @@ export function cartridgeLife(
   if (options.cyclesPerWeek !== undefined && options.nowMs !== undefined) {
     if (remainingCycles !== null) estimatedEndMs = options.nowMs + (remainingCycles / options.cyclesPerWeek) * WEEK_MS;
   } else if (!ended) {
-    missing.push('Average care cycles per week and the current date, for a date estimate.');
+    say(missing, () => 'Average care cycles per week and the current date, for a date estimate.');
   }
 
   const frac = (f: BudgetFactor) => (budgets.find((b) => b.factor === f) as BudgetUse).fraction;

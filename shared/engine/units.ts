@@ -1,37 +1,130 @@
 /**
- * Unit conversion (through mathjs) and display helpers for a user's unit system.
+ * Unit conversion and display helpers for a user's unit system.
  *
  * The engine stores quantities in trade-metric units (bar, L, L/h, °C, m², L/m²/h, m —
  * see {@link METRIC_STORAGE_UNITS}); users see metric or US customary units.
  * Conversion factors are those of NIST SP 811 (2008), Appendix B, and NIST Handbook 44,
  * Appendix C (exact definitions of the inch, pound-force and US gallon).
+ *
+ * Conversion is a table of factors (no expression parser, so the client's first page does
+ * not load one). Each unit is written as the product of base factors, and converted with
+ * the same steps, in the same order, as mathjs 15 does (multiply by each factor raised to
+ * its power; offsets for temperatures), so every result equals mathjs's to the last bit:
+ * units.test.ts checks every pair against mathjs itself.
  */
-import { create, createUnitDependencies, unitDependencies } from 'mathjs';
 import { requireFinite } from './errors';
 
+type Dimension = 'pressure' | 'volume' | 'flow' | 'temperature' | 'area' | 'velocity' | 'length' | 'dynamic viscosity' | 'kinematic viscosity';
+/** One factor of a unit: (unit value × prefix value) raised to `power`, as mathjs normalises it. */
+type Factor = [unitValue: number, prefixValue: number, power: number];
+type UnitDef = { dim: Dimension; factors: Factor[] };
+
+// Base values as mathjs 15 defines them (m, in, ft, L, gallon, s, min, h, day, Pa, bar, atm, kgf).
+const IN = 0.0254;
+const FT = 0.3048;
+const L = 0.001;
+const GAL = 0.003785411784;
+const MIN = 60;
+const H = 3600;
+const DAY = 86400;
+const BAR = 100000;
+const ATM = 101325;
+/** psi, defined exactly as 4.4482216152605 N / (0.0254 m)² (NIST SP 811 App. B.8). */
+const PSI = 6894.757293168361;
+/** The value mathjs gives a unit created from a definition: the definition's normalised 1. */
+const defined = (factors: Factor[]): number => factors.reduce((v, [u, p, n]) => v * (u * p) ** n, 1);
+/** US gallons per minute (NIST Handbook 44 App. C: 1 gal = 231 in³ = 3.785411784 L). */
+const GPM = defined([
+  [GAL, 1, 1],
+  [MIN, 1, -1],
+]);
+/** Flux: litres per square metre per hour. */
+const LMH = defined([
+  [L, 1, 1],
+  [1, 1, -2],
+  [H, 1, -1],
+]);
+/** Flux: US gallons per square foot per day. */
+const GFD = defined([
+  [GAL, 1, 1],
+  [FT, 1, -2],
+  [DAY, 1, -1],
+]);
+/** Centipoise (= 1 mPa·s) and centistokes (= 1 mm²/s), NIST SP 811 App. B.8. */
+const CP = 0.001 * defined([
+  [1, 1, 1],
+  [1, 1, 1],
+]);
+const CST = 1e-6 * defined([
+  [1, 1, 2],
+  [1, 1, -1],
+]);
+
+const one = (dim: Dimension, unitValue: number, prefixValue = 1, power = 1): UnitDef => ({ dim, factors: [[unitValue, prefixValue, power]] });
+
+/** Every unit the converter knows, as written (mathjs spelling). */
+const UNITS: Readonly<Record<string, UnitDef>> = {
+  Pa: one('pressure', 1),
+  kPa: one('pressure', 1, 1000),
+  bar: one('pressure', BAR),
+  mbar: one('pressure', BAR, 0.001),
+  atm: one('pressure', ATM),
+  psi: one('pressure', PSI),
+  'kgf/cm^2': { dim: 'pressure', factors: [[9.80665, 1, 1], [1, 0.01, -2]] },
+  L: one('volume', L),
+  mL: one('volume', L, 0.001),
+  hL: one('volume', L, 100),
+  'm^3': one('volume', 1, 1, 3),
+  gal: one('volume', GAL),
+  'L/h': { dim: 'flow', factors: [[L, 1, 1], [H, 1, -1]] },
+  'L/min': { dim: 'flow', factors: [[L, 1, 1], [MIN, 1, -1]] },
+  'm^3/h': { dim: 'flow', factors: [[1, 1, 3], [H, 1, -1]] },
+  'm^3/s': { dim: 'flow', factors: [[1, 1, 3], [1, 1, -1]] },
+  'hL/h': { dim: 'flow', factors: [[L, 100, 1], [H, 1, -1]] },
+  'gal/min': { dim: 'flow', factors: [[GAL, 1, 1], [MIN, 1, -1]] },
+  gpm: one('flow', GPM),
+  degC: one('temperature', 1),
+  degF: one('temperature', 5 / 9),
+  K: one('temperature', 1),
+  'm^2': one('area', 1, 1, 2),
+  'ft^2': one('area', FT, 1, 2),
+  LMH: one('velocity', LMH),
+  gfd: one('velocity', GFD),
+  'L/(m^2 h)': { dim: 'velocity', factors: [[L, 1, 1], [1, 1, -2], [H, 1, -1]] },
+  'gal/(ft^2 day)': { dim: 'velocity', factors: [[GAL, 1, 1], [FT, 1, -2], [DAY, 1, -1]] },
+  'm/s': { dim: 'velocity', factors: [[1, 1, 1], [1, 1, -1]] },
+  mm: one('length', 1, 0.001),
+  m: one('length', 1),
+  in: one('length', IN),
+  ft: one('length', FT),
+  cP: one('dynamic viscosity', CP),
+  'Pa s': { dim: 'dynamic viscosity', factors: [[1, 1, 1], [1, 1, 1]] },
+  cSt: one('kinematic viscosity', CST),
+  'mm^2/s': { dim: 'kinematic viscosity', factors: [[1, 0.001, 2], [1, 1, -1]] },
+};
+
 /**
- * A private mathjs instance with only the unit machinery (keeps the bundle small and
- * leaves any other mathjs instance untouched).
+ * What mathjs adds when converting between temperature scales with different zeros:
+ * (from value × from offset) − (to value × to offset), in kelvin, computed by mathjs in exact
+ * fractions (°F is 5/9 K, its zero 459.67 °F below absolute zero) and rounded once.
  */
-const math = create({ unitDependencies, createUnitDependencies });
+const TEMPERATURE_SHIFT: Readonly<Record<string, number>> = {
+  'degC>degF': 160 / 9,
+  'degF>degC': -160 / 9,
+  'degC>K': 273.15,
+  'K>degC': -273.15,
+  'degF>K': 229835 / 900,
+  'K>degF': -229835 / 900,
+};
 
-// psi: mathjs derives it with a rounding error of ~6e-11; define it exactly as
-// 4.4482216152605 N / (0.0254 m)² = 6894.757293168361 Pa (NIST SP 811 App. B.8).
-math.createUnit('psi', { definition: '6894.757293168361 Pa' }, { override: true });
-// US gallons per minute (NIST Handbook 44 App. C: 1 gal = 231 in³ = 3.785411784 L).
-math.createUnit('gpm', { definition: '1 gal/min' });
-// Flux: litres per square metre per hour, and US gallons per square foot per day.
-math.createUnit('LMH', { definition: '1 L/(m^2 h)' });
-math.createUnit('gfd', { definition: '1 gal/(ft^2 day)' });
-// Viscosity: centipoise (= 1 mPa·s) and centistokes (= 1 mm²/s), NIST SP 811 App. B.8.
-math.createUnit('cP', { definition: '0.001 Pa s' });
-math.createUnit('cSt', { definition: '1e-6 m^2/s' });
+const hasOwn = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
 
 /**
- * Converts a value between two units, through mathjs (unit names as mathjs writes them:
- * bar, mbar, kPa, Pa, psi, atm, L, mL, hL, m^3, gal, L/h, L/min, m^3/h, gal/min, gpm,
- * degC, degF, K, m^2, ft^2, LMH, gfd, mm, m, in, ft, cP, cSt …). Temperatures in degC/degF
- * are absolute readings (20 degC → 68 degF), not differences.
+ * Converts a value between two units by the table of factors (unit names as mathjs writes
+ * them: bar, mbar, kPa, Pa, psi, atm, kgf/cm^2, L, mL, hL, m^3, gal, L/h, L/min, m^3/h, m^3/s, hL/h, gal/min, gpm,
+ * degC, degF, K, m^2, ft^2, LMH, gfd, L/(m^2 h), gal/(ft^2 day), m/s, mm, m, in, ft, cP,
+ * Pa s, cSt, mm^2/s). Temperatures in degC/degF are absolute readings (20 degC → 68 degF),
+ * not differences. Results equal mathjs 15's for the same units, bit for bit.
  *
  * Factors: NIST SP 811 (2008) App. B.8/B.9; NIST Handbook 44 App. C.
  *
@@ -43,29 +136,26 @@ math.createUnit('cSt', { definition: '1e-6 m^2/s' });
  */
 export function convert(value: number, from: string, to: string): number {
   requireFinite('value to convert', value);
-  let out: number;
-  try {
-    out = math.unit(value, from).toNumber(to);
-  } catch (e) {
-    const msg = e instanceof Error ? e.message : String(e);
-    if (/not found/i.test(msg)) throw new RangeError(`Unknown unit in "${from}" or "${to}".`);
-    throw new RangeError(`Cannot convert ${from} to ${to}: they measure different things.`);
-  }
+  const a = hasOwn(UNITS, from) ? UNITS[from] : undefined;
+  const b = hasOwn(UNITS, to) ? UNITS[to] : undefined;
+  if (!a || !b) throw new RangeError(`Unknown unit in "${from}" or "${to}".`);
+  if (a.dim !== b.dim) throw new RangeError(`Cannot convert ${from} to ${to}: they measure different things.`);
+  let si = value;
+  for (const [u, p, n] of a.factors) si = si * (u * p) ** n;
+  const shift = a.dim === 'temperature' ? TEMPERATURE_SHIFT[`${from}>${to}`] : undefined;
+  if (shift !== undefined) si = si + shift;
+  let out = si;
+  for (const [u, p, n] of b.factors) out = out / (u * p) ** n;
   if (!Number.isFinite(out)) throw new RangeError(`Conversion of ${String(value)} ${from} to ${to} is out of range.`);
   return out;
 }
 
 /**
- * Whether mathjs (with the units added here) knows a unit expression, e.g. "gal/min".
+ * Whether the converter knows a unit, e.g. "gal/min" (see {@link convert} for the list).
  * @param unit unit expression
  */
 export function isKnownUnit(unit: string): boolean {
-  try {
-    math.unit(1, unit);
-    return true;
-  } catch {
-    return false;
-  }
+  return hasOwn(UNITS, unit);
 }
 
 // ---------------------------------------------------------------------------
@@ -92,7 +182,7 @@ export const QUANTITY_KINDS: readonly QuantityKind[] = [
 
 /**
  * The unit in which the engine and the database store each kind of quantity
- * (mathjs unit names): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m.
+ * (unit names as {@link convert} writes them): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m.
  */
 export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
   pressure: 'bar',
@@ -107,7 +197,7 @@ export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
 
 /** How one kind of quantity is shown in one unit system. */
 export interface DisplayUnit {
-  /** mathjs unit name. */
+  /** Unit name for {@link convert}. */
   unit: string;
   /** Symbol shown to the user. */
   symbol: string;

@@ -25,13 +25,8 @@ export const DISC_DIAMETER_MAX_MM = 300;
 export const DISC_PRESSURE_MAX_BAR = 10;
 export const FREE_SO2_MAX_MG_L = 200;
 
-export const wineStyleLabels: Record<WineStyle, string> = {
-  white: 'White',
-  'rosé': 'Rosé',
-  red: 'Red',
-  sweet: 'Sweet',
-  sparkling: 'Sparkling',
-};
+// In a module of its own, without zod, so pages that only show the words need not load the validator.
+export { wineStyleLabels } from './cellar-labels';
 
 /** A required number with plain messages for a missing and a non-numeric value. */
 const num = (what: string) =>

@@ -34,6 +34,11 @@ export const cartridgesTable = pgTable(
     index('cartridges_winery_type_idx').on(t.wineryId, t.typeId),
     index('cartridges_winery_housing_idx').on(t.wineryId, t.housingId),
     index('cartridges_winery_batch_idx').on(t.wineryId, t.batch),
+    // The inventory sorted by received date, page by page.
+    index('cartridges_winery_received_idx').on(t.wineryId, t.receivedAt, t.id),
+    // Search by part of a serial or batch (ILIKE '%…%'), for the page and its count (pg_trgm).
+    index('cartridges_serial_trgm_idx').using('gin', t.serial.op('gin_trgm_ops')),
+    index('cartridges_batch_trgm_idx').using('gin', t.batch.op('gin_trgm_ops')),
   ],
 );
 
@@ -57,5 +62,9 @@ export const cartridgeEventsTable = pgTable(
     actorId: text('actor_id').references(() => usersTable.id, { onDelete: 'set null' }),
     at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('cartridge_events_cartridge_idx').on(t.cartridgeId, t.at)],
+  (t) => [
+    index('cartridge_events_cartridge_idx').on(t.cartridgeId, t.at),
+    // Which cartridges have had a given kind of event (Today's life check).
+    index('cartridge_events_cartridge_kind_idx').on(t.cartridgeId, t.kind),
+  ],
 );

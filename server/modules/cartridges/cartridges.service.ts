@@ -1,4 +1,12 @@
-import { cartridgeLife, type CareCycle, type CareCycleKind, type CartridgeLife, type IntegrityResult } from '../../../shared/engine';
+import {
+  cartridgeLife,
+  cartridgeLifeVerdict,
+  type CareCycle,
+  type CareCycleKind,
+  type CartridgeLife,
+  type CartridgeLifeVerdict,
+  type IntegrityResult,
+} from '../../../shared/engine';
 import type {
   CartridgeListQuery,
   CreateCartridgeInput,
@@ -35,6 +43,9 @@ import {
 const CYCLE_KINDS: readonly CareCycleKind[] = ['steam', 'hot-water', 'chemical', 'backflush'];
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
 
+/** The type's ratings the life forecast reads. */
+type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct'>;
+
 const duplicateSerial = (serial: string) => conflict(`Serial ${serial} is already registered in this winery.`, 'duplicate_serial');
 
 /**
@@ -48,6 +59,26 @@ export function lifeFromHistory(
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,
 ): { life: CartridgeLife | null; error: string | null } {
+  return forecastFromHistory(cartridgeLife, type, cartridge, events, now);
+}
+
+/** As {@link lifeFromHistory}, the figures and verdict only (no plain-words account): for many cartridges at once. */
+export function lifeVerdictFromHistory(
+  type: LifeRatings,
+  cartridge: Pick<CartridgeRow, 'litresFiltered'>,
+  events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
+  now: Date,
+): { life: CartridgeLifeVerdict | null; error: string | null } {
+  return forecastFromHistory(cartridgeLifeVerdict, type, cartridge, events, now);
+}
+
+function forecastFromHistory<T>(
+  forecast: (...args: Parameters<typeof cartridgeLife>) => T,
+  type: LifeRatings,
+  cartridge: Pick<CartridgeRow, 'litresFiltered'>,
+  events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
+  now: Date,
+): { life: T | null; error: string | null } {
   const oldestFirst = [...events].sort((a, b) => a.at.getTime() - b.at.getTime());
   const cycles: CareCycle[] = [];
   const integrity: IntegrityResult[] = [];
@@ -77,7 +108,7 @@ export function lifeFromHistory(
     if (weeks > 0) cyclesPerWeek = (cycles.length - 1) / weeks;
   }
   try {
-    const life = cartridgeLife(
+    const life = forecast(
       {
         ratedSteamCycles: type.ratedSteamCycles ?? undefined,
         ratedHotWaterCycles: type.ratedHotWaterCycles ?? undefined,

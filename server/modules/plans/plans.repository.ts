@@ -23,7 +23,95 @@ export type PlanTrainRow = typeof planTrainsTable.$inferSelect;
 export type PlanLineRow = typeof linesTable.$inferSelect;
 export const PLAN_LOT_UNIQUE = 'plan_lots_plan_lot_uq';
 
+const wineryParam = sql.placeholder('wineryId');
+
+function prepare(db: DbOrTx) {
+  const approver = sql<string | null>`(select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.approvedBy})`;
+  const creator = sql<string | null>`(select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.createdBy})`;
+  return {
+    plan: db
+      .select({ plan: plansTable, line: linesTable, approverName: approver, creatorName: creator })
+      .from(plansTable)
+      .leftJoin(linesTable, eq(linesTable.id, plansTable.lineId))
+      .where(and(eq(plansTable.wineryId, wineryParam), eq(plansTable.id, sql.placeholder('id'))))
+      .prepare('plans_plan'),
+    /** The plan's lots in order, each with the cellar lot's wine figures. */
+    planLots: db
+      .select({
+        planLot: planLotsTable,
+        lot: {
+          id: lotsTable.id,
+          code: lotsTable.code,
+          name: lotsTable.name,
+          style: lotsTable.style,
+          volumeL: lotsTable.volumeL,
+          tempC: lotsTable.tempC,
+          ethanolPctVol: lotsTable.ethanolPctVol,
+          sugarGPerL: lotsTable.sugarGPerL,
+        },
+      })
+      .from(planLotsTable)
+      .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+      .where(and(eq(planLotsTable.wineryId, wineryParam), eq(planLotsTable.planId, sql.placeholder('planId'))))
+      .orderBy(asc(planLotsTable.position), asc(planLotsTable.createdAt))
+      .prepare('plans_plan_lots'),
+    catalogueTypes: db
+      .select({
+        id: cartridgeTypesTable.id,
+        name: cartridgeTypesTable.name,
+        kind: cartridgeTypesTable.kind,
+        ratingUm: cartridgeTypesTable.ratingUm,
+        areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
+        waterFlowLhPer10in: cartridgeTypesTable.waterFlowLhPer10in,
+        waterDpBar: cartridgeTypesTable.waterDpBar,
+        maxDpForwardBar: cartridgeTypesTable.maxDpForwardBar,
+        maxDpReverseBar: cartridgeTypesTable.maxDpReverseBar,
+        maxTempC: cartridgeTypesTable.maxTempC,
+        terminalDpBar: cartridgeTypesTable.terminalDpBar,
+        designFluxLhPer10in: cartridgeTypesTable.designFluxLhPer10in,
+        pricePer10in: cartridgeTypesTable.pricePer10in,
+        currency: cartridgeTypesTable.currency,
+        ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
+      })
+      .from(cartridgeTypesTable)
+      .where(eq(cartridgeTypesTable.wineryId, wineryParam))
+      .orderBy(asc(cartridgeTypesTable.kind), asc(cartridgeTypesTable.name))
+      .prepare('plans_catalogue_types'),
+    catalogueHousings: db
+      .select({
+        id: housingsTable.id,
+        name: housingsTable.name,
+        rounds: housingsTable.rounds,
+        lengthIn: housingsTable.lengthIn,
+        maxPressureBar: housingsTable.maxPressureBar,
+        maxTempC: housingsTable.maxTempC,
+        holdUpL: housingsTable.holdUpL,
+      })
+      .from(housingsTable)
+      .where(eq(housingsTable.wineryId, wineryParam))
+      .orderBy(asc(housingsTable.name))
+      .prepare('plans_catalogue_housings'),
+    stock: db
+      .select({
+        typeId: cartridgesTable.typeId,
+        lengthIn: cartridgesTable.lengthIn,
+        inStock: sql<number>`cast(count(*) filter (where ${cartridgesTable.status} = 'in-stock') as int)`.mapWith(Number),
+        installed: sql<number>`cast(count(*) filter (where ${cartridgesTable.status} = 'installed') as int)`.mapWith(Number),
+      })
+      .from(cartridgesTable)
+      .where(and(eq(cartridgesTable.wineryId, wineryParam), inArray(cartridgesTable.status, ['in-stock', 'installed'])))
+      .groupBy(cartridgesTable.typeId, cartridgesTable.lengthIn)
+      .prepare('plans_stock'),
+  };
+}
+
 export function createPlansRepository(db: DbOrTx) {
+  /**
+   * The plan detail's reads (on every plan page and Today), as named prepared statements: the
+   * SQL is built once per repository and PostgreSQL keeps each plan per connection.
+   */
+  let statements: ReturnType<typeof prepare> | undefined;
+  const prepared = () => (statements ??= prepare(db));
   const lotCount = sql<number>`(select cast(count(*) as int) from ${planLotsTable} where ${planLotsTable.planId} = ${plansTable.id})`.mapWith(Number);
   const volumeSum = sql<number>`(select coalesce(sum(${planLotsTable.volumeL}), 0) from ${planLotsTable} where ${planLotsTable.planId} = ${plansTable.id})`.mapWith(Number);
 
@@ -73,36 +161,13 @@ export function createPlansRepository(db: DbOrTx) {
 
     /** The plan row with its line and the names of who made and approved it. */
     async plan(wineryId: string, id: string) {
-      const approver = sql<string | null>`(select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.approvedBy})`;
-      const creator = sql<string | null>`(select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.createdBy})`;
-      const [row] = await db
-        .select({ plan: plansTable, line: linesTable, approverName: approver, creatorName: creator })
-        .from(plansTable)
-        .leftJoin(linesTable, eq(linesTable.id, plansTable.lineId))
-        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, id)));
+      const [row] = await prepared().plan.execute({ wineryId, id });
       return row ?? null;
     },
 
     /** The plan's lots in order, each with the cellar lot's wine figures. */
     async planLots(wineryId: string, planId: string) {
-      return db
-        .select({
-          planLot: planLotsTable,
-          lot: {
-            id: lotsTable.id,
-            code: lotsTable.code,
-            name: lotsTable.name,
-            style: lotsTable.style,
-            volumeL: lotsTable.volumeL,
-            tempC: lotsTable.tempC,
-            ethanolPctVol: lotsTable.ethanolPctVol,
-            sugarGPerL: lotsTable.sugarGPerL,
-          },
-        })
-        .from(planLotsTable)
-        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
-        .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.planId, planId)))
-        .orderBy(asc(planLotsTable.position), asc(planLotsTable.createdAt));
+      return prepared().planLots.execute({ wineryId, planId });
     },
 
     /** The latest lab result's disc test of each given lot (one query), for capacity from Vmax. */
@@ -134,57 +199,16 @@ export function createPlansRepository(db: DbOrTx) {
     },
 
     async catalogueTypes(wineryId: string) {
-      return db
-        .select({
-          id: cartridgeTypesTable.id,
-          name: cartridgeTypesTable.name,
-          kind: cartridgeTypesTable.kind,
-          ratingUm: cartridgeTypesTable.ratingUm,
-          areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
-          waterFlowLhPer10in: cartridgeTypesTable.waterFlowLhPer10in,
-          waterDpBar: cartridgeTypesTable.waterDpBar,
-          maxDpForwardBar: cartridgeTypesTable.maxDpForwardBar,
-          maxDpReverseBar: cartridgeTypesTable.maxDpReverseBar,
-          maxTempC: cartridgeTypesTable.maxTempC,
-          terminalDpBar: cartridgeTypesTable.terminalDpBar,
-          designFluxLhPer10in: cartridgeTypesTable.designFluxLhPer10in,
-          pricePer10in: cartridgeTypesTable.pricePer10in,
-          currency: cartridgeTypesTable.currency,
-          ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
-        })
-        .from(cartridgeTypesTable)
-        .where(eq(cartridgeTypesTable.wineryId, wineryId))
-        .orderBy(asc(cartridgeTypesTable.kind), asc(cartridgeTypesTable.name));
+      return prepared().catalogueTypes.execute({ wineryId });
     },
 
     async catalogueHousings(wineryId: string) {
-      return db
-        .select({
-          id: housingsTable.id,
-          name: housingsTable.name,
-          rounds: housingsTable.rounds,
-          lengthIn: housingsTable.lengthIn,
-          maxPressureBar: housingsTable.maxPressureBar,
-          maxTempC: housingsTable.maxTempC,
-          holdUpL: housingsTable.holdUpL,
-        })
-        .from(housingsTable)
-        .where(eq(housingsTable.wineryId, wineryId))
-        .orderBy(asc(housingsTable.name));
+      return prepared().catalogueHousings.execute({ wineryId });
     },
 
     /** Cartridges in stock and installed per type and length (one grouped query). */
     async stock(wineryId: string) {
-      return db
-        .select({
-          typeId: cartridgesTable.typeId,
-          lengthIn: cartridgesTable.lengthIn,
-          inStock: sql<number>`cast(count(*) filter (where ${cartridgesTable.status} = 'in-stock') as int)`.mapWith(Number),
-          installed: sql<number>`cast(count(*) filter (where ${cartridgesTable.status} = 'installed') as int)`.mapWith(Number),
-        })
-        .from(cartridgesTable)
-        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.status, ['in-stock', 'installed'])))
-        .groupBy(cartridgesTable.typeId, cartridgesTable.lengthIn);
+      return prepared().stock.execute({ wineryId });
     },
 
     // ---- reference checks (each scoped to the winery) --------------------------------

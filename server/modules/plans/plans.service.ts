@@ -49,11 +49,23 @@ const hoseValues = (hoses: TrainValues['hoses']): PlanTrainHose[] | null =>
     ? hoses.map((h) => ({ diameterMm: h.diameterMm, lengthM: h.lengthM, roughnessMm: h.roughnessMm ?? null, sumK: h.sumK ?? null }))
     : null;
 
+/** The winery's cartridge types, housings and stock: read once when several plans are built together. */
+type Catalogue = readonly [
+  Awaited<ReturnType<PlansRepository['catalogueTypes']>>,
+  Awaited<ReturnType<PlansRepository['catalogueHousings']>>,
+  Awaited<ReturnType<PlansRepository['stock']>>,
+];
+
 /**
  * Builds the plan's detail with every figure computed by the engine: each train's sizing, the
  * day's timeline, the cartridges the chosen trains need against stock, and what stops approval.
  */
-async function buildPlan(repo: PlansRepository, wineryId: string, id: string, opts: { inTransaction?: boolean } = {}): Promise<PlanDto | null> {
+async function buildPlan(
+  repo: PlansRepository,
+  wineryId: string,
+  id: string,
+  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue> } = {},
+): Promise<PlanDto | null> {
   const row = await repo.plan(wineryId, id);
   if (!row) return null;
   const reads = [
@@ -63,9 +75,11 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
     () => repo.stock(wineryId),
   ] as const;
   // A transaction is one connection: its queries go one after the other; from the pool they run side by side.
-  const [planLots, types, housings, stock] = opts.inTransaction
-    ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
-    : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
+  const [planLots, types, housings, stock] = opts.catalogue
+    ? await Promise.all([reads[0](), ...(await opts.catalogue)] as const)
+    : opts.inTransaction
+      ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
+      : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
   const [trains, discTests] = await Promise.all([
     repo.trains(
       wineryId,
@@ -224,6 +238,15 @@ export function createPlansService(db: Database) {
     return plan;
   }
 
+  /** Several plans' details in the order given (missing ones left out), the catalogue and stock read once. */
+  async function getMany(tenant: TenantContext, ids: string[]): Promise<PlanDto[]> {
+    if (ids.length === 0) return [];
+    const catalogue = Promise.all([repo.catalogueTypes(tenant.wineryId), repo.catalogueHousings(tenant.wineryId), repo.stock(tenant.wineryId)] as const);
+    catalogue.catch(() => undefined); // awaited by each plan; this only keeps a failure with no plan left from going unhandled
+    const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue })));
+    return plans.filter((p): p is PlanDto => p !== null);
+  }
+
   async function requireLine(r: PlansRepository, wineryId: string, lineId: string | undefined) {
     if (lineId && !(await r.lineExists(wineryId, lineId))) {
       throw badRequest(checkFields, { lineId: 'Choose one of this winery’s bottling lines.' });
@@ -272,6 +295,7 @@ export function createPlansService(db: Database) {
       return { items: rows.map(presentPlanListItem), total };
     },
     get,
+    getMany,
 
     async create(tenant: TenantContext, input: PlanValues): Promise<PlanDto> {
       const id = await db.transaction(async (tx) => {

@@ -19,9 +19,6 @@ export type RunReadingRow = typeof runReadingsTable.$inferSelect;
 type ReadingInsert = typeof runReadingsTable.$inferInsert;
 type EventInsert = typeof cartridgeEventsTable.$inferInsert;
 
-const currentVolume = sql<number>`coalesce((select max(${runReadingsTable.volumeL}) from ${runReadingsTable} where ${runReadingsTable.runId} = ${runsTable.id}), 0)`.mapWith(Number);
-const readingCount = sql<number>`(select count(*) from ${runReadingsTable} where ${runReadingsTable.runId} = ${runsTable.id})`.mapWith(Number);
-
 const summaryColumns = {
   run: runsTable,
   planName: plansTable.name,
@@ -29,8 +26,6 @@ const summaryColumns = {
   lotCode: lotsTable.code,
   lotName: lotsTable.name,
   volumeL: planLotsTable.volumeL,
-  currentVolumeL: currentVolume,
-  readingCount,
 };
 
 export type RunSummaryRow = {
@@ -54,6 +49,26 @@ export function createRunsRepository(db: DbOrTx) {
       .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
       .where(eq(runsTable.wineryId, wineryId))
       .$dynamic();
+  }
+
+  /**
+   * Each run's reading count and latest volume, in one grouped query over the given runs'
+   * readings (an index range per run; no correlated subquery per listed row).
+   */
+  async function withReadingStats(rows: Omit<RunSummaryRow, 'currentVolumeL' | 'readingCount'>[]): Promise<RunSummaryRow[]> {
+    if (rows.length === 0) return [];
+    const ids = rows.map((r) => r.run.id);
+    const stats = await db
+      .select({
+        runId: runReadingsTable.runId,
+        count: sql<number>`count(*)`.mapWith(Number),
+        maxVolume: sql<number>`coalesce(max(${runReadingsTable.volumeL}), 0)`.mapWith(Number),
+      })
+      .from(runReadingsTable)
+      .where(sql`${runReadingsTable.runId} = any(${sql.param(ids)}::uuid[])`)
+      .groupBy(runReadingsTable.runId);
+    const byRun = new Map(stats.map((s) => [s.runId, s]));
+    return rows.map((r) => ({ ...r, currentVolumeL: byRun.get(r.run.id)?.maxVolume ?? 0, readingCount: byRun.get(r.run.id)?.count ?? 0 }));
   }
 
   return {
@@ -118,12 +133,12 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     async list(wineryId: string, limit: number) {
-      return (await summaries(wineryId).orderBy(desc(runsTable.startedAt), desc(runsTable.id)).limit(limit)) as RunSummaryRow[];
+      return withReadingStats(await summaries(wineryId).orderBy(desc(runsTable.startedAt), desc(runsTable.id)).limit(limit));
     },
 
     async summary(wineryId: string, id: string) {
-      const [row] = await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
-      return (row as RunSummaryRow | undefined) ?? null;
+      const [row] = await withReadingStats(await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id))));
+      return row ?? null;
     },
 
     async lockRun(wineryId: string, id: string) {

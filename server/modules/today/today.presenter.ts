@@ -17,11 +17,12 @@ export const presentTodayLot = (lot: LotListItemDto, reason: string): TodayLotDt
 
 export const presentTodayCartridge = (
   row: TodayCartridgeRow,
+  typeName: string,
   attention: { reason: string; figure: TodayCartridgeFigure; alsoNoted: string[] },
 ): TodayCartridgeDto => ({
   id: row.cartridge.id,
   serial: row.cartridge.serial,
-  typeName: row.type.name,
+  typeName,
   status: row.cartridge.status,
   housing: row.cartridge.housingId && row.housingName ? { id: row.cartridge.housingId, name: row.housingName } : null,
   position: row.cartridge.position,

@@ -1,16 +1,15 @@
-import type { CartridgeLife } from '../../../shared/engine';
+import type { CartridgeLifeVerdict } from '../../../shared/engine';
 import type { ReadinessVerdict } from '../../../shared/engine/readiness';
 import type { LotsListQuery } from '../../../shared/schemas/cellar';
 import type { LotListItemDto } from '../../../shared/types/cellar';
 import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shared/types/today';
 import type { Database } from '../../db/client';
-import { HttpError } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
-import { createCartridgesService, lifeFromHistory } from '../cartridges/cartridges.service';
+import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/cartridges.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { presentStockType, presentTodayCartridge, presentTodayLot, presentTodayPlan } from './today.presenter';
-import { createTodayRepository, type TodayCartridgeRow } from './today.repository';
+import { createTodayRepository, type TodayCartridgeRow, type TodayLifeType } from './today.repository';
 
 /** Lots shown on the page; the total is given beside them. */
 export const TODAY_LOTS_MAX = 8;
@@ -65,7 +64,7 @@ function noteOf(figure: TodayCartridgeFigure): string {
  * integrity test, an ended life, few cycles left, a rated budget mostly used, or flow
  * recovery close to its floor. Empty when nothing does.
  */
-function findingsOf(life: CartridgeLife, latestIntegrityAt: Date | null): Finding[] {
+function findingsOf(life: CartridgeLifeVerdict, latestIntegrityAt: Date | null): Finding[] {
   const found: Finding[] = [];
   if (life.integrity.latestPass === false) {
     found.push({ rank: 0, closeness: 1, reason: 'Latest integrity test failed', figure: { kind: 'integrity-failed', at: (latestIntegrityAt ?? new Date(0)).toISOString() } });
@@ -115,44 +114,30 @@ export function createTodayService(db: Database) {
 
   /**
    * The next bottling days: draft and approved plans dated today (UTC) or later, soonest first.
-   * One query for the ids, then each plan's detail from the plans service (its needs are the
+   * One query for the ids, then the plans' details from the plans service (their needs are the
    * engine's figures against stock), at most TODAY_PLANS_MAX of them.
    */
   async function upcomingPlans(tenant: TenantContext, now: Date): Promise<TodayPlanDto[]> {
     const ids = await repo.upcomingPlanIds(tenant.wineryId, now.toISOString().slice(0, 10), TODAY_PLANS_MAX);
-    const details = await Promise.all(
-      ids.map((id) =>
-        plans.get(tenant, id).catch((error: unknown) => {
-          // Deleted between the two reads: leave it out.
-          if (error instanceof HttpError && error.status === 404) return null;
-          throw error;
-        }),
-      ),
-    );
-    return details.flatMap((p) => (p && p.status !== 'done' ? [presentTodayPlan({ ...p, status: p.status })] : []));
+    // One read of the catalogue and stock for all of them; a plan deleted between the two reads is left out.
+    const details = await plans.getMany(tenant, ids);
+    return details.flatMap((p) => (p.status !== 'done' ? [presentTodayPlan({ ...p, status: p.status })] : []));
   }
 
-  /** Cartridges to look at, most urgent first: two queries whatever their number (the rows, then all their events). */
+  /** Cartridges to look at, most urgent first: two queries whatever their number (the types, then the cartridges with their events). */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
-    const rows = await repo.cartridgesInUse(wineryId);
-    const events = await repo.lifeEvents(
-      wineryId,
-      rows.map((r) => r.cartridge.id),
-    );
-    const byCartridge = new Map<string, typeof events>();
-    for (const e of events) {
-      const list = byCartridge.get(e.cartridgeId);
-      if (list) list.push(e);
-      else byCartridge.set(e.cartridgeId, [e]);
-    }
-    const flagged: { row: TodayCartridgeRow; findings: Finding[] }[] = [];
+    const [types, rows] = await Promise.all([repo.lifeTypes(wineryId), repo.cartridgesInUse(wineryId)]);
+    const typeById = new Map(types.map((t) => [t.id, t]));
+    const flagged: { row: TodayCartridgeRow; type: TodayLifeType; findings: Finding[] }[] = [];
     for (const row of rows) {
-      const history = byCartridge.get(row.cartridge.id) ?? [];
-      const { life } = lifeFromHistory(row.type, row.cartridge, history, now);
+      const type = typeById.get(row.cartridge.typeId);
+      if (!type) continue;
+      const history = (row.events ?? []).map(([kind, atMs, details]) => ({ kind, at: new Date(atMs), details: details ?? {} }));
+      const { life } = lifeVerdictFromHistory(type, row.cartridge, history, now);
       if (!life) continue;
       const integrityAt = history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
       const findings = findingsOf(life, integrityAt);
-      if (findings.length) flagged.push({ row, findings });
+      if (findings.length) flagged.push({ row, type, findings });
     }
     flagged.sort(
       (a, b) =>
@@ -161,8 +146,8 @@ export function createTodayService(db: Database) {
         a.row.cartridge.serial.localeCompare(b.row.cartridge.serial),
     );
     return {
-      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, findings: [lead, ...rest] }) =>
-        presentTodayCartridge(row, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
+      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, type, findings: [lead, ...rest] }) =>
+        presentTodayCartridge(row, type.name, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
       ),
       attentionTotal: flagged.length,
     };

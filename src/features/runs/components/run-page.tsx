@@ -1,5 +1,5 @@
 import { AlertTriangle, CircleCheck, Eye, Lock } from 'lucide-react';
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { RunDetailDto, RunStageDto } from '@shared/types/runs';
 import { Button } from '@/components/ui/button';
@@ -17,7 +17,9 @@ import { useUnits } from '@/lib/units';
 import { useCloseRun } from '../api/close-run';
 import { useRun } from '../api/get-run';
 import { ReadingForm } from './reading-form';
-import { StageChart } from './stage-chart';
+
+// The chart library is large: it loads after the page (and its reading form) has painted.
+const StageChart = lazy(() => import('./stage-chart').then((m) => ({ default: m.StageChart })));
 
 const hm = (h: number, m: number) => `${String(h)}:${String(m).padStart(2, '0')}`;
 
@@ -66,7 +68,11 @@ function StageCard({ stage }: { stage: RunStageDto }) {
         ) : (
           <p className="text-base text-ink-700">{stage.note ?? 'No forecast yet.'}</p>
         )}
-        {stage.readings.length > 0 ? <StageChart stage={stage} /> : null}
+        {stage.readings.length > 0 ? (
+          <Suspense fallback={<div className="h-56 w-full" aria-hidden="true" />}>
+            <StageChart stage={stage} />
+          </Suspense>
+        ) : null}
         <p className="text-sm text-ink-600">
           {stage.readings.length} reading{stage.readings.length === 1 ? '' : 's'}
           {stage.readings.length > 0 ? <> · last ΔP {units.format('dp', stage.readings[stage.readings.length - 1].dpBar)}</> : null}

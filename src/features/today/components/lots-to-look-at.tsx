@@ -1,7 +1,7 @@
 import { CircleCheck } from 'lucide-react';
 import { Link } from 'react-router-dom';
 import type { ReadinessVerdict } from '@shared/engine/readiness';
-import { wineStyleLabels } from '@shared/schemas/cellar';
+import { wineStyleLabels } from '@shared/schemas/cellar-labels';
 import type { TodayDto } from '@shared/types/today';
 import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';

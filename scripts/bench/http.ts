@@ -1,0 +1,286 @@
+/**
+ * HTTP benchmark: Porewise's read endpoints against a bare Express 5 app serving the same JSON,
+ * both in their own process, loaded by the same small keep-alive load generator in this
+ * process, one after the other in the same run. Prints requests per second, p50/p95 and the
+ * ratio app ÷ bare; then p95 at 50 connections on the demo; then Today at 10,000 cartridges
+ * against Today on the demo data, and the 10k cartridge list sorted by received date and
+ * searched, with the query plans PostgreSQL chooses.
+ *
+ * It uses its own database (porewise_bench, recreated each run) in the worktree's cluster.
+ * Requests carry no Accept-Encoding, so neither side compresses: the ratio is the app's own
+ * cost (session, authorization, queries, engine, JSON), not gzip's.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { writeFileSync, mkdirSync } from 'node:fs';
+import http from 'node:http';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import pg from 'pg';
+import { runMigrations } from '../../server/db/migrate';
+import { DEMO_PASSWORD, demoWineries, runSeed } from '../../server/db/seed';
+import { databaseUrl, ensureDatabase, startCluster } from '../lib/postgres';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+const DB = 'porewise_bench';
+const SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 3);
+const CONNECTIONS = 10;
+const WIDE = 50;
+const BIG_WINERY = '7a2e0c1d-0000-4000-8000-00000000a10c';
+const BIG_OWNER = 'benchowner10k001';
+
+type Load = { rps: number; p50: number; p95: number; errors: number; n: number };
+type Slice = { latencies: number[]; elapsed: number; errors: number };
+
+const fmt = (v: number) => (v >= 100 ? v.toFixed(0) : v >= 10 ? v.toFixed(1) : v.toFixed(2));
+
+function quantile(sorted: number[], q: number) {
+  if (!sorted.length) return NaN;
+  return sorted[Math.min(sorted.length - 1, Math.floor((sorted.length - 1) * q))];
+}
+
+/** `connections` keep-alive loops, each sending one GET after the other for `seconds`. */
+async function slice(port: number, urlPath: string, headers: Record<string, string>, connections: number, seconds: number): Promise<Slice> {
+  const agent = new http.Agent({ keepAlive: true, maxSockets: connections });
+  const latencies: number[] = [];
+  let errors = 0;
+  const deadline = performance.now() + seconds * 1000;
+  const one = () =>
+    new Promise<void>((resolve) => {
+      const t0 = performance.now();
+      const req = http.get({ host: '127.0.0.1', port, path: urlPath, agent, headers }, (res) => {
+        res.on('data', () => {});
+        res.on('end', () => {
+          if (res.statusCode !== 200) errors += 1;
+          else latencies.push(performance.now() - t0);
+          resolve();
+        });
+      });
+      req.on('error', () => {
+        errors += 1;
+        resolve();
+      });
+    });
+  const start = performance.now();
+  await Promise.all(
+    Array.from({ length: connections }, async () => {
+      while (performance.now() < deadline) await one();
+    }),
+  );
+  const elapsed = (performance.now() - start) / 1000;
+  agent.destroy();
+  return { latencies, elapsed, errors };
+}
+
+function summarise(slices: Slice[]): Load {
+  const latencies = slices.flatMap((s) => s.latencies).sort((a, b) => a - b);
+  const elapsed = slices.reduce((t, s) => t + s.elapsed, 0);
+  return { rps: latencies.length / elapsed, p50: quantile(latencies, 0.5), p95: quantile(latencies, 0.95), errors: slices.reduce((t, s) => t + s.errors, 0), n: latencies.length };
+}
+
+/**
+ * The app and its peer in alternating half-second slices, so both see the same load from
+ * anything else on the machine; `seconds` of each in all.
+ */
+async function compare(targets: { port: number; path: string; headers: Record<string, string> }[], connections: number, seconds: number): Promise<Load[]> {
+  const slices: Slice[][] = targets.map(() => []);
+  for (let round = 0; round < seconds * 2; round++) {
+    for (const [i, t] of targets.entries()) slices[i].push(await slice(t.port, t.path, t.headers, connections, 0.5));
+  }
+  return slices.map(summarise);
+}
+
+function startProcess(args: string[], env: NodeJS.ProcessEnv): Promise<ChildProcess> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'scripts/bench/serve.ts'), ...args], {
+      cwd: root,
+      env,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    let err = '';
+    child.stderr!.on('data', (d: Buffer) => (err += d.toString()));
+    child.stdout!.on('data', (d: Buffer) => {
+      if (d.toString().includes('ready')) resolve(child);
+    });
+    child.on('exit', (code) => reject(new Error(`bench server exited (${String(code)}): ${err.slice(-500)}`)));
+  });
+}
+
+async function request(port: number, method: string, urlPath: string, body: unknown, cookie?: string) {
+  const res = await fetch(`http://127.0.0.1:${port}${urlPath}`, {
+    method,
+    headers: { 'content-type': 'application/json', origin: `http://127.0.0.1:${port}`, ...(cookie ? { cookie } : {}) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const text = await res.text();
+  return { status: res.status, json: text ? (JSON.parse(text) as any) : null, setCookie: res.headers.getSetCookie() };
+}
+
+async function signIn(port: number, email: string): Promise<string> {
+  const res = await request(port, 'POST', '/api/auth/sign-in', { email, password: DEMO_PASSWORD });
+  if (res.status !== 200) throw new Error(`sign-in as ${email}: ${String(res.status)} ${JSON.stringify(res.json)}`);
+  return res.setCookie.map((c) => c.split(';')[0]).join('; ');
+}
+
+/** A second winery with 10,000 cartridges and 20,000 events, its types copied from the demo's. */
+async function seedBigWinery(client: pg.Client) {
+  const q = demoWineries.quillwater.id;
+  await client.query('begin');
+  await client.query(`insert into wineries (id, name) values ($1, 'Bench Cellars (10k)')`, [BIG_WINERY]);
+  await client.query(
+    `insert into users (id, email, name, password_hash, active_winery_id)
+     select $1, 'owner@bench10k.test', 'Bench Owner', password_hash, $2 from users where email = 'owner@quillwater.test'`,
+    [BIG_OWNER, BIG_WINERY],
+  );
+  await client.query(`insert into memberships (winery_id, user_id, role) values ($1, $2, 'owner')`, [BIG_WINERY, BIG_OWNER]);
+  await client.query(`create temp table bench_types as select * from cartridge_types where winery_id = $1`, [q]);
+  await client.query(`update bench_types set id = gen_random_uuid(), winery_id = $1, certificate_attachment_id = null`, [BIG_WINERY]);
+  await client.query(`insert into cartridge_types select * from bench_types`);
+  await client.query(
+    `insert into cartridges (winery_id, serial, batch, type_id, length_in, status, received_at, litres_filtered, hot_water_cycles)
+     select $1, 'BX-' || lpad(g::text, 6, '0'), 'LOT' || (g % 250)::text,
+            (select id from bench_types order by name offset (g % (select count(*) from bench_types)) limit 1),
+            30,
+            (array['in-stock','in-stock','in-stock','in-stock','installed','installed','installed','regenerating','retired','retired'])[1 + g % 10],
+            date '2024-01-01' + (g % 700), (g % 50) * 1000, case when g <= 5000 then 2 else 0 end
+     from generate_series(1, 10000) g`,
+    [BIG_WINERY],
+  );
+  await client.query(
+    `insert into cartridge_events (winery_id, cartridge_id, kind, details, at)
+     select winery_id, id, 'registered', '{"waterFlowNewLh": 1000}'::jsonb, now() - interval '400 days' from cartridges where winery_id = $1`,
+    [BIG_WINERY],
+  );
+  await client.query(
+    `insert into cartridge_events (winery_id, cartridge_id, kind, details, at)
+     select c.winery_id, c.id, 'cycle',
+            jsonb_build_object('kind', 'hot-water', 'tempC', 85, 'durationMin', 30, 'waterFlowAfterLh', 1000 - (n.k * 7 + (substr(c.serial, 4)::int % 45) * 8)),
+            now() - make_interval(days => 300 - n.k * 30)
+     from cartridges c cross join (values (1), (2)) n(k)
+     where c.winery_id = $1 and substr(c.serial, 4)::int <= 5000`,
+    [BIG_WINERY],
+  );
+  await client.query('commit');
+  await client.query('analyze');
+}
+
+export async function report() {
+  console.log('  (servers in their own processes; load generator: node:http keep-alive loops in this process)');
+  startCluster();
+  ensureDatabase(DB, { fresh: true });
+  const url = databaseUrl(DB);
+  await runMigrations(url);
+  await runSeed(url);
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  // A run needs an approved plan: approve the demo's plan directly.
+  await client.query(`update plans set status = 'approved', approved_at = now() where winery_id = $1`, [demoWineries.quillwater.id]).catch(async () => {
+    await client.query(`update plans set status = 'approved' where winery_id = $1`, [demoWineries.quillwater.id]);
+  });
+  await seedBigWinery(client);
+
+  const appPort = 3900 + (process.pid % 50);
+  const barePort = appPort + 50;
+  mkdirSync(path.join(root, '.data'), { recursive: true });
+  const env = { ...process.env, DATABASE_URL: url, NODE_ENV: 'development', FAKE_SERVICES_DIR: '.data/bench-services', LOG_LEVEL: 'info' };
+  const app = await startProcess(['app', String(appPort)], env);
+  const children: ChildProcess[] = [app];
+  try {
+    const cookie = await signIn(appPort, 'owner@quillwater.test');
+    const plan = (await request(appPort, 'GET', '/api/plans', undefined, cookie)).json.items[0];
+    const options = (await request(appPort, 'GET', '/api/runs/start-options', undefined, cookie)).json;
+    const planLotId = (Array.isArray(options) ? options : options.items)[0].planLotId as string;
+    const run = (await request(appPort, 'POST', '/api/runs', { planLotId }, cookie)).json;
+    for (let i = 0; i < 100; i++) {
+      await request(appPort, 'POST', `/api/runs/${run.id}/readings`, { clientKey: `bench-${i}`, stageIndex: i % 2, volumeL: 60 * (i + 1), upstreamBar: 0.4 + i * 0.01, downstreamBar: 0.1 }, cookie);
+    }
+    const endpoints: [string, string][] = [
+      ['cartridge list', '/api/cartridges?page=1&pageSize=50'],
+      ['plan detail', `/api/plans/${plan.id as string}`],
+      ['run detail', `/api/runs/${run.id as string}`],
+      ['runs list', '/api/runs'],
+      ['Today', '/api/today'],
+    ];
+    const bodies: Record<string, unknown> = {};
+    for (const [, p] of endpoints) {
+      const res = await request(appPort, 'GET', p, undefined, cookie);
+      if (res.status !== 200) throw new Error(`${p}: ${String(res.status)}`);
+      bodies[p] = res.json;
+    }
+    const file = path.join(root, '.data', `bench-bodies-${process.pid}.json`);
+    writeFileSync(file, JSON.stringify(bodies));
+    const bare = await startProcess(['bare', String(barePort), file], env);
+    children.push(bare);
+
+    console.log(`  ${String(CONNECTIONS)} connections, ${String(SECONDS)} s each, app and bare in alternating half-second slices`);
+    const headers = { cookie };
+    for (const [name, p] of endpoints) {
+      await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, 0.5); // warm-up
+      const [a, b] = await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, SECONDS);
+      const kb = (JSON.stringify(bodies[p]).length / 1024).toFixed(1);
+      console.log(
+        `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s (p50 ${fmt(a.p50)} ms, p95 ${fmt(a.p95)} ms)   bare ${fmt(b.rps).padStart(6)} req/s   → app at ${((a.rps / b.rps) * 100).toFixed(0)} % of bare   (${kb} KB${a.errors ? `, ${String(a.errors)} errors` : ''})`,
+      );
+    }
+
+    console.log(`  ${String(WIDE)} connections on the app, ${String(SECONDS)} s each (health alongside, as the idle peer)`);
+    for (const [name, p] of endpoints) {
+      const [a, h] = await compare([{ port: appPort, path: p, headers }, { port: appPort, path: '/api/health', headers: {} }], WIDE, SECONDS);
+      console.log(
+        `  ${name.padEnd(15)} ${fmt(a.rps).padStart(6)} req/s   p50 ${fmt(a.p50)} ms   p95 ${fmt(a.p95)} ms   (health p95 ${fmt(h.p95)} ms)${a.errors ? `   ${String(a.errors)} errors` : ''}`,
+      );
+    }
+
+    // Today at 10,000 cartridges: one request at a time, against Today on the demo.
+    const bigCookie = await signIn(appPort, 'owner@bench10k.test');
+    const once = async (c: string, p: string) => {
+      const t0 = performance.now();
+      const res = await request(appPort, 'GET', p, undefined, c);
+      if (res.status !== 200) throw new Error(`${p}: ${String(res.status)}`);
+      return performance.now() - t0;
+    };
+    /** Median of n requests to each path, one at a time, the paths taking turns (same machine load for both). */
+    const alternating = async (n: number, ...targets: [string, string][]) => {
+      const times: number[][] = targets.map(() => []);
+      for (let i = 0; i < n; i++) for (const [j, [c, p]] of targets.entries()) times[j].push(await once(c, p));
+      return times.map((t) => quantile(t.sort((x, y) => x - y), 0.5));
+    };
+    await alternating(4, [cookie, '/api/today'], [bigCookie, '/api/today']);
+    const [demoToday, bigToday] = await alternating(20, [cookie, '/api/today'], [bigCookie, '/api/today']);
+    const bigBody = (await request(appPort, 'GET', '/api/today', undefined, bigCookie)).json;
+    console.log('  Today, one request at a time, demo and 10k taking turns (median)');
+    console.log(`  demo data        ${fmt(demoToday)} ms`);
+    console.log(
+      `  10,000 cartridges ${fmt(bigToday)} ms   → ${(bigToday / demoToday).toFixed(1)}× the demo   (${String(bigBody.cartridges.attentionTotal)} cartridges to look at)`,
+    );
+    const [demoList, bySort, search] = await alternating(
+      15,
+      [cookie, '/api/cartridges?page=1&pageSize=50'],
+      [bigCookie, '/api/cartridges?sort=receivedAt&order=desc&page=3&pageSize=50'],
+      [bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50'],
+    );
+    console.log(`  cartridge list, demo ${fmt(demoList)} ms; at 10k sorted by received date ${fmt(bySort)} ms (${(bySort / demoList).toFixed(1)}×), searched ${fmt(search)} ms (${(search / demoList).toFixed(1)}×)`);
+    const plan10k = async (sql: string, params: unknown[]) => {
+      const res = await client.query(`explain ${sql}`, params);
+      return (res.rows as { 'QUERY PLAN': string }[])
+        .map((r) => r['QUERY PLAN'])
+        .filter((l) => /Scan|Index/.test(l))
+        .map((l) => l.trim().replace(/\s+\(cost.*$/, ''))
+        .join('; ');
+    };
+    console.log(
+      `  plan, sorted by received date: ${await plan10k(`select id from cartridges where winery_id = $1 order by received_at desc, id limit 50 offset 100`, [BIG_WINERY])}`,
+    );
+    console.log(
+      `  plan, search count: ${await plan10k(`select count(*) from cartridges where winery_id = $1 and (serial ilike $2 or batch ilike $2)`, [BIG_WINERY, '%BX-0042%'])}`,
+    );
+    console.log(
+      `  plan, used-cartridge check: ${await plan10k(
+        `select count(*) from cartridges c where c.winery_id = $1 and exists (select 1 from cartridge_events e where e.cartridge_id = c.id and e.kind in ('cycle','integrity','run'))`,
+        [BIG_WINERY],
+      )}`,
+    );
+  } finally {
+    for (const c of children) c.kill('SIGTERM');
+    await client.end();
+  }
+}
