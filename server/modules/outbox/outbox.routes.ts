@@ -19,7 +19,12 @@ function sameKey(given: unknown, key: string | undefined): boolean {
 /** Runs a middleware and reports whether it let the request through. */
 function passes(handler: RequestHandler, req: Request, res: Response): Promise<boolean> {
   return new Promise((resolve) => {
-    Promise.resolve(handler(req, res, (err?: unknown) => resolve(!err))).catch(() => resolve(false));
+    // A middleware may refuse by calling next(err), by rejecting, or by throwing at once.
+    try {
+      Promise.resolve(handler(req, res, (err?: unknown) => resolve(!err))).catch(() => resolve(false));
+    } catch {
+      resolve(false);
+    }
   });
 }
 
