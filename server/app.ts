@@ -14,6 +14,10 @@ import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { hostCheck, originCheck } from './middleware/origin-check';
 import { createAuthRateLimits } from './middleware/rate-limit';
 import { accountRoutes } from './modules/account/account.routes';
+import { evaluateAlertsAfterWrites } from './modules/alerts/after-writes';
+import { alertsRoutes } from './modules/alerts/alerts.routes';
+import { createAlertsService, type AlertsService } from './modules/alerts/alerts.service';
+import { createCalendarService } from './modules/alerts/calendar.service';
 import { createAccountService } from './modules/account/account.service';
 import { authRoutes } from './modules/auth/auth.routes';
 import { createAuthService } from './modules/auth/auth.service';
@@ -56,6 +60,8 @@ export type AppDeps = {
   config: AppConfig;
   /** The fake SMTP server in development: enables the mail outbox page. */
   outbox?: FakeSmtp;
+  /** The alerts service shared with the workers (made here when absent). */
+  alerts?: AlertsService;
 };
 
 export const JSON_BODY_LIMIT = '1mb';
@@ -92,6 +98,10 @@ export function createApp(deps: AppDeps): Express {
     next();
   });
 
+  const alerts = deps.alerts ?? createAlertsService({ db, mailer, appUrl: config.appUrl });
+  app.locals.alerts = alerts;
+  api.use(evaluateAlertsAfterWrites(alerts));
+
   const limits = createAuthRateLimits(config.rateLimitScale);
   const authService = createAuthService({ db, auth, mailer, appUrl: config.appUrl });
   const teamService = createTeamService({ db, auth, mailer, appUrl: config.appUrl });
@@ -115,6 +125,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(plansRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
+  api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
   api.use(notFoundHandler);
   app.use('/api', api);
 
