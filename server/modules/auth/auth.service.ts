@@ -46,9 +46,13 @@ export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
     /** Always succeeds from the caller's view; mails a link only when the account exists. */
     async requestPasswordReset(email: string, now = new Date()) {
       const user = await repo.findUserByEmail(email);
-      if (!user) return;
       const token = createToken();
       const tokenHash = await hashToken(token);
+      if (!user) {
+        // As much work as for a real account (a hash and a transaction), so the answer's timing tells nothing.
+        await db.transaction(async (tx) => createAuthRepository(tx).findUserByEmail(email));
+        return;
+      }
       const link = `${appUrl}/reset-password?token=${encodeURIComponent(token)}`;
       // The reset and its mail job commit together: a crash after this loses neither.
       await db.transaction(async (tx) => {
