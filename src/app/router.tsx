@@ -31,6 +31,7 @@ export function createRouter() {
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
+        { path: paths.notifications, lazy: lazyPage(() => import('./routes/app/notifications')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },

@@ -20,6 +20,7 @@ export const paths = {
   care: '/care',
   team: '/team',
   settings: '/settings',
+  notifications: '/notifications',
   outbox: '/outbox',
 } as const;
 
