@@ -39,6 +39,8 @@ export type AlertFinding = {
   title: string;
   message: string;
   nextStep: string;
+  /** Figures behind the alert (e.g. shortL, the litres a run falls short), kept with it. */
+  details?: Record<string, number>;
 };
 
 const fmt = (v: number, digits = 0) => (Number.isFinite(v) ? v.toFixed(digits) : '—');
@@ -220,6 +222,7 @@ export function runTerminalAlert(input: {
     recordType: 'run',
     recordId: input.runId,
     threshold: `stage:${input.stageIndex}`,
+    details: { shortL },
     title: `${input.stageName} will block ${fmt(shortL)} L before ${input.lotCode} is done`,
     message: `The forecast says ${input.stageName} reaches terminal ΔP about ${fmt(shortL)} L before the end of lot ${input.lotCode}.`,
     nextStep: 'Have a spare cartridge ready and plan a changeover; slow the flow if the ΔP climbs fast.',

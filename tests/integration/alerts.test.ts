@@ -193,6 +193,56 @@ describe('an approved plan', () => {
   });
 });
 
+describe('a running run', () => {
+  it('raises a terminal-ΔP alarm and a flat-ΔP alarm at once, does not repeat a worsening within 30 minutes, and clears on close', async () => {
+    const w = await createPlanWorld(owner);
+    const plan = await createPlan(owner, w.lineId, { plannedDate: '2031-05-05' });
+    const withLot = await addPlanLot(owner, plan.id, w.lotId, 6000);
+    const planLotId = withLot.lots[0].id;
+    const t = await addTrain(owner, plan.id, planLotId, trainBody(w));
+    await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: t.lots[0].trains[0].id });
+    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    const run = await people.technician.client.post('/api/runs', { planLotId });
+    expect(run.status).toBe(201);
+    const runId = run.body.id as string;
+    const log = (stageIndex: number, volumeL: number, dpBar: number) =>
+      people.technician.client.post(`/api/runs/${runId}/readings`, { clientKey: `${stageIndex}-${volumeL}-${dpBar}`, stageIndex, volumeL, upstreamBar: 2 + dpBar, downstreamBar: 2 });
+    // Stage 1 (prefilter) climbs fast towards its 1.5 bar terminal ΔP; stage 2 (membrane) stays flat.
+    for (const [v, dp] of [[500, 0.2], [1000, 0.5], [1500, 0.85], [2000, 1.2]] as const) expect((await log(0, v, dp)).status).toBe(201);
+    for (const [v, dp] of [[500, 0.3], [1000, 0.3], [1500, 0.31], [2000, 0.3]] as const) expect((await log(1, v, dp)).status).toBe(201);
+    const detail = (await owner.get(`/api/runs/${runId}`)).body;
+    expect(detail.stages[0].alarm.alarm).toBe(true);
+    const [terminal] = await until('the terminal ΔP alarm', async () => {
+      const r = await openAlerts('run-terminal-dp', runId);
+      return r.length ? r : null;
+    });
+    expect(terminal).toMatchObject({ threshold: 'stage:0', severity: 'critical', link: `/runs/${runId}` });
+    expect(terminal.title).toMatch(/will block \d+ L before/);
+    const [flat] = await until('the flat ΔP alarm', async () => {
+      const r = await openAlerts('stage-flat-dp', runId);
+      return r.length ? r : null;
+    });
+    expect(flat).toMatchObject({ threshold: 'stage:1' });
+    expect(flat.nextStep).toMatch(/integrity test/);
+    await app.mail.waitFor(people.technician.email, { subject: /will block/ });
+    await app.mail.waitFor(people.technician.email, { subject: /ΔP flat over/ });
+
+    // Worse, but within 30 minutes of the first notice: the alert stays, no second mail.
+    expect((await log(0, 2010, 1.48)).status).toBe(201);
+    await app.alerts.idle();
+    expect(mailsTo(people.technician.email, /will block/)).toHaveLength(1);
+    // Half an hour later (the sweep's clock), still worse: noticed again, once.
+    await app.alerts.evaluate(wineryId, new Date(Date.now() + 31 * 60_000));
+    await until('the second notice', async () => mailsTo(people.technician.email, /will block/).length === 2);
+    expect(await openAlerts('run-terminal-dp', runId)).toHaveLength(1);
+
+    expect((await people.technician.client.post(`/api/runs/${runId}/close`, {})).status).toBe(200);
+    await app.alerts.idle();
+    const closed = [...(await openAlerts('run-terminal-dp', runId)), ...(await openAlerts('stage-flat-dp', runId))];
+    expect(closed.every((a) => a.clearedAt instanceof Date)).toBe(true);
+  });
+});
+
 describe('preferences', () => {
   it('show the role defaults, take a personal choice, and refuse bad input with field messages', async () => {
     const tech = (await people.technician.client.get('/api/me/alert-preferences')).body.items as { kind: string; channel: string; roleDefault: string }[];

@@ -4,6 +4,7 @@ import {
   alertPreferencesTable,
   alertsTable,
   calendarFeedsTable,
+  cartridgeTypesTable,
   mailFailuresTable,
   membershipsTable,
   notificationsTable,
@@ -133,6 +134,15 @@ export function createAlertsRepository(db: DbOrTx) {
     },
     async markResent(id: string, at: Date) {
       await db.update(mailFailuresTable).set({ resentAt: at }).where(eq(mailFailuresTable.id, id));
+    },
+    /** Cartridge type id → kind (prefilter or membrane). */
+    async typeKinds(wineryId: string, ids: string[]) {
+      if (!ids.length) return new Map<string, string>();
+      const rows = await db
+        .select({ id: cartridgeTypesTable.id, kind: cartridgeTypesTable.kind })
+        .from(cartridgeTypesTable)
+        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), inArray(cartridgeTypesTable.id, ids)));
+      return new Map(rows.map((r) => [r.id, r.kind as string]));
     },
     async approvedPlanIds(wineryId: string, fromDate: string) {
       const rows = await db

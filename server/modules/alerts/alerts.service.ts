@@ -3,10 +3,13 @@ import {
   alertKindLabels,
   defaultAlertChannel,
   endOfLifeAlerts,
+  flatDpAlert,
   integrityAlert,
   isLocalHour,
   localDate,
   lotNotReadyAlert,
+  runTerminalAlert,
+  shouldRenotifyRunAlert,
   stockShortAlert,
   type AlertChannel,
   type AlertFinding,
@@ -22,12 +25,13 @@ import type { TenantContext } from '../../middleware/authorize';
 import { lifeFromHistory } from '../cartridges/cartridges.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
+import { createRunsService } from '../runs/runs.service';
 import { createTodayRepository } from '../today/today.repository';
 import { alertSettingsOf } from './alert-settings';
 import { createAlertsRepository, type AlertRow } from './alerts.repository';
 
 /** The rules the server evaluates from stored records (the others are decided when their event is recorded). */
-const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'stock-short', 'lot-not-ready'];
+const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'stock-short', 'lot-not-ready', 'run-terminal-dp', 'stage-flat-dp'];
 export const DIGEST_HOUR = 7;
 export const NOTIFICATIONS_PAGE_SIZE = 20;
 
@@ -88,6 +92,34 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
   const repo = createAlertsRepository(db);
   const plans = createPlansService(db);
   const cellar = createCellarService(db);
+  const runs = createRunsService(db);
+
+  /** Running runs: a stage forecast to reach terminal ΔP before the lot is done, or a membrane's ΔP flat while litres rise. */
+  async function runFindings(tenant: TenantContext): Promise<AlertFinding[]> {
+    const out: AlertFinding[] = [];
+    const { items } = await runs.list(tenant);
+    for (const r of items.filter((x) => x.status === 'running')) {
+      const d = await runs.detail(tenant, r.id).catch(() => null);
+      if (!d) continue;
+      const kinds = await repo.typeKinds(tenant.wineryId, d.stages.map((s) => s.cartridgeTypeId));
+      for (const s of d.stages) {
+        const name = `${s.name} (${s.cartridgeTypeName})`;
+        if (s.alarm?.alarm && s.forecast) {
+          const f = runTerminalAlert({ runId: d.id, stageIndex: s.index, stageName: name, lotCode: d.lotCode, litresToTerminal: s.forecast.volumeLeftL, litresLeft: d.volumeToBottleL });
+          if (f) out.push(f);
+        }
+        const flat = flatDpAlert({
+          runId: d.id,
+          stageIndex: s.index,
+          stageName: name,
+          membrane: kinds.get(s.cartridgeTypeId) === 'membrane',
+          readings: s.readings.map((x) => ({ volumeL: x.volumeL, dpBar: x.dpBar })),
+        });
+        if (flat) out.push(flat);
+      }
+    }
+    return out;
+  }
 
   /** Every condition that holds now in this winery, from stored records (engine rules). */
   async function findings(wineryId: string, now: Date, settings: Record<string, unknown>): Promise<AlertFinding[]> {
@@ -109,6 +141,7 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
       if (failed) out.push(failed);
       out.push(...endOfLifeAlerts({ cartridgeId: row.cartridge.id, serial: row.cartridge.serial, budgets: life.budgets }));
     }
+    out.push(...(await runFindings(tenant)));
     const planIds = await repo.approvedPlanIds(wineryId, today);
     if (planIds.length) {
       const lots = await cellar.listLots(tenant, { q: undefined, sort: 'code', order: 'asc', page: 1, pageSize: 5000 });
@@ -162,16 +195,33 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
       now,
     );
     const fresh = found.filter((f, i) => !openKeys.has(key(f)) && found.findIndex((g) => key(g) === key(f)) === i);
-    if (!fresh.length) return { opened: 0, cleared: stale.length };
+    // A run's forecast that worsened: the same alert again (at most every 30 minutes per stage).
+    const openByKey = new Map(open.map((a) => [key(a), a]));
+    const worse = found.flatMap((f) => {
+      const prev = f.kind === 'run-terminal-dp' ? openByKey.get(key(f)) : undefined;
+      const prevShort = typeof prev?.details?.shortL === 'number' ? prev.details.shortL : null;
+      if (!prev || prevShort === null || f.details?.shortL === undefined) return [];
+      return shouldRenotifyRunAlert({ shortL: prevShort, notifiedAtMs: prev.notifiedAt.getTime() }, { shortL: f.details.shortL, nowMs: now.getTime() }) ? [{ f, prev }] : [];
+    });
+    if (!fresh.length && !worse.length) return { opened: 0, cleared: stale.length };
     const members = await r.members(wineryId);
+    const recipientsOf = (kind: AlertKind) =>
+      members
+        .map((m) => ({ m, channel: (m.prefs[kind] as AlertChannel | undefined) ?? defaultAlertChannel(m.role, kind) }))
+        .filter((x): x is { m: (typeof members)[number]; channel: Exclude<AlertChannel, 'off'> } => x.channel !== 'off');
+    for (const { f, prev } of worse) {
+      await r.touchAlert(prev.id, { title: f.title, message: f.message, details: f.details ?? {}, notifiedAt: now, severity: f.severity });
+      await r.resetNotifications(prev.id);
+      for (const { m } of recipientsOf(f.kind).filter((x) => x.channel === 'email')) {
+        await mailer.send(alertMail(appUrl, winery.name, m.email, { ...prev, ...f, link: prev.link }), { db: tx, wineryId });
+      }
+    }
     let opened = 0;
     for (const f of fresh) {
-      const row = await r.insertAlert({ wineryId, ...f, link: linkOf(f), openedAt: now, notifiedAt: now });
+      const row = await r.insertAlert({ wineryId, ...f, details: f.details ?? {}, link: linkOf(f), openedAt: now, notifiedAt: now });
       if (!row) continue;
       opened += 1;
-      const recipients = members
-        .map((m) => ({ m, channel: (m.prefs[f.kind] as AlertChannel | undefined) ?? defaultAlertChannel(m.role, f.kind) }))
-        .filter((x): x is { m: (typeof members)[number]; channel: Exclude<AlertChannel, 'off'> } => x.channel !== 'off');
+      const recipients = recipientsOf(f.kind);
       await r.insertNotifications(recipients.map(({ m, channel }) => ({ wineryId, alertId: row.id, userId: m.userId, channel, createdAt: now })));
       for (const { m } of recipients.filter((x) => x.channel === 'email')) {
         await mailer.send(alertMail(appUrl, winery.name, m.email, row), { db: tx, wineryId });
