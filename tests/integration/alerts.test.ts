@@ -5,7 +5,7 @@
 import { and, eq } from 'drizzle-orm';
 import ical from 'node-ical';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { alertsTable } from '../../server/db/schema';
+import { alertsTable, cartridgeTypesTable } from '../../server/db/schema';
 import { ALERTS_DIGEST_QUEUE } from '../../server/lib/queue';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
@@ -148,6 +148,25 @@ describe('a cartridge near the end of its rated life', () => {
     await until('the 100 % alert', async () => (await openAlerts('cartridge-end-of-life', c.id)).some((r) => r.threshold.endsWith(':100')));
     // The technician does not get cartridge-life alerts by default.
     expect(mailsTo(people.technician.email, new RegExp(c.serial))).toHaveLength(0);
+  });
+});
+
+describe('a care cycle above the rating', () => {
+  it('raises an alert until a passing integrity test after it', async () => {
+    const type = await insertCartridgeType(app.db, wineryId, { name: `PES hot ${Date.now()}`, maxTempC: 85, bubblePointMinBar: 3.2 });
+    const c = await registered(owner, type.id);
+    expect((await people.technician.client.post(`/api/cartridges/${c.id}/cycles`, { kind: 'hot-water', tempC: 84, durationMin: 20 })).status).toBe(201);
+    await app.alerts.idle();
+    expect(await openAlerts('care-over-temperature', c.id)).toHaveLength(0);
+    // The maker's rating is corrected downwards in the catalogue: the logged 84 °C is now above it.
+    await app.db.update(cartridgeTypesTable).set({ maxTempC: 80 }).where(eq(cartridgeTypesTable.id, type.id));
+    await app.alerts.evaluate(wineryId);
+    const [hot] = await openAlerts('care-over-temperature', c.id);
+    expect(hot.title).toMatch(/cleaned at 84 °C, above its 80 °C rating/);
+    expect(hot.nextStep).toMatch(/integrity test/);
+    await people.technician.client.post(`/api/cartridges/${c.id}/integrity-tests`, { test: 'bubble-point', bubblePointBar: 3.6, wettingFluid: 'water' });
+    await app.alerts.idle();
+    expect((await openAlerts('care-over-temperature', c.id))[0].clearedAt).toBeInstanceOf(Date);
   });
 });
 

@@ -1,6 +1,7 @@
 import {
   ALERT_KINDS,
   alertKindLabels,
+  careOverTemperatureAlert,
   defaultAlertChannel,
   endOfLifeAlerts,
   flatDpAlert,
@@ -31,7 +32,7 @@ import { alertSettingsOf } from './alert-settings';
 import { createAlertsRepository, type AlertRow } from './alerts.repository';
 
 /** The rules the server evaluates from stored records (the others are decided when their event is recorded). */
-const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'stock-short', 'lot-not-ready', 'run-terminal-dp', 'stage-flat-dp'];
+const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'stock-short', 'lot-not-ready', 'run-terminal-dp', 'stage-flat-dp', 'care-over-temperature'];
 export const DIGEST_HOUR = 7;
 export const NOTIFICATIONS_PAGE_SIZE = 20;
 
@@ -140,6 +141,20 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
       const failed = integrityAlert({ cartridgeId: row.cartridge.id, serial: row.cartridge.serial, latestPass: life.integrity.latestPass });
       if (failed) out.push(failed);
       out.push(...endOfLifeAlerts({ cartridgeId: row.cartridge.id, serial: row.cartridge.serial, budgets: life.budgets }));
+      // A cycle hotter than the type's rating (e.g. a rating corrected downwards since), until a passing integrity test after it.
+      for (const e of history) {
+        if (e.kind !== 'cycle' || typeof e.details?.tempC !== 'number') continue;
+        if (history.some((x) => x.kind === 'integrity' && x.details?.pass === true && x.at > e.at)) continue;
+        const hot = careOverTemperatureAlert({
+          cartridgeId: row.cartridge.id,
+          serial: row.cartridge.serial,
+          cycleId: e.at.toISOString(),
+          tempC: e.details.tempC,
+          cartridgeMaxC: row.type.maxTempC,
+          housingMaxC: null,
+        });
+        if (hot) out.push(hot);
+      }
     }
     out.push(...(await runFindings(tenant)));
     const planIds = await repo.approvedPlanIds(wineryId, today);
