@@ -17,6 +17,10 @@ import { createAuthRateLimits } from './middleware/rate-limit';
 import { wellFormedInput } from './middleware/validate';
 import { checkJsonShape } from '../shared/schemas/text';
 import { accountRoutes } from './modules/account/account.routes';
+import { evaluateAlertsAfterWrites } from './modules/alerts/after-writes';
+import { alertsRoutes } from './modules/alerts/alerts.routes';
+import { createAlertsService, type AlertsService } from './modules/alerts/alerts.service';
+import { createCalendarService } from './modules/alerts/calendar.service';
 import { createAccountService } from './modules/account/account.service';
 import { authRoutes } from './modules/auth/auth.routes';
 import { createAuthService } from './modules/auth/auth.service';
@@ -62,6 +66,8 @@ export type AppDeps = {
   outbox?: FakeSmtp;
   /** The secret that opens the development outbox without signing in (printed by `npm start`). */
   outboxKey?: string;
+  /** The alerts service shared with the workers (made here when absent). */
+  alerts?: AlertsService;
 };
 
 export const JSON_BODY_LIMIT = '1mb';
@@ -117,6 +123,10 @@ export function createApp(deps: AppDeps): Express {
   api.use('/health', healthRoutes({ db }));
   api.use(authenticate(auth));
 
+  const alerts = deps.alerts ?? createAlertsService({ db, mailer, appUrl: config.appUrl });
+  app.locals.alerts = alerts;
+  api.use(evaluateAlertsAfterWrites(alerts));
+
   const limits = createAuthRateLimits(config.rateLimitScale);
   const authService = createAuthService({ db, auth, mailer, appUrl: config.appUrl });
   const teamService = createTeamService({ db, auth, mailer, appUrl: config.appUrl });
@@ -140,6 +150,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
   api.use(recordsRoutes(moduleDeps));
+  api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
   api.use(notFoundHandler);
   app.use('/api', api);
 

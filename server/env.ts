@@ -33,6 +33,13 @@ const envSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().default('S3RVER'),
   FAKE_SERVICES_DIR: z.string().default('.data'),
   CLIENT_DIR: z.string().default('dist/client'),
+  /** Run the job workers (mail, alert sweep, digest) in this process; false for a web-only process. */
+  WORKERS: bool,
+  /** The PostgreSQL schema of the job queue. */
+  QUEUE_SCHEMA: z.string().regex(/^[a-z_][a-z0-9_]{0,62}$/).default('pgboss'),
+  MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
+  MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(6),
+  QUEUE_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
 });
 
 export type Env = z.infer<typeof envSchema> & { appUrl: string; secureCookies: boolean; allowedOrigins: string[]; loopbackOnly: boolean };

@@ -6,7 +6,10 @@ import { createDatabase } from './db/client';
 import type { Env } from './env';
 import { startFakeS3, startFakeSmtp, type FakeS3, type FakeSmtp } from './lib/fake-services';
 import { logger } from './lib/logger';
+import { startWorkers } from './jobs/workers';
 import { createSmtpMailer } from './lib/mail';
+import { createQueue, queuedMailer } from './lib/queue';
+import { createAlertsService } from './modules/alerts/alerts.service';
 import { createS3Storage } from './lib/storage';
 
 /**
@@ -26,7 +29,7 @@ export async function startServer(env: Env) {
     }
     fakeSmtp = await startFakeSmtp();
   }
-  const mailer = createSmtpMailer(
+  const smtp = createSmtpMailer(
     fakeSmtp
       ? { host: '127.0.0.1', port: fakeSmtp.port, from: env.MAIL_FROM }
       : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM },
@@ -34,6 +37,19 @@ export async function startServer(env: Env) {
 
   // The development outbox opens without signing in only with this key (printed by `npm start`).
   const outboxKey = fakeSmtp ? (env.DEV_OUTBOX_KEY ?? randomBytes(18).toString('base64url')) : undefined;
+  // Mail goes through the job queue: the app enqueues, the workers deliver over SMTP with retries.
+  const workers = env.WORKERS ?? true;
+  const queue = await createQueue({
+    connectionString: env.DATABASE_URL,
+    schema: env.QUEUE_SCHEMA,
+    mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
+    mailRetryLimit: env.MAIL_RETRY_LIMIT,
+    pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
+    workers,
+  });
+  const mailer = queuedMailer(queue);
+  const alerts = createAlertsService({ db, mailer, appUrl: env.appUrl });
+  if (workers) await startWorkers({ db, queue, smtp, alerts });
 
   if (!env.S3_ENDPOINT) fakeS3 = await startFakeS3({ directory: join(resolve(env.FAKE_SERVICES_DIR), 's3') });
   const storage = createS3Storage({
@@ -51,6 +67,7 @@ export async function startServer(env: Env) {
     storage,
     outbox: fakeSmtp,
     outboxKey,
+    alerts,
     config: {
       appUrl: env.appUrl,
       allowedOrigins: env.allowedOrigins,
@@ -75,8 +92,10 @@ export async function startServer(env: Env) {
       server.close(() => r());
       server.closeAllConnections();
     });
+    await alerts.idle();
+    await queue.stop();
     await Promise.allSettled([fakeSmtp?.close(), fakeS3?.close(), pool.end()]);
   }
-  logger.debug({ url }, 'listening');
+  logger.debug({ url, workers }, 'listening');
   return { url, port, close, fakeSmtp, outboxKey };
 }

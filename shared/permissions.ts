@@ -55,6 +55,8 @@ export const permissions = {
   'records:export': all,
   'records:delete': ['owner'],
   'calc:use': all,
+  'notifications:read': all,
+  'mail-failures:manage': ['owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;

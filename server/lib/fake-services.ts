@@ -9,6 +9,10 @@ export type ReceivedMail = { id: string; to: string[]; subject: string; text: st
 export type FakeSmtp = {
   port: number;
   messages: ReceivedMail[];
+  /** Refuses the next `count` messages with a temporary failure (451), for tests of retries. */
+  refuseNext(count: number): void;
+  /** Messages refused so far. */
+  refused: number;
   /** The newest message to `address`, waiting up to `timeoutMs` for it to arrive. */
   waitFor(address: string, opts?: { subject?: RegExp; timeoutMs?: number; after?: number }): Promise<ReceivedMail>;
   close(): Promise<void>;
@@ -18,11 +22,20 @@ export async function startFakeSmtp(opts: { port?: number } = {}): Promise<FakeS
   const { SMTPServer } = await import('smtp-server');
   const { simpleParser } = await import('mailparser');
   const messages: ReceivedMail[] = [];
+  let toRefuse = 0;
+  const state = { refused: 0 };
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['STARTTLS', 'AUTH'],
     logger: false,
     onData(stream, _session, callback) {
+      if (toRefuse > 0) {
+        toRefuse -= 1;
+        state.refused += 1;
+        stream.resume();
+        stream.on('end', () => callback(Object.assign(new Error('Mailbox busy, try again later'), { responseCode: 451 })));
+        return;
+      }
       simpleParser(stream)
         .then((parsed) => {
           const to = [parsed.to].flat().flatMap((a) => (a ? a.value.map((v) => v.address ?? '') : []));
@@ -44,6 +57,12 @@ export async function startFakeSmtp(opts: { port?: number } = {}): Promise<FakeS
   return {
     port,
     messages,
+    refuseNext(count) {
+      toRefuse = count;
+    },
+    get refused() {
+      return state.refused;
+    },
     async waitFor(address, { subject, timeoutMs = 5000, after = 0 } = {}) {
       const deadline = Date.now() + timeoutMs;
       const want = address.toLowerCase();

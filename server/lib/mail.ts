@@ -1,7 +1,13 @@
 import nodemailer from 'nodemailer';
 
 export type MailMessage = { to: string; subject: string; text: string; html?: string };
-export type Mailer = { send(message: MailMessage): Promise<void> };
+/**
+ * Sends (or, in the app, enqueues) one message. `db`: the open transaction of the change that
+ * causes the mail, so the mail goes out only if that change is saved; `wineryId`: whose mail it
+ * is (its owners see it if it cannot be delivered).
+ */
+export type MailOptions = { db?: import('../db/client').DbOrTx; wineryId?: string | null };
+export type Mailer = { send(message: MailMessage, opts?: MailOptions): Promise<void> };
 
 export type SmtpSettings = {
   host: string;

@@ -47,6 +47,10 @@ export type WinerySettingsDto = {
   /** True when the winery uses the defaults. */
   readinessThresholdsAreDefault: boolean;
   defaultReadinessThresholds: import('../engine/readiness').ReadinessThresholds;
+  /** IANA time zone of the winery: the digest goes at 07:00 there, calendars use it. */
+  timeZone: string;
+  /** Days an order of cartridges takes to arrive (the stock alert's lead time). */
+  orderLeadTimeDays: number;
 };
 
 export type AttachmentDto = {

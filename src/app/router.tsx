@@ -34,6 +34,7 @@ export function createRouter() {
         { path: '/records/lots/:lotId', lazy: lazyPage(() => import('./routes/app/record')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
+        { path: paths.notifications, lazy: lazyPage(() => import('./routes/app/notifications')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },

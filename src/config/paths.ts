@@ -23,6 +23,7 @@ export const paths = {
   record: (lotId: string) => `/records/lots/${lotId}`,
   team: '/team',
   settings: '/settings',
+  notifications: '/notifications',
   outbox: '/outbox',
 } as const;
 

@@ -7,6 +7,10 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { startFakeS3, startFakeSmtp, type FakeSmtp } from '../../server/lib/fake-services';
 import { createSmtpMailer } from '../../server/lib/mail';
+import { createQueue, queuedMailer, type Queue } from '../../server/lib/queue';
+import { startWorkers } from '../../server/jobs/workers';
+import { createAlertsService, type AlertsService } from '../../server/modules/alerts/alerts.service';
+import { randomBytes } from 'node:crypto';
 import { createS3Storage, type Storage } from '../../server/lib/storage';
 import { databaseUrl } from '../../scripts/lib/postgres';
 
@@ -15,6 +19,9 @@ export type TestApp = {
   mail: FakeSmtp;
   db: ReturnType<typeof createDatabase>['db'];
   pool: ReturnType<typeof createDatabase>['pool'];
+  /** The app's own job queue (its own pg-boss schema, so parallel test files never share jobs). */
+  queue: Queue;
+  alerts: AlertsService;
   close(): Promise<void>;
 };
 
@@ -36,7 +43,9 @@ const mailOf = new Map<string, FakeSmtp>();
 export const TEST_OUTBOX_KEY = 'test-outbox-key-5a1f0c9e';
 
 /** Starts the app; with `withStorage` also a fake S3 server in a temporary folder. */
-export async function startTestApp(opts: { config?: Partial<AppConfig>; withStorage?: boolean; databaseUrl?: string } = {}): Promise<TestApp> {
+export async function startTestApp(
+  opts: { config?: Partial<AppConfig>; withStorage?: boolean; databaseUrl?: string; mailRetryDelaySeconds?: number; mailRetryLimit?: number } = {},
+): Promise<TestApp> {
   const { db, pool } = createDatabase(opts.databaseUrl ?? databaseUrl('porewise_test'), { max: 5 });
   const mail = await startFakeSmtp();
   let storage = unusedStorage;
@@ -51,7 +60,16 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
       rmSync(dir, { recursive: true, force: true });
     };
   }
-  const mailer = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
+  const smtp = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
+  const queue = await createQueue({
+    connectionString: databaseUrl('porewise_test'),
+    schema: `pgboss_t_${randomBytes(6).toString('hex')}`,
+    mailRetryDelaySeconds: opts.mailRetryDelaySeconds ?? 1,
+    mailRetryLimit: opts.mailRetryLimit ?? 3,
+    pollingIntervalSeconds: 0.5,
+  });
+  const mailer = queuedMailer(queue);
+  let alerts: AlertsService | null = null;
   const app = (baseUrl: string) =>
     createApp({
       db,
@@ -59,6 +77,7 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
       storage,
       outbox: mail,
       outboxKey: TEST_OUTBOX_KEY,
+      alerts: (alerts = createAlertsService({ db, mailer, appUrl: baseUrl })),
       config: {
         appUrl: baseUrl,
         allowedOrigins: [],
@@ -76,17 +95,23 @@ export async function startTestApp(opts: { config?: Partial<AppConfig>; withStor
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   handler = app(baseUrl);
   mailOf.set(baseUrl, mail);
+  await startWorkers({ db, queue, smtp, alerts: alerts!, schedules: false });
   return {
     baseUrl,
     mail,
     db,
     pool,
+    queue,
+    alerts: alerts!,
     async close() {
       await new Promise<void>((r) => {
         server.close(() => r());
         server.closeAllConnections();
       });
       mailOf.delete(baseUrl);
+      await alerts!.idle();
+      await queue.stop();
+      await pool.query(`drop schema if exists ${queue.schema} cascade`).catch(() => {});
       await mail.close();
       await closeStorage();
       await pool.end();

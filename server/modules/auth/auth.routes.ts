@@ -43,8 +43,9 @@ export function authRoutes(deps: { auth: Auth; service: AuthService; limits: Ret
   });
 
   router.post('/password-reset/request', ...limits.passwordReset, validateBody(passwordResetRequestInputSchema), async (req, res) => {
-    // Answer at once and send in the background, so the response time does not tell whether the account exists.
-    void service.requestPasswordReset(res.locals.body.email).catch((err) => req.log?.error({ err }, 'reset mail failed'));
+    // Answer once the reset and its mail job are committed (a crash after the answer loses no mail);
+    // the service does the same work for an unknown address, so the time taken tells nothing.
+    await service.requestPasswordReset(res.locals.body.email).catch((err) => req.log?.error({ err }, 'reset mail failed'));
     res.status(202).json({ ok: true });
   });
 

@@ -85,21 +85,32 @@ export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
     /** Always succeeds from the caller's view; mails a link only when the account exists. */
     async requestPasswordReset(email: string, now = new Date()) {
       const user = await repo.findUserByEmail(email);
-      if (!user) return;
       const token = createToken();
-      await repo.insertPasswordReset({
-        tokenHash: await hashToken(token),
-        userId: user.id,
-        expiresAt: new Date(now.getTime() + RESET_TOKEN_MINUTES * 60_000),
-      });
+      const tokenHash = await hashToken(token);
+      if (!user) {
+        // As much work as for a real account (a hash and a transaction), so the answer's timing tells nothing.
+        await db.transaction(async (tx) => createAuthRepository(tx).findUserByEmail(email));
+        return;
+      }
       const link = `${appUrl}/reset-password?token=${encodeURIComponent(token)}`;
-      await mailer.send({
-        to: user.email,
-        subject: 'Reset your Porewise password',
-        text:
-          `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset the password of your Porewise account.\n` +
-          `Open this link within ${RESET_TOKEN_MINUTES} minutes to choose a new one:\n\n${link}\n\n` +
-          `If you did not ask for this, ignore this message; your password stays as it is.\n`,
+      // The reset and its mail job commit together: a crash after this loses neither.
+      await db.transaction(async (tx) => {
+        await createAuthRepository(tx).insertPasswordReset({
+          tokenHash,
+          userId: user.id,
+          expiresAt: new Date(now.getTime() + RESET_TOKEN_MINUTES * 60_000),
+        });
+        await mailer.send(
+          {
+            to: user.email,
+            subject: 'Reset your Porewise password',
+            text:
+              `Hello ${user.name},\n\nSomeone (hopefully you) asked to reset the password of your Porewise account.\n` +
+              `Open this link within ${RESET_TOKEN_MINUTES} minutes to choose a new one:\n\n${link}\n\n` +
+              `If you did not ask for this, ignore this message; your password stays as it is.\n`,
+          },
+          { db: tx, wineryId: user.activeWineryId ?? null },
+        );
       });
     },
 

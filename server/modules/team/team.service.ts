@@ -40,7 +40,9 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
       const token = createToken();
       const tokenHash = await hashToken(token);
       const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
-      const { invitation, wineryName } = await db.transaction(async (tx) => {
+      const link = `${appUrl}/invitation?token=${encodeURIComponent(token)}`;
+      // The invitation and its mail job commit together.
+      const invitation = await db.transaction(async (tx) => {
         const txRepo = createTeamRepository(tx);
         if (await txRepo.memberByEmail(tenant.wineryId, input.email)) {
           throw conflict(`${input.email} is already a member of this winery.`, 'already_member');
@@ -49,16 +51,19 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         const invitation = pending
           ? await txRepo.renewInvitation(pending.id, { tokenHash, role: input.role, expiresAt, invitedBy: inviter.id })
           : await txRepo.insertInvitation({ wineryId: tenant.wineryId, email: input.email, role: input.role, tokenHash, invitedBy: inviter.id, expiresAt });
-        return { invitation, wineryName: await txRepo.wineryName(tenant.wineryId) };
-      });
-      const link = `${appUrl}/invitation?token=${encodeURIComponent(token)}`;
-      await mailer.send({
-        to: input.email,
-        subject: `${inviter.name} invited you to ${wineryName} on Porewise`,
-        text:
-          `Hello,\n\n${inviter.name} invited you to join ${wineryName} on Porewise as ${roleLabels[input.role].toLowerCase()}.\n` +
-          `Open this link within ${INVITATION_DAYS} days to accept:\n\n${link}\n\n` +
-          `If you did not expect this, you can ignore this message.\n`,
+        const wineryName = await txRepo.wineryName(tenant.wineryId);
+        await mailer.send(
+          {
+            to: input.email,
+            subject: `${inviter.name} invited you to ${wineryName} on Porewise`,
+            text:
+              `Hello,\n\n${inviter.name} invited you to join ${wineryName} on Porewise as ${roleLabels[input.role].toLowerCase()}.\n` +
+              `Open this link within ${INVITATION_DAYS} days to accept:\n\n${link}\n\n` +
+              `If you did not expect this, you can ignore this message.\n`,
+          },
+          { db: tx, wineryId: tenant.wineryId },
+        );
+        return invitation;
       });
       return presentInvitation({ ...invitation, invitedBy: inviter.name });
     },

@@ -3,6 +3,7 @@ import type { UpdateWinerySettingsInput } from '../../../shared/schemas/winery-s
 import type { WinerySettingsDto } from '../../../shared/types/api';
 import type { DbOrTx } from '../../db/client';
 import { notFound } from '../../lib/errors';
+import { alertSettingsOf } from '../alerts/alert-settings';
 import { createWinerySettingsRepository } from './winery-settings.repository';
 
 function thresholdsFrom(settings: Record<string, unknown>): ReadinessThresholds | null {
@@ -28,6 +29,7 @@ export function createWinerySettingsService(db: DbOrTx) {
       readinessThresholds: own ?? defaultReadinessThresholds,
       readinessThresholdsAreDefault: own === null,
       defaultReadinessThresholds,
+      ...alertSettingsOf(winery.settings),
     };
   }
   return {
@@ -38,6 +40,8 @@ export function createWinerySettingsService(db: DbOrTx) {
       const settings = { ...winery.settings };
       if (input.readinessThresholds === null) delete settings.readinessThresholds;
       else if (input.readinessThresholds) settings.readinessThresholds = input.readinessThresholds;
+      if (input.timeZone !== undefined) settings.timeZone = input.timeZone;
+      if (input.orderLeadTimeDays !== undefined) settings.orderLeadTimeDays = input.orderLeadTimeDays;
       await repo.update(wineryId, { name: input.name, settings });
       return get(wineryId);
     },

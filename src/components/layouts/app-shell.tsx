@@ -27,7 +27,8 @@ const navItems: NavItem[] = [
   { to: paths.outbox, label: 'Mail outbox', icon: <Inbox aria-hidden="true" className="size-4" />, action: 'mail-outbox:read', devOnly: true },
 ];
 
-export function AppShell({ me, children }: { me: MeDto; children: ReactNode }) {
+/** `headerExtra`: what the app adds beside the person's name (the notification bell). */
+export function AppShell({ me, children, headerExtra }: { me: MeDto; children: ReactNode; headerExtra?: ReactNode }) {
   const navigate = useNavigate();
   const signOut = useSignOut();
   const switchWinery = useSetActiveWinery();
@@ -64,6 +65,7 @@ export function AppShell({ me, children }: { me: MeDto; children: ReactNode }) {
             {membership ? <span className="hidden text-sm text-ink-600 sm:inline">{roleLabels[membership.role]}</span> : null}
           </div>
           <div className="flex items-center gap-2" data-testid="person">
+            {headerExtra}
             <span className="hidden max-w-48 truncate text-sm text-ink-700 md:inline" title={me.user.email}>
               {me.user.name}
             </span>

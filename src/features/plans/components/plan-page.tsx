@@ -1,10 +1,10 @@
 import { format } from 'date-fns';
-import { ArrowLeft, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
+import { ArrowLeft, CalendarPlus, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { sanitationKindLabels } from '@shared/schemas/plans';
 import type { PlanDto } from '@shared/types/plans';
-import { Button } from '@/components/ui/button';
+import { Button, buttonClasses } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -130,6 +130,11 @@ export function PlanPage({ planId }: { planId: string }) {
           </Button>
         </>
       ) : null}
+      {/* The day as a calendar file (.ics) with the winery's time zone. */}
+      <a href={`/api/plans/${p.id}/calendar`} download className={buttonClasses('secondary')}>
+        <CalendarPlus aria-hidden="true" className="size-4" />
+        Add to calendar
+      </a>
       {editable ? (
         <>
           <Button variant="secondary" icon={<Pencil />} onClick={() => setEditing(true)}>

@@ -15,6 +15,7 @@ import { decimalMarkChosen, localeDecimalMark, setDecimalMark, useDecimalMark, t
 import { useSetActiveWinery } from '@/lib/session';
 import { cn } from '@/utils/cn';
 import { useUpdateMe } from '../api/update-me';
+import { AlertSettingsCard } from './alert-settings-card';
 import { ReadinessThresholdsCard } from './readiness-thresholds-card';
 
 const profileFormSchema = z.object({ name: personNameSchema, units: unitSystemSchema });
@@ -24,7 +25,8 @@ const unitChoices: { value: UnitSystem; label: string; examples: string }[] = [
   { value: 'us', label: 'US customary', examples: 'psi · gal · gal/min · °F · ft²' },
 ];
 
-export function SettingsPage({ me }: { me: MeDto }) {
+/** `children`: further cards the app adds at the end (alerts, calendar, mail). */
+export function SettingsPage({ me, children }: { me: MeDto; children?: React.ReactNode }) {
   const update = useUpdateMe();
   const switchWinery = useSetActiveWinery();
   const toast = useToast();
@@ -81,6 +83,8 @@ export function SettingsPage({ me }: { me: MeDto }) {
       </Card>
       <DecimalMarkCard />
       <ReadinessThresholdsCard />
+      <AlertSettingsCard />
+      {children}
       <Card title="Your wineries" description="Switch to work in another winery's records.">
         <ul className="divide-y divide-ink-100">
           {me.memberships.map((m) => (

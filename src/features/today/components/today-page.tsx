@@ -58,7 +58,8 @@ function GettingStarted() {
 const isNewWinery = (c: TodayDto['counts']) => c.lots === 0 && c.tanks === 0 && c.housings === 0 && c.cartridgeTypes === 0 && c.cartridges === 0;
 
 /** The page a cellar team opens first: what needs a look today. */
-export function TodayPage() {
+/** `alerts`: the person's open alerts, shown under the heading (added by the app). */
+export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
   const me = useMe();
   const today = useToday();
   const wineryName = activeMembership(me.data)?.wineryName;
@@ -76,6 +77,7 @@ export function TodayPage() {
           </>
         }
       />
+      {alerts}
       {today.isPending ? (
         <LoadingState />
       ) : today.isError ? (

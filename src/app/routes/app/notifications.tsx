@@ -1,0 +1,5 @@
+import { NotificationsPage } from '@/features/alerts/components/notifications-page';
+
+export default function NotificationsRoute() {
+  return <NotificationsPage />;
+}

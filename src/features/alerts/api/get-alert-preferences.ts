@@ -1,0 +1,11 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { AlertPreferencesDto } from '@shared/types/alerts';
+import { api } from '@/lib/api-client';
+import { alertsKeys } from './keys';
+
+export const getAlertPreferences = () => api.get<AlertPreferencesDto>('/me/alert-preferences');
+export const getAlertPreferencesQueryOptions = () => queryOptions({ queryKey: alertsKeys.preferences(), queryFn: getAlertPreferences });
+
+export function useAlertPreferences() {
+  return useQuery(getAlertPreferencesQueryOptions());
+}

@@ -1,0 +1,100 @@
+// @vitest-environment node
+// Fault: the real server process is killed (SIGKILL) after it answered a password reset and
+// before the mail was delivered; started again, it delivers the mail, once.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { join } from 'node:path';
+import pg from 'pg';
+import { afterAll, describe, expect, it } from 'vitest';
+import { databaseUrl } from '../../scripts/lib/postgres';
+import { startFakeSmtp } from '../../server/lib/fake-services';
+import { Client, signUp } from '../support/test-app';
+
+const schema = `pgboss_crash_${randomBytes(5).toString('hex')}`;
+const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-crash-'));
+const children: ChildProcess[] = [];
+
+async function freePort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const { port } = server.address() as { port: number };
+  await new Promise((r) => server.close(r));
+  return port;
+}
+
+/** Starts `server/index.ts` as its own process; resolves once it answers /api/health. */
+async function startServerProcess(port: number, smtpPort: number) {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    env: {
+      ...process.env,
+      NODE_ENV: 'test',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DATABASE_URL: databaseUrl('porewise_test'),
+      SMTP_HOST: '127.0.0.1',
+      SMTP_PORT: String(smtpPort),
+      QUEUE_SCHEMA: schema,
+      MAIL_RETRY_DELAY_SECONDS: '1',
+      QUEUE_POLL_SECONDS: '0.5',
+      RATE_LIMIT_SCALE: '100',
+      FAKE_SERVICES_DIR: dir,
+      CLIENT_DIR: join(dir, 'no-client'),
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  children.push(child);
+  let output = '';
+  child.stdout!.on('data', (d) => (output += d));
+  child.stderr!.on('data', (d) => (output += d));
+  const url = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 60_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
+    const ok = await fetch(`${url}/api/health`).then((r) => r.ok, () => false);
+    if (ok) return { child, url };
+    if (Date.now() > deadline) throw new Error(`server did not start: ${output}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+afterAll(async () => {
+  for (const c of children) if (c.exitCode === null) c.kill('SIGKILL');
+  const pool = new pg.Pool({ connectionString: databaseUrl('porewise_test'), max: 1 });
+  await pool.query(`drop schema if exists ${schema} cascade`).catch(() => {});
+  await pool.end();
+  rmSync(dir, { recursive: true, force: true });
+});
+
+describe('a server killed between the request and the delivery', () => {
+  it('delivers the password reset mail once after it starts again', async () => {
+    const smtp = await startFakeSmtp();
+    // A port with nothing listening: the first server cannot deliver before it is killed.
+    const deadSmtpPort = await freePort();
+    try {
+      const first = await startServerProcess(await freePort(), deadSmtpPort);
+      const { email } = await signUp(first.url, { wineryName: 'Crash Test Winery' });
+      const res = await new Client(first.url).post('/api/auth/password-reset/request', { email });
+      expect(res.status).toBeLessThan(300);
+      first.child.kill('SIGKILL');
+      await new Promise((r) => first.child.once('exit', r));
+      expect(smtp.messages).toHaveLength(0);
+
+      const second = await startServerProcess(await freePort(), smtp.port);
+      const mail = await smtp.waitFor(email, { subject: /Reset your Porewise password/, timeoutMs: 30_000 }).catch(async (error: Error) => {
+        const pool = new pg.Pool({ connectionString: databaseUrl('porewise_test'), max: 1 });
+        const { rows } = await pool.query(`select state, retry_count, start_after, started_on, output from ${schema}.job where name = 'mail'`);
+        await pool.end();
+        throw new Error(`${error.message}; jobs: ${JSON.stringify(rows)}`);
+      });
+      expect(mail.text).toMatch(/reset-password\?token=/);
+      await new Promise((r) => setTimeout(r, 2000));
+      expect(smtp.messages.filter((m) => m.to.includes(email))).toHaveLength(1);
+      second.child.kill('SIGTERM');
+      await new Promise((r) => second.child.once('exit', r));
+    } finally {
+      await smtp.close();
+    }
+  }, 120_000);
+});
