@@ -21,7 +21,7 @@ let membraneTypeId: string;
 const prefix = serialPrefix();
 let seq = 0;
 
-async function until<T>(what: string, fn: () => Promise<T | null | undefined | false>, timeoutMs = 10_000): Promise<T> {
+async function until<T>(what: string, fn: () => Promise<T | null | undefined | false>, timeoutMs = 25_000): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const v = await fn();
