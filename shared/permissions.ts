@@ -55,6 +55,9 @@ export const permissions = {
   'records:export': all,
   'records:delete': ['owner'],
   'calc:use': all,
+  // The change log: everyone reads it (owners and auditors every event, the others the kinds of record they may read).
+  'audit:read': all,
+  'winery:export': ['owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;

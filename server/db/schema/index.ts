@@ -7,3 +7,4 @@ export * from './attachments';
 export * from './idempotency';
 export * from './plans';
 export * from './runs';
+export * from './audit';
