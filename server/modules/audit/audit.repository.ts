@@ -215,15 +215,17 @@ export function createAuditRepository(db: DbOrTx) {
 
     /** Appends events; the person's name is copied from their account as it is now, in the same statement. */
     async insert(events: AuditEventInsert[]) {
-      if (events.length === 0) return;
-      await db.insert(auditEventsTable).values(
-        events.map((ev) => ({
-          ...ev,
-          // Millisecond precision, so the keyset paging of the CSV (JavaScript dates) finds every event.
-          at: ev.at ?? sql`date_trunc('milliseconds', clock_timestamp())`,
-          userName: ev.userId ? sql`coalesce((select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${ev.userId}), '')` : '',
-        })),
-      );
+      // In chunks, so a large import stays under PostgreSQL's limit of parameters per statement.
+      for (let i = 0; i < events.length; i += 500) {
+        await db.insert(auditEventsTable).values(
+          events.slice(i, i + 500).map((ev) => ({
+            ...ev,
+            // Millisecond precision, so the keyset paging of the CSV (JavaScript dates) finds every event.
+            at: ev.at ?? sql`date_trunc('milliseconds', clock_timestamp())`,
+            userName: ev.userId ? sql`coalesce((select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${ev.userId}), '')` : '',
+          })),
+        );
+      }
     },
 
     /** One page of events, newest first, and the count of all matching. */

@@ -41,6 +41,8 @@ export async function recordChange(tx: DbOrTx, actor: AuditActor, what: Required
   const before = what.before ?? null;
   const after = what.action === 'delete' ? null : await repo.snapshot(what.kind, actor.wineryId, what.id);
   const shown = after ?? before;
+  // Nothing there before or after (a missing or foreign id): nothing happened to log.
+  if (!shown) return;
   await repo.insert([
     {
       wineryId: actor.wineryId,
@@ -68,12 +70,14 @@ export const auditSnapshot = (tx: DbOrTx, kind: AuditKind, wineryId: string, id:
 export function audited<T>(
   db: DbOrTx,
   actor: AuditActor,
-  what: AuditWhat & { idOf?: (result: T) => string },
+  what: AuditWhat & { idOf?: (result: NoInfer<T>) => string },
   write: (tx: DbOrTx) => Promise<T>,
 ): Promise<T> {
   return inTransaction(db, async (tx) => {
     const before = what.id ? await auditSnapshot(tx, what.kind, actor.wineryId, what.id) : null;
     const result = await write(tx);
+    // A write that answers false or null found nothing to change (the service answers 404): no event.
+    if (result === false || result === null) return result;
     const id = what.id ?? what.idOf?.(result) ?? (typeof result === 'string' ? result : undefined);
     if (!id) throw new Error(`audited: no record id for ${what.kind} ${what.action}`);
     await recordChange(tx, actor, { action: what.action, kind: what.kind, id, before });
@@ -81,25 +85,19 @@ export function audited<T>(
   });
 }
 
-/** Several records created at once (an import): one event each, in one statement. */
-export async function recordCreated(tx: DbOrTx, actor: AuditActor, action: AuditAction, kind: AuditKind, ids: string[]) {
-  const repo = createAuditRepository(tx);
-  const events = [];
-  for (const id of ids) {
-    const after = await repo.snapshot(kind, actor.wineryId, id);
-    events.push({
+/** Several records created at once (an import): one event each, written in one statement, from the inserted rows. */
+export async function recordCreated(tx: DbOrTx, actor: AuditActor, action: AuditAction, kind: AuditKind, records: { id: string; label: string; values: object }[]) {
+  await createAuditRepository(tx).insert(
+    records.map((r) => ({
       wineryId: actor.wineryId,
       userId: actor.userId,
       action,
       recordKind: kind,
-      recordId: id,
-      recordLabel: after?.label ?? '',
-      parentKind: after?.parentKind ?? null,
-      parentId: after?.parentId ?? null,
-      changes: fieldChanges(null, after?.values ?? null),
-    });
-  }
-  await repo.insert(events);
+      recordId: r.id,
+      recordLabel: r.label,
+      changes: fieldChanges(null, r.values as Record<string, unknown>),
+    })),
+  );
 }
 
 /** Owners and auditors read every event; the others the events of the kinds of record they may read. */

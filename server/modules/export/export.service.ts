@@ -24,7 +24,11 @@ export type ExportManifest = {
 };
 
 /** A file name safe inside a zip: no folders, no control characters. */
-const zipSafe = (name: string) => name.replace(/[\\/:*?"<>|\u0000-\u001f]/g, '_').slice(0, 150) || 'file';
+const zipSafe = (name: string) =>
+  [...name]
+    .map((ch) => (ch.charCodeAt(0) < 32 || '\\/:*?"<>|'.includes(ch) ? '_' : ch))
+    .join('')
+    .slice(0, 150) || 'file';
 
 /**
  * The whole winery as one zip, streamed: a CSV per kind of record (read from the database in

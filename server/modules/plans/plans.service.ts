@@ -20,6 +20,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../cellar/db-errors';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
 import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
+import { audited } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
 
@@ -213,8 +214,10 @@ export function createPlansService(db: Database) {
       const plan = await r.lockPlan(tenant.wineryId, planId);
       if (!plan) throw notFound('Plan');
       if (plan.status !== 'draft') throw locked(plan.status);
-      await change(r, plan);
-      await r.touchPlan(tenant.wineryId, planId);
+      await audited(tx, tenant, { action: 'update', kind: 'plan', id: planId }, async () => {
+        await change(r, plan);
+        await r.touchPlan(tenant.wineryId, planId);
+      });
     });
     return get(tenant, planId);
   }
@@ -241,7 +244,7 @@ export function createPlansService(db: Database) {
       const id = await db.transaction(async (tx) => {
         const r = createPlansRepository(tx);
         await requireLine(r, tenant.wineryId, input.lineId);
-        return r.insertPlan(tenant.wineryId, tenant.userId, input);
+        return audited(tx, tenant, { action: 'create', kind: 'plan' }, () => r.insertPlan(tenant.wineryId, tenant.userId, input));
       });
       return get(tenant, id);
     },
@@ -262,7 +265,7 @@ export function createPlansService(db: Database) {
         if (plan.status !== 'draft') {
           throw conflict('Only draft plans can be deleted. Reopen an approved plan first; a done plan stays for the records.', 'plan_not_draft');
         }
-        await r.deletePlan(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'plan', id }, () => r.deletePlan(tenant.wineryId, id));
       });
     },
 
@@ -360,7 +363,7 @@ export function createPlansService(db: Database) {
           const fields = Object.fromEntries(detail.approvalBlockers.map((reason, i) => [`reasons.${i}`, reason]));
           throw new HttpError(409, 'plan_not_ready', `This plan cannot be approved yet: ${detail.approvalBlockers.join(' ')}`, fields);
         }
-        await r.updatePlan(tenant.wineryId, id, { status: 'approved', approvedBy: tenant.userId, approvedAt: now });
+        await audited(tx, tenant, { action: 'approve', kind: 'plan', id }, () => r.updatePlan(tenant.wineryId, id, { status: 'approved', approvedBy: tenant.userId, approvedAt: now }));
       });
       return get(tenant, id);
     },
@@ -373,7 +376,7 @@ export function createPlansService(db: Database) {
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is done; its record stays as it was.', 'plan_done');
         if (plan.status === 'draft') throw conflict('This plan is already a draft.', 'plan_not_approved');
-        await r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null });
+        await audited(tx, tenant, { action: 'reopen', kind: 'plan', id }, () => r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null }));
       });
       return get(tenant, id);
     },
@@ -386,7 +389,7 @@ export function createPlansService(db: Database) {
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is already done.', 'plan_done');
         if (plan.status !== 'approved') throw conflict('Approve the plan before marking it done.', 'plan_not_approved');
-        await r.updatePlan(tenant.wineryId, id, { status: 'done' });
+        await audited(tx, tenant, { action: 'done', kind: 'plan', id }, () => r.updatePlan(tenant.wineryId, id, { status: 'done' }));
       });
       return get(tenant, id);
     },

@@ -4,6 +4,7 @@ import type { WinerySettingsDto } from '../../../shared/types/api';
 import type { DbOrTx } from '../../db/client';
 import { notFound } from '../../lib/errors';
 import { createWinerySettingsRepository } from './winery-settings.repository';
+import { audited } from '../audit/audit.service';
 
 function thresholdsFrom(settings: Record<string, unknown>): ReadinessThresholds | null {
   const parsed = readinessThresholdsSchema.safeParse(settings.readinessThresholds);
@@ -32,13 +33,13 @@ export function createWinerySettingsService(db: DbOrTx) {
   }
   return {
     get,
-    async update(wineryId: string, input: UpdateWinerySettingsInput) {
+    async update(wineryId: string, input: UpdateWinerySettingsInput, actorId: string | null = null) {
       const winery = await repo.find(wineryId);
       if (!winery) throw notFound('Winery');
       const settings = { ...winery.settings };
       if (input.readinessThresholds === null) delete settings.readinessThresholds;
       else if (input.readinessThresholds) settings.readinessThresholds = input.readinessThresholds;
-      await repo.update(wineryId, { name: input.name, settings });
+      await audited(db, { wineryId, userId: actorId }, { action: 'update', kind: 'settings', id: wineryId }, (tx) => createWinerySettingsRepository(tx).update(wineryId, { name: input.name, settings }));
       return get(wineryId);
     },
   };
