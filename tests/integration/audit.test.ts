@@ -236,3 +236,232 @@ describe('the change log: one event per change, in the same transaction', () => 
     expect(await eventCount(otherWineryId)).toBe(otherBefore);
   });
 });
+
+describe('append-only', () => {
+  it('the database refuses UPDATE, DELETE and TRUNCATE of events, even by hand in SQL', async () => {
+    const [event] = await latestEvents(1);
+    await expect(app.pool.query(`update audit_events set user_name = 'someone else' where id = $1`, [event.id])).rejects.toThrow(/append-only/);
+    await expect(app.pool.query(`delete from audit_events where id = $1`, [event.id])).rejects.toThrow(/append-only/);
+    await expect(app.pool.query(`truncate audit_events`)).rejects.toThrow(/append-only/);
+    await expect(app.db.update(auditEventsTable).set({ recordLabel: 'x' }).where(eq(auditEventsTable.id, event.id))).rejects.toThrow();
+    const [still] = await app.db.select().from(auditEventsTable).where(and(eq(auditEventsTable.id, event.id)));
+    expect(still).toEqual(event);
+  });
+
+  it('no route updates or deletes an event', async () => {
+    const [event] = await latestEvents(1);
+    for (const method of ['PUT', 'PATCH', 'DELETE', 'POST'] as const) {
+      expect((await owner.request(method, `/api/audit/${event.id}`, method === 'DELETE' ? undefined : {})).status).toBe(404);
+    }
+    expect((await owner.request('DELETE', '/api/audit')).status).toBe(404);
+  });
+});
+
+describe('GET /api/audit', () => {
+  it('pages on the server, newest first, with the total', async () => {
+    const total = await eventCount();
+    const first = await owner.get('/api/audit?pageSize=5&page=1');
+    expect(first.status).toBe(200);
+    expect(first.body.total).toBe(total);
+    expect(first.body.items).toHaveLength(5);
+    const second = await owner.get('/api/audit?pageSize=5&page=2');
+    expect(second.body.items).toHaveLength(5);
+    const ids = [...first.body.items, ...second.body.items].map((e: { id: string }) => e.id);
+    expect(new Set(ids).size).toBe(10);
+    const times = [...first.body.items, ...second.body.items].map((e: { at: string }) => Date.parse(e.at));
+    expect([...times].sort((a, b) => b - a)).toEqual(times);
+    expect(first.body.items[0]).not.toHaveProperty('wineryId');
+  });
+
+  it('filters by record kind, record, person, action and date range', async () => {
+    const tank = await createTank(members['cellar-master'].client, { name: `Filter tank ${serialPrefix()}` });
+    await members['cellar-master'].client.put(`/api/tanks/${tank.id}`, tankBody({ name: tank.name, capacityL: 7777 }));
+
+    const byRecord = await owner.get(`/api/audit?kind=tank&recordId=${tank.id}`);
+    expect(byRecord.body.items.map((e: { action: string }) => e.action)).toEqual(['update', 'create']);
+    expect(byRecord.body.total).toBe(2);
+
+    const byPerson = await owner.get(`/api/audit?userId=${members['cellar-master'].userId}&pageSize=100`);
+    expect(byPerson.body.items.length).toBeGreaterThanOrEqual(2);
+    expect(byPerson.body.items.every((e: { userId: string }) => e.userId === members['cellar-master'].userId)).toBe(true);
+
+    const byAction = await owner.get('/api/audit?action=retire');
+    expect(byAction.body.items.length).toBeGreaterThanOrEqual(1);
+    expect(byAction.body.items.every((e: { action: string; recordKind: string }) => e.action === 'retire' && e.recordKind === 'cartridge')).toBe(true);
+
+    const byKind = await owner.get('/api/audit?kind=plan&pageSize=100');
+    expect(byKind.body.items.every((e: { recordKind: string }) => e.recordKind === 'plan')).toBe(true);
+
+    const today = new Date().toISOString().slice(0, 10);
+    const inRange = await owner.get(`/api/audit?from=${today}&to=${today}&kind=tank&recordId=${tank.id}`);
+    expect(inRange.body.total).toBe(2);
+    const past = await owner.get(`/api/audit?from=2020-01-01&to=2020-12-31`);
+    expect(past.body).toEqual({ items: [], total: 0 });
+
+    // A lot's history includes its lab results (events name the lot as their parent).
+    const lotHistory = await owner.get(`/api/audit?kind=lot&recordId=${state.lot}`);
+    expect(lotHistory.body.items.map((e: { recordKind: string }) => e.recordKind)).toEqual(expect.arrayContaining(['lot', 'lab-result', 'attachment']));
+  });
+
+  it('rejects bad filters with field messages (400)', async () => {
+    for (const q of ['kind=wine', 'action=smash', 'from=yesterday', 'page=0', 'pageSize=1000', 'from=2026-02-01&to=2026-01-01']) {
+      const res = await owner.get(`/api/audit?${q}`);
+      expect(res.status, q).toBe(400);
+      expect(res.body.error.fields, q).toBeTruthy();
+    }
+  });
+
+  it('every role reads the log of its own winery; another winery sees none of it', async () => {
+    for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
+      const res = await members[role].client.get('/api/audit?pageSize=1');
+      expect(res.status, role).toBe(200);
+      expect(res.body.total, role).toBeGreaterThan(0);
+    }
+    // Invitations are the owner's business: a technician does not see their events.
+    const tech = await members.technician.client.get('/api/audit?kind=invitation');
+    expect(tech.body.total).toBe(0);
+    expect((await members.auditor.client.get('/api/audit?kind=invitation')).body.total).toBeGreaterThan(0);
+
+    const foreign = await other.get(`/api/audit?kind=lot&recordId=${state.lot}`);
+    expect(foreign.status).toBe(200);
+    expect(foreign.body).toEqual({ items: [], total: 0 });
+    const all = await other.get('/api/audit?pageSize=100');
+    expect(all.body.items.every((e: { recordId: string }) => e.recordId !== state.lot)).toBe(true);
+    expect((await new (owner.constructor as typeof Client)(app.baseUrl).get('/api/audit')).status).toBe(401);
+  });
+
+  it('lists the people who appear in the log', async () => {
+    const res = await owner.get('/api/audit/people');
+    expect(res.status).toBe(200);
+    expect(res.body.items).toEqual(expect.arrayContaining([{ userId: ownerId, userName: 'Ana Audit' }]));
+  });
+});
+
+describe('GET /api/audit/csv', () => {
+  it('parses back with papaparse, filtered like the list, with formula cells neutralised', async () => {
+    const name = `=HYPERLINK("http://evil.test","x") ${serialPrefix()}`;
+    const tank = await createTank(owner, { name, notes: '@SUM(1+1)' });
+    await owner.put(`/api/tanks/${tank.id}`, tankBody({ name, capacityL: 1234, notes: '-2+3' }));
+    const res = await owner.get(`/api/audit/csv?kind=tank&recordId=${tank.id}`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toMatch(/^text\/csv/);
+    expect(res.headers.get('content-disposition')).toMatch(/attachment; filename="change-log-/);
+    const parsed = Papa.parse<string[]>(res.text.trim(), { skipEmptyLines: true });
+    expect(parsed.errors).toEqual([]);
+    const [header, ...rows] = parsed.data;
+    expect(header).toEqual(['at', 'person', 'person_id', 'action', 'record_kind', 'record_id', 'record', 'changes']);
+    expect(rows).toHaveLength(2);
+    expect(rows.map((r) => r[3])).toEqual(['Changed', 'Created']);
+    expect(rows[0][6]).toBe(`'${name}`);
+    expect(rows[0][7]).toContain('capacityL');
+    for (const row of rows) for (const cell of row) expect(cell).not.toMatch(/^[=+\-@\t\r]/);
+  });
+
+  it('writes numbers as numbers and neutralises every text cell starting with =, +, -, @, tab or CR', async () => {
+    for (const bad of ['=1+1', '+1', '-1+2', '@A1', '\tx', '\rx']) expect(neutraliseCell(bad)).toBe(`'${bad}`);
+    expect(neutraliseCell(-2.5)).toBe('-2.5');
+    expect(neutraliseCell('Lot 12')).toBe('Lot 12');
+    expect(neutraliseCell(null)).toBe('');
+    expect(neutraliseCell(Number.NaN)).toBe('');
+    const text = await toCsv(['a', 'b'], [['=cmd', -3], ['plain, with comma', 'line\nbreak']]);
+    const back = Papa.parse<string[]>(text.trim()).data;
+    expect(back).toEqual([['a', 'b'], ["'=cmd", '-3'], ['plain, with comma', 'line\nbreak']]);
+  });
+
+  it('another winery’s CSV holds none of ours; bad filters are 400', async () => {
+    const res = await other.get(`/api/audit/csv?kind=lot&recordId=${state.lot}`);
+    expect(res.status).toBe(200);
+    expect(Papa.parse(res.text.trim()).data).toHaveLength(1);
+    expect((await owner.get('/api/audit/csv?from=soon')).status).toBe(400);
+  });
+});
+
+describe('the field diff', () => {
+  it('lists only what changed, dates as ISO text, ignoring ids and bookkeeping', () => {
+    const at = new Date('2026-01-02T03:04:05.000Z');
+    expect(
+      fieldChanges({ id: 'a', updatedAt: at, name: 'A', n: 1, d: at, j: { x: 1 } }, { id: 'a', updatedAt: new Date(), name: 'B', n: 1, d: at, j: { x: 2 } }),
+    ).toEqual({ name: { before: 'A', after: 'B' }, j: { before: { x: 1 }, after: { x: 2 } } });
+    expect(fieldChanges({ a: 1 }, { a: 1 })).toBeNull();
+    expect(fieldChanges(null, { a: at })).toEqual({ a: { before: null, after: '2026-01-02T03:04:05.000Z' } });
+  });
+});
+
+function hasUnzip() {
+  try {
+    execFileSync('unzip', ['-v'], { stdio: 'ignore' });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+describe('GET /api/export/winery', () => {
+  it('streams a zip that unzip lists: a CSV per kind of record, the attachments’ files and a manifest with counts and SHA-256', async () => {
+    expect(hasUnzip(), 'unzip is needed (npm test installs it)').toBe(true);
+    const up = await upload(owner, { ownerKind: 'lot', ownerId: state.lot }, { name: 'kept report.pdf', bytes: pdf, type: 'application/pdf' });
+    expect(up.status).toBe(201);
+    const res = await fetch(`${app.baseUrl}/api/export/winery`, { headers: { cookie: [...owner.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toBe('application/zip');
+    expect(res.headers.get('content-disposition')).toMatch(/attachment; filename="porewise-audit-test-winery-renamed-\d{4}-\d{2}-\d{2}\.zip"/);
+    const dir = mkdtempSync(join(tmpdir(), 'porewise-export-'));
+    try {
+      const zip = join(dir, 'export.zip');
+      writeFileSync(zip, Buffer.from(await res.arrayBuffer()));
+      const listing = execFileSync('unzip', ['-l', zip], { encoding: 'utf8' });
+      const expected = [
+        'tanks.csv', 'lots.csv', 'lab-results.csv', 'housings.csv', 'lines.csv', 'cartridge-types.csv', 'cartridges.csv', 'cartridge-events.csv',
+        'care-cycles.csv', 'integrity-tests.csv', 'plans.csv', 'plan-lots.csv', 'plan-trains.csv', 'runs.csv', 'readings.csv', 'attachments.csv',
+        'audit-events.csv', 'members.csv', 'manifest.json',
+      ];
+      for (const file of expected) expect(listing, file).toMatch(new RegExp(`\\s${file.replace('.', '\\.')}\\n`));
+      expect(listing).toMatch(new RegExp(`attachments/lot/${up.body.id}-kept report\\.pdf`));
+
+      execFileSync('unzip', ['-q', zip, '-d', join(dir, 'x')]);
+      const manifest = JSON.parse(readFileSync(join(dir, 'x', 'manifest.json'), 'utf8'));
+      expect(manifest).toMatchObject({ format: 'porewise-winery-export', version: 1, winery: { id: wineryId }, exportedBy: 'Ana Audit' });
+      for (const f of manifest.files as { file: string; rows: number; sha256: string }[]) {
+        const bytes = readFileSync(join(dir, 'x', f.file));
+        expect(createHash('sha256').update(bytes).digest('hex'), f.file).toBe(f.sha256);
+        const parsed = Papa.parse<string[]>(bytes.toString('utf8').trim(), { skipEmptyLines: true });
+        expect(parsed.data.length - 1, f.file).toBe(f.rows);
+      }
+      const attached = readFileSync(join(dir, 'x', 'attachments', 'lot', `${up.body.id}-kept report.pdf`));
+      expect(Buffer.compare(attached, Buffer.from(pdf))).toBe(0);
+
+      // Counts match the database; only this winery's rows are in it.
+      const [{ n: events }] = await app.db.select({ n: sql<number>`cast(count(*) as int)` }).from(auditEventsTable).where(eq(auditEventsTable.wineryId, wineryId));
+      expect(manifest.counts['audit-events']).toBeGreaterThan(0);
+      expect(manifest.counts['audit-events']).toBeLessThanOrEqual(events);
+      expect(manifest.counts.runs).toBeGreaterThanOrEqual(1);
+      expect(manifest.counts.readings).toBeGreaterThanOrEqual(1);
+      const lots = Papa.parse<Record<string, string>>(readFileSync(join(dir, 'x', 'lots.csv'), 'utf8').trim(), { header: true }).data;
+      expect(lots.every((l) => l.winery_id === wineryId)).toBe(true);
+      expect(lots.map((l) => l.id)).toContain(world.lotId);
+      const membersCsv = readFileSync(join(dir, 'x', 'members.csv'), 'utf8');
+      expect(membersCsv).not.toMatch(/argon2|password/i);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('is the owner’s alone (403 for every other role); another winery exports only its own', async () => {
+    for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
+      expect((await members[role].client.get('/api/export/winery')).status, role).toBe(403);
+    }
+    const res = await fetch(`${app.baseUrl}/api/export/winery`, { headers: { cookie: [...other.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(res.status).toBe(200);
+    const dir = mkdtempSync(join(tmpdir(), 'porewise-export-'));
+    try {
+      const zip = join(dir, 'other.zip');
+      writeFileSync(zip, Buffer.from(await res.arrayBuffer()));
+      execFileSync('unzip', ['-q', zip, '-d', join(dir, 'x')]);
+      const lots = readFileSync(join(dir, 'x', 'lots.csv'), 'utf8');
+      expect(lots).not.toContain(world.lotId);
+      expect(lots).not.toContain(wineryId);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
