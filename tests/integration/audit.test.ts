@@ -13,7 +13,7 @@ import { fieldChanges } from '../../server/modules/audit/audit-diff';
 import type { Role } from '../../shared/permissions';
 import { deliveryCsv, serialPrefix } from '../factories/cartridges';
 import { createLot, createTank, labResultBody, lotBody, tankBody } from '../factories/cellar';
-import { cartridgeTypeInput, createCartridgeType, createHousing, housingInput, lineInput } from '../factories/equipment';
+import { cartridgeTypeInput, housingInput, lineInput } from '../factories/equipment';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, planBody, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, uniqueEmail, type Client, type TestApp } from '../support/test-app';
 
