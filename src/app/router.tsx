@@ -31,6 +31,7 @@ export function createRouter() {
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
+        { path: paths.recordsChanges, lazy: lazyPage(() => import('./routes/app/records-changes')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },

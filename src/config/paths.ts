@@ -21,6 +21,7 @@ export const paths = {
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',
+  recordsChanges: '/records/changes',
 } as const;
 
 export function withNext(path: string, next: string | null | undefined) {

@@ -15,6 +15,7 @@ import { useSetActiveWinery } from '@/lib/session';
 import { cn } from '@/utils/cn';
 import { useUpdateMe } from '../api/update-me';
 import { ReadinessThresholdsCard } from './readiness-thresholds-card';
+import { WineryExportCard } from './winery-export-card';
 
 const profileFormSchema = z.object({ name: personNameSchema, units: unitSystemSchema });
 
@@ -79,6 +80,7 @@ export function SettingsPage({ me }: { me: MeDto }) {
         </form>
       </Card>
       <ReadinessThresholdsCard />
+      <WineryExportCard />
       <Card title="Your wineries" description="Switch to work in another winery's records.">
         <ul className="divide-y divide-ink-100">
           {me.memberships.map((m) => (
