@@ -7,6 +7,7 @@ import { auditActionLabels, auditActions, auditKindLabels, auditKinds, fromInsta
 import type { AuditEventDto } from '@shared/types/audit';
 import { buttonClasses } from '@/components/ui/button';
 import { DataTable } from '@/components/ui/data-table';
+import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
 import { Select } from '@/components/ui/select';
@@ -91,8 +92,7 @@ export function ChangeLogPage() {
         }
       />
       <form className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5" aria-label="Filter the change log" onSubmit={(e) => e.preventDefault()}>
-        <label className="flex flex-col gap-1.5 text-sm font-semibold text-ink-800" htmlFor="changes-kind">
-          Record kind
+        <FormField label="Record kind" htmlFor="changes-kind">
           <Select
             id="changes-kind"
             className="font-normal"
@@ -101,9 +101,8 @@ export function ChangeLogPage() {
             placeholder="All records"
             options={auditKinds.map((k) => ({ value: k, label: auditKindLabels[k] }))}
           />
-        </label>
-        <label className="flex flex-col gap-1.5 text-sm font-semibold text-ink-800" htmlFor="changes-person">
-          Person
+        </FormField>
+        <FormField label="Person" htmlFor="changes-person">
           <Select
             id="changes-person"
             className="font-normal"
@@ -112,9 +111,8 @@ export function ChangeLogPage() {
             placeholder="Everyone"
             options={(people.data?.items ?? []).map((p) => ({ value: p.userId, label: p.userName || p.userId }))}
           />
-        </label>
-        <label className="flex flex-col gap-1.5 text-sm font-semibold text-ink-800" htmlFor="changes-action">
-          Action
+        </FormField>
+        <FormField label="Action" htmlFor="changes-action">
           <Select
             id="changes-action"
             className="font-normal"
@@ -123,28 +121,13 @@ export function ChangeLogPage() {
             placeholder="Any action"
             options={auditActions.map((a) => ({ value: a, label: auditActionLabels[a] }))}
           />
-        </label>
-        <label className="flex flex-col gap-1.5 text-sm font-semibold text-ink-800" htmlFor="changes-from">
-          From
+        </FormField>
+        <FormField label="From" htmlFor="changes-from">
           <Input id="changes-from" type="date" className="font-normal" value={from ?? ''} onChange={(e) => setFilter('from', e.target.value)} />
-        </label>
-        <label className="flex flex-col gap-1.5 text-sm font-semibold text-ink-800" htmlFor="changes-to">
-          To
-          <Input
-            id="changes-to"
-            type="date"
-            className="font-normal"
-            value={to ?? ''}
-            aria-invalid={rangeBackwards || undefined}
-            aria-describedby={rangeBackwards ? 'changes-to-error' : undefined}
-            onChange={(e) => setFilter('to', e.target.value)}
-          />
-          {rangeBackwards ? (
-            <span id="changes-to-error" className="font-normal text-stop-700">
-              The end is before the start; the dates are not applied.
-            </span>
-          ) : null}
-        </label>
+        </FormField>
+        <FormField label="To" htmlFor="changes-to" error={rangeBackwards ? 'The end is before the start; the dates are not applied.' : undefined}>
+          <Input id="changes-to" type="date" className="font-normal" value={to ?? ''} onChange={(e) => setFilter('to', e.target.value)} />
+        </FormField>
       </form>
       {filters.recordId ? (
         <p className="flex flex-wrap items-center gap-2 text-sm text-ink-700">
@@ -162,7 +145,7 @@ export function ChangeLogPage() {
         <>
           <p className="text-sm text-ink-600" aria-live="polite">
             {events.data.total === 1 ? '1 change' : `${events.data.total.toLocaleString()} changes`}
-            {filtered ? ' match the filters' : ''}
+            {filtered ? (events.data.total === 1 ? ' matches the filters' : ' match the filters') : ''}
           </p>
           <ChangeLogPhoneList events={events.data.items} />
           <DataTable
