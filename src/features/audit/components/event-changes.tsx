@@ -4,13 +4,46 @@ import type { AuditEventDto } from '@shared/types/audit';
 const ISO_DATE_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
 const MAX_VALUE_CHARS = 120;
 
-/** A field name as words: "capacityL" → "capacity L", "housingId" → "housing id". */
+const UNIT_SUFFIXES: [RegExp, string][] = [
+  [/LhPer10in$/, 'L/h per 10 in'],
+  [/M2Per10in$/, 'm² per 10 in'],
+  [/MlMinPer10in$/, 'mL/min per 10 in'],
+  [/Per10in$/, 'per 10 in'],
+  [/GPerL$/, 'g/L'],
+  [/MgL$/, 'mg/L'],
+  [/PctVol$/, '% vol'],
+  [/Pct$/, '%'],
+  [/Lh$/, 'L/h'],
+  [/Bar$/, 'bar'],
+  [/Mbar$/, 'mbar'],
+  [/Um$/, 'µm'],
+  [/Mm$/, 'mm'],
+  [/Ml$/, 'mL'],
+  [/Ntu$/, 'NTU'],
+  [/In$/, 'in'],
+  [/C$/, '°C'],
+  [/L$/, 'L'],
+  [/M2$/, 'm²'],
+  [/S$/, 's'],
+];
+
+/** A field name as words with its unit: "capacityL" → "Capacity (L)", "housingId" → "Housing id". */
 export function fieldLabel(field: string) {
-  return field
+  let unit = '';
+  let name = field;
+  for (const [re, label] of UNIT_SUFFIXES) {
+    if (re.test(field) && field.replace(re, '').length > 0) {
+      unit = label;
+      name = field.replace(re, '');
+      break;
+    }
+  }
+  const words = name
     .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
     .replace(/_/g, ' ')
     .toLowerCase()
     .replace(/^./, (c) => c.toUpperCase());
+  return unit ? `${words} (${unit})` : words;
 }
 
 /** A stored value as short text; long structures are cut with an ellipsis (the CSV has them whole). */
