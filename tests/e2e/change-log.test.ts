@@ -78,6 +78,7 @@ describe('change log', () => {
     // The owner finds the export in Settings.
     await page.goto(`${app.baseUrl}/settings`);
     await page.getByRole('link', { name: 'Download the export (zip)' }).waitFor();
+    await screenshot(page, 'change-log-settings-export-desktop');
     expect(errors).toEqual([]);
 
     const phone = await contextFor(owner, { width: 390, height: 844 }, true);
@@ -89,6 +90,9 @@ describe('change log', () => {
     const overflow = await small.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
     expect(overflow).toBeLessThanOrEqual(0);
     await screenshot(small, 'change-log-phone');
+    await small.goto(`${app.baseUrl}/cellar/lots/${lot.id}`);
+    await small.getByRole('region', { name: 'Change history' }).getByText('Created', { exact: true }).waitFor();
+    await screenshot(small, 'change-log-lot-history-phone');
     expect(phoneErrors).toEqual([]);
     await desktop.close();
     await phone.close();

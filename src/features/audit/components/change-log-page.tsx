@@ -91,8 +91,8 @@ export function ChangeLogPage() {
           </a>
         }
       />
-      <form className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5" aria-label="Filter the change log" onSubmit={(e) => e.preventDefault()}>
-        <FormField label="Record kind" htmlFor="changes-kind">
+      <form className="grid grid-cols-2 gap-3 lg:grid-cols-5" aria-label="Filter the change log" onSubmit={(e) => e.preventDefault()}>
+        <FormField label="Record kind" htmlFor="changes-kind" className="max-sm:col-span-2">
           <Select
             id="changes-kind"
             className="font-normal"
@@ -102,7 +102,7 @@ export function ChangeLogPage() {
             options={auditKinds.map((k) => ({ value: k, label: auditKindLabels[k] }))}
           />
         </FormField>
-        <FormField label="Person" htmlFor="changes-person">
+        <FormField label="Person" htmlFor="changes-person" className="max-sm:col-span-2">
           <Select
             id="changes-person"
             className="font-normal"
@@ -112,7 +112,7 @@ export function ChangeLogPage() {
             options={(people.data?.items ?? []).map((p) => ({ value: p.userId, label: p.userName || p.userId }))}
           />
         </FormField>
-        <FormField label="Action" htmlFor="changes-action">
+        <FormField label="Action" htmlFor="changes-action" className="max-sm:col-span-2">
           <Select
             id="changes-action"
             className="font-normal"
