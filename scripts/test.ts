@@ -37,6 +37,15 @@ function ensurePoppler() {
   });
 }
 
+/** unzip (Debian's package) lists the whole-winery export in the tests, from outside the project. */
+function ensureUnzip() {
+  if (existsSync('/usr/bin/unzip')) return;
+  if (process.getuid?.() !== 0) throw new Error('unzip is needed for the export tests. Install it with: sudo apt-get install -y unzip');
+  console.log('[porewise] installing unzip from Debian packages (apt-get) …');
+  execFileSync('apt-get', ['update'], { stdio: 'inherit' });
+  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'unzip'], { stdio: 'inherit', env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } });
+}
+
 async function main() {
   const startedCluster = startCluster();
   let status = 1;
@@ -45,6 +54,7 @@ async function main() {
     await runMigrations(databaseUrl('porewise_test'));
     ensureChromium();
     ensurePoppler();
+    ensureUnzip();
     buildClientIfChanged();
     console.log('[porewise] type-checking and linting …');
     execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });

@@ -29,6 +29,8 @@ import { appInfoRoutes } from './modules/health/app-info.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { invitationRoutes, teamRoutes } from './modules/team/team.routes';
+import { auditRoutes } from './modules/audit/audit.routes';
+import { exportRoutes } from './modules/export/export.routes';
 import { attachmentsRoutes } from './modules/attachments/attachments.routes';
 import { cartridgesRoutes } from './modules/cartridges/cartridges.routes';
 import { cellarRoutes } from './modules/cellar/cellar.routes';
@@ -151,6 +153,8 @@ export function createApp(deps: AppDeps): Express {
   api.use(runsRoutes(moduleDeps));
   api.use(recordsRoutes(moduleDeps));
   api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
+  api.use(auditRoutes(moduleDeps));
+  api.use(exportRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

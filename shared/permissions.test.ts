@@ -5,7 +5,7 @@ import { actions, can, permissions, roles, type Action, type Role } from './perm
 const expected: Record<Role, Action[]> = {
   owner: actions,
   'cellar-master': actions.filter(
-    (a) => !['team:invite', 'team:change-role', 'team:remove', 'settings:edit', 'mail-outbox:read', 'mail-failures:manage', 'records:delete'].includes(a),
+    (a) => !['team:invite', 'team:change-role', 'team:remove', 'settings:edit', 'mail-outbox:read', 'mail-failures:manage', 'records:delete', 'winery:export'].includes(a),
   ),
   winemaker: actions.filter(
     (a) =>

@@ -57,6 +57,9 @@ export const permissions = {
   'calc:use': all,
   'notifications:read': all,
   'mail-failures:manage': ['owner'],
+  // The change log: everyone reads it (owners and auditors every event, the others the kinds of record they may read).
+  'audit:read': all,
+  'winery:export': ['owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof permissions;

@@ -35,6 +35,7 @@ export function createRouter() {
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
         { path: paths.notifications, lazy: lazyPage(() => import('./routes/app/notifications')) },
+        { path: paths.recordsChanges, lazy: lazyPage(() => import('./routes/app/records-changes')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },

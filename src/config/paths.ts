@@ -25,6 +25,7 @@ export const paths = {
   settings: '/settings',
   notifications: '/notifications',
   outbox: '/outbox',
+  recordsChanges: '/records/changes',
 } as const;
 
 export function withNext(path: string, next: string | null | undefined) {

@@ -78,7 +78,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
 
     // Restricted navigation and no team management for a technician.
     const nav = techPage.getByRole('navigation', { name: 'Sections' });
-    expect(await nav.getByRole('link').allTextContents()).toEqual(['Today', 'Cellar', 'Equipment', 'Cartridges', 'Plans', 'Runs', 'Care', 'Records', 'Team', 'Settings']);
+    expect(await nav.getByRole('link').allTextContents()).toEqual(['Today', 'Cellar', 'Equipment', 'Cartridges', 'Plans', 'Runs', 'Care', 'Records', 'Change log', 'Team', 'Settings']);
     expect(await techPage.getByRole('button', { name: 'Invite someone' }).count()).toBe(0);
     expect(await techPage.getByRole('combobox', { name: /Role of/ }).count()).toBe(0);
     await screenshot(techPage, 'shell-technician-phone');
@@ -87,7 +87,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     await page.reload();
     await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).waitFor();
     expect(await page.getByRole('combobox', { name: 'Role of Rowan Pike' }).inputValue()).toBe('technician');
-    expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents()).toEqual(['Today', 'Cellar', 'Equipment', 'Cartridges', 'Plans', 'Runs', 'Care', 'Records', 'Team', 'Settings', 'Mail outbox']);
+    expect(await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents()).toEqual(['Today', 'Cellar', 'Equipment', 'Cartridges', 'Plans', 'Runs', 'Care', 'Records', 'Change log', 'Team', 'Settings', 'Mail outbox']);
 
     // Settings: choose US customary units.
     await techPage.getByRole('link', { name: 'Settings' }).click();

@@ -8,3 +8,4 @@ export * from './idempotency';
 export * from './plans';
 export * from './runs';
 export * from './alerts';
+export * from './audit';

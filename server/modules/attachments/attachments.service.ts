@@ -8,6 +8,7 @@ import type { Storage } from '../../lib/storage';
 import type { TenantContext } from '../../middleware/authorize';
 import { createAttachmentsRepository, type AttachmentRow } from './attachments.repository';
 import { safeFileName, sniffFileType } from './file-type';
+import { audited } from '../audit/audit.service';
 
 export function presentAttachment(row: AttachmentRow): AttachmentDto {
   return {
@@ -47,7 +48,7 @@ export function createAttachmentsService({ db, storage }: { db: Database; storag
       const storageKey = `wineries/${tenant.wineryId}/attachments/${randomUUID()}`;
       await storage.put(storageKey, file.buffer, sniffed.contentType);
       try {
-        const id = await repo.insert({
+        const id = await audited(db, tenant, { action: 'create', kind: 'attachment' }, (tx) => createAttachmentsRepository(tx).insert({
           wineryId: tenant.wineryId,
           ownerKind: owner.ownerKind,
           ownerId: owner.ownerId,
@@ -56,7 +57,7 @@ export function createAttachmentsService({ db, storage }: { db: Database; storag
           sizeBytes: file.buffer.byteLength,
           storageKey,
           uploadedBy: tenant.userId,
-        });
+        }));
         return presentAttachment((await repo.find(tenant.wineryId, id))!);
       } catch (error) {
         await storage.remove(storageKey).catch(() => undefined);
@@ -78,7 +79,7 @@ export function createAttachmentsService({ db, storage }: { db: Database; storag
       if (!can(tenant.role, 'records:delete') && row.uploadedById !== tenant.userId) {
         throw forbidden('Only the person who attached this file, or the owner, can delete it.');
       }
-      await repo.remove(tenant.wineryId, id);
+      await audited(db, tenant, { action: 'delete', kind: 'attachment', id }, (tx) => createAttachmentsRepository(tx).remove(tenant.wineryId, id));
       await storage.remove(row.storageKey).catch(() => undefined);
     },
   };

@@ -14,6 +14,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { createCartridgesService } from '../cartridges/cartridges.service';
 import { presentCareEvent, presentCareTarget } from './care.presenter';
 import { createCareRepository, type CareRepository } from './care.repository';
+import { audited, recordChange } from '../audit/audit.service';
 
 export const RECENT_CARE_LIMIT = 30;
 
@@ -99,6 +100,7 @@ export function createCareService(db: Database) {
           }),
         });
         if (input.kind !== 'backflush') await txRepo.bumpCounter(tenant.wineryId, c.id, COUNTERS[input.kind]);
+        await recordChange(tx, tenant, { action: 'create', kind: 'care-cycle', id: newId });
         return newId;
       });
       const [event, counters, life] = await Promise.all([savedEvent(tenant.wineryId, eventId), repo.counters(tenant.wineryId, id), lifeOf(tenant, id)]);
@@ -144,7 +146,7 @@ export function createCareService(db: Database) {
         }
       }
       const verdict = evaluateIntegrityTest(test);
-      const eventId = await repo.insertEvent({
+      const eventId = await audited(db, tenant, { action: 'create', kind: 'integrity-test' }, (tx) => createCareRepository(tx).insertEvent({
         wineryId: tenant.wineryId,
         cartridgeId: c.id,
         kind: 'integrity',
@@ -162,7 +164,7 @@ export function createCareService(db: Database) {
           wettingFluid: input.wettingFluid,
           note: input.notes,
         }),
-      });
+      }));
       const [event, life] = await Promise.all([savedEvent(tenant.wineryId, eventId), lifeOf(tenant, id)]);
       return { event, test: input.test, pass: verdict.pass, reason: verdict.reason, ...life };
     },

@@ -39,6 +39,8 @@ import {
   type CartridgesRepository,
   type CartridgeTypeRow,
 } from './cartridges.repository';
+import type { AuditAction } from '../../../shared/schemas/audit';
+import { audited, recordChange, recordCreated } from '../audit/audit.service';
 
 const CYCLE_KINDS: readonly CareCycleKind[] = ['steam', 'hot-water', 'chemical', 'backflush'];
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
@@ -138,12 +140,12 @@ export function createCartridgesService(db: Database) {
   }
 
   /** Runs a move on a locked cartridge of this winery; 404 when it is not one. */
-  async function move<T>(tenant: TenantContext, id: string, fn: (tx: CartridgesRepository, c: CartridgeRow) => Promise<T>) {
+  async function move<T>(tenant: TenantContext, id: string, action: AuditAction, fn: (tx: CartridgesRepository, c: CartridgeRow) => Promise<T>) {
     return db.transaction(async (tx) => {
       const txRepo = createCartridgesRepository(tx);
       const cartridge = await txRepo.byId(tenant.wineryId, id, { lock: true });
       if (!cartridge) throw notFound('Cartridge');
-      await fn(txRepo, cartridge);
+      await audited(tx, tenant, { action, kind: 'cartridge', id }, () => fn(txRepo, cartridge));
       return dto(txRepo, tenant.wineryId, id);
     });
   }
@@ -229,6 +231,7 @@ export function createCartridgesService(db: Database) {
           await txRepo.insertEvents([
             { wineryId: tenant.wineryId, cartridgeId: row.id, kind: 'registered', actorId: tenant.userId, details: { source: 'form', batch: input.batch, receivedAt: input.receivedAt ?? null } },
           ]);
+          await recordChange(tx, tenant, { action: 'register', kind: 'cartridge', id: row.id });
           return dto(txRepo, tenant.wineryId, row.id);
         });
       } catch (error) {
@@ -239,7 +242,7 @@ export function createCartridgesService(db: Database) {
 
     /** Edits batch, received date and notes; the counters and status change only through moves and history. */
     async update(tenant: TenantContext, id: string, input: UpdateCartridgeInput): Promise<CartridgeDto> {
-      return move(tenant, id, async (txRepo, c) => {
+      return move(tenant, id, 'update', async (txRepo, c) => {
         const changes: Partial<CartridgeRow> = {};
         if (input.batch !== undefined) changes.batch = input.batch;
         if (input.notes !== undefined) changes.notes = input.notes;
@@ -257,7 +260,7 @@ export function createCartridgesService(db: Database) {
      * housing is moved (a 'removed' event for the old round, then 'installed').
      */
     async install(tenant: TenantContext, id: string, input: InstallCartridgeInput): Promise<CartridgeDto> {
-      return move(tenant, id, async (txRepo, c) => {
+      return move(tenant, id, 'install', async (txRepo, c) => {
         const housing = await txRepo.lockHousing(tenant.wineryId, input.housingId);
         if (!housing) throw notFound('Housing');
         if (c.status === 'retired') throw conflict(`${c.serial} is retired and cannot be installed again.`, 'retired');
@@ -298,7 +301,7 @@ export function createCartridgesService(db: Database) {
 
     /** Takes a cartridge out of its housing (or back from regeneration) into stock. */
     async remove(tenant: TenantContext, id: string): Promise<CartridgeDto> {
-      return move(tenant, id, async (txRepo, c) => {
+      return move(tenant, id, 'remove', async (txRepo, c) => {
         if (c.status === 'retired') throw conflict(`${c.serial} is retired.`, 'retired');
         if (c.status === 'in-stock') throw conflict(`${c.serial} is already in stock.`, 'already_in_stock');
         await txRepo.update(tenant.wineryId, c.id, { status: 'in-stock', housingId: null, position: null });
@@ -310,7 +313,7 @@ export function createCartridgesService(db: Database) {
 
     /** Retires a cartridge for good, with the reason; takes it out of its housing. */
     async retire(tenant: TenantContext, id: string, input: RetireCartridgeInput): Promise<CartridgeDto> {
-      return move(tenant, id, async (txRepo, c) => {
+      return move(tenant, id, 'retire', async (txRepo, c) => {
         if (c.status === 'retired') throw conflict(`${c.serial} is already retired.`, 'already_retired');
         await txRepo.update(tenant.wineryId, c.id, { status: 'retired', housingId: null, position: null, retiredReason: input.reason });
         await txRepo.insertEvents([
@@ -380,6 +383,7 @@ export function createCartridgesService(db: Database) {
           await txRepo.insertEvents(
             rows.map((row) => ({ wineryId: tenant.wineryId, cartridgeId: row.id, kind: 'registered' as const, actorId: tenant.userId, at, details: { source: 'import', batch: row.batch, receivedAt: row.receivedAt } })),
           );
+          await recordCreated(tx, tenant, 'import', 'cartridge', rows.map((r) => ({ id: r.id, label: r.serial, values: r })));
           return { imported: rows.length, cartridgeIds: rows.map((r) => r.id) };
         });
       } catch (error) {

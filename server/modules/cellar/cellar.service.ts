@@ -12,6 +12,7 @@ import { createLabResultsRepository, type LabResultRow, type LabResultValues } f
 import { createLotsRepository, LOT_CODE_UNIQUE, type LotValues } from './lots.repository';
 import { presentLabResult, presentLot, presentLotListItem, presentTank } from './cellar.presenter';
 import { createTanksRepository, TANK_NAME_UNIQUE, type TankValues } from './tanks.repository';
+import { audited } from '../audit/audit.service';
 
 const repos = (db: DbOrTx) => ({
   tanks: createTanksRepository(db),
@@ -105,7 +106,7 @@ export function createCellarService(db: Database) {
     getTank,
     async createTank(tenant: TenantContext, input: TankInput) {
       try {
-        return await getTank(tenant, await r.tanks.insert(tenant.wineryId, tankValues(input)));
+        return await getTank(tenant, await audited(db, tenant, { action: 'create', kind: 'tank' }, (tx) => createTanksRepository(tx).insert(tenant.wineryId, tankValues(input))));
       } catch (error) {
         if (isUniqueViolation(error, TANK_NAME_UNIQUE)) throw duplicateTank(input.name);
         throw error;
@@ -113,7 +114,7 @@ export function createCellarService(db: Database) {
     },
     async updateTank(tenant: TenantContext, id: string, input: TankInput, now = new Date()) {
       try {
-        if (!(await r.tanks.update(tenant.wineryId, id, tankValues(input), now))) throw notFound('Tank');
+        if (!(await audited(db, tenant, { action: 'update', kind: 'tank', id }, (tx) => createTanksRepository(tx).update(tenant.wineryId, id, tankValues(input), now)))) throw notFound('Tank');
       } catch (error) {
         if (isUniqueViolation(error, TANK_NAME_UNIQUE)) throw duplicateTank(input.name);
         throw error;
@@ -132,7 +133,7 @@ export function createCellarService(db: Database) {
             'tank_in_use',
           );
         }
-        await t.delete(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'tank', id }, () => t.delete(tenant.wineryId, id));
       });
     },
 
@@ -162,7 +163,7 @@ export function createCellarService(db: Database) {
       const id = await db.transaction(async (tx) => {
         await requireTankOfWinery(tx, tenant.wineryId, input.tankId);
         try {
-          return await createLotsRepository(tx).insert(tenant.wineryId, lotValues(input));
+          return await audited(tx, tenant, { action: 'create', kind: 'lot' }, () => createLotsRepository(tx).insert(tenant.wineryId, lotValues(input)));
         } catch (error) {
           if (isUniqueViolation(error, LOT_CODE_UNIQUE)) throw duplicateLot(input.code);
           throw error;
@@ -176,7 +177,7 @@ export function createCellarService(db: Database) {
         if (!(await lots.exists(tenant.wineryId, id))) throw notFound('Lot');
         await requireTankOfWinery(tx, tenant.wineryId, input.tankId);
         try {
-          await lots.update(tenant.wineryId, id, lotValues(input), now);
+          await audited(tx, tenant, { action: 'update', kind: 'lot', id }, () => lots.update(tenant.wineryId, id, lotValues(input), now));
         } catch (error) {
           if (isUniqueViolation(error, LOT_CODE_UNIQUE)) throw duplicateLot(input.code);
           throw error;
@@ -193,7 +194,7 @@ export function createCellarService(db: Database) {
         if (files > 0) {
           throw conflict(`This lot has ${files} attached file${files === 1 ? '' : 's'}. Remove them first, so no report is left without its lot.`, 'lot_has_attachments');
         }
-        await lots.delete(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'lot', id }, () => lots.delete(tenant.wineryId, id));
       });
     },
 
@@ -206,11 +207,11 @@ export function createCellarService(db: Database) {
     getLabResult,
     async createLabResult(tenant: TenantContext, lotId: string, input: LabResultInput) {
       if (!(await r.lots.exists(tenant.wineryId, lotId))) throw notFound('Lot');
-      const id = await r.labResults.insert(tenant.wineryId, lotId, tenant.userId, labResultValues(input));
+      const id = await audited(db, tenant, { action: 'create', kind: 'lab-result' }, (tx) => createLabResultsRepository(tx).insert(tenant.wineryId, lotId, tenant.userId, labResultValues(input)));
       return getLabResult(tenant, lotId, id);
     },
     async updateLabResult(tenant: TenantContext, lotId: string, id: string, input: LabResultInput, now = new Date()) {
-      if (!(await r.labResults.update(tenant.wineryId, lotId, id, labResultValues(input), now))) throw notFound('Lab result');
+      if (!(await audited(db, tenant, { action: 'update', kind: 'lab-result', id }, (tx) => createLabResultsRepository(tx).update(tenant.wineryId, lotId, id, labResultValues(input), now)))) throw notFound('Lab result');
       return getLabResult(tenant, lotId, id);
     },
     async deleteLabResult(tenant: TenantContext, lotId: string, id: string) {
@@ -221,7 +222,7 @@ export function createCellarService(db: Database) {
         if (files > 0) {
           throw conflict(`This lab result has ${files} attached file${files === 1 ? '' : 's'}. Remove them first.`, 'lab_result_has_attachments');
         }
-        await results.delete(tenant.wineryId, lotId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'lab-result', id }, () => results.delete(tenant.wineryId, lotId, id));
       });
     },
   };

@@ -21,6 +21,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { parseOrThrow } from '../../middleware/validate';
 import { presentCartridgeType, presentHousing, presentLine } from './equipment.presenter';
 import { createEquipmentRepository, isUniqueViolation, type CartridgeTypeRow, type HousingRow, type LineRow } from './equipment.repository';
+import { audited } from '../audit/audit.service';
 
 const nameTaken = (what: string, name: string) => {
   const message = `There is already a ${what} called "${name}" in this winery. Choose another name.`;
@@ -97,7 +98,9 @@ export function createEquipmentService(db: Database) {
     },
     housing,
     async createHousing(tenant: TenantContext, input: HousingValues): Promise<HousingDto> {
-      const id = await uniqueName('housing', input.name, () => repo.insertHousing({ ...input, wineryId: tenant.wineryId }));
+      const id = await uniqueName('housing', input.name, () =>
+        audited(db, tenant, { action: 'create', kind: 'housing' }, (tx) => createEquipmentRepository(tx).insertHousing({ ...input, wineryId: tenant.wineryId })),
+      );
       return housing(tenant, id);
     },
     /**
@@ -127,7 +130,7 @@ export function createEquipmentService(db: Database) {
             'cartridges_installed',
           );
         }
-        await uniqueName('housing', merged.name, () => txRepo.updateHousing(tenant.wineryId, id, merged));
+        await uniqueName('housing', merged.name, () => audited(tx, tenant, { action: 'update', kind: 'housing', id }, () => txRepo.updateHousing(tenant.wineryId, id, merged)));
       });
       return housing(tenant, id);
     },
@@ -150,7 +153,7 @@ export function createEquipmentService(db: Database) {
             'has_history',
           );
         }
-        await txRepo.deleteHousing(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'housing', id }, () => txRepo.deleteHousing(tenant.wineryId, id));
       });
     },
 
@@ -161,19 +164,23 @@ export function createEquipmentService(db: Database) {
     },
     line,
     async createLine(tenant: TenantContext, input: LineValues): Promise<LineDto> {
-      const row = await uniqueName('bottling line', input.name, () => repo.insertLine({ ...input, wineryId: tenant.wineryId }));
+      const row = await uniqueName('bottling line', input.name, () =>
+        audited<LineRow>(db, tenant, { action: 'create', kind: 'line', idOf: (r) => r.id }, (tx) => createEquipmentRepository(tx).insertLine({ ...input, wineryId: tenant.wineryId })),
+      );
       return presentLine(row);
     },
     async updateLine(tenant: TenantContext, id: string, input: UpdateLineInput): Promise<LineDto> {
       const current = await repo.line(tenant.wineryId, id);
       if (!current) throw notFound('Bottling line');
       const merged = parseOrThrow(createLineInputSchema, { ...lineValues(current), ...input });
-      const row = await uniqueName('bottling line', merged.name, () => repo.updateLine(tenant.wineryId, id, merged));
+      const row = await uniqueName('bottling line', merged.name, () =>
+        audited(db, tenant, { action: 'update', kind: 'line', id }, (tx) => createEquipmentRepository(tx).updateLine(tenant.wineryId, id, merged)),
+      );
       if (!row) throw notFound('Bottling line');
       return presentLine(row);
     },
     async deleteLine(tenant: TenantContext, id: string) {
-      if (!(await repo.deleteLine(tenant.wineryId, id))) throw notFound('Bottling line');
+      if (!(await audited(db, tenant, { action: 'delete', kind: 'line', id }, (tx) => createEquipmentRepository(tx).deleteLine(tenant.wineryId, id)))) throw notFound('Bottling line');
     },
 
     // ---- cartridge types ------------------------------------------------------------
@@ -184,7 +191,9 @@ export function createEquipmentService(db: Database) {
     cartridgeType,
     async createCartridgeType(tenant: TenantContext, input: CartridgeTypeValues): Promise<CartridgeTypeDto> {
       await checkCertificate(tenant, input.certificateAttachmentId);
-      const id = await uniqueName('cartridge type', input.name, () => repo.insertCartridgeType({ ...input, wineryId: tenant.wineryId }));
+      const id = await uniqueName('cartridge type', input.name, () =>
+        audited(db, tenant, { action: 'create', kind: 'cartridge-type' }, (tx) => createEquipmentRepository(tx).insertCartridgeType({ ...input, wineryId: tenant.wineryId })),
+      );
       return cartridgeType(tenant, id);
     },
     async updateCartridgeType(tenant: TenantContext, id: string, input: UpdateCartridgeTypeInput): Promise<CartridgeTypeDto> {
@@ -192,7 +201,9 @@ export function createEquipmentService(db: Database) {
       if (!current) throw notFound('Cartridge type');
       const merged = parseOrThrow(createCartridgeTypeInputSchema, { ...cartridgeTypeValues(current.type), ...input });
       if (merged.certificateAttachmentId !== current.type.certificateAttachmentId) await checkCertificate(tenant, merged.certificateAttachmentId);
-      const updated = await uniqueName('cartridge type', merged.name, () => repo.updateCartridgeType(tenant.wineryId, id, merged));
+      const updated = await uniqueName('cartridge type', merged.name, () =>
+        audited(db, tenant, { action: 'update', kind: 'cartridge-type', id }, (tx) => createEquipmentRepository(tx).updateCartridgeType(tenant.wineryId, id, merged)),
+      );
       if (!updated) throw notFound('Cartridge type');
       return cartridgeType(tenant, id);
     },
@@ -208,7 +219,7 @@ export function createEquipmentService(db: Database) {
             'type_in_use',
           );
         }
-        await txRepo.deleteCartridgeType(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'cartridge-type', id }, () => txRepo.deleteCartridgeType(tenant.wineryId, id));
       });
     },
   };

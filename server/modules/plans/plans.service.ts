@@ -23,6 +23,7 @@ import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
 import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
+import { audited } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
 
@@ -272,8 +273,10 @@ export function createPlansService(db: Database) {
       const plan = await r.lockPlan(tenant.wineryId, planId);
       if (!plan) throw notFound('Plan');
       if (plan.status !== 'draft') throw locked(plan.status);
-      await change(r, plan);
-      await r.touchPlan(tenant.wineryId, planId);
+      await audited(tx, tenant, { action: 'update', kind: 'plan', id: planId }, async () => {
+        await change(r, plan);
+        await r.touchPlan(tenant.wineryId, planId);
+      });
     });
     return get(tenant, planId);
   }
@@ -301,7 +304,7 @@ export function createPlansService(db: Database) {
       const id = await db.transaction(async (tx) => {
         const r = createPlansRepository(tx);
         await requireLine(r, tenant.wineryId, input.lineId);
-        return r.insertPlan(tenant.wineryId, tenant.userId, input);
+        return audited(tx, tenant, { action: 'create', kind: 'plan' }, () => r.insertPlan(tenant.wineryId, tenant.userId, input));
       });
       return get(tenant, id);
     },
@@ -322,7 +325,7 @@ export function createPlansService(db: Database) {
         if (plan.status !== 'draft') {
           throw conflict('Only draft plans can be deleted. Reopen an approved plan first; a done plan stays for the records.', 'plan_not_draft');
         }
-        await r.deletePlan(tenant.wineryId, id);
+        await audited(tx, tenant, { action: 'delete', kind: 'plan', id }, () => r.deletePlan(tenant.wineryId, id));
       });
     },
 
@@ -426,13 +429,15 @@ export function createPlansService(db: Database) {
           const fields = Object.fromEntries(cautions.map((c, i) => [`cautions.${i}`, c]));
           throw new HttpError(409, 'plan_needs_reason', `Approving this plan needs a written reason: ${cautions.join(' ')}`, fields);
         }
-        await r.updatePlan(tenant.wineryId, id, {
-          status: 'approved',
-          approvedBy: tenant.userId,
-          approvedAt: now,
-          approvalCautions: cautions.length > 0 ? cautions : null,
-          approvalReason: cautions.length > 0 ? reason : null,
-        });
+        await audited(tx, tenant, { action: 'approve', kind: 'plan', id }, () =>
+          r.updatePlan(tenant.wineryId, id, {
+            status: 'approved',
+            approvedBy: tenant.userId,
+            approvedAt: now,
+            approvalCautions: cautions.length > 0 ? cautions : null,
+            approvalReason: cautions.length > 0 ? reason : null,
+          }),
+        );
       });
       return get(tenant, id);
     },
@@ -445,7 +450,9 @@ export function createPlansService(db: Database) {
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is done; its record stays as it was.', 'plan_done');
         if (plan.status === 'draft') throw conflict('This plan is already a draft.', 'plan_not_approved');
-        await r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null, approvalCautions: null, approvalReason: null });
+        await audited(tx, tenant, { action: 'reopen', kind: 'plan', id }, () =>
+          r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null, approvalCautions: null, approvalReason: null }),
+        );
       });
       return get(tenant, id);
     },
@@ -458,7 +465,7 @@ export function createPlansService(db: Database) {
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is already done.', 'plan_done');
         if (plan.status !== 'approved') throw conflict('Approve the plan before marking it done.', 'plan_not_approved');
-        await r.updatePlan(tenant.wineryId, id, { status: 'done' });
+        await audited(tx, tenant, { action: 'done', kind: 'plan', id }, () => r.updatePlan(tenant.wineryId, id, { status: 'done' }));
       });
       return get(tenant, id);
     },

@@ -13,6 +13,7 @@ import { badRequest, conflict, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { presentReading, presentRunSummary } from './runs.presenter';
 import { createRunsRepository, type RunReadingRow } from './runs.repository';
+import { auditSnapshot, recordChange } from '../audit/audit.service';
 
 export const RUN_LIST_LIMIT = 100;
 /** Readings a stage needs before its ΔP curve is fitted. */
@@ -152,6 +153,7 @@ export function createRunsService(db: Database) {
         const running = await r.runningFor(t.wineryId, input.planLotId);
         if (running) throw conflict('This lot already has a run going. Close it before starting another.', 'run_running');
         const run = await r.insertRun({ wineryId: t.wineryId, planId: ctx.plan.id, planLotId: input.planLotId, startedBy: t.userId });
+        await recordChange(tx, t, { action: 'start', kind: 'run', id: run.id });
         return run.id;
       });
       return detail(t.wineryId, id);
@@ -202,7 +204,9 @@ export function createRunsService(db: Database) {
         if (run.status !== 'running') throw conflict('This run is already closed.', 'run_closed');
         const ctx = await r.planLot(t.wineryId, run.planLotId);
         const litres = await r.maxVolume(t.wineryId, runId);
+        const before = await auditSnapshot(tx, 'run', t.wineryId, runId);
         await r.closeRun(t.wineryId, runId, t.userId, input.notes);
+        await recordChange(tx, t, { action: 'close', kind: 'run', id: runId, before });
         const housingIds = [...new Set((ctx?.train?.stages ?? []).map((s) => s.housingId))];
         const installed = await r.installedIn(t.wineryId, housingIds);
         if (litres > 0 && installed.length > 0) {

@@ -12,6 +12,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { createAuthRepository } from '../auth/auth.repository';
 import { presentInvitation, presentMember } from './team.presenter';
 import { createTeamRepository } from './team.repository';
+import { audited, recordChange } from '../audit/audit.service';
 
 type Deps = { db: Database; auth: Auth; mailer: Mailer; appUrl: string };
 
@@ -51,6 +52,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         const invitation = pending
           ? await txRepo.renewInvitation(pending.id, { tokenHash, role: input.role, expiresAt, invitedBy: inviter.id })
           : await txRepo.insertInvitation({ wineryId: tenant.wineryId, email: input.email, role: input.role, tokenHash, invitedBy: inviter.id, expiresAt });
+        await recordChange(tx, tenant, { action: 'invite', kind: 'invitation', id: invitation.id });
         const wineryName = await txRepo.wineryName(tenant.wineryId);
         await mailer.send(
           {
@@ -69,7 +71,9 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
     },
 
     async revokeInvitation(tenant: TenantContext, invitationId: string, now = new Date()) {
-      if (!(await repo.revokeInvitation(tenant.wineryId, invitationId, now))) throw notFound('Invitation');
+      if (!(await audited(db, tenant, { action: 'revoke', kind: 'invitation', id: invitationId }, (tx) => createTeamRepository(tx).revokeInvitation(tenant.wineryId, invitationId, now)))) {
+        throw notFound('Invitation');
+      }
     },
 
     async changeRole(tenant: TenantContext, userId: string, role: Role) {
@@ -80,7 +84,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         if (member.role === 'owner' && role !== 'owner' && (await txRepo.ownerCount(tenant.wineryId)) <= 1) {
           throw conflict(lastOwnerMessage, 'last_owner');
         }
-        await txRepo.setRole(tenant.wineryId, userId, role);
+        await audited(tx, tenant, { action: 'update', kind: 'member', id: userId }, () => txRepo.setRole(tenant.wineryId, userId, role));
       });
     },
 
@@ -92,7 +96,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         if (member.role === 'owner' && (await txRepo.ownerCount(tenant.wineryId)) <= 1) {
           throw conflict(lastOwnerMessage, 'last_owner');
         }
-        await txRepo.removeMember(tenant.wineryId, userId);
+        await audited(tx, tenant, { action: 'remove', kind: 'member', id: userId }, () => txRepo.removeMember(tenant.wineryId, userId));
       });
     },
 
@@ -126,6 +130,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
           if (!(await createTeamRepository(tx).markAccepted(invitation.id, signedIn.id, now))) throw gone('This invitation can no longer be used.');
           await createTeamRepository(tx).addMember(invitation.wineryId, signedIn.id, invitation.role);
           await createAuthRepository(tx).setActiveWinery(signedIn.id, invitation.wineryId);
+          await recordChange(tx, { wineryId: invitation.wineryId, userId: signedIn.id }, { action: 'join', kind: 'member', id: signedIn.id });
         });
         return { wineryId: invitation.wineryId, sessionId: null };
       }
@@ -146,6 +151,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
         if (!user) throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
         if (!(await createTeamRepository(tx).markAccepted(invitation.id, userId, now))) throw gone('This invitation can no longer be used.');
         await createTeamRepository(tx).addMember(invitation.wineryId, userId, invitation.role);
+        await recordChange(tx, { wineryId: invitation.wineryId, userId }, { action: 'join', kind: 'member', id: userId });
       });
       const session = await auth.createSession(userId, {});
       return { wineryId: invitation.wineryId, sessionId: session.id };

@@ -14,7 +14,7 @@ export function winerySettingsRoutes({ db }: ModuleDeps) {
     res.json(await service.get(tenantOf(res).wineryId));
   });
   router.put('/settings/winery', requireSignedIn, authorize(db, 'settings:edit'), validateBody(updateWinerySettingsInputSchema), async (_req, res) => {
-    res.json(await service.update(tenantOf(res).wineryId, res.locals.body));
+    res.json(await service.update(tenantOf(res).wineryId, res.locals.body, tenantOf(res).userId));
   });
   return router;
 }

@@ -5,6 +5,7 @@ import type { DbOrTx } from '../../db/client';
 import { notFound } from '../../lib/errors';
 import { alertSettingsOf } from '../alerts/alert-settings';
 import { createWinerySettingsRepository } from './winery-settings.repository';
+import { audited } from '../audit/audit.service';
 
 function thresholdsFrom(settings: Record<string, unknown>): ReadinessThresholds | null {
   const parsed = readinessThresholdsSchema.safeParse(settings.readinessThresholds);
@@ -34,7 +35,7 @@ export function createWinerySettingsService(db: DbOrTx) {
   }
   return {
     get,
-    async update(wineryId: string, input: UpdateWinerySettingsInput) {
+    async update(wineryId: string, input: UpdateWinerySettingsInput, actorId: string | null = null) {
       const winery = await repo.find(wineryId);
       if (!winery) throw notFound('Winery');
       const settings = { ...winery.settings };
@@ -42,7 +43,7 @@ export function createWinerySettingsService(db: DbOrTx) {
       else if (input.readinessThresholds) settings.readinessThresholds = input.readinessThresholds;
       if (input.timeZone !== undefined) settings.timeZone = input.timeZone;
       if (input.orderLeadTimeDays !== undefined) settings.orderLeadTimeDays = input.orderLeadTimeDays;
-      await repo.update(wineryId, { name: input.name, settings });
+      await audited(db, { wineryId, userId: actorId }, { action: 'update', kind: 'settings', id: wineryId }, (tx) => createWinerySettingsRepository(tx).update(wineryId, { name: input.name, settings }));
       return get(wineryId);
     },
   };

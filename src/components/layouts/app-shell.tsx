@@ -1,4 +1,4 @@
-import { CalendarCheck, ClipboardList, Cylinder, Droplets, FileText, Filter, Gauge, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
+import { CalendarCheck, ClipboardList, Cylinder, Droplets, FileText, Filter, Gauge, History, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
 import { useEffect, useRef, type ReactNode } from 'react';
 import { NavLink, useLocation, useNavigate } from 'react-router-dom';
 import { can, roleLabels, type Action } from '@shared/permissions';
@@ -22,6 +22,7 @@ const navItems: NavItem[] = [
   { to: paths.runs, label: 'Runs', icon: <Gauge aria-hidden="true" className="size-4" />, action: 'runs:read' },
   { to: paths.care, label: 'Care', icon: <Droplets aria-hidden="true" className="size-4" />, action: 'care:read' },
   { to: paths.records, label: 'Records', icon: <FileText aria-hidden="true" className="size-4" />, action: 'records:read' },
+  { to: paths.recordsChanges, label: 'Change log', icon: <History aria-hidden="true" className="size-4" />, action: 'audit:read' },
   { to: paths.team, label: 'Team', icon: <Users aria-hidden="true" className="size-4" />, action: 'team:read' },
   { to: paths.settings, label: 'Settings', icon: <SettingsIcon aria-hidden="true" className="size-4" />, action: 'settings:read' },
   { to: paths.outbox, label: 'Mail outbox', icon: <Inbox aria-hidden="true" className="size-4" />, action: 'mail-outbox:read', devOnly: true },

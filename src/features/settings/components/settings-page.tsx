@@ -17,6 +17,7 @@ import { cn } from '@/utils/cn';
 import { useUpdateMe } from '../api/update-me';
 import { AlertSettingsCard } from './alert-settings-card';
 import { ReadinessThresholdsCard } from './readiness-thresholds-card';
+import { WineryExportCard } from './winery-export-card';
 
 const profileFormSchema = z.object({ name: personNameSchema, units: unitSystemSchema });
 
@@ -85,6 +86,7 @@ export function SettingsPage({ me, children }: { me: MeDto; children?: React.Rea
       <ReadinessThresholdsCard />
       <AlertSettingsCard />
       {children}
+      <WineryExportCard />
       <Card title="Your wineries" description="Switch to work in another winery's records.">
         <ul className="divide-y divide-ink-100">
           {me.memberships.map((m) => (

@@ -1,0 +1,16 @@
+-- The change log is append-only: no UPDATE or DELETE, whoever asks (the app, a script or a person at psql).
+CREATE OR REPLACE FUNCTION audit_events_refuse_change() RETURNS trigger
+LANGUAGE plpgsql AS $$
+BEGIN
+  RAISE EXCEPTION 'audit_events is append-only: % is not allowed', TG_OP
+    USING ERRCODE = 'insufficient_privilege';
+END;
+$$;
+--> statement-breakpoint
+CREATE TRIGGER audit_events_append_only
+  BEFORE UPDATE OR DELETE ON "audit_events"
+  FOR EACH ROW EXECUTE FUNCTION audit_events_refuse_change();
+--> statement-breakpoint
+CREATE TRIGGER audit_events_no_truncate
+  BEFORE TRUNCATE ON "audit_events"
+  FOR EACH STATEMENT EXECUTE FUNCTION audit_events_refuse_change();

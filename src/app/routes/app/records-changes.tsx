@@ -1,0 +1,5 @@
+import { ChangeLogPage } from '@/features/audit/components/change-log-page';
+
+export default function RecordsChangesRoute() {
+  return <ChangeLogPage />;
+}

@@ -1,0 +1,83 @@
+import { format } from 'date-fns';
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { auditActionLabels, auditKindLabels, type AuditKind } from '@shared/schemas/audit';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { ErrorState, LoadingState } from '@/components/ui/states';
+import { paths } from '@/config/paths';
+import { useCan } from '@/lib/session';
+import { useAuditEvents } from '../api/get-audit-events';
+import { EventChanges } from './event-changes';
+
+const HISTORY_PAGE_SIZE = 8;
+
+/**
+ * A record's own history of changes from the change log (with those of its parts: a lot's lab
+ * results and files, a cartridge's care, a plan's runs), newest first.
+ */
+export function HistoryPanel({ kind, recordId }: { kind: AuditKind; recordId: string }) {
+  const canRead = useCan('audit:read');
+  const [page, setPage] = useState(1);
+  const events = useAuditEvents({ kind, recordId, page, pageSize: HISTORY_PAGE_SIZE }, { enabled: canRead && Boolean(recordId) });
+  if (!canRead || !recordId) return null;
+  const total = events.data?.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / HISTORY_PAGE_SIZE));
+  return (
+    <Card
+      title="Change history"
+      description="Who changed this record and when; entries are never edited or deleted."
+      actions={
+        <Link to={`${paths.recordsChanges}?kind=${kind}&recordId=${encodeURIComponent(recordId)}`} className="text-sm font-semibold text-primary-700 underline-offset-2 hover:underline">
+          Open in the change log
+        </Link>
+      }
+    >
+      {events.isPending ? (
+        <LoadingState variant="skeleton" lines={2} label="Loading the history …" />
+      ) : events.isError ? (
+        <ErrorState message={events.error.message} onRetry={() => events.refetch()} />
+      ) : events.data.items.length === 0 ? (
+        <p className="text-ink-600">No changes recorded yet.</p>
+      ) : (
+        <>
+          <ol className="flex flex-col divide-y divide-ink-100" aria-label="Changes to this record">
+            {events.data.items.map((e) => (
+              <li key={e.id} className="flex flex-col gap-1 py-2">
+                <p className="text-sm text-ink-600">
+                  <time dateTime={e.at} className="num">
+                    {format(new Date(e.at), 'd MMM yyyy, HH:mm')}
+                  </time>{' '}
+                  · {e.userName || '—'}
+                </p>
+                <p className="[overflow-wrap:anywhere]">
+                  <span className="font-semibold text-ink-900">{auditActionLabels[e.action] ?? e.action}</span>
+                  {e.recordKind !== kind ? (
+                    <>
+                      {' '}
+                      {auditKindLabels[e.recordKind]?.toLowerCase()} <span className="text-ink-800">{e.recordLabel}</span>
+                    </>
+                  ) : null}
+                </p>
+                <EventChanges event={e} max={5} />
+              </li>
+            ))}
+          </ol>
+          {pages > 1 ? (
+            <nav aria-label="History pages" className="mt-2 flex items-center justify-between gap-2">
+              <Button variant="secondary" size="sm" disabled={page <= 1} onClick={() => setPage(page - 1)}>
+                Newer
+              </Button>
+              <span className="text-sm text-ink-700">
+                {page} of {pages}
+              </span>
+              <Button variant="secondary" size="sm" disabled={page >= pages} onClick={() => setPage(page + 1)}>
+                Older
+              </Button>
+            </nav>
+          ) : null}
+        </>
+      )}
+    </Card>
+  );
+}
