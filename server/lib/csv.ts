@@ -1,4 +1,5 @@
 import { stringify, type Stringifier } from 'csv-stringify';
+import { stringify as stringifySync } from 'csv-stringify/sync';
 
 const FORMULA_START = /^[=+\-@\t\r]/;
 
@@ -50,4 +51,12 @@ export function toCsv(header: readonly string[], rows: readonly (readonly unknow
     for (const row of rows) stream.write([...row]);
     stream.end();
   });
+}
+
+/** Rows (header included) to CSV text at once, synchronously; every cell neutralised. */
+export function csvSafeStringify(rows: readonly (readonly unknown[])[]): string {
+  return stringifySync(
+    rows.map((r) => [...r]),
+    { ...csvOptions },
+  );
 }

@@ -9,7 +9,7 @@ import type { Role } from '../../shared/permissions';
 import type { FilterRecordDto, RecordLotListDto } from '../../shared/types/records';
 import { runReadingsTable } from '../../server/db/schema';
 import { canonicalJson, sha256OfCanonical } from '../../server/lib/canonical-json';
-import { csvSafeCell } from '../../server/lib/csv-safe';
+import { neutraliseCell as csvSafeCell } from '../../server/lib/csv';
 import { createBottledLot, createRecordWorld, logReadings, startRunOf, type BottledWorld } from '../factories/records';
 import { createLot } from '../factories/cellar';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -51,8 +51,8 @@ describe('canonical JSON and the CSV neutraliser', () => {
   it('neutralises =, +, -, @, tab and CR at the start of text cells (OWASP CSV injection guidance)', () => {
     for (const bad of ['=1+1', '+1', '-1', '@SUM(A1)', '\tx', '\rx']) expect(csvSafeCell(bad)).toBe(`'${bad}`);
     expect(csvSafeCell('plain')).toBe('plain');
-    expect(csvSafeCell(-0.5)).toBe(-0.5);
-    expect(csvSafeCell(Number.POSITIVE_INFINITY)).toBeNull();
+    expect(csvSafeCell(-0.5)).toBe('-0.5');
+    expect(csvSafeCell(Number.POSITIVE_INFINITY)).toBe('');
   });
 });
 

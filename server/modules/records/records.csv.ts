@@ -1,5 +1,5 @@
 import type { FilterRecordDto } from '../../../shared/types/records';
-import { csvSafeStringify } from '../../lib/csv-safe';
+import { csvSafeStringify } from '../../lib/csv';
 
 /**
  * The record as CSV: one table per section, one after the other. Every row starts with its
