@@ -30,6 +30,7 @@ import type { ModuleDeps } from './modules/module-deps';
 import { plansRoutes } from './modules/plans/plans.routes';
 import { careRoutes } from './modules/care/care.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
+import { archiveRoutes } from './modules/archive/archive.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -115,6 +116,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(plansRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
+  api.use(archiveRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

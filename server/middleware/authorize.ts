@@ -6,7 +6,8 @@ import { membershipsTable } from '../db/schema';
 import { forbidden } from '../lib/errors';
 import { authOf } from './authenticate';
 
-export type TenantContext = { wineryId: string; role: Role; userId: string };
+/** `userName` is the person's name now, kept on records so removing a member never blanks "who". */
+export type TenantContext = { wineryId: string; role: Role; userId: string; userName?: string };
 
 /**
  * Every winery-scoped route declares the action it needs. The winery is the signed-in
@@ -22,7 +23,7 @@ export function authorize(db: Database, action: Action): RequestHandler {
       .where(and(eq(membershipsTable.userId, user.id), eq(membershipsTable.wineryId, user.activeWineryId)));
     if (!membership) throw forbidden('You are no longer a member of this winery.');
     if (!can(membership.role, action)) throw forbidden();
-    res.locals.tenant = { wineryId: user.activeWineryId, role: membership.role, userId: user.id } satisfies TenantContext;
+    res.locals.tenant = { wineryId: user.activeWineryId, role: membership.role, userId: user.id, userName: user.name } satisfies TenantContext;
     next();
   };
 }
