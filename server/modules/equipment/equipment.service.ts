@@ -138,6 +138,7 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockHousing(tenant.wineryId, id))) throw notFound('Housing');
+        await refuseIfInRecord(createArchiveRepository(tx), 'housings', tenant.wineryId, id);
         const inside = await txRepo.cartridgesInHousing(tenant.wineryId, id);
         if (inside > 0) {
           throw conflict(
@@ -145,7 +146,6 @@ export function createEquipmentService(db: Database) {
             'cartridges_installed',
           );
         }
-        await refuseIfInRecord(createArchiveRepository(tx), 'housings', tenant.wineryId, id);
         const events = await txRepo.historyEventsForHousing(tenant.wineryId, id);
         if (events > 0) {
           throw inRecord(`Cartridge history refers to this housing (${plural(events, 'event', 'events')}), so it stays for the records. Archive it instead.`, {
