@@ -503,7 +503,10 @@ export function createRunsService(db: Database) {
         if (!run) throw notFound('Run');
         if (run.status !== 'running') throw conflict('This run is already closed.', 'run_closed');
         const ctx = await r.planLot(t.wineryId, run.planLotId);
-        const [raw, corrections, stints] = await Promise.all([r.readings(t.wineryId, runId), r.corrections(t.wineryId, runId), r.stageCartridges(t.wineryId, runId)]);
+        // one connection in a transaction: one query after the other
+        const raw = await r.readings(t.wineryId, runId);
+        const corrections = await r.corrections(t.wineryId, runId);
+        const stints = await r.stageCartridges(t.wineryId, runId);
         const counted = effectiveReadings(raw, corrections).filter((x) => !x.voided);
         const litres = Math.max(0, ...counted.map((x) => x.volumeL), ...stints.map((s) => s.removedAtVolumeL ?? s.installedAtVolumeL));
         await r.closeRun(t.wineryId, runId, t.userId, t.userName ?? null, input.notes);
