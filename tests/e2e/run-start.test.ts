@@ -64,6 +64,26 @@ describe('starting a run on the cartridges physically in the train', () => {
     expect(await override.textContent()).toMatch(/prefilters out of stock/);
     await desk.page.getByRole('heading', { name: 'Cartridges in the train' }).waitFor();
     await screenshot(desk.page, 'run-started-with-override-desktop');
+
+    // A reading typed wrong, corrected from the run page: the original stays, struck through.
+    await desk.page.getByLabel('Litres through the train so far').fill('800');
+    await desk.page.getByLabel('Upstream pressure').fill('3.4');
+    await desk.page.getByLabel('Downstream pressure').fill('2.0');
+    await desk.page.getByRole('button', { name: 'Save reading' }).click();
+    await desk.page.getByRole('heading', { name: 'Readings and corrections' }).waitFor();
+    await desk.page.getByRole('button', { name: 'Correct', exact: true }).click();
+    const fix = desk.page.getByRole('dialog');
+    await fix.getByLabel('Upstream').fill('2.34');
+    await fix.getByLabel(/Why/).fill('Typed 3.4 for 2.34.');
+    await fix.getByRole('button', { name: 'Save correction' }).click();
+    await desk.page.getByText(/Corrected by .* “Typed 3.4 for 2.34.”/).waitFor();
+    await desk.page.getByLabel(/As logged:/).waitFor();
+    // The change dialog, at the prefilters' terminal ΔP.
+    await desk.page.getByRole('button', { name: 'Change cartridges' }).click();
+    await desk.page.getByRole('dialog').getByRole('heading', { name: 'Change cartridges' }).waitFor();
+    await screenshot(desk.page, 'run-change-dialog-desktop');
+    await desk.page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click();
+    await screenshot(desk.page, 'run-corrected-reading-desktop');
     await desk.page.setViewportSize({ width: 390, height: 844 });
     await screenshot(desk.page, 'run-started-with-override-phone');
     expect(desk.errors).toEqual([]);
