@@ -40,6 +40,7 @@ import { plansRoutes } from './modules/plans/plans.routes';
 import { careRoutes } from './modules/care/care.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { recordsRoutes } from './modules/records/records.routes';
+import { archiveRoutes } from './modules/archive/archive.routes';
 import { todayRoutes } from './modules/today/today.routes';
 import { winerySettingsRoutes } from './modules/winery-settings/winery-settings.routes';
 import { createTeamService } from './modules/team/team.service';
@@ -155,6 +156,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
   api.use(auditRoutes(moduleDeps));
   api.use(exportRoutes(moduleDeps));
+  api.use(archiveRoutes(moduleDeps));
   api.use(notFoundHandler);
   app.use('/api', api);
 

@@ -9,6 +9,7 @@ import { seedCartridges } from './seeds/cartridges';
 import { seedCellar } from './seeds/cellar';
 import { seedEquipment } from './seeds/equipment';
 import { seedPlans } from './seeds/plans';
+import { seedRuns } from './seeds/runs';
 
 export const DEMO_PASSWORD = 'porewise-demo';
 
@@ -47,6 +48,7 @@ export async function seedDemo(db: Database) {
     await seedCellar(tx, ctx);
     await seedCartridges(tx, ctx);
     await seedPlans(tx, ctx);
+    await seedRuns(tx, ctx);
   });
 }
 

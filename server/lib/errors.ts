@@ -5,6 +5,8 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** More members of the error envelope beside code, message and fields (e.g. `reasons`, `record`). */
+    readonly extra?: Record<string, unknown>,
   ) {
     super(message);
   }
@@ -17,3 +19,7 @@ export const forbidden = (message = 'Your role does not allow this.') => new Htt
 export const notFound = (what = 'Record') => new HttpError(404, 'not_found', `${what} not found.`);
 export const conflict = (message: string, code = 'conflict') => new HttpError(409, code, message);
 export const gone = (message: string) => new HttpError(410, 'gone', message);
+
+/** 409 when a row is held by a record: names the record and offers to archive instead. */
+export const inRecord = (message: string, record: { kind: string; id: string; label: string }) =>
+  new HttpError(409, 'in_record', message, undefined, { record, canArchive: true });

@@ -4,7 +4,8 @@ import type { Database } from '../db/client';
 import { forbidden } from '../lib/errors';
 import { authOf } from './authenticate';
 
-export type TenantContext = { wineryId: string; role: Role; userId: string };
+/** `userName` is the person's name now, kept on records so removing a member never blanks "who". */
+export type TenantContext = { wineryId: string; role: Role; userId: string; userName?: string };
 
 /**
  * Every winery-scoped route declares the action it needs. The winery is the signed-in
@@ -18,7 +19,7 @@ export function authorize(_db: Database, action: Action): RequestHandler {
     const role = user.activeRole;
     if (!role) throw forbidden('You are no longer a member of this winery.');
     if (!can(role, action)) throw forbidden();
-    res.locals.tenant = { wineryId: user.activeWineryId, role, userId: user.id } satisfies TenantContext;
+    res.locals.tenant = { wineryId: user.activeWineryId, role, userId: user.id, userName: user.name } satisfies TenantContext;
     next();
   };
 }

@@ -27,7 +27,7 @@ export const notFoundHandler: RequestHandler = (_req, res) => {
 /** Turns every thrown error into `{ error: { code, message, fields? } }`; never leaks a stack trace. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof HttpError) {
-    res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+    res.status(err.status).json({ error: { ...err.extra, code: err.code, message: err.message, fields: err.fields } });
     return;
   }
   if (err instanceof ZodError) {

@@ -20,7 +20,12 @@ export function listQuerySchema<const S extends readonly [string, ...string[]]>(
       .min(1)
       .max(PAGE_SIZE_MAX, { error: `At most ${PAGE_SIZE_MAX} per page.` })
       .default(PAGE_SIZE_DEFAULT),
+    /** `true` lists archived rows too (each marked `archived`); they are hidden by default. */
+    archived: z.enum(['true', 'false'], { error: 'archived is true or false.' }).optional(),
   });
 }
 
-export type ListQuery<S extends string = string> = { q?: string; sort: S; order: 'asc' | 'desc'; page: number; pageSize: number };
+export type ListQuery<S extends string = string> = { q?: string; sort: S; order: 'asc' | 'desc'; page: number; pageSize: number; archived?: 'true' | 'false' };
+
+/** True when a list query asks for archived rows too. */
+export const withArchived = (query: { archived?: 'true' | 'false' }) => query.archived === 'true';

@@ -1,9 +1,19 @@
 import type { Role } from '../permissions';
 import type { UnitSystem } from '../schemas/common';
 
-/** Every error answer: `{ error: { code, message, fields? } }`. */
+/**
+ * Every error answer: `{ error: { code, message, fields? } }`, with more members for some codes:
+ * `reasons` on 409 run_blocked, `record` and `canArchive` on 409 in_record.
+ */
 export type ApiErrorBody = {
-  error: { code: string; message: string; fields?: Record<string, string> };
+  error: {
+    code: string;
+    message: string;
+    fields?: Record<string, string>;
+    reasons?: { stageIndex: number; code: string; message: string }[];
+    record?: { kind: string; id: string; label: string };
+    canArchive?: boolean;
+  };
 };
 
 export type UserDto = { id: string; name: string; email: string; units: UnitSystem };

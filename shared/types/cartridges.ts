@@ -28,6 +28,8 @@ export type CartridgeDto = {
   notes: string;
   createdAt: string;
   updatedAt: string;
+  /** Set when archived: hidden from lists unless `?archived=true`, still in every record. */
+  archivedAt: string | null;
 };
 
 /** One entry of a cartridge's history. */

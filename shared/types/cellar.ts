@@ -102,6 +102,8 @@ export type LotDto = {
   notes: string;
   createdAt: string;
   updatedAt: string;
+  /** Set when archived: hidden from lists unless `?archived=true`, still in every record. */
+  archivedAt: string | null;
   labResultCount: number;
   latestLabResult: LabResultDto | null;
   readiness: ReadinessDto;

@@ -17,6 +17,8 @@ export type HousingDto = {
   installedCount: number;
   createdAt: string;
   updatedAt: string;
+  /** Set when archived: hidden from lists unless `?archived=true`, still in every record. */
+  archivedAt: string | null;
 };
 
 /** A bottling line, with the flow it asks of the filters. */
@@ -72,4 +74,6 @@ export type CartridgeTypeDto = {
   warnings: CartridgeTypeWarning[];
   createdAt: string;
   updatedAt: string;
+  /** Set when archived: hidden from lists unless `?archived=true`, still in every record. */
+  archivedAt: string | null;
 };

@@ -18,6 +18,9 @@ export type PlanListItemDto = {
   volumeL: number;
   createdAt: string;
   updatedAt: string;
+  /** 1 for a new plan; a plan reopened after a run continues as revision + 1. */
+  revision: number;
+  archivedAt: string | null;
 };
 
 export type PlanTrainStageDto = {
@@ -132,6 +135,10 @@ export type PlanDto = {
   createdBy: string | null;
   createdAt: string;
   updatedAt: string;
+  revision: number;
+  /** The approved plan this revision continues, kept as recorded. */
+  previousPlanId: string | null;
+  archivedAt: string | null;
   lots: PlanLotDto[];
   timeline: PlanTimelineDto | null;
   timelineError: string | null;

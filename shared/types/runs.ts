@@ -29,6 +29,58 @@ export type RunReadingDto = {
   dpBar: number;
   flowLh: number | null;
   tempC: number | null;
+  /** Who logged it, as named at the time. */
+  createdByName: string | null;
+  /** The values as first logged, when a correction changed them; null otherwise. */
+  original: { volumeL: number; upstreamBar: number; downstreamBar: number; flowLh: number | null; tempC: number | null } | null;
+  /** Every correction and void, oldest first; the latest wins. */
+  corrections: RunReadingCorrectionDto[];
+  /** True when the latest correction voided it: it is kept but left out of fits. */
+  voided: boolean;
+};
+
+export type RunReadingCorrectionDto = {
+  id: string;
+  kind: 'correct' | 'void';
+  volumeL: number | null;
+  upstreamBar: number | null;
+  downstreamBar: number | null;
+  flowLh: number | null;
+  tempC: number | null;
+  reason: string;
+  byName: string | null;
+  at: string;
+};
+
+/** One cartridge's stint in a stage of a run, as snapshotted at start or at a change. */
+export type RunStageCartridgeDto = {
+  id: string;
+  cartridgeId: string;
+  serial: string;
+  batch: string | null;
+  typeId: string;
+  typeName: string;
+  ratingUm: number;
+  lengthIn: number | null;
+  housingId: string;
+  housingName: string;
+  litresAtStart: number;
+  cyclesAtStart: number;
+  installedAtVolumeL: number;
+  removedAtVolumeL: number | null;
+  /** Litres through the train while it was in; set when the run closes. */
+  litresCarried: number | null;
+};
+
+export type RunChangeDto = {
+  id: string;
+  stageIndex: number;
+  kind: 'change' | 'regeneration';
+  atVolumeL: number;
+  removedSerials: string[];
+  installedSerials: string[];
+  byName: string | null;
+  at: string;
 };
 
 export type RunStageDto = {
@@ -48,6 +100,8 @@ export type RunStageDto = {
   alarm: RunAlarm | null;
   flowLh: number | null;
   note: string | null;
+  /** Every cartridge that was in this stage during the run (in now, and changed out). */
+  cartridges: RunStageCartridgeDto[];
 };
 
 export type RunDetailDto = RunSummaryDto & {
@@ -57,6 +111,27 @@ export type RunDetailDto = RunSummaryDto & {
   requiredFlowLh: number | null;
   volumeToBottleL: number;
   stages: RunStageDto[];
+  startedByName: string | null;
+  closedByName: string | null;
+  override: { reason: string; byName: string | null; checks: { stageIndex: number; code: string; message: string }[] } | null;
+  changes: RunChangeDto[];
+};
+
+/** One stage's physical state against the plan, for the start screen. */
+export type RunStartCheckDto = {
+  planLotId: string;
+  stages: {
+    index: number;
+    name: string;
+    housingId: string;
+    housingName: string;
+    rounds: number;
+    housingCount: number;
+    plannedTypeId: string;
+    plannedTypeName: string;
+    installed: { id: string; serial: string; typeId: string; typeName: string }[];
+  }[];
+  reasons: { stageIndex: number; code: string; message: string; overridable: boolean }[];
 };
 
 /** An approved plan's lot that a run can be started for. */

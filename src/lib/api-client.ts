@@ -7,6 +7,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields: Record<string, string> = {},
+    /** The whole error body, for codes that carry more (run_blocked reasons, in_record record). */
+    readonly body: ApiErrorBody['error'] | null = null,
   ) {
     super(message);
   }
@@ -51,7 +53,7 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
   const data = (await res.json().catch(() => null)) as unknown;
   if (!res.ok) {
     const err = (data as ApiErrorBody | null)?.error;
-    throw new ApiError(res.status, err?.code ?? 'http_error', err?.message ?? `The server answered ${res.status}.`, err?.fields);
+    throw new ApiError(res.status, err?.code ?? 'http_error', err?.message ?? `The server answered ${res.status}.`, err?.fields, err ?? null);
   }
   return data as T;
 }

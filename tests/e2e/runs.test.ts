@@ -1,7 +1,7 @@
 // @vitest-environment node
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 
@@ -21,6 +21,7 @@ describe('a run on a phone in the cellar', () => {
   it('a technician starts the run of an approved plan’s lot, logs three readings and sees the forecast', async () => {
     const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Runs E2E Cellars' });
     const world = await createPlanWorld(owner);
+    await fillTrainHousings(owner, world);
     const plan = await createPlan(owner, world.lineId, { name: 'Run day whites' });
     const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
     const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;

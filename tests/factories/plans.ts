@@ -85,3 +85,25 @@ export const addPlanLot = async (client: Client, planId: string, lotId: string, 
 
 export const addTrain = async (client: Client, planId: string, planLotId: string, body: unknown) =>
   ok<PlanDto>(await client.post(`/api/plans/${planId}/lots/${planLotId}/trains`, body), 201, 'adding a train');
+
+let serialCounter = 0;
+
+/** Registers `count` cartridges of a type and installs them in a housing; answers their ids and serials. */
+export async function installCartridges(client: Client, typeId: string, housingId: string, count = 3, lengthIn = 30) {
+  const out: { id: string; serial: string }[] = [];
+  for (let i = 0; i < count; i += 1) {
+    serialCounter += 1;
+    const serial = `F${Date.now().toString(36).toUpperCase()}${process.pid}N${serialCounter}`;
+    const reg = await ok<{ id: string }>(await client.post('/api/cartridges', { serial, batch: 'B-FIX', typeId, lengthIn, receivedAt: '2024-11-05' }), 201, 'registering a cartridge');
+    await ok(await client.post(`/api/cartridges/${reg.id}/install`, { housingId }), 200, 'installing a cartridge');
+    out.push({ id: reg.id, serial });
+  }
+  return out;
+}
+
+/** Fills the world's prefilter and membrane housings (3 rounds each) with cartridges of the planned types, so runs can start. */
+export async function fillTrainHousings(client: Client, w: PlanWorld) {
+  const prefilters = await installCartridges(client, w.prefilterTypeId, w.prefilterHousingId);
+  const membranes = await installCartridges(client, w.membraneTypeId, w.membraneHousingId);
+  return { prefilters, membranes };
+}

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { forecastRunFromReadings, requiredFlowLh, runAlarm } from '../../shared/engine';
 import type { Role } from '../../shared/permissions';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, installCartridges, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -18,25 +18,28 @@ beforeAll(async () => {
     members[role] = (await addMember(app, owner, role)).client;
   }
   world = await createPlanWorld(owner);
+  // runs start only on housings filled with the planned cartridges
+  await fillTrainHousings(owner, world);
 });
 afterAll(async () => {
   await app?.close();
 });
 
 /** A plan with one lot (6,000 L) and a chosen two-stage train; approved unless told. */
-async function plannedLot(opts: { approve?: boolean } = {}) {
-  const plan = await createPlan(owner, world.lineId);
-  const withLot = await addPlanLot(owner, plan.id, world.lotId, 6000);
+async function plannedLot(opts: { approve?: boolean; w?: PlanWorld } = {}) {
+  const w = opts.w ?? world;
+  const plan = await createPlan(owner, w.lineId);
+  const withLot = await addPlanLot(owner, plan.id, w.lotId, 6000);
   const planLotId = withLot.lots[0].id;
-  const withTrain = await addTrain(owner, plan.id, planLotId, trainBody(world));
+  const withTrain = await addTrain(owner, plan.id, planLotId, trainBody(w));
   const trainId = withTrain.lots[0].trains[0].id;
   expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
   if (opts.approve !== false) expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
   return { planId: plan.id, planLotId };
 }
 
-async function startedRun() {
-  const { planLotId } = await plannedLot();
+async function startedRun(w?: PlanWorld) {
+  const { planLotId } = await plannedLot({ w });
   const res = await members.technician.post('/api/runs', { planLotId });
   expect(res.status).toBe(201);
   return res.body as { id: string; stages: { index: number; terminalDpBar: number }[] };
@@ -178,12 +181,16 @@ describe('runs', () => {
   });
 
   it('closing adds the run’s litres to each cartridge installed in the train’s housings, with a run event', async () => {
-    const run = await startedRun();
+    // a world of its own, whose prefilter housing holds this test's cartridge
+    const own = await createPlanWorld(owner);
     const serial = `RUN${Date.now().toString(36).toUpperCase()}`;
-    const reg = await owner.post('/api/cartridges', { serial, batch: 'B1', typeId: world.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
+    const reg = await owner.post('/api/cartridges', { serial, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
     expect(reg.status).toBe(201);
-    expect((await members.technician.post(`/api/cartridges/${reg.body.id}/install`, { housingId: world.prefilterHousingId })).status).toBe(200);
-    const spare = await owner.post('/api/cartridges', { serial: `${serial}S`, batch: 'B1', typeId: world.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
+    expect((await members.technician.post(`/api/cartridges/${reg.body.id}/install`, { housingId: own.prefilterHousingId })).status).toBe(200);
+    await installCartridges(owner, own.prefilterTypeId, own.prefilterHousingId, 2);
+    await installCartridges(owner, own.membraneTypeId, own.membraneHousingId, 3);
+    const run = await startedRun(own);
+    const spare = await owner.post('/api/cartridges', { serial: `${serial}S`, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
     expect(spare.status).toBe(201);
     const before = (await owner.get(`/api/cartridges/${reg.body.id}`)).body.litresFiltered as number;
 
@@ -198,7 +205,7 @@ describe('runs', () => {
     expect(after.litresFiltered).toBeCloseTo(before + 1800, 9);
     const runEvents = (after.events as { kind: string; housingId: string | null; details: Record<string, unknown> }[]).filter((e) => e.kind === 'run');
     expect(runEvents).toHaveLength(1);
-    expect(runEvents[0].housingId).toBe(world.prefilterHousingId);
+    expect(runEvents[0].housingId).toBe(own.prefilterHousingId);
     expect(runEvents[0].details).toMatchObject({ litres: 1800, runId: run.id });
     expect(typeof runEvents[0].details.lotCode).toBe('string');
     // a cartridge in stock (not installed) is left alone

@@ -27,6 +27,8 @@ export const cartridgesTable = pgTable(
     chemicalCycles: integer('chemical_cycles').notNull().default(0),
     retiredReason: text('retired_reason'),
     notes: text('notes').notNull().default(''),
+    /** Hidden from lists when set; still in every record. */
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (t) => [
     uniqueIndex('cartridges_winery_serial_uq').on(t.wineryId, t.serial),
@@ -54,12 +56,14 @@ export const cartridgeEventsTable = pgTable(
       .references(() => wineriesTable.id, { onDelete: 'cascade' }),
     cartridgeId: uuid('cartridge_id')
       .notNull()
-      .references(() => cartridgesTable.id, { onDelete: 'cascade' }),
+      .references(() => cartridgesTable.id, { onDelete: 'restrict' }),
     kind: text('kind', { enum: cartridgeEventKinds }).notNull(),
-    housingId: uuid('housing_id').references(() => housingsTable.id, { onDelete: 'set null' }),
+    housingId: uuid('housing_id').references(() => housingsTable.id, { onDelete: 'restrict' }),
     position: integer('position'),
     details: jsonb('details').$type<Record<string, unknown>>().notNull().default({}),
     actorId: text('actor_id').references(() => usersTable.id, { onDelete: 'set null' }),
+    /** The person's name at the time. */
+    actorName: text('actor_name'),
     at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [

@@ -29,6 +29,7 @@ export const lotsTable = pgTable(
     sugarGPerL: double('sugar_g_per_l').notNull().default(0),
     tempC: double('temp_c').notNull(),
     notes: text('notes').notNull().default(''),
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (t) => [uniqueIndex('lots_winery_code_uq').on(t.wineryId, t.code), index('lots_winery_tank_idx').on(t.wineryId, t.tankId)],
 );
@@ -41,7 +42,7 @@ export const labResultsTable = pgTable(
     ...tenantColumns(),
     lotId: uuid('lot_id')
       .notNull()
-      .references(() => lotsTable.id, { onDelete: 'cascade' }),
+      .references(() => lotsTable.id, { onDelete: 'restrict' }),
     sampledAt: timestamp('sampled_at', { withTimezone: true }).notNull(),
     turbidityNtu: double('turbidity_ntu'),
     t200s: double('t200_s'),
@@ -52,6 +53,7 @@ export const labResultsTable = pgTable(
     freeSo2MgL: double('free_so2_mg_l'),
     notes: text('notes').notNull().default(''),
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
   },
   (t) => [index('lab_results_lot_idx').on(t.lotId, t.sampledAt)],
 );

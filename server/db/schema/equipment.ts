@@ -1,4 +1,4 @@
-import { index, integer, pgTable, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import { double, tenantColumns } from './columns';
 
 export const housingsTable = pgTable(
@@ -13,6 +13,7 @@ export const housingsTable = pgTable(
     holdUpL: double('hold_up_l').notNull(),
     upstreamGasVolumeL: double('upstream_gas_volume_l'),
     notes: text('notes').notNull().default(''),
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (t) => [uniqueIndex('housings_winery_name_uq').on(t.wineryId, t.name)],
 );
@@ -58,6 +59,7 @@ export const cartridgeTypesTable = pgTable(
     currency: text('currency').notNull().default('EUR'),
     certificateAttachmentId: uuid('certificate_attachment_id'),
     notes: text('notes').notNull().default(''),
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (t) => [uniqueIndex('cartridge_types_winery_name_uq').on(t.wineryId, t.name), index('cartridge_types_winery_kind_idx').on(t.wineryId, t.kind)],
 );

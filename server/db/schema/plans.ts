@@ -33,11 +33,17 @@ export const plansTable = pgTable(
     sanitationKind: text('sanitation_kind', { enum: planSanitationKinds }).notNull().default('hot-water'),
     notes: text('notes').notNull().default(''),
     approvedBy: text('approved_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    approvedByName: text('approved_by_name'),
     approvedAt: timestamp('approved_at', { withTimezone: true }),
     /** Cautions the approver accepted (flux above design, a lot not ready, a stock shortfall) and their written reason. */
     approvalCautions: jsonb('approval_cautions').$type<string[]>(),
     approvalReason: text('approval_reason'),
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
+    /** 1 for a new plan; a reopened plan whose lots were run continues as a new row with revision + 1. */
+    revision: integer('revision').notNull().default(1),
+    previousPlanId: uuid('previous_plan_id').references((): AnyPgColumn => plansTable.id, { onDelete: 'restrict' }),
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (t) => [index('plans_winery_date_idx').on(t.wineryId, t.plannedDate), index('plans_winery_status_idx').on(t.wineryId, t.status)],
 );
@@ -52,7 +58,7 @@ export const planLotsTable = pgTable(
       .references(() => plansTable.id, { onDelete: 'cascade' }),
     lotId: uuid('lot_id')
       .notNull()
-      .references(() => lotsTable.id, { onDelete: 'cascade' }),
+      .references(() => lotsTable.id, { onDelete: 'restrict' }),
     position: integer('position').notNull(),
     volumeL: double('volume_l').notNull(),
     chosenTrainId: uuid('chosen_train_id').references((): AnyPgColumn => planTrainsTable.id, { onDelete: 'set null' }),

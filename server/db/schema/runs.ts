@@ -1,6 +1,8 @@
-import { index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import { usersTable } from './auth';
 import { double, tenantColumns } from './columns';
+import { cartridgesTable } from './cartridges';
+import { cartridgeTypesTable, housingsTable } from './equipment';
 import { planLotsTable, plansTable } from './plans';
 
 export const runStatuses = ['running', 'closed'] as const;
@@ -12,16 +14,25 @@ export const runsTable = pgTable(
     ...tenantColumns(),
     planId: uuid('plan_id')
       .notNull()
-      .references(() => plansTable.id, { onDelete: 'cascade' }),
+      .references(() => plansTable.id, { onDelete: 'restrict' }),
     planLotId: uuid('plan_lot_id')
       .notNull()
-      .references(() => planLotsTable.id, { onDelete: 'cascade' }),
+      .references(() => planLotsTable.id, { onDelete: 'restrict' }),
     status: text('status', { enum: runStatuses }).notNull().default('running'),
     startedAt: timestamp('started_at', { withTimezone: true }).notNull().defaultNow(),
     closedAt: timestamp('closed_at', { withTimezone: true }),
     startedBy: text('started_by').references(() => usersTable.id, { onDelete: 'set null' }),
     closedBy: text('closed_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    /** Closing notes. */
     notes: text('notes').notNull().default(''),
+    // Names as they were at the time, so removing a member never blanks "who".
+    startedByName: text('started_by_name'),
+    closedByName: text('closed_by_name'),
+    /** Why a cellar master or owner started despite the start checks; null when nothing was overridden. */
+    overrideReason: text('override_reason'),
+    overrideByName: text('override_by_name'),
+    /** The overridden checks, as `{ stageIndex, code, message }`. */
+    overriddenChecks: jsonb('overridden_checks').$type<{ stageIndex: number; code: string; message: string }[]>(),
   },
   (t) => [index('runs_winery_started_idx').on(t.wineryId, t.startedAt), index('runs_plan_lot_idx').on(t.planLotId, t.status)],
 );
@@ -33,7 +44,7 @@ export const runReadingsTable = pgTable(
     ...tenantColumns(),
     runId: uuid('run_id')
       .notNull()
-      .references(() => runsTable.id, { onDelete: 'cascade' }),
+      .references(() => runsTable.id, { onDelete: 'restrict' }),
     stageIndex: integer('stage_index').notNull(),
     at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
     volumeL: double('volume_l').notNull(),
@@ -44,6 +55,92 @@ export const runReadingsTable = pgTable(
     /** The client's own id for the reading, so a resent reading is stored once. */
     clientKey: text('client_key').notNull(),
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
   },
   (t) => [uniqueIndex('run_readings_run_client_key_uq').on(t.runId, t.clientKey), index('run_readings_run_stage_idx').on(t.runId, t.stageIndex, t.volumeL)],
+);
+
+export const runChangeKinds = ['change', 'regeneration'] as const;
+
+/** A cartridge change or an in-place regeneration on one stage during a run, at litres through the train. */
+export const runChangesTable = pgTable(
+  'run_changes',
+  {
+    ...tenantColumns(),
+    runId: uuid('run_id')
+      .notNull()
+      .references(() => runsTable.id, { onDelete: 'restrict' }),
+    stageIndex: integer('stage_index').notNull(),
+    kind: text('kind', { enum: runChangeKinds }).notNull(),
+    atVolumeL: double('at_volume_l').notNull(),
+    removedCartridgeIds: jsonb('removed_cartridge_ids').$type<string[]>().notNull().default([]),
+    installedCartridgeIds: jsonb('installed_cartridge_ids').$type<string[]>().notNull().default([]),
+    createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
+  },
+  (t) => [index('run_changes_run_idx').on(t.runId, t.atVolumeL)],
+);
+
+/**
+ * What was physically in each stage of a run: one row per cartridge per stint. Rows of the
+ * cartridges in at start have installed_at_volume_l 0; a change closes rows (removed_at_volume_l)
+ * and opens new ones. litres_carried is set at close.
+ */
+export const runStageCartridgesTable = pgTable(
+  'run_stage_cartridges',
+  {
+    ...tenantColumns(),
+    runId: uuid('run_id')
+      .notNull()
+      .references(() => runsTable.id, { onDelete: 'restrict' }),
+    stageIndex: integer('stage_index').notNull(),
+    housingId: uuid('housing_id')
+      .notNull()
+      .references(() => housingsTable.id, { onDelete: 'restrict' }),
+    housingName: text('housing_name').notNull(),
+    cartridgeId: uuid('cartridge_id')
+      .notNull()
+      .references(() => cartridgesTable.id, { onDelete: 'restrict' }),
+    serial: text('serial').notNull(),
+    batch: text('batch'),
+    typeId: uuid('type_id')
+      .notNull()
+      .references(() => cartridgeTypesTable.id, { onDelete: 'restrict' }),
+    typeName: text('type_name').notNull(),
+    ratingUm: double('rating_um').notNull(),
+    lengthIn: double('length_in'),
+    litresAtStart: double('litres_at_start').notNull(),
+    cyclesAtStart: integer('cycles_at_start').notNull(),
+    installedAtVolumeL: double('installed_at_volume_l').notNull().default(0),
+    removedAtVolumeL: double('removed_at_volume_l'),
+    litresCarried: double('litres_carried'),
+    changeId: uuid('change_id').references((): AnyPgColumn => runChangesTable.id, { onDelete: 'restrict' }),
+  },
+  (t) => [index('run_stage_cartridges_run_idx').on(t.runId, t.stageIndex), index('run_stage_cartridges_cartridge_idx').on(t.cartridgeId)],
+);
+
+export const readingCorrectionKinds = ['correct', 'void'] as const;
+
+/** A correction or a void of a reading; the reading row itself is never changed. The latest wins. */
+export const runReadingCorrectionsTable = pgTable(
+  'run_reading_corrections',
+  {
+    ...tenantColumns(),
+    runId: uuid('run_id')
+      .notNull()
+      .references(() => runsTable.id, { onDelete: 'restrict' }),
+    readingId: uuid('reading_id')
+      .notNull()
+      .references(() => runReadingsTable.id, { onDelete: 'restrict' }),
+    kind: text('kind', { enum: readingCorrectionKinds }).notNull(),
+    volumeL: double('volume_l'),
+    upstreamBar: double('upstream_bar'),
+    downstreamBar: double('downstream_bar'),
+    flowLh: double('flow_lh'),
+    tempC: double('temp_c'),
+    reason: text('reason').notNull(),
+    createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
+  },
+  (t) => [index('run_reading_corrections_reading_idx').on(t.readingId, t.createdAt)],
 );

@@ -30,6 +30,7 @@ export const presentCartridge = (r: CartridgeListRow): CartridgeDto => ({
   notes: r.notes,
   createdAt: r.createdAt.toISOString(),
   updatedAt: r.updatedAt.toISOString(),
+  archivedAt: r.archivedAt ? r.archivedAt.toISOString() : null,
 });
 
 export const presentEvent = (e: CartridgeEventRow): CartridgeEventDto => ({

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, ilike, inArray, isNotNull, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
@@ -33,6 +33,7 @@ const listColumns = {
   notes: cartridgesTable.notes,
   createdAt: cartridgesTable.createdAt,
   updatedAt: cartridgesTable.updatedAt,
+  archivedAt: cartridgesTable.archivedAt,
 };
 
 const sortColumns: Record<CartridgeSortKey, AnyColumn | SQL> = {
@@ -64,6 +65,7 @@ export function createCartridgesRepository(db: DbOrTx) {
     if (query.housingId) conditions.push(eq(cartridgesTable.housingId, query.housingId));
     if (query.batch) conditions.push(eq(cartridgesTable.batch, query.batch));
     if (query.lengthIn) conditions.push(eq(cartridgesTable.lengthIn, query.lengthIn));
+    if (query.archived !== 'true') conditions.push(isNull(cartridgesTable.archivedAt));
     if (query.q) {
       const pattern = likePattern(query.q);
       conditions.push(or(ilike(cartridgesTable.serial, pattern), ilike(cartridgesTable.batch, pattern))!);
@@ -152,7 +154,7 @@ export function createCartridgesRepository(db: DbOrTx) {
           id: cartridgeEventsTable.id,
           kind: cartridgeEventsTable.kind,
           at: cartridgeEventsTable.at,
-          actorName: usersTable.name,
+          actorName: sql<string | null>`coalesce(${cartridgeEventsTable.actorName}, ${usersTable.name})`,
           housingId: cartridgeEventsTable.housingId,
           housingName: housingsTable.name,
           position: cartridgeEventsTable.position,

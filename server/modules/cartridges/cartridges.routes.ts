@@ -120,6 +120,11 @@ export function cartridgesRoutes({ db }: ModuleDeps) {
   router.post('/cartridges/:id/retire', ...register, validateBody(retireCartridgeInputSchema), async (req, res) => {
     res.json(await service.retire(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
   });
+  // Only a cartridge registered by mistake goes: one with a run or care history is 409 in_record (archive it instead).
+  router.delete('/cartridges/:id', requireSignedIn, authorize(db, 'records:delete'), async (req, res) => {
+    await service.deleteUnused(tenantOf(res), idParam(req, 'id', 'Cartridge'));
+    res.status(204).end();
+  });
 
   return router;
 }

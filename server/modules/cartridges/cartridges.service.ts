@@ -27,6 +27,8 @@ import type {
 } from '../../../shared/types/cartridges';
 import type { Database } from '../../db/client';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
+import { createArchiveRepository } from '../archive/archive.repository';
+import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { checkDeliveryRows, parseDeliveryCsv } from './cartridges.import';
 import { elementEquivalents, presentCartridge, presentEvent, presentSlotCartridge } from './cartridges.presenter';
@@ -260,55 +262,12 @@ export function createCartridgesService(db: Database) {
      * housing is moved (a 'removed' event for the old round, then 'installed').
      */
     async install(tenant: TenantContext, id: string, input: InstallCartridgeInput): Promise<CartridgeDto> {
-      return move(tenant, id, 'install', async (txRepo, c) => {
-        const housing = await txRepo.lockHousing(tenant.wineryId, input.housingId);
-        if (!housing) throw notFound('Housing');
-        if (c.status === 'retired') throw conflict(`${c.serial} is retired and cannot be installed again.`, 'retired');
-        if (c.lengthIn !== housing.lengthIn) {
-          throw conflict(`${c.serial} is ${c.lengthIn} inches long; ${housing.name} takes ${housing.lengthIn}-inch cartridges.`, 'length_mismatch');
-        }
-        if (input.position !== undefined && input.position > housing.rounds) {
-          throw badRequest('Check the highlighted fields.', { position: `${housing.name} has rounds 1 to ${housing.rounds}.` });
-        }
-        const others = (await txRepo.installedIn(tenant.wineryId, housing.id)).filter((o) => o.id !== c.id);
-        if (others.length >= housing.rounds) {
-          throw conflict(`${housing.name} is full: all ${housing.rounds} rounds hold a cartridge. Remove one first.`, 'housing_full');
-        }
-        const taken = new Set(others.map((o) => o.position));
-        let position = input.position;
-        if (position === undefined) {
-          position = Array.from({ length: housing.rounds }, (_, i) => i + 1).find((p) => !taken.has(p));
-          if (position === undefined) throw conflict(`${housing.name} has no free round.`, 'housing_full');
-        } else if (taken.has(position)) {
-          throw conflict(`Round ${position} of ${housing.name} already holds a cartridge. Choose a free round.`, 'position_taken');
-        }
-        if (c.housingId === housing.id && c.position === position && c.status === 'installed') {
-          throw conflict(`${c.serial} is already in round ${position} of ${housing.name}.`, 'already_installed');
-        }
-        const now = new Date();
-        if (c.status === 'installed' && c.housingId) {
-          await txRepo.insertEvents([
-            { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'removed', housingId: c.housingId, position: c.position, actorId: tenant.userId, at: now, details: { movedTo: housing.id } },
-          ]);
-        }
-        await txRepo.update(tenant.wineryId, c.id, { status: 'installed', housingId: housing.id, position });
-        await txRepo.insertEvents([
-          // One millisecond later, so the timeline orders the pair of a move.
-          { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'installed', housingId: housing.id, position, actorId: tenant.userId, at: new Date(now.getTime() + 1), details: { from: c.status } },
-        ]);
-      });
+      return move(tenant, id, 'install', (txRepo, c) => installCartridge(txRepo, tenant, c, input));
     },
 
     /** Takes a cartridge out of its housing (or back from regeneration) into stock. */
     async remove(tenant: TenantContext, id: string): Promise<CartridgeDto> {
-      return move(tenant, id, 'remove', async (txRepo, c) => {
-        if (c.status === 'retired') throw conflict(`${c.serial} is retired.`, 'retired');
-        if (c.status === 'in-stock') throw conflict(`${c.serial} is already in stock.`, 'already_in_stock');
-        await txRepo.update(tenant.wineryId, c.id, { status: 'in-stock', housingId: null, position: null });
-        await txRepo.insertEvents([
-          { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'removed', housingId: c.housingId, position: c.position, actorId: tenant.userId, details: { from: c.status } },
-        ]);
-      });
+      return move(tenant, id, 'remove', (txRepo, c) => removeCartridge(txRepo, tenant, c));
     },
 
     /** Retires a cartridge for good, with the reason; takes it out of its housing. */
@@ -319,6 +278,19 @@ export function createCartridgesService(db: Database) {
         await txRepo.insertEvents([
           { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'retired', housingId: c.housingId, position: c.position, actorId: tenant.userId, details: { reason: input.reason, from: c.status } },
         ]);
+      });
+    },
+
+    /** Deletes a cartridge registered by mistake; one that was ever used or cared for is in a record (409 in_record). */
+    async deleteUnused(tenant: TenantContext, id: string) {
+      await db.transaction(async (tx) => {
+        const txRepo = createCartridgesRepository(tx);
+        const c = await txRepo.byId(tenant.wineryId, id, { lock: true });
+        if (!c) throw notFound('Cartridge');
+        const archive = createArchiveRepository(tx);
+        await refuseIfInRecord(archive, 'cartridges', tenant.wineryId, id);
+        if (c.status === 'installed') throw conflict(`${c.serial} is installed. Take it out before deleting it.`, 'cartridge_installed');
+        await archive.deleteBareCartridge(tenant.wineryId, id);
       });
     },
 
@@ -394,6 +366,60 @@ export function createCartridgesService(db: Database) {
       }
     },
   };
+}
+
+/**
+ * Puts a locked cartridge into a round of a housing, inside the caller's transaction (the
+ * housing row is locked so two installs cannot both take its last round). A cartridge already
+ * in a housing is moved (a 'removed' event for the old round, then 'installed'). Runs use it
+ * for a change during a run, so the cartridge's history stays one story.
+ */
+export async function installCartridge(txRepo: CartridgesRepository, tenant: TenantContext, c: CartridgeRow, input: InstallCartridgeInput) {
+    const housing = await txRepo.lockHousing(tenant.wineryId, input.housingId);
+    if (!housing) throw notFound('Housing');
+    if (c.status === 'retired') throw conflict(`${c.serial} is retired and cannot be installed again.`, 'retired');
+    if (c.lengthIn !== housing.lengthIn) {
+      throw conflict(`${c.serial} is ${c.lengthIn} inches long; ${housing.name} takes ${housing.lengthIn}-inch cartridges.`, 'length_mismatch');
+    }
+    if (input.position !== undefined && input.position > housing.rounds) {
+      throw badRequest('Check the highlighted fields.', { position: `${housing.name} has rounds 1 to ${housing.rounds}.` });
+    }
+    const others = (await txRepo.installedIn(tenant.wineryId, housing.id)).filter((o) => o.id !== c.id);
+    if (others.length >= housing.rounds) {
+      throw conflict(`${housing.name} is full: all ${housing.rounds} rounds hold a cartridge. Remove one first.`, 'housing_full');
+    }
+    const taken = new Set(others.map((o) => o.position));
+    let position = input.position;
+    if (position === undefined) {
+      position = Array.from({ length: housing.rounds }, (_, i) => i + 1).find((p) => !taken.has(p));
+      if (position === undefined) throw conflict(`${housing.name} has no free round.`, 'housing_full');
+    } else if (taken.has(position)) {
+      throw conflict(`Round ${position} of ${housing.name} already holds a cartridge. Choose a free round.`, 'position_taken');
+    }
+    if (c.housingId === housing.id && c.position === position && c.status === 'installed') {
+      throw conflict(`${c.serial} is already in round ${position} of ${housing.name}.`, 'already_installed');
+    }
+    const now = new Date();
+    if (c.status === 'installed' && c.housingId) {
+      await txRepo.insertEvents([
+        { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'removed', housingId: c.housingId, position: c.position, actorId: tenant.userId, actorName: tenant.userName ?? null, at: now, details: { movedTo: housing.id } },
+      ]);
+    }
+    await txRepo.update(tenant.wineryId, c.id, { status: 'installed', housingId: housing.id, position });
+    await txRepo.insertEvents([
+      // One millisecond later, so the timeline orders the pair of a move.
+      { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'installed', housingId: housing.id, position, actorId: tenant.userId, actorName: tenant.userName ?? null, at: new Date(now.getTime() + 1), details: { from: c.status } },
+    ]);
+}
+
+/** Takes a locked cartridge out of its housing (or back from regeneration) into stock, inside the caller's transaction. */
+export async function removeCartridge(txRepo: CartridgesRepository, tenant: TenantContext, c: CartridgeRow) {
+    if (c.status === 'retired') throw conflict(`${c.serial} is retired.`, 'retired');
+    if (c.status === 'in-stock') throw conflict(`${c.serial} is already in stock.`, 'already_in_stock');
+    await txRepo.update(tenant.wineryId, c.id, { status: 'in-stock', housingId: null, position: null });
+    await txRepo.insertEvents([
+      { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'removed', housingId: c.housingId, position: c.position, actorId: tenant.userId, actorName: tenant.userName ?? null, details: { from: c.status } },
+    ]);
 }
 
 async function checkRows(repository: CartridgesRepository, tenant: TenantContext, csv: string) {

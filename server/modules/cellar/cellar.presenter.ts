@@ -78,6 +78,7 @@ export const presentLot = (
   notes: l.notes,
   createdAt: iso(l.createdAt),
   updatedAt: iso(l.updatedAt),
+  archivedAt: l.archivedAt ? iso(l.archivedAt) : null,
   labResultCount: Number(l.labResultCount),
   latestLabResult: latest,
   readiness,

@@ -1,8 +1,8 @@
-import { and, count, desc, eq, ilike, inArray, or, sql } from 'drizzle-orm';
+import { and, count, desc, eq, ilike, inArray, isNull, or, sql } from 'drizzle-orm';
 import type { LotSortKey, LotsListQuery } from '../../../shared/schemas/cellar';
 import type { WineStyle } from '../../../shared/engine/readiness';
 import type { DbOrTx } from '../../db/client';
-import { attachmentsTable, labResultsTable, lotsTable, tanksTable } from '../../db/schema';
+import { attachmentsTable, labResultsTable, lotsTable, planLotsTable, plansTable, tanksTable } from '../../db/schema';
 
 import { likePattern, orderBy, pageWindow } from '../../lib/list';
 
@@ -42,6 +42,7 @@ export function createLotsRepository(db: DbOrTx) {
     notes: lotsTable.notes,
     createdAt: lotsTable.createdAt,
     updatedAt: lotsTable.updatedAt,
+    archivedAt: lotsTable.archivedAt,
     tankName: tanksTable.name,
   };
 
@@ -52,6 +53,7 @@ export function createLotsRepository(db: DbOrTx) {
       q ? or(ilike(lotsTable.code, q), ilike(lotsTable.name, q), ilike(tanksTable.name, q)) : undefined,
       query.style ? eq(lotsTable.style, query.style) : undefined,
       query.tankId ? eq(lotsTable.tankId, query.tankId) : undefined,
+      query.archived === 'true' ? undefined : isNull(lotsTable.archivedAt),
     );
   }
 
@@ -158,7 +160,17 @@ export function createLotsRepository(db: DbOrTx) {
       return n;
     },
     /** Deletes the lot; its lab results go with it (they belong to the lot). */
+    /**
+     * Deletes a lot that no record holds, with its lab results and its places in draft plans
+     * (records restrict these deletes, so they go explicitly, in the caller's transaction).
+     */
     async delete(wineryId: string, id: string) {
+      const drafts = db
+        .select({ id: plansTable.id })
+        .from(plansTable)
+        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.status, 'draft')));
+      await db.delete(planLotsTable).where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.lotId, id), inArray(planLotsTable.planId, drafts)));
+      await db.delete(labResultsTable).where(and(eq(labResultsTable.wineryId, wineryId), eq(labResultsTable.lotId, id)));
       const rows = await db.delete(lotsTable).where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id))).returning({ id: lotsTable.id });
       return rows.length > 0;
     },

@@ -22,6 +22,7 @@ export const presentHousing = ({ housing: h, installedCount }: { housing: Housin
   installedCount,
   createdAt: h.createdAt.toISOString(),
   updatedAt: h.updatedAt.toISOString(),
+  archivedAt: h.archivedAt ? h.archivedAt.toISOString() : null,
 });
 
 export const presentLine = (l: LineRow): LineDto => {
@@ -73,5 +74,6 @@ export const presentCartridgeType = ({ type: t, counts }: { type: CartridgeTypeR
     warnings: cartridgeTypeWarnings(t),
     createdAt: t.createdAt.toISOString(),
     updatedAt: t.updatedAt.toISOString(),
+    archivedAt: t.archivedAt ? t.archivedAt.toISOString() : null,
   };
 };

@@ -1,4 +1,4 @@
-import { and, count, eq, ilike, or, sql, type SQL, max } from 'drizzle-orm';
+import { and, count, eq, ilike, isNull, or, sql, type SQL, max } from 'drizzle-orm';
 import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../../shared/schemas/equipment';
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
@@ -132,7 +132,10 @@ export function createEquipmentRepository(db: DbOrTx) {
   return {
     // ---- housings -------------------------------------------------------------------
     async listHousings(wineryId: string, query: ListQuery<HousingSortKey>) {
-      const where = query.q ? or(ilike(housingsTable.name, likePattern(query.q)), ilike(housingsTable.notes, likePattern(query.q))) : undefined;
+      const where = and(
+        query.q ? or(ilike(housingsTable.name, likePattern(query.q)), ilike(housingsTable.notes, likePattern(query.q))) : undefined,
+        query.archived === 'true' ? undefined : isNull(housingsTable.archivedAt),
+      );
       const [rows, [{ total }]] = await Promise.all([
         housingsWithCounts(wineryId, where, query),
         db
@@ -260,6 +263,7 @@ export function createEquipmentRepository(db: DbOrTx) {
             )
           : undefined,
         query.kind ? eq(cartridgeTypesTable.kind, query.kind) : undefined,
+        query.archived === 'true' ? undefined : isNull(cartridgeTypesTable.archivedAt),
       );
       const [rows, [{ total }]] = await Promise.all([
         typesWithCounts(wineryId, where, query),

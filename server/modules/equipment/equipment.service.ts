@@ -16,7 +16,9 @@ import type { ListQuery } from '../../../shared/schemas/list';
 import type { ListDto } from '../../../shared/types/api';
 import type { CartridgeTypeDto, HousingDto, LineDto } from '../../../shared/types/equipment';
 import type { Database } from '../../db/client';
-import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
+import { badRequest, conflict, HttpError, inRecord, notFound } from '../../lib/errors';
+import { createArchiveRepository } from '../archive/archive.repository';
+import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { parseOrThrow } from '../../middleware/validate';
 import { presentCartridgeType, presentHousing, presentLine } from './equipment.presenter';
@@ -139,6 +141,7 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockHousing(tenant.wineryId, id))) throw notFound('Housing');
+        await refuseIfInRecord(createArchiveRepository(tx), 'housings', tenant.wineryId, id);
         const inside = await txRepo.cartridgesInHousing(tenant.wineryId, id);
         if (inside > 0) {
           throw conflict(
@@ -148,10 +151,11 @@ export function createEquipmentService(db: Database) {
         }
         const events = await txRepo.historyEventsForHousing(tenant.wineryId, id);
         if (events > 0) {
-          throw conflict(
-            `Cartridge history refers to this housing (${plural(events, 'event', 'events')}), so it stays for the records. Rename it or note that it is out of use instead.`,
-            'has_history',
-          );
+          throw inRecord(`Cartridge history refers to this housing (${plural(events, 'event', 'events')}), so it stays for the records. Archive it instead.`, {
+            kind: 'cartridge-history',
+            id,
+            label: 'cartridge history',
+          });
         }
         await audited(tx, tenant, { action: 'delete', kind: 'housing', id }, () => txRepo.deleteHousing(tenant.wineryId, id));
       });
@@ -212,11 +216,13 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockCartridgeType(tenant.wineryId, id))) throw notFound('Cartridge type');
+        const holder = await createArchiveRepository(tx).holder('cartridge-types', tenant.wineryId, id);
+        if (holder?.kind === 'run') await refuseIfInRecord(createArchiveRepository(tx), 'cartridge-types', tenant.wineryId, id);
         const n = await txRepo.cartridgesOfType(tenant.wineryId, id);
-        if (n > 0) {
-          throw conflict(
-            `${plural(n, 'cartridge is', 'cartridges are')} of this type, and their records name it. It cannot be deleted; note in it that it is no longer bought instead.`,
-            'type_in_use',
+        if (n > 0 && holder) {
+          throw inRecord(
+            `${plural(n, 'cartridge is', 'cartridges are')} of this type, and their records name it. It cannot be deleted; archive it instead when it is no longer bought.`,
+            holder,
           );
         }
         await audited(tx, tenant, { action: 'delete', kind: 'cartridge-type', id }, () => txRepo.deleteCartridgeType(tenant.wineryId, id));

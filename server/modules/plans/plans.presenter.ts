@@ -23,6 +23,8 @@ export const presentPlanListItem = (r: { plan: PlanRow; lineName: string | null;
   volumeL: Number(r.volumeL),
   createdAt: iso(r.plan.createdAt),
   updatedAt: iso(r.plan.updatedAt),
+  revision: r.plan.revision,
+  archivedAt: r.plan.archivedAt ? iso(r.plan.archivedAt) : null,
 });
 
 export const presentTrain = (t: PlanTrainRow, outcome: TrainSizingOutcome, blockingReasons: string[]): PlanTrainDto => ({
@@ -107,6 +109,9 @@ export const presentPlan = (p: {
   createdBy: p.creatorName,
   createdAt: iso(p.plan.createdAt),
   updatedAt: iso(p.plan.updatedAt),
+  revision: p.plan.revision,
+  previousPlanId: p.plan.previousPlanId,
+  archivedAt: p.plan.archivedAt ? iso(p.plan.archivedAt) : null,
   lots: p.lots,
   timeline: p.timeline,
   timelineError: p.timelineError,

@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, ilike, inArray, max, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, isNull, max, or, sql } from 'drizzle-orm';
 import type { PlanListQuery, PlanValues } from '../../../shared/schemas/plans';
 import type { DbOrTx } from '../../db/client';
 import {
@@ -11,6 +11,7 @@ import {
   planLotsTable,
   plansTable,
   planTrainsTable,
+  runsTable,
   usersTable,
   type PlanTrainHose,
   type PlanTrainStage,
@@ -123,6 +124,7 @@ export function createPlansRepository(db: DbOrTx) {
         eq(plansTable.wineryId, wineryId),
         q ? or(ilike(plansTable.name, q), ilike(plansTable.notes, q), ilike(linesTable.name, q)) : undefined,
         query.status ? eq(plansTable.status, query.status) : undefined,
+        query.archived === 'true' ? undefined : isNull(plansTable.archivedAt),
       );
       const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
@@ -161,7 +163,13 @@ export function createPlansRepository(db: DbOrTx) {
 
     /** The plan row with its line and the names of who made and approved it. */
     async plan(wineryId: string, id: string) {
-      const [row] = await prepared().plan.execute({ wineryId, id });
+      const approver = sql<string | null>`coalesce(${plansTable.approvedByName}, (select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.approvedBy}))`;
+      const creator = sql<string | null>`coalesce(${plansTable.createdByName}, (select ${usersTable.name} from ${usersTable} where ${usersTable.id} = ${plansTable.createdBy}))`;
+      const [row] = await db
+        .select({ plan: plansTable, line: linesTable, approverName: approver, creatorName: creator })
+        .from(plansTable)
+        .leftJoin(linesTable, eq(linesTable.id, plansTable.lineId))
+        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, id)));
       return row ?? null;
     },
 
@@ -241,10 +249,10 @@ export function createPlansRepository(db: DbOrTx) {
     },
 
     // ---- writes ---------------------------------------------------------------------
-    async insertPlan(wineryId: string, createdBy: string, values: PlanValues) {
+    async insertPlan(wineryId: string, createdBy: string, values: PlanValues, createdByName: string | null = null) {
       const [row] = await db
         .insert(plansTable)
-        .values({ ...values, wineryId, createdBy })
+        .values({ ...values, wineryId, createdBy, createdByName })
         .returning({ id: plansTable.id });
       return row.id;
     },
@@ -260,6 +268,36 @@ export function createPlansRepository(db: DbOrTx) {
         .update(plansTable)
         .set({ updatedAt: new Date() })
         .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, id)));
+    },
+    /** Runs of this plan's lots: how many are open and how many closed. */
+    async runCounts(wineryId: string, planId: string) {
+      const [row] = await db
+        .select({
+          open: sql<number>`count(*) filter (where ${runsTable.status} = 'running')`.mapWith(Number),
+          closed: sql<number>`count(*) filter (where ${runsTable.status} = 'closed')`.mapWith(Number),
+        })
+        .from(runsTable)
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.planId, planId)));
+      return { open: row?.open ?? 0, closed: row?.closed ?? 0 };
+    },
+    async laterRevision(wineryId: string, planId: string) {
+      const [row] = await db
+        .select({ id: plansTable.id, revision: plansTable.revision })
+        .from(plansTable)
+        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.previousPlanId, planId)))
+        .limit(1);
+      return row ?? null;
+    },
+    async insertPlanRow(values: typeof plansTable.$inferInsert) {
+      const [row] = await db.insert(plansTable).values(values).returning({ id: plansTable.id });
+      return row.id;
+    },
+    async planLotRows(wineryId: string, planId: string) {
+      return db
+        .select()
+        .from(planLotsTable)
+        .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.planId, planId)))
+        .orderBy(asc(planLotsTable.position));
     },
     async deletePlan(wineryId: string, id: string) {
       await db.delete(plansTable).where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, id)));

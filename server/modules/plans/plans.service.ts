@@ -14,18 +14,22 @@ import {
 } from '../../../shared/schemas/plans';
 import type { ListDto } from '../../../shared/types/api';
 import type { PlanDto, PlanListItemDto, PlanLotDto, PlanNeedDto, PlanTimelineDto } from '../../../shared/types/plans';
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainHose, PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
+import { createArchiveRepository } from '../archive/archive.repository';
+import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../cellar/db-errors';
 import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
 import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
-import { audited } from '../audit/audit.service';
+import { audited, recordChange } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
+
+const runOpen = () => conflict('A lot of this plan has a run going. Close the run first; a plan cannot change under a running lot.', 'run_open');
 
 const locked = (status: PlanRow['status']) =>
   conflict(
@@ -267,14 +271,14 @@ export function createPlansService(db: Database) {
   }
 
   /** Runs a change to a draft plan in one transaction with the plan row locked; answers the new detail. */
-  async function editDraft(tenant: TenantContext, planId: string, change: (r: PlansRepository, plan: PlanRow) => Promise<void>): Promise<PlanDto> {
+  async function editDraft(tenant: TenantContext, planId: string, change: (r: PlansRepository, plan: PlanRow, tx: DbOrTx) => Promise<void>): Promise<PlanDto> {
     await db.transaction(async (tx) => {
       const r = createPlansRepository(tx);
       const plan = await r.lockPlan(tenant.wineryId, planId);
       if (!plan) throw notFound('Plan');
       if (plan.status !== 'draft') throw locked(plan.status);
       await audited(tx, tenant, { action: 'update', kind: 'plan', id: planId }, async () => {
-        await change(r, plan);
+        await change(r, plan, tx);
         await r.touchPlan(tenant.wineryId, planId);
       });
     });
@@ -304,7 +308,7 @@ export function createPlansService(db: Database) {
       const id = await db.transaction(async (tx) => {
         const r = createPlansRepository(tx);
         await requireLine(r, tenant.wineryId, input.lineId);
-        return audited(tx, tenant, { action: 'create', kind: 'plan' }, () => r.insertPlan(tenant.wineryId, tenant.userId, input));
+        return audited(tx, tenant, { action: 'create', kind: 'plan' }, () => r.insertPlan(tenant.wineryId, tenant.userId, input, tenant.userName ?? null));
       });
       return get(tenant, id);
     },
@@ -322,6 +326,7 @@ export function createPlansService(db: Database) {
         const r = createPlansRepository(tx);
         const plan = await r.lockPlan(tenant.wineryId, id);
         if (!plan) throw notFound('Plan');
+        await refuseIfInRecord(createArchiveRepository(tx), 'plans', tenant.wineryId, id);
         if (plan.status !== 'draft') {
           throw conflict('Only draft plans can be deleted. Reopen an approved plan first; a done plan stays for the records.', 'plan_not_draft');
         }
@@ -368,8 +373,9 @@ export function createPlansService(db: Database) {
     },
 
     async removeLot(tenant: TenantContext, planId: string, planLotId: string): Promise<PlanDto> {
-      return editDraft(tenant, planId, async (r) => {
+      return editDraft(tenant, planId, async (r, _plan, tx) => {
         await requirePlanLot(r, tenant.wineryId, planId, planLotId);
+        await refuseIfInRecord(createArchiveRepository(tx), 'plan-lots', tenant.wineryId, planLotId);
         await r.deletePlanLot(tenant.wineryId, planLotId);
         await renumber(r, tenant.wineryId, await r.orderedPlanLotIds(tenant.wineryId, planId));
       });
@@ -433,6 +439,7 @@ export function createPlansService(db: Database) {
           r.updatePlan(tenant.wineryId, id, {
             status: 'approved',
             approvedBy: tenant.userId,
+            approvedByName: tenant.userName ?? null,
             approvedAt: now,
             approvalCautions: cautions.length > 0 ? cautions : null,
             approvalReason: cautions.length > 0 ? reason : null,
@@ -442,19 +449,62 @@ export function createPlansService(db: Database) {
       return get(tenant, id);
     },
 
-    /** Back to draft from approved (an approver's "Reopen"); done plans stay done. */
+    /**
+     * Back to draft from approved (an approver's "Reopen"); done plans stay done. Refused while
+     * a lot of the plan has an open run. Once a run of it has closed, the approved plan stays
+     * as recorded and reopening continues it as a new revision: a new draft plan row linked to
+     * it (previousPlanId, revision + 1) with copies of its lots and trains; the answer is the
+     * new revision.
+     */
     async reopen(tenant: TenantContext, id: string): Promise<PlanDto> {
-      await db.transaction(async (tx) => {
+      const target = await db.transaction(async (tx) => {
         const r = createPlansRepository(tx);
         const plan = await r.lockPlan(tenant.wineryId, id);
         if (!plan) throw notFound('Plan');
         if (plan.status === 'done') throw conflict('This plan is done; its record stays as it was.', 'plan_done');
         if (plan.status === 'draft') throw conflict('This plan is already a draft.', 'plan_not_approved');
-        await audited(tx, tenant, { action: 'reopen', kind: 'plan', id }, () =>
-          r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedAt: null, approvalCautions: null, approvalReason: null }),
-        );
+        const runs = await r.runCounts(tenant.wineryId, id);
+        if (runs.open > 0) throw runOpen();
+        if (runs.closed === 0) {
+          await audited(tx, tenant, { action: 'reopen', kind: 'plan', id }, () =>
+            r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedByName: null, approvedAt: null, approvalCautions: null, approvalReason: null }),
+          );
+          return id;
+        }
+        const later = await r.laterRevision(tenant.wineryId, id);
+        if (later) throw conflict(`This plan was already continued as revision ${String(later.revision)}; open that one.`, 'plan_revised');
+        const full = await r.plan(tenant.wineryId, id);
+        if (!full) throw notFound('Plan');
+        const p = full.plan;
+        const newId = await r.insertPlanRow({
+          wineryId: tenant.wineryId,
+          name: p.name,
+          plannedDate: p.plannedDate,
+          lineId: p.lineId,
+          status: 'draft',
+          startTime: p.startTime,
+          sanitationKind: p.sanitationKind,
+          notes: p.notes,
+          createdBy: tenant.userId,
+          createdByName: tenant.userName ?? null,
+          revision: p.revision + 1,
+          previousPlanId: p.id,
+        });
+        const lots = await r.planLotRows(tenant.wineryId, id);
+        const trains = await r.trains(tenant.wineryId, lots.map((l) => l.id));
+        for (const lot of lots) {
+          const copyId = await r.insertPlanLot({ wineryId: tenant.wineryId, planId: newId, lotId: lot.lotId, position: lot.position, volumeL: lot.volumeL });
+          let chosen: string | null = null;
+          for (const train of trains.filter((x) => x.planLotId === lot.id)) {
+            const trainCopyId = await r.insertTrain({ wineryId: tenant.wineryId, planLotId: copyId, name: train.name, stages: train.stages, hoses: train.hoses });
+            if (train.id === lot.chosenTrainId) chosen = trainCopyId;
+          }
+          if (chosen) await r.updatePlanLot(tenant.wineryId, copyId, { chosenTrainId: chosen });
+        }
+        await recordChange(tx, tenant, { action: 'create', kind: 'plan', id: newId });
+        return newId;
       });
-      return get(tenant, id);
+      return get(tenant, target);
     },
 
     /** Approved → done, after the day. */

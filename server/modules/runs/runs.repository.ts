@@ -10,14 +10,25 @@ import {
   planLotsTable,
   plansTable,
   planTrainsTable,
+  runChangesTable,
+  runReadingCorrectionsTable,
   runReadingsTable,
   runsTable,
+  runStageCartridgesTable,
+  type PlanTrainStage,
 } from '../../db/schema';
 
 export type RunRow = typeof runsTable.$inferSelect;
 export type RunReadingRow = typeof runReadingsTable.$inferSelect;
 type ReadingInsert = typeof runReadingsTable.$inferInsert;
 type EventInsert = typeof cartridgeEventsTable.$inferInsert;
+export type RunStageCartridgeRow = typeof runStageCartridgesTable.$inferSelect;
+type StageCartridgeInsert = typeof runStageCartridgesTable.$inferInsert;
+export type RunChangeRow = typeof runChangesTable.$inferSelect;
+type ChangeInsert = typeof runChangesTable.$inferInsert;
+export type ReadingCorrectionRow = typeof runReadingCorrectionsTable.$inferSelect;
+type CorrectionInsert = typeof runReadingCorrectionsTable.$inferInsert;
+type RunInsert = typeof runsTable.$inferInsert;
 
 const summaryColumns = {
   run: runsTable,
@@ -104,7 +115,15 @@ export function createRunsRepository(db: DbOrTx) {
         .innerJoin(plansTable, eq(plansTable.id, planLotsTable.planId))
         .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
         .innerJoin(planTrainsTable, eq(planTrainsTable.id, planLotsTable.chosenTrainId))
-        .where(and(eq(planLotsTable.wineryId, wineryId), eq(plansTable.status, 'approved'), isNotNull(planLotsTable.chosenTrainId)))
+        .where(
+          and(
+            eq(planLotsTable.wineryId, wineryId),
+            eq(plansTable.status, 'approved'),
+            isNotNull(planLotsTable.chosenTrainId),
+            // a plan continued as a later revision is kept as recorded; the revision is the one to run
+            sql`not exists (select 1 from ${plansTable} as later where later.previous_plan_id = ${plansTable.id})`,
+          ),
+        )
         .orderBy(asc(plansTable.plannedDate), asc(planLotsTable.position))
         .limit(200);
     },
@@ -127,7 +146,7 @@ export function createRunsRepository(db: DbOrTx) {
       return row ?? null;
     },
 
-    async insertRun(values: { wineryId: string; planId: string; planLotId: string; startedBy: string }) {
+    async insertRun(values: RunInsert) {
       const [row] = await db.insert(runsTable).values(values).returning();
       return row;
     },
@@ -189,10 +208,10 @@ export function createRunsRepository(db: DbOrTx) {
       return row?.v ?? 0;
     },
 
-    async closeRun(wineryId: string, id: string, closedBy: string, notes: string | undefined) {
+    async closeRun(wineryId: string, id: string, closedBy: string, closedByName: string | null, notes: string | undefined) {
       await db
         .update(runsTable)
-        .set({ status: 'closed', closedAt: new Date(), closedBy, updatedAt: new Date(), ...(notes !== undefined ? { notes } : {}) })
+        .set({ status: 'closed', closedAt: new Date(), closedBy, closedByName, updatedAt: new Date(), ...(notes !== undefined ? { notes } : {}) })
         .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
     },
 
@@ -227,6 +246,146 @@ export function createRunsRepository(db: DbOrTx) {
       await db
         .update(cartridgesTable)
         .set({ litresFiltered: sql`${cartridgesTable.litresFiltered} + ${litres}`, updatedAt: new Date() })
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.id, ids)));
+    },
+
+    async housingRows(wineryId: string, ids: string[]) {
+      if (ids.length === 0) return [];
+      return db
+        .select()
+        .from(housingsTable)
+        .where(and(eq(housingsTable.wineryId, wineryId), inArray(housingsTable.id, ids)));
+    },
+
+    async updateTrainStages(wineryId: string, trainId: string, stages: PlanTrainStage[]) {
+      await db
+        .update(planTrainsTable)
+        .set({ stages, updatedAt: new Date() })
+        .where(and(eq(planTrainsTable.wineryId, wineryId), eq(planTrainsTable.id, trainId)));
+    },
+
+    async reapprove(wineryId: string, planId: string, userId: string, userName: string | null) {
+      await db
+        .update(plansTable)
+        .set({ approvedBy: userId, approvedByName: userName, approvedAt: new Date(), updatedAt: new Date() })
+        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, planId)));
+    },
+
+    /** The housings' rows, locked so nothing is installed or removed while a run starts. */
+    async lockHousings(wineryId: string, ids: string[]) {
+      if (ids.length === 0) return [];
+      return db
+        .select()
+        .from(housingsTable)
+        .where(and(eq(housingsTable.wineryId, wineryId), inArray(housingsTable.id, ids)))
+        .for('update');
+    },
+
+    /** Every cartridge sitting in these housings (any status), with its type; locked. */
+    async cartridgesIn(wineryId: string, housingIds: string[]) {
+      if (housingIds.length === 0) return [];
+      return db
+        .select({ cartridge: cartridgesTable, type: cartridgeTypesTable })
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.housingId, housingIds)))
+        .orderBy(asc(cartridgesTable.position), asc(cartridgesTable.serial))
+        .for('update', { of: cartridgesTable });
+    },
+
+    /** These cartridges with their types; locked. */
+    async cartridgesById(wineryId: string, ids: string[]) {
+      if (ids.length === 0) return [];
+      return db
+        .select({ cartridge: cartridgesTable, type: cartridgeTypesTable })
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.id, ids)))
+        .for('update', { of: cartridgesTable });
+    },
+
+    /** History of these cartridges (for the life forecast and the latest integrity test). */
+    async eventsOf(wineryId: string, cartridgeIds: string[]) {
+      if (cartridgeIds.length === 0) return [];
+      return db
+        .select({ cartridgeId: cartridgeEventsTable.cartridgeId, kind: cartridgeEventsTable.kind, at: cartridgeEventsTable.at, details: cartridgeEventsTable.details })
+        .from(cartridgeEventsTable)
+        .where(and(eq(cartridgeEventsTable.wineryId, wineryId), inArray(cartridgeEventsTable.cartridgeId, cartridgeIds)))
+        .orderBy(asc(cartridgeEventsTable.at));
+    },
+
+    async insertStageCartridges(values: StageCartridgeInsert[]) {
+      if (values.length === 0) return;
+      await db.insert(runStageCartridgesTable).values(values);
+    },
+
+    async stageCartridges(wineryId: string, runId: string) {
+      return db
+        .select()
+        .from(runStageCartridgesTable)
+        .where(and(eq(runStageCartridgesTable.wineryId, wineryId), eq(runStageCartridgesTable.runId, runId)))
+        .orderBy(asc(runStageCartridgesTable.stageIndex), asc(runStageCartridgesTable.installedAtVolumeL), asc(runStageCartridgesTable.serial));
+    },
+
+    async endStint(wineryId: string, id: string, removedAtVolumeL: number) {
+      await db
+        .update(runStageCartridgesTable)
+        .set({ removedAtVolumeL, updatedAt: new Date() })
+        .where(and(eq(runStageCartridgesTable.wineryId, wineryId), eq(runStageCartridgesTable.id, id)));
+    },
+
+    async setCarried(wineryId: string, id: string, litresCarried: number) {
+      await db
+        .update(runStageCartridgesTable)
+        .set({ litresCarried, updatedAt: new Date() })
+        .where(and(eq(runStageCartridgesTable.wineryId, wineryId), eq(runStageCartridgesTable.id, id)));
+    },
+
+    async insertChange(values: ChangeInsert) {
+      const [row] = await db.insert(runChangesTable).values(values).returning();
+      return row;
+    },
+
+    async changes(wineryId: string, runId: string) {
+      return db
+        .select()
+        .from(runChangesTable)
+        .where(and(eq(runChangesTable.wineryId, wineryId), eq(runChangesTable.runId, runId)))
+        .orderBy(asc(runChangesTable.atVolumeL), asc(runChangesTable.createdAt));
+    },
+
+    async reading(wineryId: string, runId: string, id: string) {
+      const [row] = await db
+        .select()
+        .from(runReadingsTable)
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId), eq(runReadingsTable.id, id)));
+      return row ?? null;
+    },
+
+    async insertCorrection(values: CorrectionInsert) {
+      await db.insert(runReadingCorrectionsTable).values(values);
+    },
+
+    async corrections(wineryId: string, runId: string) {
+      return db
+        .select()
+        .from(runReadingCorrectionsTable)
+        .where(and(eq(runReadingCorrectionsTable.wineryId, wineryId), eq(runReadingCorrectionsTable.runId, runId)))
+        .orderBy(asc(runReadingCorrectionsTable.createdAt), asc(runReadingCorrectionsTable.id));
+    },
+
+    async addLitresTo(wineryId: string, id: string, litres: number) {
+      await db
+        .update(cartridgesTable)
+        .set({ litresFiltered: sql`${cartridgesTable.litresFiltered} + ${litres}`, updatedAt: new Date() })
+        .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.id, id)));
+    },
+
+    async countCycle(wineryId: string, ids: string[], counter: 'steamCycles' | 'hotWaterCycles' | 'chemicalCycles' | null) {
+      if (ids.length === 0 || !counter) return;
+      await db
+        .update(cartridgesTable)
+        .set({ [counter]: sql`${cartridgesTable[counter]} + 1`, updatedAt: new Date() })
         .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.id, ids)));
     },
 

@@ -1,10 +1,19 @@
 import { Router } from 'express';
-import { closeRunInputSchema, logReadingInputSchema, startRunInputSchema } from '../../../shared/schemas/runs';
+import { z } from 'zod';
+import { uuidSchema } from '../../../shared/schemas/common';
+import {
+  closeRunInputSchema,
+  correctReadingInputSchema,
+  logReadingInputSchema,
+  runChangeInputSchema,
+  startRunInputSchema,
+  voidReadingInputSchema,
+} from '../../../shared/schemas/runs';
 import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
 import { idempotent } from '../../middleware/idempotency';
-import { validateBody } from '../../middleware/validate';
+import { validateBody, validateQuery } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createRunsService } from './runs.service';
 
@@ -25,6 +34,19 @@ export function runsRoutes({ db }: ModuleDeps) {
   router.get('/runs/start-options', ...read, async (_req, res) => {
     res.json(await service.startOptions(tenantOf(res)));
   });
+  router.get('/runs/start-check', ...read, validateQuery(z.object({ planLotId: uuidSchema })), async (_req, res) => {
+    res.json(await service.startCheck(tenantOf(res), res.locals.query.planLotId));
+  });
+  // "Plan with what is installed": changes an approved plan's train, so it needs the approver's role.
+  router.post(
+    '/runs/plan-with-installed',
+    requireSignedIn,
+    authorize(db, 'plans:approve'),
+    validateBody(z.object({ planLotId: uuidSchema, stageIndex: z.number().int().min(0).max(20) })),
+    async (_req, res) => {
+      res.json(await service.planWithInstalled(tenantOf(res), res.locals.body.planLotId, res.locals.body.stageIndex));
+    },
+  );
   router.post('/runs', ...log, idempotent(db), validateBody(startRunInputSchema), async (_req, res) => {
     res.status(201).json(await service.start(tenantOf(res), res.locals.body));
   });
@@ -34,6 +56,15 @@ export function runsRoutes({ db }: ModuleDeps) {
   // Idempotent by the reading's clientKey: a resent reading answers the stored one.
   router.post('/runs/:id/readings', ...log, validateBody(logReadingInputSchema), async (req, res) => {
     res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+  });
+  router.post('/runs/:id/changes', ...log, idempotent(db), validateBody(runChangeInputSchema), async (req, res) => {
+    res.status(201).json(await service.change(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+  });
+  router.post('/runs/:id/readings/:readingId/correct', ...log, idempotent(db), validateBody(correctReadingInputSchema), async (req, res) => {
+    res.status(201).json(await service.correctReading(tenantOf(res), idParam(req, 'id', 'Run'), idParam(req, 'readingId', 'Reading'), res.locals.body));
+  });
+  router.post('/runs/:id/readings/:readingId/void', ...log, idempotent(db), validateBody(voidReadingInputSchema), async (req, res) => {
+    res.status(201).json(await service.voidReading(tenantOf(res), idParam(req, 'id', 'Run'), idParam(req, 'readingId', 'Reading'), res.locals.body));
   });
   router.post('/runs/:id/close', ...log, validateBody(closeRunInputSchema), async (req, res) => {
     res.json(await service.close(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));

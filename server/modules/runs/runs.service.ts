@@ -6,14 +6,32 @@ import {
   volumeAtDp,
   type ConstantFlowFit,
 } from '../../../shared/engine';
-import type { CloseRunInput, LogReadingInput, StartRunInput } from '../../../shared/schemas/runs';
-import type { RunDetailDto, RunReadingDto, RunStageDto, RunStartOptionDto, RunSummaryDto } from '../../../shared/types/runs';
+import type {
+  CloseRunInput,
+  CorrectReadingInput,
+  LogReadingInput,
+  RunBlockReason,
+  RunChangeInput,
+  StartRunInput,
+  VoidReadingInput,
+} from '../../../shared/schemas/runs';
+import type { RunDetailDto, RunReadingDto, RunStageDto, RunStartCheckDto, RunStartOptionDto, RunSummaryDto } from '../../../shared/types/runs';
 import type { Database } from '../../db/client';
-import { badRequest, conflict, notFound } from '../../lib/errors';
+import type { PlanTrainStage } from '../../db/schema';
+import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
-import { presentReading, presentRunSummary } from './runs.presenter';
-import { createRunsRepository, type RunReadingRow } from './runs.repository';
+import { createCartridgesRepository } from '../cartridges/cartridges.repository';
+import { installCartridge, removeCartridge } from '../cartridges/cartridges.service';
+import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
+import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
+import { createRunsRepository, type RunReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
+
+/** Roles that may start a run despite overridable start checks, with a written reason. */
+const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
+const CYCLE_COUNTERS = { steam: 'steamCycles', 'hot-water': 'hotWaterCycles', chemical: 'chemicalCycles', backflush: null } as const;
+
+const runBlocked = (reasons: RunBlockReason[], message: string) => new HttpError(409, 'run_blocked', message, undefined, { reasons });
 
 export const RUN_LIST_LIMIT = 100;
 /** Readings a stage needs before its ΔP curve is fitted. */
@@ -39,7 +57,7 @@ function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: nu
 }
 
 function stageFigures(p: {
-  readings: RunReadingRow[];
+  readings: EffectiveReading[];
   terminalDpBar: number;
   lineFlowLh: number | null;
   currentVolumeL: number;
@@ -80,6 +98,38 @@ function stageFigures(p: {
   }
 }
 
+/** What is in the stages' housings and why a run could not start on it. */
+async function inspect(r: RunsRepository, wineryId: string, stages: PlanTrainStage[], opts: { lock?: boolean } = {}) {
+  const housingIds = [...new Set(stages.map((s) => s.housingId))];
+  const housings = opts.lock ? await r.lockHousings(wineryId, housingIds) : await r.housingRows(wineryId, housingIds);
+  const installed = await r.cartridgesIn(wineryId, housingIds);
+  const events = await r.eventsOf(wineryId, installed.map((i) => i.cartridge.id));
+  const planned = await r.types(wineryId, [...new Set(stages.map((s) => s.cartridgeTypeId))]);
+  const plannedTypeNames = new Map(planned.map((p) => [p.id, p.name]));
+  const reasons = startChecks({ stages, housings, installed, events, plannedTypeNames, now: new Date() });
+  return {
+    reasons,
+    housings,
+    installed,
+    stages: stages.map((s, index) => {
+      const h = housings.find((x) => x.id === s.housingId);
+      return {
+        index,
+        name: s.name ?? `Stage ${String(index + 1)}`,
+        housingId: s.housingId,
+        housingName: h?.name ?? 'Unknown housing',
+        rounds: h?.rounds ?? 0,
+        housingCount: s.housingCount,
+        plannedTypeId: s.cartridgeTypeId,
+        plannedTypeName: plannedTypeNames.get(s.cartridgeTypeId) ?? 'Unknown type',
+        installed: installed
+          .filter((i) => i.cartridge.housingId === s.housingId && i.cartridge.status === 'installed')
+          .map((i) => ({ id: i.cartridge.id, serial: i.cartridge.serial, typeId: i.type.id, typeName: i.type.name })),
+      };
+    }),
+  };
+}
+
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
@@ -90,11 +140,16 @@ export function createRunsService(db: Database) {
     const ctx = await repo.planLot(wineryId, summary.run.planLotId);
     if (!ctx) throw notFound('Run');
     const stages = ctx.train?.stages ?? [];
-    const [types, housings, readings] = await Promise.all([
+    const [types, housings, rawReadings, corrections, stints, changes] = await Promise.all([
       repo.types(wineryId, [...new Set(stages.map((s) => s.cartridgeTypeId))]),
       repo.housings(wineryId, [...new Set(stages.map((s) => s.housingId))]),
       repo.readings(wineryId, id),
+      repo.corrections(wineryId, id),
+      repo.stageCartridges(wineryId, id),
+      repo.changes(wineryId, id),
     ]);
+    const readings = effectiveReadings(rawReadings, corrections);
+    const serialOf = new Map(stints.map((c) => [c.cartridgeId, c.serial]));
     const lineFlowLh = ctx.line ? requiredFlowLh({ bottlesPerHour: ctx.line.bottlesPerHour, bottleMl: ctx.line.bottleMl }) : null;
     const volumeToBottleL = Math.max(0, summary.volumeL - summary.currentVolumeL);
     const base = presentRunSummary(summary);
@@ -105,14 +160,21 @@ export function createRunsService(db: Database) {
       lineName: ctx.line?.name ?? null,
       requiredFlowLh: lineFlowLh,
       volumeToBottleL,
+      startedByName: summary.run.startedByName,
+      closedByName: summary.run.closedByName,
+      override: summary.run.overrideReason
+        ? { reason: summary.run.overrideReason, byName: summary.run.overrideByName, checks: summary.run.overriddenChecks ?? [] }
+        : null,
+      changes: changes.map((c) => presentChange(c, serialOf)),
       stages: stages.map((s, index) => {
         const type = types.find((t) => t.id === s.cartridgeTypeId);
         const housing = housings.find((h) => h.id === s.housingId);
         const own = readings.filter((r) => r.stageIndex === index);
+        const counted = own.filter((r) => !r.voided);
         const terminalDpBar = type?.terminalDpBar ?? 0;
         const figures =
           terminalDpBar > 0
-            ? stageFigures({ readings: own, terminalDpBar, lineFlowLh, currentVolumeL: summary.currentVolumeL, volumeToBottleL })
+            ? stageFigures({ readings: counted, terminalDpBar, lineFlowLh, currentVolumeL: summary.currentVolumeL, volumeToBottleL })
             : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
         return {
           index,
@@ -124,6 +186,7 @@ export function createRunsService(db: Database) {
           terminalDpBar,
           readings: own.map(presentReading),
           ...figures,
+          cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
         };
       }),
     };
@@ -142,6 +205,20 @@ export function createRunsService(db: Database) {
       return { items: rows.map((r) => ({ ...r, trainName: r.trainName })) };
     },
 
+    /** What is physically in the chosen train's housings against the plan, and why a start would be refused. */
+    async startCheck(t: TenantContext, planLotId: string): Promise<RunStartCheckDto> {
+      const ctx = await repo.planLot(t.wineryId, planLotId);
+      if (!ctx) throw notFound('Lot of a plan');
+      const { reasons, stages } = await inspect(repo, t.wineryId, ctx.train?.stages ?? []);
+      return { planLotId, stages, reasons: reasons.map((r) => ({ ...r, overridable: isOverridable(r.code) })) };
+    },
+
+    /**
+     * Starts a run, snapshotting every cartridge in each stage's housing. Refused (409
+     * run_blocked, one reason per problem) when the housings do not hold what the plan asks
+     * for; a cellar master or owner may start anyway with a written reason for a type
+     * mismatch, a partial fill or a spent cartridge, never for a failed integrity test.
+     */
     async start(t: TenantContext, input: StartRunInput): Promise<RunDetailDto> {
       const id = await db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
@@ -152,11 +229,230 @@ export function createRunsService(db: Database) {
         await r.lockPlanLot(t.wineryId, input.planLotId);
         const running = await r.runningFor(t.wineryId, input.planLotId);
         if (running) throw conflict('This lot already has a run going. Close it before starting another.', 'run_running');
-        const run = await r.insertRun({ wineryId: t.wineryId, planId: ctx.plan.id, planLotId: input.planLotId, startedBy: t.userId });
+        const stages = ctx.train.stages;
+        const { reasons, housings, installed } = await inspect(r, t.wineryId, stages, { lock: true });
+        if (reasons.length > 0) {
+          const hard = reasons.filter((x) => !isOverridable(x.code));
+          if (hard.length > 0) {
+            throw runBlocked(reasons, `The run cannot start: ${String(reasons.length)} problem${reasons.length === 1 ? '' : 's'} with the cartridges in the train.`);
+          }
+          if (!input.override) {
+            throw runBlocked(reasons, 'The cartridges in the train do not match the plan. Fix them, or a cellar master or owner may start anyway with a written reason.');
+          }
+          if (!(OVERRIDE_ROLES as readonly string[]).includes(t.role)) throw forbidden('Only a cellar master or the owner may start a run despite the start checks.');
+        }
+        const overridden = reasons.length > 0 && input.override;
+        const run = await r.insertRun({
+          wineryId: t.wineryId,
+          planId: ctx.plan.id,
+          planLotId: input.planLotId,
+          startedBy: t.userId,
+          startedByName: t.userName ?? null,
+          overrideReason: overridden ? input.override?.reason : null,
+          overrideByName: overridden ? (t.userName ?? null) : null,
+          overriddenChecks: overridden ? reasons : null,
+        });
+        const rows: Parameters<RunsRepository['insertStageCartridges']>[0] = [];
+        stages.forEach((stage, index) => {
+          const housing = housings.find((h) => h.id === stage.housingId);
+          if (!housing) return;
+          if (stages.findIndex((x) => x.housingId === stage.housingId) !== index) return;
+          for (const { cartridge: c, type } of installed.filter((i) => i.cartridge.housingId === housing.id && i.cartridge.status === 'installed')) {
+            rows.push({
+              wineryId: t.wineryId,
+              runId: run.id,
+              stageIndex: index,
+              housingId: housing.id,
+              housingName: housing.name,
+              cartridgeId: c.id,
+              serial: c.serial,
+              batch: c.batch || null,
+              typeId: type.id,
+              typeName: type.name,
+              ratingUm: type.ratingUm,
+              lengthIn: c.lengthIn,
+              litresAtStart: c.litresFiltered,
+              cyclesAtStart: cyclesOf(c),
+              installedAtVolumeL: 0,
+            });
+          }
+        });
+        await r.insertStageCartridges(rows);
         await recordChange(tx, t, { action: 'start', kind: 'run', id: run.id });
         return run.id;
       });
       return detail(t.wineryId, id);
+    },
+
+    /**
+     * "Plan with what is installed": sets a stage of the lot's chosen train to the one type
+     * installed in its housing. The plan stays approved, re-approved by this person now.
+     */
+    async planWithInstalled(t: TenantContext, planLotId: string, stageIndex: number): Promise<RunStartCheckDto> {
+      await db.transaction(async (tx) => {
+        const r = createRunsRepository(tx);
+        const ctx = await r.planLot(t.wineryId, planLotId);
+        if (!ctx) throw notFound('Lot of a plan');
+        if (!ctx.train) throw conflict('Choose a train for this lot in its plan first.');
+        if (await r.runningFor(t.wineryId, planLotId)) throw conflict('This lot has a run going; its train cannot change now.', 'run_open');
+        const stage = ctx.train.stages[stageIndex];
+        if (!stage) throw badRequest('Check the highlighted fields.', { stageIndex: 'Choose a stage of this lot’s train.' });
+        const installed = (await r.cartridgesIn(t.wineryId, [stage.housingId])).filter((i) => i.cartridge.status === 'installed');
+        const typeIds = [...new Set(installed.map((i) => i.type.id))];
+        if (typeIds.length !== 1) {
+          throw conflict(
+            typeIds.length === 0 ? 'The housing holds no cartridge to plan with.' : 'The housing holds cartridges of more than one type; install one type first.',
+            'not_one_type',
+          );
+        }
+        const stages = ctx.train.stages.map((s, i) => (i === stageIndex ? { ...s, cartridgeTypeId: typeIds[0] } : s));
+        await r.updateTrainStages(t.wineryId, ctx.train.id, stages);
+        if (ctx.plan.status === 'approved') await r.reapprove(t.wineryId, ctx.plan.id, t.userId, t.userName ?? null);
+      });
+      const ctx = await repo.planLot(t.wineryId, planLotId);
+      const { reasons, stages } = await inspect(repo, t.wineryId, ctx?.train?.stages ?? []);
+      return { planLotId, stages, reasons: reasons.map((x) => ({ ...x, overridable: isOverridable(x.code) })) };
+    },
+
+    /**
+     * A cartridge change or an in-place regeneration on one stage during a run. A change moves
+     * the cartridges physically (the cartridge's own history records it), closes the removed
+     * cartridges' stints at atVolumeL and opens stints for those put in. A regeneration counts
+     * a care cycle on the cartridges, keeps them in and splits their stints at atVolumeL.
+     */
+    async change(t: TenantContext, runId: string, input: RunChangeInput): Promise<RunDetailDto> {
+      await db.transaction(async (tx) => {
+        const r = createRunsRepository(tx);
+        const cartridges = createCartridgesRepository(tx);
+        const run = await r.lockRun(t.wineryId, runId);
+        if (!run) throw notFound('Run');
+        if (run.status !== 'running') throw conflict('This run is closed; cartridges are changed during a run.', 'run_closed');
+        const ctx = await r.planLot(t.wineryId, run.planLotId);
+        const stage = ctx?.train?.stages[input.stageIndex];
+        if (!stage) throw badRequest('Check the highlighted fields.', { stageIndex: 'Choose a stage of this run’s train.' });
+        const stints = await r.stageCartridges(t.wineryId, runId);
+        const open = stints.filter((c) => c.stageIndex === input.stageIndex && c.removedAtVolumeL === null);
+        const lastChange = Math.max(0, ...stints.filter((c) => c.stageIndex === input.stageIndex).map((c) => c.installedAtVolumeL));
+        if (input.atVolumeL < lastChange) {
+          throw badRequest('Check the highlighted fields.', { atVolumeL: `Litres cannot go back: this stage last changed at ${litresText(lastChange)}.` });
+        }
+        const notIn = input.removedCartridgeIds.filter((id) => !open.some((c) => c.cartridgeId === id));
+        if (notIn.length > 0) {
+          throw badRequest('Check the highlighted fields.', { removedCartridgeIds: 'Choose cartridges that are in this stage of the run.' });
+        }
+        const housingName = open[0]?.housingName ?? (await r.housings(t.wineryId, [stage.housingId]))[0]?.name ?? '';
+        const installedIds = input.kind === 'regeneration' ? input.removedCartridgeIds : input.installedCartridgeIds;
+        const change = await r.insertChange({
+          wineryId: t.wineryId,
+          runId,
+          stageIndex: input.stageIndex,
+          kind: input.kind,
+          atVolumeL: input.atVolumeL,
+          removedCartridgeIds: input.removedCartridgeIds,
+          installedCartridgeIds: installedIds,
+          createdBy: t.userId,
+          createdByName: t.userName ?? null,
+        });
+        for (const id of input.removedCartridgeIds) {
+          const stint = open.find((c) => c.cartridgeId === id);
+          if (stint) await r.endStint(t.wineryId, stint.id, input.atVolumeL);
+        }
+        if (input.kind === 'change') {
+          for (const id of input.removedCartridgeIds) {
+            const c = await cartridges.byId(t.wineryId, id, { lock: true });
+            if (c && c.status !== 'in-stock' && c.status !== 'retired') await removeCartridge(cartridges, t, c);
+          }
+          for (const id of input.installedCartridgeIds) {
+            const c = await cartridges.byId(t.wineryId, id, { lock: true });
+            if (!c) throw badRequest('Check the highlighted fields.', { installedCartridgeIds: 'Choose cartridges from this winery’s inventory.' });
+            await installCartridge(cartridges, t, c, { housingId: stage.housingId });
+          }
+        } else {
+          const counter = CYCLE_COUNTERS[input.cycleKind];
+          await r.countCycle(t.wineryId, input.removedCartridgeIds, counter);
+          await r.insertEvents(
+            input.removedCartridgeIds.map((id) => ({
+              wineryId: t.wineryId,
+              cartridgeId: id,
+              kind: 'cycle' as const,
+              actorId: t.userId,
+              actorName: t.userName ?? null,
+              housingId: stage.housingId,
+              details: { kind: input.cycleKind, runId, atVolumeL: input.atVolumeL, inPlace: true },
+            })),
+          );
+        }
+        const fresh = await r.cartridgesById(t.wineryId, installedIds);
+        await r.insertStageCartridges(
+          installedIds.map((id) => {
+            const row = fresh.find((f) => f.cartridge.id === id);
+            if (!row) throw badRequest('Check the highlighted fields.', { installedCartridgeIds: 'Choose cartridges from this winery’s inventory.' });
+            const earlier = stints.filter((s) => s.cartridgeId === id).reduce((sum, s) => sum + ((s.removedAtVolumeL ?? input.atVolumeL) - s.installedAtVolumeL), 0);
+            return {
+              wineryId: t.wineryId,
+              runId,
+              stageIndex: input.stageIndex,
+              housingId: stage.housingId,
+              housingName,
+              cartridgeId: id,
+              serial: row.cartridge.serial,
+              batch: row.cartridge.batch || null,
+              typeId: row.type.id,
+              typeName: row.type.name,
+              ratingUm: row.type.ratingUm,
+              lengthIn: row.cartridge.lengthIn,
+              // litres are added at close, so count what it already carried in this run
+              litresAtStart: row.cartridge.litresFiltered + Math.max(0, earlier),
+              cyclesAtStart: cyclesOf(row.cartridge),
+              installedAtVolumeL: input.atVolumeL,
+              changeId: change.id,
+            };
+          }),
+        );
+      });
+      return detail(t.wineryId, runId);
+    },
+
+    /** Corrects a reading: a correction entry with the new values and why; the original row is kept. */
+    async correctReading(t: TenantContext, runId: string, readingId: string, input: CorrectReadingInput): Promise<RunDetailDto> {
+      if (input.downstreamBar > input.upstreamBar) {
+        throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
+      }
+      await db.transaction(async (tx) => {
+        const r = createRunsRepository(tx);
+        const run = await r.lockRun(t.wineryId, runId);
+        if (!run) throw notFound('Run');
+        const reading = await r.reading(t.wineryId, runId, readingId);
+        if (!reading) throw notFound('Reading');
+        await r.insertCorrection({
+          wineryId: t.wineryId,
+          runId,
+          readingId,
+          kind: 'correct',
+          volumeL: input.volumeL,
+          upstreamBar: input.upstreamBar,
+          downstreamBar: input.downstreamBar,
+          flowLh: input.flowLh ?? null,
+          tempC: input.tempC ?? null,
+          reason: input.reason,
+          createdBy: t.userId,
+          createdByName: t.userName ?? null,
+        });
+      });
+      return detail(t.wineryId, runId);
+    },
+
+    /** Voids a reading with a reason: it stays in the record, struck through, and leaves the fits. */
+    async voidReading(t: TenantContext, runId: string, readingId: string, input: VoidReadingInput): Promise<RunDetailDto> {
+      await db.transaction(async (tx) => {
+        const r = createRunsRepository(tx);
+        const run = await r.lockRun(t.wineryId, runId);
+        if (!run) throw notFound('Run');
+        const reading = await r.reading(t.wineryId, runId, readingId);
+        if (!reading) throw notFound('Reading');
+        await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
+      });
+      return detail(t.wineryId, runId);
     },
 
     async logReading(t: TenantContext, runId: string, input: LogReadingInput): Promise<RunReadingDto> {
@@ -189,6 +485,7 @@ export function createRunsService(db: Database) {
           at: input.at ? new Date(input.at) : new Date(),
           clientKey: input.clientKey,
           createdBy: t.userId,
+          createdByName: t.userName ?? null,
         });
         const stored = await r.readingByKey(t.wineryId, runId, input.clientKey);
         if (!stored) throw conflict('The reading could not be stored; send it again.');
@@ -196,6 +493,11 @@ export function createRunsService(db: Database) {
       });
     },
 
+    /**
+     * Closes a run. Each cartridge gets exactly the litres it carried: per stint, from the
+     * litres through the train when it went in to when it came out (or to the end of the run),
+     * not whatever is installed at closing time.
+     */
     async close(t: TenantContext, runId: string, input: CloseRunInput): Promise<RunDetailDto> {
       await db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
@@ -203,31 +505,55 @@ export function createRunsService(db: Database) {
         if (!run) throw notFound('Run');
         if (run.status !== 'running') throw conflict('This run is already closed.', 'run_closed');
         const ctx = await r.planLot(t.wineryId, run.planLotId);
-        const litres = await r.maxVolume(t.wineryId, runId);
+        // one connection in a transaction: one query after the other
+        const raw = await r.readings(t.wineryId, runId);
+        const corrections = await r.corrections(t.wineryId, runId);
+        const stints = await r.stageCartridges(t.wineryId, runId);
+        const counted = effectiveReadings(raw, corrections).filter((x) => !x.voided);
+        const litres = Math.max(0, ...counted.map((x) => x.volumeL), ...stints.map((s) => s.removedAtVolumeL ?? s.installedAtVolumeL));
         const before = await auditSnapshot(tx, 'run', t.wineryId, runId);
-        await r.closeRun(t.wineryId, runId, t.userId, input.notes);
+        await r.closeRun(t.wineryId, runId, t.userId, t.userName ?? null, input.notes);
         await recordChange(tx, t, { action: 'close', kind: 'run', id: runId, before });
-        const housingIds = [...new Set((ctx?.train?.stages ?? []).map((s) => s.housingId))];
-        const installed = await r.installedIn(t.wineryId, housingIds);
-        if (litres > 0 && installed.length > 0) {
-          await r.addLitres(
-            t.wineryId,
-            installed.map((c) => c.id),
-            litres,
-          );
-          const at = new Date();
-          await r.insertEvents(
-            installed.map((c) => ({
+        const at = new Date();
+        const lotCode = ctx?.lot.code ?? '';
+        if (stints.length === 0) {
+          // A run started before runs were bound to cartridges: the old rule, what is in the housings now.
+          const housingIds = [...new Set((ctx?.train?.stages ?? []).map((s) => s.housingId))];
+          const installed = await r.installedIn(t.wineryId, housingIds);
+          if (litres > 0 && installed.length > 0) {
+            await r.addLitres(t.wineryId, installed.map((c) => c.id), litres);
+            await r.insertEvents(
+              installed.map((c) => ({ wineryId: t.wineryId, cartridgeId: c.id, kind: 'run' as const, actorId: t.userId, actorName: t.userName ?? null, housingId: c.housingId, position: c.position, at, details: { litres, runId, lotCode } })),
+            );
+          }
+          return;
+        }
+        const carried = new Map<string, { litres: number; stint: RunStageCartridgeRow }>();
+        for (const s of stints) {
+          const end = s.removedAtVolumeL ?? litres;
+          const v = Math.max(0, end - s.installedAtVolumeL);
+          await r.setCarried(t.wineryId, s.id, v);
+          const prev = carried.get(s.cartridgeId);
+          carried.set(s.cartridgeId, { litres: (prev?.litres ?? 0) + v, stint: prev?.stint ?? s });
+        }
+        const current = await r.cartridgesById(t.wineryId, [...carried.keys()]);
+        for (const [cartridgeId, { litres: v, stint }] of carried) {
+          if (v <= 0) continue;
+          await r.addLitresTo(t.wineryId, cartridgeId, v);
+          const now = current.find((c) => c.cartridge.id === cartridgeId)?.cartridge;
+          await r.insertEvents([
+            {
               wineryId: t.wineryId,
-              cartridgeId: c.id,
-              kind: 'run' as const,
+              cartridgeId,
+              kind: 'run',
               actorId: t.userId,
-              housingId: c.housingId,
-              position: c.position,
+              actorName: t.userName ?? null,
+              housingId: stint.housingId,
+              position: now?.housingId === stint.housingId ? now.position : null,
               at,
-              details: { litres, runId, lotCode: ctx?.lot.code ?? '' },
-            })),
-          );
+              details: { litres: v, runId, lotCode, stageIndex: stint.stageIndex },
+            },
+          ]);
         }
       });
       return detail(t.wineryId, runId);

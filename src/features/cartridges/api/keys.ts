@@ -12,6 +12,8 @@ export type CartridgeFilters = {
   order?: 'asc' | 'desc';
   page?: number;
   pageSize?: number;
+  /** 'true' lists archived cartridges too. */
+  archived?: 'true';
 };
 
 export const cartridgeKeys = {

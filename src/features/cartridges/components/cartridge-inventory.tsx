@@ -5,6 +5,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { cartridgeSortKeys, cartridgeStatusValues, type CartridgeSortKey, type CartridgeStatus } from '@shared/schemas/cartridges';
 import type { CartridgeDto } from '@shared/types/cartridges';
+import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { Card } from '@/components/ui/card';
 import { DataTable } from '@/components/ui/data-table';
 import { FormField } from '@/components/ui/form-field';
@@ -35,6 +36,7 @@ function useFilters(): [CartridgeFilters, (next: Partial<CartridgeFilters>) => v
     order: params.get('order') === 'desc' ? 'desc' : 'asc',
     page: Math.max(1, Number(params.get('page')) || 1),
     pageSize: PAGE_SIZE,
+    archived: params.get('archived') === 'true' ? 'true' : undefined,
   };
   const update = (next: Partial<CartridgeFilters>) => {
     const merged = { ...filters, ...next };
@@ -157,6 +159,7 @@ export function CartridgeInventory({
         <FormField label="Batch" htmlFor="cartridge-batch">
           <Input id="cartridge-batch" value={batch} onChange={(e) => setBatch(e.target.value)} placeholder="Exact batch, e.g. B24-117" />
         </FormField>
+        <ShowArchivedToggle id="cartridge-show-archived" checked={filters.archived === 'true'} onChange={(v) => setFilters({ archived: v ? 'true' : undefined })} />
       </div>
       {list.isPending ? (
         <LoadingState variant="skeleton" lines={6} className="px-4" />

@@ -5,6 +5,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { wineStyleLabels } from '@shared/schemas/cellar';
 import type { LabResultDto, LotDto } from '@shared/types/cellar';
 import { AttachmentPanel } from '@/components/attachments/attachment-panel';
+import { ArchiveOffer, isInRecord } from '@/components/records/archive-offer';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
@@ -78,6 +79,7 @@ export function LotPage({ lotId }: { lotId: string }) {
   const navigate = useNavigate();
   const [editingLot, setEditingLot] = useState(false);
   const [deletingLot, setDeletingLot] = useState(false);
+  const [lotRefusal, setLotRefusal] = useState<string | null>(null);
   const [resultForm, setResultForm] = useState<{ open: boolean; result: LabResultDto | null }>({ open: false, result: null });
   const [deletingResult, setDeletingResult] = useState<LabResultDto | null>(null);
 
@@ -173,17 +175,38 @@ export function LotPage({ lotId }: { lotId: string }) {
       <LabResultFormDialog open={resultForm.open} result={resultForm.result} lotId={l.id} onClose={() => setResultForm({ open: false, result: null })} />
       <Dialog
         open={deletingLot}
-        onClose={() => setDeletingLot(false)}
+        onClose={() => {
+          setDeletingLot(false);
+          setLotRefusal(null);
+        }}
         size="sm"
         title={`Delete ${l.code}?`}
-        description={`The lot and its ${l.labResultCount} lab result${l.labResultCount === 1 ? '' : 's'} are deleted. This cannot be undone.`}
+        description={lotRefusal ?? `The lot and its ${l.labResultCount} lab result${l.labResultCount === 1 ? '' : 's'} are deleted. This cannot be undone.`}
         footer={
           <>
-            <Button variant="secondary" onClick={() => setDeletingLot(false)}>
+            <Button
+              variant="secondary"
+              onClick={() => {
+                setDeletingLot(false);
+                setLotRefusal(null);
+              }}
+            >
               Keep
             </Button>
+            {lotRefusal ? (
+              <ArchiveOffer
+                kind="lots"
+                id={l.id}
+                name={l.code}
+                onDone={() => {
+                  setDeletingLot(false);
+                  setLotRefusal(null);
+                }}
+              />
+            ) : null}
             <Button
               variant="danger"
+              className={lotRefusal ? 'hidden' : undefined}
               loading={deleteLot.isPending}
               onClick={() =>
                 deleteLot.mutate(l.id, {
@@ -192,6 +215,10 @@ export function LotPage({ lotId }: { lotId: string }) {
                     navigate(paths.cellar);
                   },
                   onError: (error) => {
+                    if (isInRecord(error)) {
+                      setLotRefusal(errorMessage(error));
+                      return;
+                    }
                     toast.error('Not deleted', errorMessage(error));
                     setDeletingLot(false);
                   },

@@ -6,6 +6,7 @@ import { WINE_STYLES, type WineStyle } from '@shared/engine/readiness';
 import { lotSortKeys, wineStyleLabels, type LotSortKey } from '@shared/schemas/cellar';
 import type { LotListItemDto } from '@shared/types/cellar';
 import { DataTable } from '@/components/ui/data-table';
+import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -61,6 +62,7 @@ export function LotsTable() {
   const [style, setStyle] = useState<WineStyle | ''>('');
   const [sorting, setSorting] = useState<SortingState>([{ id: 'code', desc: false }]);
   const [page, setPage] = useState(1);
+  const [showArchived, setShowArchived] = useState(false);
 
   // Search as the person types, once they pause.
   useEffect(() => {
@@ -80,8 +82,9 @@ export function LotsTable() {
       order: sorting[0]?.desc ? ('desc' as const) : ('asc' as const),
       page,
       pageSize: PAGE_SIZE,
+      archived: showArchived ? ('true' as const) : undefined,
     }),
-    [q, style, sort, sorting, page],
+    [q, style, sort, sorting, page, showArchived],
   );
   const lots = useLots(filters);
 
@@ -109,6 +112,14 @@ export function LotsTable() {
             options={WINE_STYLES.map((s) => ({ value: s, label: wineStyleLabels[s] }))}
           />
         </label>
+        <ShowArchivedToggle
+          id="lot-show-archived"
+          checked={showArchived}
+          onChange={(v) => {
+            setShowArchived(v);
+            setPage(1);
+          }}
+        />
       </div>
       {lots.isPending ? (
         <LoadingState variant="skeleton" label="Loading lots …" />

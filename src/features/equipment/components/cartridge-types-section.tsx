@@ -10,6 +10,7 @@ import { Quantity } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
@@ -139,6 +140,7 @@ export function CartridgeTypesSection() {
       <div className="flex flex-col gap-2 sm:flex-row sm:items-center sm:justify-between">
         <div className="flex flex-col gap-2 sm:flex-row">
           <SearchBox id="type-search" label="Search name or media" value={list.text} onChange={list.setText} />
+        <ShowArchivedToggle id="type-search-archived" checked={list.showArchived} onChange={list.setShowArchived} />
           <Select
             aria-label="Kind"
             wrapperClassName="sm:w-44"
@@ -194,6 +196,7 @@ export function CartridgeTypesSection() {
         pending={remove.isPending}
         onClose={() => setDeleting(null)}
         onConfirm={() => remove.mutateAsync(deleting!.id)}
+        archive={deleting ? { kind: 'cartridge-types', id: deleting.id } : undefined}
       />
     </div>
   );

@@ -3,6 +3,7 @@ import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
+import { ArchiveOffer, isInRecord, type ArchivableKind } from '@/components/records/archive-offer';
 import { errorMessage } from '@/lib/api-client';
 
 /** Asks before deleting; a refusal from the server (e.g. cartridges still installed) is shown in the dialog. */
@@ -13,7 +14,10 @@ export function ConfirmDeleteDialog({
   onClose,
   onConfirm,
   pending,
+  archive,
 }: {
+  /** When given, a refusal because the row is in a record offers to archive it instead. */
+  archive?: { kind: ArchivableKind; id: string };
   open: boolean;
   name: string;
   what: string;
@@ -23,8 +27,10 @@ export function ConfirmDeleteDialog({
 }) {
   const toast = useToast();
   const [refusal, setRefusal] = useState<string | null>(null);
+  const [inRecord, setInRecord] = useState(false);
   const close = () => {
     setRefusal(null);
+    setInRecord(false);
     onClose();
   };
   return (
@@ -39,6 +45,7 @@ export function ConfirmDeleteDialog({
           <Button variant="secondary" onClick={close}>
             Keep
           </Button>
+          {refusal && inRecord && archive ? <ArchiveOffer kind={archive.kind} id={archive.id} name={name} onDone={close} /> : null}
           {refusal ? null : (
             <Button
               variant="danger"
@@ -50,6 +57,7 @@ export function ConfirmDeleteDialog({
                   close();
                 } catch (error) {
                   setRefusal(errorMessage(error));
+                  setInRecord(isInRecord(error));
                 }
               }}
             >

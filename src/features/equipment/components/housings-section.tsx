@@ -8,6 +8,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { EmptyState } from '@/components/ui/empty-state';
 import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
+import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
@@ -37,7 +38,10 @@ export function HousingsSection() {
         header: 'Name',
         cell: ({ row }) => (
           <div className="min-w-36">
-            <div className="font-semibold text-ink-900">{row.original.name}</div>
+            <div className="font-semibold text-ink-900">
+              {row.original.name}
+              {row.original.archivedAt ? <span className="ml-2 text-xs font-normal text-ink-600">(archived)</span> : null}
+            </div>
             {row.original.notes ? <div className="max-w-64 truncate text-xs text-ink-600">{row.original.notes}</div> : null}
           </div>
         ),
@@ -100,6 +104,7 @@ export function HousingsSection() {
     <div className="flex flex-col gap-3">
       <div className="flex flex-col gap-2 sm:flex-row sm:items-center sm:justify-between">
         <SearchBox id="housing-search" label="Search housings" value={list.text} onChange={list.setText} />
+        <ShowArchivedToggle id="housing-search-archived" checked={list.showArchived} onChange={list.setShowArchived} />
         {firstRun ? null : addButton}
       </div>
       {housings.isPending ? (
@@ -132,6 +137,7 @@ export function HousingsSection() {
         pending={remove.isPending}
         onClose={() => setDeleting(null)}
         onConfirm={() => remove.mutateAsync(deleting!.id)}
+        archive={deleting ? { kind: 'housings', id: deleting.id } : undefined}
       />
     </div>
   );

@@ -11,6 +11,11 @@ export function useListState<S extends string>(defaultSort: S) {
   const [sort, setSort] = useState<S>(defaultSort);
   const [order, setOrder] = useState<'asc' | 'desc'>('asc');
   const [page, setPage] = useState(1);
+  const [showArchived, setShowArchivedState] = useState(false);
+  const setShowArchived = (v: boolean) => {
+    setShowArchivedState(v);
+    setPage(1);
+  };
 
   useEffect(() => {
     const timer = setTimeout(() => {
@@ -30,7 +35,9 @@ export function useListState<S extends string>(defaultSort: S) {
   return {
     text,
     setText,
-    params: { q: q || undefined, sort, order, page, pageSize: PAGE_SIZE_DEFAULT },
+    params: { q: q || undefined, sort, order, page, pageSize: PAGE_SIZE_DEFAULT, archived: showArchived ? ('true' as const) : undefined },
+    showArchived,
+    setShowArchived,
     sorting,
     onSortingChange,
     setPage,

@@ -1,4 +1,5 @@
 import type { ColumnDef, SortingState } from '@tanstack/react-table';
+import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { format } from 'date-fns';
 import { ClipboardList, Plus } from 'lucide-react';
 import { useMemo, useState } from 'react';
@@ -32,8 +33,9 @@ export function PlansPage() {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'plannedDate', desc: true }]);
   const [page, setPage] = useState(1);
   const [creating, setCreating] = useState(false);
+  const [showArchived, setShowArchived] = useState(false);
   const sort = (sorting[0]?.id ?? 'plannedDate') as PlanSortKey;
-  const plans = usePlans({ q: q.trim() || undefined, status: status || undefined, sort, order: sorting[0]?.desc ? 'desc' : 'asc', page, pageSize: PAGE_SIZE });
+  const plans = usePlans({ q: q.trim() || undefined, status: status || undefined, sort, order: sorting[0]?.desc ? 'desc' : 'asc', page, pageSize: PAGE_SIZE, archived: showArchived ? 'true' : undefined });
 
   const columns = useMemo<ColumnDef<PlanListItemDto>[]>(
     () => [
@@ -43,6 +45,8 @@ export function PlansPage() {
         cell: ({ row }) => (
           <Link to={paths.plan(row.original.id)} className="font-semibold text-primary-800 underline-offset-2 hover:underline">
             {row.original.name}
+            {row.original.revision > 1 ? ` (revision ${String(row.original.revision)})` : ''}
+            {row.original.archivedAt ? ' (archived)' : ''}
           </Link>
         ),
       },
@@ -85,6 +89,7 @@ export function PlansPage() {
               options={[{ value: '', label: 'Any status' }, ...planStatuses.map((s) => ({ value: s, label: s }))]}
             />
           </label>
+          <ShowArchivedToggle id="plan-show-archived" checked={showArchived} onChange={(v) => { setShowArchived(v); setPage(1); }} />
         </div>
       )}
       {plans.isPending ? (

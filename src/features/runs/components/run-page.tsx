@@ -6,6 +6,8 @@ import { Button } from '@/components/ui/button';
 import { CautionPanel } from '@/components/ui/caution';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
+import { FormField } from '@/components/ui/form-field';
+import { Textarea } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -16,7 +18,9 @@ import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useCloseRun } from '../api/close-run';
 import { useRun } from '../api/get-run';
+import { ReadingCorrections } from './reading-corrections';
 import { ReadingForm } from './reading-form';
+import { RunCartridges } from './run-cartridges';
 
 // The chart library is large: it loads after the page (and its reading form) has painted.
 const StageChart = lazy(() => import('./stage-chart').then((m) => ({ default: m.StageChart })));
@@ -84,6 +88,7 @@ function StageCard({ stage }: { stage: RunStageDto }) {
 
 function CloseRun({ run }: { run: RunDetailDto }) {
   const [open, setOpen] = useState(false);
+  const [notes, setNotes] = useState('');
   const close = useCloseRun();
   const toast = useToast();
   const units = useUnits();
@@ -96,7 +101,7 @@ function CloseRun({ run }: { run: RunDetailDto }) {
         open={open}
         onClose={() => setOpen(false)}
         title="Close this run?"
-        description={`${units.format('volume', run.currentVolumeL)} will be added to each cartridge installed in this train’s housings. No more readings can be logged.`}
+        description={`${units.format('volume', run.currentVolumeL)} through the train. Each cartridge is credited with the litres it carried while it was in. No more readings can be logged.`}
         footer={
           <>
             <Button variant="ghost" onClick={() => setOpen(false)}>
@@ -106,7 +111,7 @@ function CloseRun({ run }: { run: RunDetailDto }) {
               disabled={close.isPending}
               onClick={() =>
                 close.mutate(
-                  { runId: run.id, input: {} },
+                  { runId: run.id, input: notes.trim() ? { notes } : {} },
                   {
                     onSuccess: () => {
                       setOpen(false);
@@ -121,7 +126,11 @@ function CloseRun({ run }: { run: RunDetailDto }) {
             </Button>
           </>
         }
-      />
+      >
+        <FormField label="Closing notes (optional)" htmlFor="close-notes" hint="Printed on the lot’s record.">
+          <Textarea id="close-notes" rows={3} maxLength={2000} value={notes} onChange={(e) => setNotes(e.target.value)} />
+        </FormField>
+      </Dialog>
     </>
   );
 }
@@ -173,6 +182,13 @@ export function RunPage({ runId }: { runId: string }) {
       {r.stages.map((s) => (
         <StageCard key={s.index} stage={s} />
       ))}
+      <RunCartridges run={r} />
+      <ReadingCorrections run={r} />
+      {r.notes ? (
+        <Card title="Closing notes">
+          <p className="whitespace-pre-line text-base text-ink-900">{r.notes}</p>
+        </Card>
+      ) : null}
     </div>
   );
 }

@@ -1,4 +1,5 @@
 import { Gauge, Play } from 'lucide-react';
+import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
@@ -8,12 +9,13 @@ import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { errorMessage } from '@/lib/api-client';
+import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useRunStartOptions } from '../api/get-run-start-options';
 import { useRuns } from '../api/get-runs';
 import { useStartRun } from '../api/start-run';
+import { StartBlockedDialog, type BlockReason } from './start-blocked-dialog';
 
 function StartOptions() {
   const units = useUnits();
@@ -22,6 +24,7 @@ function StartOptions() {
   const toast = useToast();
   const navigate = useNavigate();
   const mayLog = useCan('runs:log');
+  const [blocked, setBlocked] = useState<{ planLotId: string; reasons: BlockReason[] } | null>(null);
   if (options.isPending) return <LoadingState label="Loading approved plans …" />;
   if (options.isError) return <ErrorState title="Approved plans could not be loaded" message={errorMessage(options.error)} onRetry={() => void options.refetch()} />;
   const items = options.data.items;
@@ -54,7 +57,10 @@ function StartOptions() {
                       { planLotId: o.planLotId },
                       {
                         onSuccess: (run) => void navigate(paths.run(run.id)),
-                        onError: (e) => toast.show({ tone: 'error', title: errorMessage(e) }),
+                        onError: (e) => {
+                          if (e instanceof ApiError && e.code === 'run_blocked') setBlocked({ planLotId: o.planLotId, reasons: e.body?.reasons ?? [] });
+                          else toast.show({ tone: 'error', title: errorMessage(e) });
+                        },
                       },
                     )
                   }
@@ -66,6 +72,17 @@ function StartOptions() {
           ))}
         </ul>
       )}
+      {blocked ? (
+        <StartBlockedDialog
+          planLotId={blocked.planLotId}
+          reasons={blocked.reasons}
+          onClose={() => setBlocked(null)}
+          onStarted={(id) => {
+            setBlocked(null);
+            void navigate(paths.run(id));
+          }}
+        />
+      ) : null}
     </Card>
   );
 }

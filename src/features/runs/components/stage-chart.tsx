@@ -11,7 +11,8 @@ export function StageChart({ stage }: { stage: RunStageDto }) {
   const v = (l: number) => units.toInput('volume', l, 6);
   const dp = (b: number) => units.toInput('dp', b, 6);
   const num = (s: string) => Number(s);
-  const readings = stage.readings.map((r) => ({ x: num(v(r.volumeL)), reading: num(dp(r.dpBar)) }));
+  // a voided reading stays in the record but not on the chart or in the fit
+  const readings = stage.readings.filter((r) => !r.voided).map((r) => ({ x: num(v(r.volumeL)), reading: num(dp(r.dpBar)) }));
   const curve = stage.curve.map((c) => ({ x: num(v(c.volumeL)), fit: num(dp(c.dpBar)) }));
   const data = [...readings, ...curve].sort((a, b) => a.x - b.x);
   const terminal = num(dp(stage.terminalDpBar));

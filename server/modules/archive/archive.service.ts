@@ -1,0 +1,43 @@
+import type { Database } from '../../db/client';
+import { inRecord, notFound } from '../../lib/errors';
+import type { TenantContext } from '../../middleware/authorize';
+import { createArchiveRepository, type ArchivableKind, type ArchiveRepository } from './archive.repository';
+
+const names: Record<ArchivableKind | 'plan-lots', string> = {
+  lots: 'lot',
+  plans: 'plan',
+  'plan-lots': 'lot of this plan',
+  cartridges: 'cartridge',
+  housings: 'housing',
+  'cartridge-types': 'cartridge type',
+};
+const notFoundNames: Record<ArchivableKind, string> = {
+  lots: 'Lot',
+  plans: 'Plan',
+  cartridges: 'Cartridge',
+  housings: 'Housing',
+  'cartridge-types': 'Cartridge type',
+};
+
+/**
+ * Throws 409 in_record when a run or care history holds the row, naming the record and
+ * offering to archive instead. Call it inside the delete's transaction, before deleting.
+ */
+export async function refuseIfInRecord(repo: ArchiveRepository, kind: ArchivableKind | 'plan-lots', wineryId: string, id: string) {
+  const holder = await repo.holder(kind, wineryId, id);
+  if (!holder) return;
+  const archive = kind === 'plan-lots' ? '' : ' Archive it instead: it leaves the lists and stays in every record.';
+  throw inRecord(`This ${names[kind]} is part of ${holder.label}, so it cannot be deleted.${archive}`, holder);
+}
+
+/** Archive and unarchive: hidden from lists by default, still in every record. */
+export function createArchiveService(db: Database) {
+  const repo = createArchiveRepository(db);
+  return {
+    async setArchived(t: TenantContext, kind: ArchivableKind, id: string, archived: boolean) {
+      const at = archived ? new Date() : null;
+      if (!(await repo.setArchived(kind, t.wineryId, id, at))) throw notFound(notFoundNames[kind]);
+      return { id, archived, archivedAt: at ? at.toISOString() : null };
+    },
+  };
+}

@@ -1,0 +1,50 @@
+// @vitest-environment node
+// The demo data's runs are full records: cartridges per stage, a mid-run change, a correction.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
+import { Client, startTestApp, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+
+beforeAll(async () => {
+  app = await startTestApp();
+  await seedDemo(app.db);
+  await seedDemo(app.db); // idempotent
+});
+afterAll(async () => {
+  await app?.close();
+});
+
+type Stint = { cartridgeId: string; serial: string; installedAtVolumeL: number; removedAtVolumeL: number | null; litresCarried: number | null };
+
+describe('demo runs', () => {
+  it('two closed runs with full records: one with a prefilter change, one with a corrected reading', async () => {
+    const auditor = new Client(app.baseUrl);
+    expect((await auditor.post('/api/auth/sign-in', { email: 'auditor@quillwater.test', password: DEMO_PASSWORD })).status).toBe(200);
+    const runs = (await auditor.get('/api/runs')).body.items as { id: string; status: string; lotCode: string }[];
+    expect(runs.map((r) => r.lotCode).sort()).toEqual(['QW-23-PN04', 'QW-24-RS03']);
+    expect(runs.every((r) => r.status === 'closed')).toBe(true);
+    const details = await Promise.all(runs.map(async (r) => (await auditor.get(`/api/runs/${r.id}`)).body));
+    const changed = details.find((d) => d.changes.length > 0);
+    const corrected = details.find((d) => d.stages.some((s: { readings: { original: unknown }[] }) => s.readings.some((x) => x.original !== null)));
+    expect(changed?.lotCode).toBe('QW-23-PN04');
+    expect(corrected?.lotCode).toBe('QW-24-RS03');
+    for (const d of details) {
+      expect(d.closedByName).toBeTruthy();
+      for (const s of d.stages) {
+        expect(s.cartridges.length).toBeGreaterThan(0);
+        // the stints of one stage add up to the litres of the run at every point
+        const carried = (s.cartridges as Stint[]).reduce((sum, c) => sum + (c.litresCarried ?? 0), 0);
+        const perRound = carried / (s.cartridges as Stint[]).filter((c) => c.installedAtVolumeL === 0).length;
+        expect(perRound).toBeCloseTo(d.currentVolumeL, 6);
+        expect(s.fit).not.toBeNull();
+      }
+    }
+    // a changed-out prefilter is in stock with exactly the litres it carried in its history
+    const out = (changed.stages[0].cartridges as Stint[]).find((c) => c.removedAtVolumeL !== null)!;
+    const cart = (await auditor.get(`/api/cartridges/${out.cartridgeId}`)).body;
+    expect(cart.status).toBe('in-stock');
+    const runEvents = (cart.events as { kind: string; details: { litres: number } }[]).filter((e) => e.kind === 'run');
+    expect(cart.litresFiltered).toBeCloseTo(runEvents.reduce((sum, e) => sum + e.details.litres, 0), 6);
+  });
+});
