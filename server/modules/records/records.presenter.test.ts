@@ -18,6 +18,7 @@ const reading: RecordReadingRow = {
     flowLh: 2400,
     tempC: 12,
     clientKey: 'k',
+    createdByName: null,
     createdBy: 'u',
     createdAt: new Date('2026-01-02T10:00:00Z'),
     updatedAt: new Date('2026-01-02T10:00:00Z'),

@@ -24,7 +24,7 @@ import { createCartridgesRepository } from '../cartridges/cartridges.repository'
 import { installCartridge, removeCartridge } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
-import { createRunsRepository, type RunReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
+import { createRunsRepository, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
