@@ -48,6 +48,8 @@ export type RunStageDto = {
   alarm: RunAlarm | null;
   flowLh: number | null;
   note: string | null;
+  /** "ΔP not rising: possible bypass or gauge fault." when litres rise over 5+ readings and ΔP does not; else null */
+  flatWarning: string | null;
 };
 
 export type RunDetailDto = RunSummaryDto & {
