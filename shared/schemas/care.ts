@@ -18,7 +18,9 @@ export const integrityTestLabels: Record<IntegrityTestKind, string> = {
   'pressure-hold': 'Pressure hold',
 };
 
-export const WETTING_FLUIDS = ['water', 'wine'] as const;
+export const WETTING_FLUIDS = ['water', 'wine', 'ethanol-water'] as const;
+export type WettingFluid = (typeof WETTING_FLUIDS)[number];
+export const wettingFluidLabels: Record<WettingFluid, string> = { water: 'Water', wine: 'Wine', 'ethanol-water': 'Ethanol–water' };
 export const AGENT_MAX = 120;
 export const CARE_NOTES_MAX = 2000;
 
@@ -58,7 +60,9 @@ export const recordIntegrityInputSchema = z
     decayMbar: optionalNum('the pressure decay').min(0, { error: 'The pressure decay cannot be negative.' }).max(20_000, { error: 'The pressure decay is at most 20,000 mbar.' }).nullable().optional(),
     testMin: optionalNum('the test time').positive({ error: 'The test time must be more than 0 min.' }).max(240, { error: 'A test lasts at most 240 min.' }).nullable().optional(),
     tempC: optionalNum('the temperature').min(0, { error: 'The temperature is at least 0 °C.' }).max(100, { error: 'The temperature is at most 100 °C.' }).nullable().optional(),
-    wettingFluid: z.enum(WETTING_FLUIDS, { error: 'Choose water or wine.' }).optional(),
+    wettingFluid: z.enum(WETTING_FLUIDS, { error: 'Choose water, wine or ethanol–water.' }).optional(),
+    /** Alcoholic strength of the wetting wine or ethanol–water, % vol. */
+    ethanolPctVol: optionalNum('the alcoholic strength').min(0, { error: 'The strength is at least 0 % vol.' }).max(100, { error: 'The strength is at most 100 % vol.' }).nullable().optional(),
     notes: z.string().trim().max(CARE_NOTES_MAX, { error: `Notes are at most ${CARE_NOTES_MAX} characters.` }).optional(),
     at: atSchema,
   })
@@ -67,6 +71,9 @@ export const recordIntegrityInputSchema = z
       if (v[field] === undefined || v[field] === null) ctx.addIssue({ code: 'custom', path: [field], message });
     };
     if (v.test === 'bubble-point') need('bubblePointBar', 'Enter the bubble point you read.');
+    if (v.test === 'bubble-point' && (v.wettingFluid === 'wine' || v.wettingFluid === 'ethanol-water') && (v.ethanolPctVol === undefined || v.ethanolPctVol === null)) {
+      ctx.addIssue({ code: 'custom', path: ['ethanolPctVol'], message: 'Enter the alcoholic strength of the wetting liquid, % vol: its surface tension sets the expected bubble point.' });
+    }
     if (v.test === 'diffusion') need('diffusionMlMin', 'Enter the diffusion flow you measured.');
     if (v.test === 'pressure-hold') {
       need('decayMbar', 'Enter the pressure decay you read.');

@@ -1,9 +1,10 @@
 import {
   allowedPressureDecayMbar,
   diffusionLimitForHousing,
+  elementEquivalents,
   evaluateIntegrityTest,
-  expectedBubblePointBar,
   formatNumber,
+  judgeBubblePoint,
   type IntegrityTestInput,
 } from '../../../shared/engine';
 import { integrityTestLabels, type LogCycleInput, type RecordIntegrityInput } from '../../../shared/schemas/care';
@@ -21,6 +22,13 @@ const COUNTERS = { steam: 'steamCycles', 'hot-water': 'hotWaterCycles', chemical
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
 /** Keeps only the values that were given (stored details carry no nulls). */
 const given = (o: Record<string, unknown>) => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined && v !== null && v !== ''));
+
+/** 10-inch equivalents of all cartridges installed in a housing (PDA TR 26: a housing test covers them all). */
+async function housingEquivalents(repo: CareRepository, wineryId: string, housingId: string): Promise<number> {
+  const lengths = await repo.installedLengths(wineryId, housingId);
+  const sum = lengths.reduce((acc, lengthIn) => acc + elementEquivalents({ cartridges: 1, lengthIn }), 0);
+  return Math.max(1, Math.round(sum));
+}
 
 /** The clean-water flow to compare recovery against: as new when registered with it, else the first flow after a cycle. */
 async function flowBasis(repo: CareRepository, wineryId: string, cartridgeId: string): Promise<CareTargetDto['flowBasis']> {
@@ -56,7 +64,9 @@ export function createCareService(db: Database) {
     async target(tenant: TenantContext, id: string): Promise<CareTargetDto> {
       const row = await repo.target(tenant.wineryId, id);
       if (!row) throw notFound('Cartridge');
-      return presentCareTarget(row.cartridge, row.type, row.housing, await flowBasis(repo, tenant.wineryId, id));
+      const installed = row.cartridge.status === 'installed' && row.housing !== null;
+      const eqHousing = installed && row.housing ? await housingEquivalents(repo, tenant.wineryId, row.housing.id) : null;
+      return presentCareTarget(row.cartridge, row.type, row.housing, await flowBasis(repo, tenant.wineryId, id), eqHousing);
     },
 
     /** Logs a cycle and counts it on the cartridge, in one transaction; answers with the updated forecast. */
@@ -113,25 +123,32 @@ export function createCareService(db: Database) {
       const { cartridge: c, type, housing } = row;
       if (c.status === 'retired') throw conflict(`${c.serial} is retired; tests are no longer recorded for it.`, 'retired');
       const installed = c.status === 'installed' && housing !== null;
-      const eq10 = c.lengthIn / 10;
-      let test: IntegrityTestInput;
+      // a diffusion or pressure-hold test of an installed cartridge covers its whole housing
+      const eq10 = installed ? await housingEquivalents(repo, tenant.wineryId, housing.id) : elementEquivalents({ cartridges: 1, lengthIn: c.lengthIn });
+      let test: IntegrityTestInput | null = null;
       let limits: Record<string, unknown>;
+      let judged: { pass: boolean; reason: string; final: boolean } | null = null;
       if (input.test === 'bubble-point') {
         if (type.bubblePointMinBar === null) throw badRequest(`${type.name} has no minimum bubble point in the catalogue. Enter it on the cartridge type (from the maker's certificate) first.`);
-        if (input.wettingFluid === 'wine') {
-          throw badRequest('Check the highlighted fields.', { wettingFluid: `The minimum bubble point of ${type.name} is stated for a water-wet membrane. Wet it with water for this test.` });
+        const fluid = input.wettingFluid ?? 'water';
+        const strength = input.ethanolPctVol ?? null;
+        if (fluid !== 'water' && (input.tempC ?? 20) > 50) {
+          throw badRequest('Check the highlighted fields.', { tempC: 'A test wetted with wine or ethanol–water is judged from 0 to 50 °C.' });
         }
-        const minimumBar = input.tempC !== undefined && input.tempC !== null
-          ? expectedBubblePointBar({ waterBubblePointBar: type.bubblePointMinBar, tempC: input.tempC })
-          : type.bubblePointMinBar;
-        test = { kind: 'bubble-point', measuredBar: input.bubblePointBar as number, minimumBar };
-        limits = { measuredBar: input.bubblePointBar, minBar: minimumBar, typeMinBar: type.bubblePointMinBar };
+        const j = judgeBubblePoint({
+          measuredBar: input.bubblePointBar as number,
+          waterMinBar: type.bubblePointMinBar,
+          tempC: input.tempC ?? undefined,
+          wetting: fluid === 'water' ? { liquid: 'water' } : { liquid: fluid, ethanolPctVol: strength as number },
+        });
+        judged = j;
+        limits = { measuredBar: input.bubblePointBar, minBar: j.minimumBar, typeMinBar: type.bubblePointMinBar, ...(fluid !== 'water' ? { ethanolPctVol: strength } : {}) };
       } else {
         if (type.diffusionMaxMlMinPer10in === null) throw badRequest(`${type.name} has no diffusion limit in the catalogue. Enter it on the cartridge type (from the maker's certificate) first.`);
         const maxMlMin = diffusionLimitForHousing(type.diffusionMaxMlMinPer10in, eq10);
         if (input.test === 'diffusion') {
           test = { kind: 'diffusion', measuredMlMin: input.diffusionMlMin as number, maximumMlMin: maxMlMin };
-          limits = { measuredMlMin: input.diffusionMlMin, maxMlMin, elementEquivalents: eq10 };
+          limits = { measuredMlMin: input.diffusionMlMin, maxMlMin, elementEquivalents: eq10, limitBasis: installed ? 'housing' : 'cartridge' };
         } else {
           const upstream = installed ? housing.upstreamGasVolumeL : null;
           if (!installed) throw badRequest('Install the cartridge in its housing first: the allowed decay depends on the housing\u2019s upstream gas volume.');
@@ -140,10 +157,10 @@ export function createCareService(db: Database) {
           }
           const maxDecayMbar = allowedPressureDecayMbar({ diffusionLimitMlMin: maxMlMin, testMin: input.testMin as number, upstreamVolumeL: upstream });
           test = { kind: 'pressure-hold', measuredDecayMbar: input.decayMbar as number, maximumDecayMbar: maxDecayMbar };
-          limits = { measuredDecayMbar: input.decayMbar, testMin: input.testMin, maxDecayMbar, maxMlMin, upstreamGasVolumeL: upstream, elementEquivalents: eq10 };
+          limits = { measuredDecayMbar: input.decayMbar, testMin: input.testMin, maxDecayMbar, maxMlMin, upstreamGasVolumeL: upstream, elementEquivalents: eq10, limitBasis: 'housing' };
         }
       }
-      const verdict = evaluateIntegrityTest(test);
+      const verdict = judged ?? { ...evaluateIntegrityTest(test as IntegrityTestInput), final: true };
       const eventId = await repo.insertEvent({
         wineryId: tenant.wineryId,
         cartridgeId: c.id,
@@ -154,17 +171,18 @@ export function createCareService(db: Database) {
         at: input.at ? new Date(input.at) : new Date(),
         details: given({
           pass: verdict.pass,
+          ...(verdict.final ? {} : { retest: true }),
           test: input.test,
           method: integrityTestLabels[input.test].toLowerCase(),
           reason: verdict.reason,
           ...limits,
           tempC: input.tempC,
-          wettingFluid: input.wettingFluid,
+          wettingFluid: input.test === 'bubble-point' ? (input.wettingFluid ?? 'water') : input.wettingFluid,
           note: input.notes,
         }),
       });
       const [event, life] = await Promise.all([savedEvent(tenant.wineryId, eventId), lifeOf(tenant, id)]);
-      return { event, test: input.test, pass: verdict.pass, reason: verdict.reason, ...life };
+      return { event, test: input.test, pass: verdict.pass, retest: !verdict.final, reason: verdict.reason, ...life };
     },
 
     /** The winery's latest care events, newest first. */

@@ -64,7 +64,8 @@ export function lifeFromHistory(
         waterFlowAfterLh: num(d.waterFlowAfterLh),
         atMs: e.at.getTime(),
       });
-    } else if (e.kind === 'integrity' && typeof d.pass === 'boolean') {
+    } else if (e.kind === 'integrity' && typeof d.pass === 'boolean' && d.retest !== true) {
+      // a product-wet fail that asks for a water re-test is not a verdict on the membrane
       integrity.push({ pass: d.pass, atMs: e.at.getTime() });
     } else if (e.kind === 'registered' && num(d.waterFlowNewLh) !== undefined && (d.waterFlowNewLh as number) > 0) {
       waterFlowNewLh = d.waterFlowNewLh as number;
