@@ -46,6 +46,8 @@ export type CareCycle = {
   /** time, ms since the Unix epoch (used for order when every cycle has it and seq is not
    *  on every cycle; otherwise cycles keep the order given) */
   atMs?: number;
+  /** true when the cycle ran above the cartridge's (or housing's) temperature rating */
+  aboveRating?: boolean;
 };
 
 /** One integrity test result. Tests are ordered by atMs when every test has it, else as given. */
@@ -162,6 +164,8 @@ export type CartridgeLife = {
     chemical: number;
     backflush: number;
     total: number;
+    /** cycles that ran above the temperature rating (each still counts against its budget) */
+    aboveRating: number;
   };
   litresFiltered: number;
   /** litres filtered ÷ care cycles, L, or null with no cycles or no litres */
@@ -495,6 +499,32 @@ export function normalisedWaterFlowLh(p: {
   return q;
 }
 
+/** Usual sanitation temperatures of wine practice, °C: hot water about 82 °C, steam about 121 °C (engineering and trade references; from memory). */
+export const USUAL_CARE_TEMP_C = { 'hot-water': 82, steam: 121 } as const;
+
+/**
+ * The temperature hint for a care cycle, never above the rating: the usual temperature when the
+ * cartridge and housing are rated for it, else the rating itself with a plain word that the
+ * usual temperature is not allowed for this type (common practice, no source).
+ * @param kind cycle kind; ratingC the lower of the cartridge's and the housing's maximum temperature, °C
+ * @returns { suggestC: the temperature to aim for (≤ ratingC) or null for chemical and backflush, text }
+ */
+export function careTemperatureHint(kind: CareCycleKind, ratingC: number): { suggestC: number | null; text: string } {
+  requireFinite('temperature rating (°C)', ratingC);
+  if (kind !== 'hot-water' && kind !== 'steam') return { suggestC: null, text: '' };
+  const usual = USUAL_CARE_TEMP_C[kind];
+  const r = Math.round(ratingC);
+  if (kind === 'steam' && ratingC < usual) {
+    return { suggestC: null, text: `Not rated for steam: this cartridge is rated to ${String(r)} °C. Use hot water at or below ${String(r)} °C, as its maker allows.` };
+  }
+  if (ratingC < usual) {
+    return { suggestC: ratingC, text: `Hold at no more than ${String(r)} °C (its rating) for at least 20–30 min, measured at the far end of the line, and follow the maker's sanitation instructions.` };
+  }
+  return kind === 'hot-water'
+    ? { suggestC: usual, text: `Common wine practice: about ${String(usual)} °C for at least 20–30 min, measured at the far end of the line.` }
+    : { suggestC: usual, text: 'Hold at least 15 min once live steam shows at every outlet.' };
+}
+
 /** Recovery above this % of the basis is suspect: likely a housing's flow entered as one cartridge's (common practice, no source). */
 export const RECOVERY_SUSPECT_PCT = 105;
 
@@ -620,7 +650,8 @@ export function cartridgeLife(
   const cycles = orderCycles(history.cycles);
   const total = cycles.length;
   const count = (k: CareCycleKind) => cycles.filter((c) => c.kind === k).length;
-  const counts = { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total };
+  const aboveRating = cycles.filter((c) => c.aboveRating === true).length;
+  const counts = { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total, aboveRating };
   const litres = history.litresFiltered;
   const litresPerCycle = total > 0 && litres > 0 ? litres / total : null;
 
@@ -641,6 +672,12 @@ export function cartridgeLife(
   known.push(
     `${String(total)} care cycle${total === 1 ? '' : 's'} logged (${String(counts.steam)} steam, ${String(counts.hotWater)} hot-water, ${String(counts.chemical)} chemical, ${String(counts.backflush)} backflush).`,
   );
+
+  if (aboveRating > 0) {
+    missing.push(
+      `${String(aboveRating)} cycle${aboveRating === 1 ? '' : 's'} ran above the temperature rating: the maker's cycle ratings may no longer hold, so treat the life left as shorter and test integrity before use.`,
+    );
+  }
 
   // --- budgets
   const budgets: BudgetUse[] = [

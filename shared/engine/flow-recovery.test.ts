@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { cartridgeLife, fitRecoveryTrend, normalisedWaterFlowLh } from './cartridge-life';
+import fc from 'fast-check';
+import { careTemperatureHint, cartridgeLife, fitRecoveryTrend, normalisedWaterFlowLh } from './cartridge-life';
 import { waterViscosity } from './fluids';
 
 describe('water flow brought to 20 °C, per cartridge, at the reference ΔP (Darcy; IAPWS R12-08 viscosity; engineering reference §5)', () => {
@@ -50,5 +51,37 @@ describe('recovery trend of an accelerating decline (Burnham & Anderson 2002, AI
     expect(life.recovery.trend?.model).toBe('quadratic');
     expect(life.recovery.cyclesLeft).toBeGreaterThanOrEqual(3);
     expect(life.recovery.cyclesLeft).toBeLessThanOrEqual(5);
+  });
+});
+
+describe('care temperatures never above a rating (common practice, no source)', () => {
+  it('a cartridge rated 80 °C is never told "about 82 °C"', () => {
+    const h = careTemperatureHint('hot-water', 80);
+    expect(h.suggestC).toBeLessThanOrEqual(80);
+    expect(h.text).not.toMatch(/82/);
+    expect(h.text).toMatch(/80 °C/);
+  });
+
+  it('a cartridge rated 90 °C gets the usual 82 °C; steam needs a steam rating', () => {
+    expect(careTemperatureHint('hot-water', 90).suggestC).toBe(82);
+    expect(careTemperatureHint('steam', 80)).toMatchObject({ suggestC: null });
+    expect(careTemperatureHint('steam', 80).text).toMatch(/Not rated for steam/);
+    expect(careTemperatureHint('steam', 135).suggestC).toBe(121);
+  });
+
+  it('property: the suggestion never exceeds the rating', () => {
+    fc.assert(
+      fc.property(fc.constantFrom('hot-water', 'steam', 'chemical', 'backflush' as const), fc.double({ min: 20, max: 200, noNaN: true }), (kind, rating) => {
+        const h = careTemperatureHint(kind, rating);
+        if (h.suggestC !== null) expect(h.suggestC).toBeLessThanOrEqual(rating);
+      }),
+    );
+  });
+
+  it('a cycle that ran above its rating counts in the life and is flagged', () => {
+    const life = cartridgeLife({ flowRecoveryMinPct: 70, ratedHotWaterCycles: 10 }, { litresFiltered: 0, cycles: [{ kind: 'hot-water', tempC: 95, aboveRating: true }] });
+    expect(life.counts.aboveRating).toBe(1);
+    expect(life.budgets.find((b) => b.factor === 'hot-water cycles')?.used).toBe(1);
+    expect(life.missing.join(' ')).toMatch(/above the temperature rating/);
   });
 });

@@ -22,6 +22,8 @@ export const WETTING_FLUIDS = ['water', 'wine', 'ethanol-water'] as const;
 export type WettingFluid = (typeof WETTING_FLUIDS)[number];
 export const wettingFluidLabels: Record<WettingFluid, string> = { water: 'Water', wine: 'Wine', 'ethanol-water': 'Ethanol–water' };
 export const AGENT_MAX = 120;
+export const FLOW_BASES = ['cartridge', 'housing'] as const;
+export type FlowBasis = (typeof FLOW_BASES)[number];
 export const CARE_NOTES_MAX = 2000;
 
 /** A number that may be left out; null or absent means "not measured". */
@@ -45,6 +47,12 @@ export const logCycleInputSchema = z
     concentrationPct: optionalNum('the concentration').min(0, { error: 'The concentration cannot be negative.' }).max(100, { error: 'The concentration is at most 100 %.' }).nullable().optional(),
     waterFlowBeforeLh: flow('the water flow before'),
     waterFlowAfterLh: flow('the water flow after'),
+    /** Temperature of the water the flows were measured with, °C (flows are brought to 20 °C). */
+    waterTempC: optionalNum('the water temperature').min(0, { error: 'The water temperature is at least 0 °C.' }).max(100, { error: 'The water temperature is at most 100 °C.' }).nullable().optional(),
+    /** Whether the flows are this cartridge's alone or the whole housing's. */
+    flowBasis: z.enum(FLOW_BASES, { error: 'Choose this cartridge or the whole housing.' }).optional(),
+    /** Set when the cycle really ran above the cartridge's or housing's rating: it is recorded and flagged. */
+    aboveRatingConfirmed: z.boolean({ error: 'Confirm with yes or no.' }).optional(),
     at: atSchema,
   })
   .superRefine((v, ctx) => {

@@ -37,7 +37,7 @@ export type CareTargetDto = {
   diffusionMaxMlMinPer10in: number | null;
   flowRecoveryMinPct: number;
   /** Clean-water flow to compare against: the as-new flow, else the first flow logged after a cycle. */
-  flowBasis: { kind: 'new' | 'first-after'; flowLh: number } | null;
+  flowBasis: { kind: 'new' | 'spec' | 'first-after'; flowLh: number } | null;
   steamCycles: number;
   hotWaterCycles: number;
   chemicalCycles: number;

@@ -81,3 +81,46 @@ describe('a bubble point judged for its wetting liquid (Young–Laplace; Vázque
     expect(res.body.error.fields.ethanolPctVol).toMatch(/strength/);
   });
 });
+
+describe('flow recovery on its basis (Darcy with IAPWS R12-08 water viscosity; engineering reference §5)', () => {
+  it('a clean cartridge measured in 10 °C water reads ≈ 100 % of the type’s spec, not 76.7 %', async () => {
+    const type = await insertCartridgeType(app.db, wineryId, { name: 'PES flow judged', maxTempC: 85, waterFlowLhPer10in: 1000 });
+    const c = await registered(type.id, 30);
+    const target = await technician.get(`/api/care/cartridges/${c.id}`);
+    expect(target.body.flowBasis).toEqual({ kind: 'spec', flowLh: 3000 });
+    // 3 000 L/h at 20 °C flows 3 000 × 1.0016/1.3059 = 2 301 L/h in 10 °C water
+    const res = await technician.post(`/api/cartridges/${c.id}/cycles`, { kind: 'hot-water', tempC: 80, durationMin: 30, waterFlowAfterLh: 2301, waterTempC: 10 });
+    expect(res.status).toBe(201);
+    expect(res.body.life.recovery.latestPct).toBeCloseTo(100, 0);
+  });
+
+  it('a housing’s flow is shared among its cartridges', async () => {
+    const type = await insertCartridgeType(app.db, wineryId, { name: 'PES housing flow', maxTempC: 85, waterFlowLhPer10in: 1000 });
+    const housing = await insertHousing(app.db, wineryId, { name: 'Flow housing', rounds: 3, lengthIn: 30, upstreamGasVolumeL: 20 });
+    const ids: string[] = [];
+    for (let i = 0; i < 3; i++) {
+      const c = await registered(type.id);
+      expect((await technician.post(`/api/cartridges/${c.id}/install`, { housingId: housing.id })).status).toBe(200);
+      ids.push(c.id);
+    }
+    // 8 100 L/h through 9 equivalents → 2 700 L/h for one 30-inch cartridge = 90 % of 3 000
+    const res = await technician.post(`/api/cartridges/${ids[0]}/cycles`, { kind: 'hot-water', tempC: 80, waterFlowAfterLh: 8100, flowBasis: 'housing' });
+    expect(res.status).toBe(201);
+    expect(res.body.life.recovery.latestPct).toBeCloseTo(90, 6);
+  });
+});
+
+describe('a cycle above the rating (common practice, no source)', () => {
+  it('is refused without confirmation, then recorded, flagged and counted', async () => {
+    const c = await registered(membrane.id);
+    const refused = await technician.post(`/api/cartridges/${c.id}/cycles`, { kind: 'hot-water', tempC: 95, durationMin: 20 });
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.fields.tempC).toMatch(/80 °C.*confirm/);
+    const res = await technician.post(`/api/cartridges/${c.id}/cycles`, { kind: 'hot-water', tempC: 95, durationMin: 20, aboveRatingConfirmed: true });
+    expect(res.status).toBe(201);
+    expect(res.body.hotWaterCycles).toBe(1);
+    expect(res.body.event.details).toMatchObject({ aboveRating: true, ratedMaxC: 80, tempC: 95 });
+    expect(res.body.life.counts.aboveRating).toBe(1);
+    expect(res.body.life.missing.join(' ')).toMatch(/above the temperature rating/);
+  });
+});

@@ -31,12 +31,14 @@ async function housingEquivalents(repo: CareRepository, wineryId: string, housin
 }
 
 /** The clean-water flow to compare recovery against: as new when registered with it, else the first flow after a cycle. */
-async function flowBasis(repo: CareRepository, wineryId: string, cartridgeId: string): Promise<CareTargetDto['flowBasis']> {
+async function flowBasis(repo: CareRepository, wineryId: string, cartridgeId: string, spec?: { perTenInLh: number; lengthIn: number }): Promise<CareTargetDto['flowBasis']> {
   const rows = await repo.flowHistory(wineryId, cartridgeId);
   for (const r of rows) {
     const v = num(r.details?.waterFlowNewLh);
     if (r.kind === 'registered' && v !== undefined && v > 0) return { kind: 'new', flowLh: v };
   }
+  // the type's clean-water spec for this length: what a new cartridge should pass at 20 °C
+  if (spec && spec.perTenInLh > 0) return { kind: 'spec', flowLh: (spec.perTenInLh * spec.lengthIn) / 10 };
   for (const r of rows) {
     const v = num(r.details?.waterFlowAfterLh);
     if (r.kind === 'cycle' && v !== undefined && v > 0) return { kind: 'first-after', flowLh: v };
@@ -66,7 +68,7 @@ export function createCareService(db: Database) {
       if (!row) throw notFound('Cartridge');
       const installed = row.cartridge.status === 'installed' && row.housing !== null;
       const eqHousing = installed && row.housing ? await housingEquivalents(repo, tenant.wineryId, row.housing.id) : null;
-      return presentCareTarget(row.cartridge, row.type, row.housing, await flowBasis(repo, tenant.wineryId, id), eqHousing);
+      return presentCareTarget(row.cartridge, row.type, row.housing, await flowBasis(repo, tenant.wineryId, id, { perTenInLh: row.type.waterFlowLhPer10in, lengthIn: row.cartridge.lengthIn }), eqHousing);
     },
 
     /** Logs a cycle and counts it on the cartridge, in one transaction; answers with the updated forecast. */
@@ -77,18 +79,24 @@ export function createCareService(db: Database) {
         if (!row) throw notFound('Cartridge');
         const { cartridge: c, type, housing } = row;
         if (c.status === 'retired') throw conflict(`${c.serial} is retired; care cycles are no longer logged for it.`, 'retired');
+        let aboveRating: { ratedMaxC: number } | null = null;
         if (input.tempC !== undefined && input.tempC !== null) {
-          if (input.tempC > type.maxTempC) {
-            throw badRequest('Check the highlighted fields.', {
-              tempC: `${type.name} is rated to ${formatNumber(type.maxTempC, 0)} °C at most; ${formatNumber(input.tempC, 0)} °C is above that limit.`,
-            });
-          }
-          if (c.status === 'installed' && housing && input.tempC > housing.maxTempC) {
-            throw badRequest('Check the highlighted fields.', {
-              tempC: `${housing.name} is rated to ${formatNumber(housing.maxTempC, 0)} °C at most; ${formatNumber(input.tempC, 0)} °C is above that limit.`,
-            });
+          const ratings = [{ name: type.name, max: type.maxTempC }];
+          if (c.status === 'installed' && housing) ratings.push({ name: housing.name, max: housing.maxTempC });
+          const over = ratings.filter((r) => input.tempC! > r.max).sort((x, y) => x.max - y.max)[0];
+          if (over) {
+            if (input.aboveRatingConfirmed !== true) {
+              throw badRequest('Check the highlighted fields.', {
+                tempC: `${over.name} is rated to ${formatNumber(over.max, 0)} °C at most; ${formatNumber(input.tempC, 0)} °C is above that limit. If the cycle really ran this hot, confirm it to record it: it will be flagged on the cartridge.`,
+              });
+            }
+            aboveRating = { ratedMaxC: over.max };
           }
         }
+        if (input.flowBasis === 'housing' && !(c.status === 'installed' && housing)) {
+          throw badRequest('Check the highlighted fields.', { flowBasis: 'The cartridge is not in a housing: enter its own flow.' });
+        }
+        const housingEq = input.flowBasis === 'housing' && housing ? await housingEquivalents(txRepo, tenant.wineryId, housing.id) : undefined;
         const installed = c.status === 'installed';
         const newId = await txRepo.insertEvent({
           wineryId: tenant.wineryId,
@@ -106,6 +114,10 @@ export function createCareService(db: Database) {
             concentrationPct: input.concentrationPct,
             waterFlowBeforeLh: input.waterFlowBeforeLh,
             waterFlowAfterLh: input.waterFlowAfterLh,
+            waterTempC: input.waterTempC,
+            flowBasis: input.flowBasis,
+            housingEquivalents: housingEq,
+            ...(aboveRating ? { aboveRating: true, ratedMaxC: aboveRating.ratedMaxC } : {}),
           }),
         });
         if (input.kind !== 'backflush') await txRepo.bumpCounter(tenant.wineryId, c.id, COUNTERS[input.kind]);

@@ -5,27 +5,53 @@ import {
   diffusionLimitForHousing,
   evaluateIntegrityTest,
   judgeBubblePoint,
+  normalisedWaterFlowLh,
+  RECOVERY_SUSPECT_PCT,
   type IntegrityTestInput,
   type IntegrityVerdict,
   type UnitSystem,
 } from '@shared/engine';
-import type { CycleKind, IntegrityTestKind, WettingFluid } from '@shared/schemas/care';
+import type { CycleKind, FlowBasis, IntegrityTestKind, WettingFluid } from '@shared/schemas/care';
 import type { CareTargetDto } from '@shared/types/care';
 
-export type RecoveryPreview = { basis: 'new' | 'first-after' | 'before'; pct: number; minPct: number };
+export type RecoveryPreview = { basis: 'new' | 'spec' | 'first-after' | 'before'; pct: number; minPct: number; suspect: boolean };
 
-/** Water flow after the cycle as a % of the as-new (or first) flow, else of the flow before. */
-export function recoveryPreview(target: CareTargetDto, kind: CycleKind, beforeLh: number | undefined, afterLh: number | undefined): RecoveryPreview | null {
+/**
+ * Water flow after the cycle as a % of the as-new (or spec, or first) flow, else of the flow before;
+ * flows first brought to one cartridge at 20 °C. `suspect` above 105 %: a housing's flow entered as one cartridge's?
+ */
+export function recoveryPreview(
+  target: CareTargetDto,
+  kind: CycleKind,
+  beforeLh: number | undefined,
+  afterLh: number | undefined,
+  opts: { waterTempC?: number; flowBasis?: FlowBasis } = {},
+): RecoveryPreview | null {
   if (afterLh === undefined || !(afterLh > 0)) return null;
   try {
+    const byHousing = opts.flowBasis === 'housing' && target.housingElementEquivalents !== null;
+    const norm = (q: number | undefined) =>
+      q === undefined || !(q > 0)
+        ? q
+        : normalisedWaterFlowLh({
+            flowLh: q,
+            basis: byHousing ? 'housing' : 'cartridge',
+            cartridgeEquivalents: target.elementEquivalents,
+            housingEquivalents: target.housingElementEquivalents ?? undefined,
+            waterTempC: opts.waterTempC,
+          });
+    const after = norm(afterLh) as number;
+    const before = norm(beforeLh);
     const life = cartridgeLife(
       { flowRecoveryMinPct: target.flowRecoveryMinPct },
-      { litresFiltered: 0, cycles: [{ kind, waterFlowBeforeLh: beforeLh, waterFlowAfterLh: afterLh }], waterFlowNewLh: target.flowBasis?.flowLh },
+      { litresFiltered: 0, cycles: [{ kind, waterFlowBeforeLh: before, waterFlowAfterLh: after }], waterFlowNewLh: target.flowBasis?.flowLh },
     );
     const point = life.recovery.points[0];
     if (!point) return null;
-    if (target.flowBasis) return { basis: target.flowBasis.kind, pct: point.recoveryPct, minPct: target.flowRecoveryMinPct };
-    if (point.gainPct !== null) return { basis: 'before', pct: point.gainPct, minPct: target.flowRecoveryMinPct };
+    if (target.flowBasis) {
+      return { basis: target.flowBasis.kind, pct: point.recoveryPct, minPct: target.flowRecoveryMinPct, suspect: point.recoveryPct > RECOVERY_SUSPECT_PCT };
+    }
+    if (point.gainPct !== null) return { basis: 'before', pct: point.gainPct, minPct: target.flowRecoveryMinPct, suspect: false };
     return null;
   } catch {
     return null;
