@@ -38,7 +38,7 @@ describe('scenario A: flow recovery limits life (hand calculation)', () => {
   const r = cartridgeLife(ratingsA, historyA, { cyclesPerWeek: 2, nowMs: 0 });
 
   it('counts the cycles and the fraction of each budget used', () => {
-    expect(r.counts).toEqual({ steam: 4, hotWater: 4, chemical: 2, backflush: 0, total: 10 });
+    expect(r.counts).toEqual({ steam: 4, hotWater: 4, chemical: 2, backflush: 0, total: 10, aboveRating: 0 });
     // 4/50 = 0.08; 4/100 = 0.04; 2/20 = 0.1; 30,000/100,000 = 0.3; 4·30 = 120 min / 1,500 = 0.08
     expect(r.fractionUsed.steamCycles).toBeCloseTo(0.08, 12);
     expect(r.fractionUsed.hotWaterCycles).toBeCloseTo(0.04, 12);

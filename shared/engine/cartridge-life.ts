@@ -16,6 +16,7 @@
  * Flows should be measured at the same water temperature, or corrected for viscosity.
  */
 import { requireFinite, requireNonNegative, requirePositive, requireRange } from './errors';
+import { waterViscosity } from './fluids';
 
 // ---------------------------------------------------------------------------
 // Types
@@ -45,6 +46,8 @@ export type CareCycle = {
   /** time, ms since the Unix epoch (used for order when every cycle has it and seq is not
    *  on every cycle; otherwise cycles keep the order given) */
   atMs?: number;
+  /** true when the cycle ran above the cartridge's (or housing's) temperature rating */
+  aboveRating?: boolean;
 };
 
 /** One integrity test result. Tests are ordered by atMs when every test has it, else as given. */
@@ -137,12 +140,14 @@ export type RecoveryTrend = {
    * 'linear': recovery = interceptPct + slopePctPerCycle·n (least squares);
    * 'exponential': recovery = interceptPct·exp(ratePerCycle·n) (least squares on ln).
    */
-  model: 'linear' | 'exponential';
+  model: 'linear' | 'exponential' | 'quadratic';
   interceptPct: number;
   /** linear slope, % per cycle (null for exponential) */
   slopePctPerCycle: number | null;
   /** exponential rate, 1/cycle (null for linear) */
   ratePerCycle: number | null;
+  /** quadratic term c of a + b·n + c·n², % per cycle² (null unless quadratic) */
+  curvaturePctPerCycle2: number | null;
   /** residual sum of squares in %², on recovery itself */
   rss: number;
   /** coefficient of determination on recovery itself */
@@ -159,6 +164,8 @@ export type CartridgeLife = {
     chemical: number;
     backflush: number;
     total: number;
+    /** cycles that ran above the temperature rating (each still counts against its budget) */
+    aboveRating: number;
   };
   litresFiltered: number;
   /** litres filtered ÷ care cycles, L, or null with no cycles or no litres */
@@ -280,13 +287,58 @@ function rssAndR2(ys: number[], pred: number[]): { rss: number; r2: number } {
   return { rss, r2 };
 }
 
+/** AICc of a least-squares fit with p constants (k = p + 1 with σ²; Burnham & Anderson 2002, eq. 2.2 and 7.x); null when n − k − 1 ≤ 0. */
+function aiccLs(rss: number, n: number, p: number): number | null {
+  const k = p + 1;
+  if (n - k - 1 <= 0) return null;
+  return n * Math.log(Math.max(rss / n, 1e-12)) + 2 * k + (2 * k * (k + 1)) / (n - k - 1);
+}
+
+/** Least-squares parabola y = a + b·x + c·x² (normal equations, Cramer's rule); null when degenerate. */
+function leastSquaresParabola(xs: number[], ys: number[]): { a: number; b: number; c: number } | null {
+  const n = xs.length;
+  if (n < 3) return null;
+  const mx = xs.reduce((s, x) => s + x, 0) / n;
+  let s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+  for (let i = 0; i < n; i++) {
+    const x = xs[i] - mx;
+    const y = ys[i];
+    s1 += x;
+    s2 += x * x;
+    s3 += x * x * x;
+    s4 += x * x * x * x;
+    t0 += y;
+    t1 += x * y;
+    t2 += x * x * y;
+  }
+  const det3 = (m: number[][]) =>
+    m[0][0] * (m[1][1] * m[2][2] - m[1][2] * m[2][1]) - m[0][1] * (m[1][0] * m[2][2] - m[1][2] * m[2][0]) + m[0][2] * (m[1][0] * m[2][1] - m[1][1] * m[2][0]);
+  const M = [
+    [n, s1, s2],
+    [s1, s2, s3],
+    [s2, s3, s4],
+  ];
+  const D = det3(M);
+  if (!(Math.abs(D) > 1e-12) || !Number.isFinite(D)) return null;
+  const rhs = [t0, t1, t2];
+  const solve = (col: number) => det3(M.map((row, i) => row.map((v, j) => (j === col ? rhs[i] : v)))) / D;
+  const a0 = solve(0);
+  const b0 = solve(1);
+  const c = solve(2);
+  // back from x − mx to x
+  return { a: a0 - b0 * mx + c * mx * mx, b: b0 - 2 * c * mx, c };
+}
+
 /**
  * Fit flow recovery (%) against the cycle count n, by ordinary least squares, as a
- * straight line r = a + b·n, and as an exponential r = A·e^(k·n) (least squares on ln r,
- * all r > 0). The model with the smaller residual sum of squares on r itself is kept;
- * on a tie (e.g. two points, both exact) the line is kept, as it reaches a falling
- * threshold sooner than the exponential through the same points (conservative).
- * `cycleAtMinimum` solves the kept model for r = minPct when it is falling.
+ * straight line r = a + b·n, as an exponential r = A·e^(k·n) (least squares on ln r, all
+ * r > 0) and, from six measurements, as a parabola r = a + b·n + c·n² (an accelerating or
+ * slowing decline). With five or more measurements the model with the lowest AICc is kept
+ * (Burnham & Anderson, Model Selection and Multimodel Inference, 2002); with fewer, the one
+ * with the smaller residual sum of squares on r itself, the line on a tie (it reaches a
+ * falling threshold sooner, conservative).
+ * `cycleAtMinimum` projects the kept model's shape from the latest measurement (the curve
+ * is shifted to pass through it) down to r = minPct, when it is falling there.
  *
  * @param points  at least two points with distinct cycle counts; otherwise null
  * @param minPct  recovery floor, % (> 0)
@@ -299,21 +351,31 @@ export function fitRecoveryTrend(points: { cycle: number; recoveryPct: number }[
   }
   const xs = points.map((p) => p.cycle);
   const ys = points.map((p) => p.recoveryPct);
+  const n = xs.length;
   const lin = leastSquaresLine(xs, ys);
   if (!lin) return null;
+  const last = points.reduce((m, p) => (p.cycle >= m.cycle ? p : m), points[0]);
   const linFit = rssAndR2(
     ys,
     xs.map((x) => lin.a + lin.b * x),
   );
-  let best: RecoveryTrend = {
-    model: 'linear',
-    interceptPct: lin.a,
-    slopePctPerCycle: lin.b,
-    ratePerCycle: null,
-    rss: linFit.rss,
-    r2: linFit.r2,
-    cycleAtMinimum: lin.b < 0 ? (minPct - lin.a) / lin.b : null,
-  };
+  const candidates: { trend: RecoveryTrend; p: number }[] = [];
+  {
+    const shift = last.recoveryPct - (lin.a + lin.b * last.cycle);
+    candidates.push({
+      p: 2,
+      trend: {
+        model: 'linear',
+        interceptPct: lin.a,
+        slopePctPerCycle: lin.b,
+        ratePerCycle: null,
+        curvaturePctPerCycle2: null,
+        rss: linFit.rss,
+        r2: linFit.r2,
+        cycleAtMinimum: lin.b < 0 ? (minPct - lin.a - shift) / lin.b : null,
+      },
+    });
+  }
   if (ys.every((y) => y > 0)) {
     const ln = leastSquaresLine(
       xs,
@@ -325,22 +387,146 @@ export function fitRecoveryTrend(points: { cycle: number; recoveryPct: number }[
         ys,
         xs.map((x) => A * Math.exp(ln.b * x)),
       );
-      const tol = 1e-9 * Math.max(1, linFit.rss);
-      if (expFit.rss < linFit.rss - tol) {
-        best = {
+      const shift = last.recoveryPct - A * Math.exp(ln.b * last.cycle);
+      const target = (minPct - shift) / A;
+      candidates.push({
+        p: 2,
+        trend: {
           model: 'exponential',
           interceptPct: A,
           slopePctPerCycle: null,
           ratePerCycle: ln.b,
+          curvaturePctPerCycle2: null,
           rss: expFit.rss,
           r2: expFit.r2,
-          cycleAtMinimum: ln.b < 0 ? Math.log(minPct / A) / ln.b : null,
-        };
-      }
+          cycleAtMinimum: ln.b < 0 && target > 0 ? Math.log(target) / ln.b : null,
+        },
+      });
     }
   }
-  return best;
+  if (n >= 6) {
+    const q = leastSquaresParabola(xs, ys);
+    if (q) {
+      const qFit = rssAndR2(
+        ys,
+        xs.map((x) => q.a + q.b * x + q.c * x * x),
+      );
+      const shift = last.recoveryPct - (q.a + q.b * last.cycle + q.c * last.cycle * last.cycle);
+      // smallest root beyond the latest cycle of c·x² + b·x + (a + shift − min) = 0
+      const c0 = q.a + shift - minPct;
+      let at: number | null = null;
+      const slopeAtLast = q.b + 2 * q.c * last.cycle;
+      if (slopeAtLast < 0) {
+        if (Math.abs(q.c) < 1e-12) at = -c0 / q.b;
+        else {
+          const disc = q.b * q.b - 4 * q.c * c0;
+          if (disc >= 0) {
+            const r1 = (-q.b - Math.sqrt(disc)) / (2 * q.c);
+            const r2 = (-q.b + Math.sqrt(disc)) / (2 * q.c);
+            const roots = [r1, r2].filter((r) => r >= last.cycle - 1e-9).sort((u, v) => u - v);
+            at = roots.length ? roots[0] : null;
+          }
+        }
+      }
+      candidates.push({
+        p: 3,
+        trend: {
+          model: 'quadratic',
+          interceptPct: q.a,
+          slopePctPerCycle: q.b,
+          ratePerCycle: null,
+          curvaturePctPerCycle2: q.c,
+          rss: qFit.rss,
+          r2: qFit.r2,
+          cycleAtMinimum: at,
+        },
+      });
+    }
+  }
+  let best = candidates[0];
+  if (n >= 5) {
+    let bestScore = aiccLs(best.trend.rss, n, best.p) ?? Infinity;
+    for (const c of candidates.slice(1)) {
+      const score = aiccLs(c.trend.rss, n, c.p);
+      if (score !== null && score < bestScore - 1e-9) {
+        best = c;
+        bestScore = score;
+      }
+    }
+  } else {
+    for (const c of candidates.slice(1)) {
+      const tol = 1e-9 * Math.max(1, best.trend.rss);
+      if (c.p === 2 && c.trend.rss < best.trend.rss - tol) best = c;
+    }
+  }
+  return best.trend;
 }
+
+/**
+ * Clean-water flow brought to the reference the recovery is judged on: per cartridge (a
+ * housing's flow ÷ its cartridges' 10-inch equivalents × the cartridge's), at 20 °C
+ * (Darcy: Q ∝ 1/μ at equal ΔP, IAPWS R12-08 water viscosity) and at the reference ΔP
+ * (Q ∝ ΔP). See engineering reference §5.
+ * @param p.flowLh measured water flow, L/h (> 0)
+ * @param p.basis 'cartridge' (this cartridge alone) or 'housing' (the whole housing)
+ * @param p.cartridgeEquivalents this cartridge's 10-inch equivalents; p.housingEquivalents the housing's (for 'housing')
+ * @param p.waterTempC water temperature of the measurement, °C (0–100; default 20)
+ * @param p.dpBar ΔP of the measurement and p.refDpBar the reference ΔP, bar (both or neither)
+ * @returns per-cartridge flow at 20 °C and the reference ΔP, L/h
+ */
+export function normalisedWaterFlowLh(p: {
+  flowLh: number;
+  basis?: 'cartridge' | 'housing';
+  cartridgeEquivalents?: number;
+  housingEquivalents?: number;
+  waterTempC?: number;
+  dpBar?: number;
+  refDpBar?: number;
+}): number {
+  requirePositive('water flow (L/h)', p.flowLh);
+  let q = p.flowLh;
+  if (p.basis === 'housing') {
+    requirePositive('cartridge 10-inch equivalents', p.cartridgeEquivalents ?? NaN);
+    requirePositive('housing 10-inch equivalents', p.housingEquivalents ?? NaN);
+    q = (q * (p.cartridgeEquivalents as number)) / (p.housingEquivalents as number);
+  }
+  if (p.waterTempC !== undefined) q = (q * waterViscosity(p.waterTempC)) / waterViscosity(20);
+  if (p.dpBar !== undefined || p.refDpBar !== undefined) {
+    requirePositive('ΔP of the measurement (bar)', p.dpBar ?? NaN);
+    requirePositive('reference ΔP (bar)', p.refDpBar ?? NaN);
+    q = (q * (p.refDpBar as number)) / (p.dpBar as number);
+  }
+  return q;
+}
+
+/** Usual sanitation temperatures of wine practice, °C: hot water about 82 °C, steam about 121 °C (engineering and trade references; from memory). */
+export const USUAL_CARE_TEMP_C = { 'hot-water': 82, steam: 121 } as const;
+
+/**
+ * The temperature hint for a care cycle, never above the rating: the usual temperature when the
+ * cartridge and housing are rated for it, else the rating itself with a plain word that the
+ * usual temperature is not allowed for this type (common practice, no source).
+ * @param kind cycle kind; ratingC the lower of the cartridge's and the housing's maximum temperature, °C
+ * @returns { suggestC: the temperature to aim for (≤ ratingC) or null for chemical and backflush, text }
+ */
+export function careTemperatureHint(kind: CareCycleKind, ratingC: number): { suggestC: number | null; text: string } {
+  requireFinite('temperature rating (°C)', ratingC);
+  if (kind !== 'hot-water' && kind !== 'steam') return { suggestC: null, text: '' };
+  const usual = USUAL_CARE_TEMP_C[kind];
+  const r = Math.round(ratingC);
+  if (kind === 'steam' && ratingC < usual) {
+    return { suggestC: null, text: `Not rated for steam: this cartridge is rated to ${String(r)} °C. Use hot water at or below ${String(r)} °C, as its maker allows.` };
+  }
+  if (ratingC < usual) {
+    return { suggestC: ratingC, text: `Hold at no more than ${String(r)} °C (its rating) for at least 20–30 min, measured at the far end of the line, and follow the maker's sanitation instructions.` };
+  }
+  return kind === 'hot-water'
+    ? { suggestC: usual, text: `Common wine practice: about ${String(usual)} °C for at least 20–30 min, measured at the far end of the line.` }
+    : { suggestC: usual, text: 'Hold at least 15 min once live steam shows at every outlet.' };
+}
+
+/** Recovery above this % of the basis is suspect: likely a housing's flow entered as one cartridge's (common practice, no source). */
+export const RECOVERY_SUSPECT_PCT = 105;
 
 // ---------------------------------------------------------------------------
 // Forecast
@@ -495,7 +681,8 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   const cycles = orderCycles(history.cycles);
   const total = cycles.length;
   const count = (k: CareCycleKind) => cycles.filter((c) => c.kind === k).length;
-  const counts = { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total };
+  const aboveRating = cycles.filter((c) => c.aboveRating === true).length;
+  const counts = { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total, aboveRating };
   const litres = history.litresFiltered;
   const litresPerCycle = total > 0 && litres > 0 ? litres / total : null;
 
@@ -516,6 +703,12 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   say(known, () => 
     `${String(total)} care cycle${total === 1 ? '' : 's'} logged (${String(counts.steam)} steam, ${String(counts.hotWater)} hot-water, ${String(counts.chemical)} chemical, ${String(counts.backflush)} backflush).`,
   );
+
+  if (aboveRating > 0) {
+    missing.push(
+      `${String(aboveRating)} cycle${aboveRating === 1 ? '' : 's'} ran above the temperature rating: the maker's cycle ratings may no longer hold, so treat the life left as shorter and test integrity before use.`,
+    );
+  }
 
   // --- budgets
   const budgets: BudgetUse[] = [
@@ -636,7 +829,9 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
     say(known, () => 
       trend.model === 'linear'
         ? `Flow recovery trend: linear, ${fmtNum(trend.slopePctPerCycle as number, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`
-        : `Flow recovery trend: exponential, ${fmtNum((Math.exp(trend.ratePerCycle as number) - 1) * 100, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`,
+        : trend.model === 'quadratic'
+          ? `Flow recovery trend: ${(trend.curvaturePctPerCycle2 as number) < 0 ? 'accelerating' : 'slowing'} decline (quadratic, r² ${fmtNum(trend.r2, 3)}).`
+          : `Flow recovery trend: exponential, ${fmtNum((Math.exp(trend.ratePerCycle as number) - 1) * 100, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`,
     );
     if (trend.cycleAtMinimum !== null) flowCyclesLeft = Math.max(0, trend.cycleAtMinimum - total);
   }

@@ -10,6 +10,7 @@ export * from './integrity';
 export * from './blocking';
 export * from './fit-constant-flow';
 export * from './fit-constant-pressure';
+export * from './stats';
 export * from './run-forecast';
 export * from './filterability';
 export * from './readiness';

@@ -4,7 +4,7 @@
  * cartridge maker states for a type. Limits are always data, never inferred here.
  */
 import { requireFinite, requireNonNegative, requirePositive, requireRange } from './errors';
-import { waterSurfaceTension } from './fluids';
+import { ethanolWaterSurfaceTension, waterSurfaceTension } from './fluids';
 import { formatNumber, toUserUnits, type UnitSystem } from './units';
 
 /** Standard atmosphere, bar (NIST SP 811). */
@@ -355,4 +355,64 @@ export function evaluateIntegrityTest(test: IntegrityTestInput, system: UnitSyst
       throw new RangeError(`Unknown integrity test kind "${String(k)}".`);
     }
   }
+}
+
+/** The liquid a membrane was wetted with for a bubble-point test. */
+export type WettingLiquid = { liquid: 'water' } | { liquid: 'wine' | 'ethanol-water'; ethanolPctVol: number };
+
+/**
+ * Surface tension of a wetting liquid at the test temperature, N/m: water from IAPWS
+ * R1-76(2014); ethanol–water and wine from {@link ethanolWaterSurfaceTension} at the
+ * strength given (for wine an upper estimate: real wines sit a few mN/m lower).
+ * @param w the wetting liquid; tempC test temperature, °C (0–50 for ethanol–water and wine)
+ */
+export function wettingSurfaceTension(w: WettingLiquid, tempC: number): number {
+  if (w.liquid === 'water') return waterSurfaceTension(tempC);
+  return ethanolWaterSurfaceTension(w.ethanolPctVol, tempC);
+}
+
+/** Verdict of {@link judgeBubblePoint}. */
+export interface BubblePointJudgement extends IntegrityVerdict {
+  /** false when the verdict is not final: a product-wet reading below its limit asks for a water re-test */
+  final: boolean;
+  /** expected minimum for this liquid and temperature, bar gauge */
+  minimumBar: number;
+}
+
+/**
+ * Judges a bubble point read with the membrane wetted by water, wine or an ethanol–water
+ * mixture: the type's water-wet minimum scales with the wetting liquid's surface tension
+ * (Young–Laplace; {@link expectedBubblePointBar}). A water-wet reading below its minimum is a
+ * final fail. A product-wet reading below its minimum is not final: the liquid's surface
+ * tension is only estimated and the membrane may be only partly wetted, so the advice is to
+ * re-flush with water and re-test (common practice, no source).
+ * @param p.measuredBar reading, bar gauge; p.waterMinBar the type's water-wet minimum, bar gauge
+ * @param p.specTempC temperature of that minimum (default 20 °C); p.tempC test temperature (default spec)
+ * @param p.wetting the liquid (default water)
+ */
+export function judgeBubblePoint(p: {
+  measuredBar: number;
+  waterMinBar: number;
+  specTempC?: number;
+  tempC?: number;
+  wetting?: WettingLiquid;
+  system?: UnitSystem;
+}): BubblePointJudgement {
+  const wetting = p.wetting ?? { liquid: 'water' };
+  const tempC = p.tempC ?? p.specTempC ?? 20;
+  const minimumBar =
+    wetting.liquid === 'water'
+      ? expectedBubblePointBar({ waterBubblePointBar: p.waterMinBar, specTempC: p.specTempC, tempC })
+      : expectedBubblePointBar({ waterBubblePointBar: p.waterMinBar, specTempC: p.specTempC, surfaceTensionNm: wettingSurfaceTension(wetting, tempC) });
+  const verdict = evaluateIntegrityTest({ kind: 'bubble-point', measuredBar: p.measuredBar, minimumBar }, p.system);
+  if (wetting.liquid === 'water' || verdict.pass) {
+    const reason = wetting.liquid === 'water' ? verdict.reason : verdict.reason.replace('for this type.', `for this type wetted with ${wetting.liquid === 'wine' ? 'wine' : 'ethanol–water'} at ${formatNumber(wetting.ethanolPctVol, 1)} % vol.`);
+    return { ...verdict, reason, final: true, minimumBar };
+  }
+  return {
+    pass: false,
+    final: false,
+    minimumBar,
+    reason: `${verdict.reason.replace('for this type.', `expected when wetted with ${wetting.liquid === 'wine' ? 'wine' : 'ethanol–water'} at ${formatNumber(wetting.ethanolPctVol, 1)} % vol.`)} Not a final fail: re-flush with water and re-test.`,
+  };
 }

@@ -26,21 +26,29 @@ function cakeFit(over: Partial<ConstantFlowFit> = {}): ConstantFlowFit {
 describe('forecastRun (Hermia 1982 constant-flux cake law; hand calculation)', () => {
   // V at 0.8 bar: (r − 1)/K = (4 − 1)/1e-4 = 30 000 L; at 12 000 L done → 18 000 L left.
   // At 6000 L/h: 18 000/6000 = 3 h 00 min.
-  // Delta method: ∂V/∂K = −V/K = −3e8 L²; SE = 3e8 × 1e-6 = 300 L; band 18 000 ± 600 L.
+  // Delta method: ∂V/∂K = −V/K = −3e8 L²; SE = 3e8 × 1e-6 = 300 L. Band ± t(0.975; 48)·SE with
+  // t(0.975; 48) = 2.0106 (NIST/SEMATECH e-Handbook table 1.3.6.7.2 interpolated; stats.test.ts).
   const f = forecastRun({ fit: cakeFit(), currentVolumeL: 12000, terminalDpBar: 0.8, flowLh: 6000, nowMs: 1_000_000 });
+  const half = f.tValue * 300;
+
+  it('uses Student t for n − 2 = 48 degrees of freedom, not 2', () => {
+    expect(f.dof).toBe(48);
+    expect(f.tValue).toBeCloseTo(2.0106, 4);
+    expect(f.beyondReadings).toBe(false);
+  });
 
   it.each([
     ['volumeAtTerminalL', 30000],
     ['volumeLeftL', 18000],
     ['volumeSeL', 300],
-    ['low', 17400],
-    ['high', 18600],
+    ['low', 18000 - half],
+    ['high', 18000 + half],
     ['hoursLeft', 3],
-    ['hoursLeftLow', 2.9],
-    ['hoursLeftHigh', 3.1],
+    ['hoursLeftLow', (18000 - half) / 6000],
+    ['hoursLeftHigh', (18000 + half) / 6000],
     ['endMs', 1_000_000 + 3 * 3_600_000],
-    ['endMsLow', 1_000_000 + 2.9 * 3_600_000],
-    ['endMsHigh', 1_000_000 + 3.1 * 3_600_000],
+    ['endMsLow', 1_000_000 + ((18000 - half) / 6000) * 3_600_000],
+    ['endMsHigh', 1_000_000 + ((18000 + half) / 6000) * 3_600_000],
   ] as const)('%s = %s', (key, value) => {
     expect(f[key] as number).toBeCloseTo(value, 4);
   });
@@ -110,7 +118,7 @@ describe('forecastRunFromReadings', () => {
 
 describe('runAlarm (common practice, no source)', () => {
   const f = forecastRun({ fit: cakeFit(), currentVolumeL: 12000, terminalDpBar: 0.8, flowLh: 6000 });
-  // forecast 18 000 L left, band 17 400–18 600 L
+  // forecast 18 000 L left, band 17 397–18 603 L (t(0.975; 48) = 2.0106)
   it.each([
     [10000, 'ok', false, 0],
     [17800, 'watch', false, 0],

@@ -5,7 +5,9 @@ import {
   METRIC_STORAGE_UNITS,
   QUANTITY_KINDS,
   convert,
+  formatDurationWords,
   formatNumber,
+  MAX_DURATION_HOURS,
   formatQuantity,
   isKnownUnit,
   toMetric,
@@ -167,5 +169,34 @@ describe('display helpers', () => {
     expect(() => toMetric('pressure', 1, 'imperial' as UnitSystem)).toThrow(RangeError);
     expect(() => formatQuantity('speed' as never, 1, 'metric')).toThrow(RangeError);
     expect(() => formatQuantity('pressure', 1, 'metric', { digits: -1 })).toThrow(RangeError);
+  });
+});
+
+describe('formatDurationWords (common practice, no source: durations never read like a clock)', () => {
+  it.each([
+    [0, 'under a minute'],
+    [0.35, 'about 21 min'],
+    [59 / 60, 'about 59 min'],
+    [1, 'about 1 h'],
+    [2 + 10 / 60, 'about 2 h 10 min'],
+    [2 + 12 / 60, 'about 2 h 10 min'],
+    [47.99, 'about 48 h'],
+    [72, 'about 3 days'],
+  ])('%s h → %s', (h, text) => {
+    expect(formatDurationWords(h)).toBe(text);
+  });
+
+  it.each([Number.NaN, Infinity, -1, 1e6])('refuses %s', (h) => {
+    expect(() => formatDurationWords(h)).toThrow(RangeError);
+  });
+
+  it('property: never a clock-like "h:mm" and never a non-finite word', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: MAX_DURATION_HOURS, noNaN: true }), (h) => {
+        const s = formatDurationWords(h);
+        expect(s).not.toMatch(/\d:\d/);
+        expect(s).not.toMatch(/NaN|Infinity|e\+/);
+      }),
+    );
   });
 });

@@ -335,3 +335,30 @@ export function formatQuantity(
   const { value, unit } = toUserUnits(kind, valueInMetric, system, opts);
   return `${formatNumber(value, opts?.digits ?? d.digits)} ${unit}`;
 }
+
+/** Longest duration stated in words, hours (60 days); anything longer is absurd for a run and refused. */
+export const MAX_DURATION_HOURS = 24 * 60;
+
+/**
+ * A duration in plain words that can never be read as a clock time: "under a minute",
+ * "about 21 min", "about 2 h 10 min" (to 5 min above an hour), "about 3 days" (above 48 h).
+ * Refuses a negative, non-finite or absurd (above {@link MAX_DURATION_HOURS}) value with a
+ * RangeError, so no such figure reaches a screen (common practice, no source).
+ * @param hours duration, hours (decimal)
+ */
+export function formatDurationWords(hours: number): string {
+  requireFinite('duration (h)', hours);
+  if (hours < 0 || hours > MAX_DURATION_HOURS) {
+    throw new RangeError(`A duration must be from 0 to ${String(MAX_DURATION_HOURS)} h (got ${String(hours)}).`);
+  }
+  const minutes = hours * 60;
+  if (minutes < 1) return 'under a minute';
+  if (minutes < 59.5) return `about ${String(Math.round(minutes))} min`;
+  if (hours <= 48) {
+    const rounded = Math.round(minutes / 5) * 5;
+    const h = Math.floor(rounded / 60);
+    const m = rounded % 60;
+    return m === 0 ? `about ${String(h)} h` : `about ${String(h)} h ${String(m)} min`;
+  }
+  return `about ${String(Math.round(hours / 24))} days`;
+}

@@ -84,7 +84,14 @@ export type SizeTrainInput = z.infer<typeof sizeTrainInputSchema>;
 
 export const fitRunInputSchema = z.object({
   points: z
-    .array(z.object({ volumeL: nonNegative('Volume (L)'), dpBar: positive('ΔP (bar)') }))
+    .array(
+      z.object({
+        volumeL: nonNegative('Volume (L)'),
+        dpBar: positive('ΔP (bar)'),
+        flowLh: positive('Flow (L/h)').optional(),
+        tempC: num('Temperature (°C)').refine((v) => v >= 0 && v <= 100, { error: 'Temperature must be from 0 to 100 °C.' }).optional(),
+      }),
+    )
     .min(3, { error: 'At least three readings are needed to fit.' })
     .max(MAX_RUN_POINTS, { error: `At most ${MAX_RUN_POINTS} readings.` }),
   terminalDpBar: positive('Terminal ΔP (bar)').optional(),
@@ -92,6 +99,11 @@ export const fitRunInputSchema = z.object({
   currentVolumeL: nonNegative('Current volume (L)').optional(),
   volumeToBottleL: nonNegative('Volume still to bottle (L)').optional(),
   nowMs: num('Time (ms)').optional(),
+  tempC: num('Temperature (°C)').refine((v) => v >= 0 && v <= 100, { error: 'Temperature must be from 0 to 100 °C.' }).optional(),
+  /** Gauge resolution of the stage, bar (default 0.02). */
+  resolutionBar: nonNegative('Gauge resolution (bar)').refine((v) => v <= 1, { error: 'Gauge resolution must be at most 1 bar.' }).optional(),
+  /** Run volumes at which the stage was regenerated or changed, L. */
+  restartsAtL: z.array(nonNegative('Restart volume (L)')).max(50).optional(),
 });
 export type FitRunInput = z.infer<typeof fitRunInputSchema>;
 

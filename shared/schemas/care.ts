@@ -18,8 +18,12 @@ export const integrityTestLabels: Record<IntegrityTestKind, string> = {
   'pressure-hold': 'Pressure hold',
 };
 
-export const WETTING_FLUIDS = ['water', 'wine'] as const;
+export const WETTING_FLUIDS = ['water', 'wine', 'ethanol-water'] as const;
+export type WettingFluid = (typeof WETTING_FLUIDS)[number];
+export const wettingFluidLabels: Record<WettingFluid, string> = { water: 'Water', wine: 'Wine', 'ethanol-water': 'Ethanol–water' };
 export const AGENT_MAX = 120;
+export const FLOW_BASES = ['cartridge', 'housing'] as const;
+export type FlowBasis = (typeof FLOW_BASES)[number];
 export const CARE_NOTES_MAX = 2000;
 
 /** A number that may be left out; null or absent means "not measured". */
@@ -43,6 +47,12 @@ export const logCycleInputSchema = z
     concentrationPct: optionalNum('the concentration').min(0, { error: 'The concentration cannot be negative.' }).max(100, { error: 'The concentration is at most 100 %.' }).nullable().optional(),
     waterFlowBeforeLh: flow('the water flow before'),
     waterFlowAfterLh: flow('the water flow after'),
+    /** Temperature of the water the flows were measured with, °C (flows are brought to 20 °C). */
+    waterTempC: optionalNum('the water temperature').min(0, { error: 'The water temperature is at least 0 °C.' }).max(100, { error: 'The water temperature is at most 100 °C.' }).nullable().optional(),
+    /** Whether the flows are this cartridge's alone or the whole housing's. */
+    flowBasis: z.enum(FLOW_BASES, { error: 'Choose this cartridge or the whole housing.' }).optional(),
+    /** Set when the cycle really ran above the cartridge's or housing's rating: it is recorded and flagged. */
+    aboveRatingConfirmed: z.boolean({ error: 'Confirm with yes or no.' }).optional(),
     at: atSchema,
   })
   .superRefine((v, ctx) => {
@@ -58,7 +68,9 @@ export const recordIntegrityInputSchema = z
     decayMbar: optionalNum('the pressure decay').min(0, { error: 'The pressure decay cannot be negative.' }).max(20_000, { error: 'The pressure decay is at most 20,000 mbar.' }).nullable().optional(),
     testMin: optionalNum('the test time').positive({ error: 'The test time must be more than 0 min.' }).max(240, { error: 'A test lasts at most 240 min.' }).nullable().optional(),
     tempC: optionalNum('the temperature').min(0, { error: 'The temperature is at least 0 °C.' }).max(100, { error: 'The temperature is at most 100 °C.' }).nullable().optional(),
-    wettingFluid: z.enum(WETTING_FLUIDS, { error: 'Choose water or wine.' }).optional(),
+    wettingFluid: z.enum(WETTING_FLUIDS, { error: 'Choose water, wine or ethanol–water.' }).optional(),
+    /** Alcoholic strength of the wetting wine or ethanol–water, % vol. */
+    ethanolPctVol: optionalNum('the alcoholic strength').min(0, { error: 'The strength is at least 0 % vol.' }).max(100, { error: 'The strength is at most 100 % vol.' }).nullable().optional(),
     notes: z.string().trim().max(CARE_NOTES_MAX, { error: `Notes are at most ${CARE_NOTES_MAX} characters.` }).optional(),
     at: atSchema,
   })
@@ -67,6 +79,9 @@ export const recordIntegrityInputSchema = z
       if (v[field] === undefined || v[field] === null) ctx.addIssue({ code: 'custom', path: [field], message });
     };
     if (v.test === 'bubble-point') need('bubblePointBar', 'Enter the bubble point you read.');
+    if (v.test === 'bubble-point' && (v.wettingFluid === 'wine' || v.wettingFluid === 'ethanol-water') && (v.ethanolPctVol === undefined || v.ethanolPctVol === null)) {
+      ctx.addIssue({ code: 'custom', path: ['ethanolPctVol'], message: 'Enter the alcoholic strength of the wetting liquid, % vol: its surface tension sets the expected bubble point.' });
+    }
     if (v.test === 'diffusion') need('diffusionMlMin', 'Enter the diffusion flow you measured.');
     if (v.test === 'pressure-hold') {
       need('decayMbar', 'Enter the pressure decay you read.');

@@ -26,6 +26,8 @@ export type CareTargetDto = {
   status: string;
   lengthIn: number;
   elementEquivalents: number;
+  /** 10-inch equivalents of every cartridge installed in its housing (a diffusion or pressure-hold test covers them all); null when not installed */
+  housingElementEquivalents: number | null;
   housingId: string | null;
   housingName: string | null;
   /** Gas volume upstream of the membrane in the housing, L (null when not installed or not entered). */
@@ -35,7 +37,7 @@ export type CareTargetDto = {
   diffusionMaxMlMinPer10in: number | null;
   flowRecoveryMinPct: number;
   /** Clean-water flow to compare against: the as-new flow, else the first flow logged after a cycle. */
-  flowBasis: { kind: 'new' | 'first-after'; flowLh: number } | null;
+  flowBasis: { kind: 'new' | 'spec' | 'first-after'; flowLh: number } | null;
   steamCycles: number;
   hotWaterCycles: number;
   chemicalCycles: number;
@@ -55,6 +57,8 @@ export type IntegrityResultDto = {
   event: CareEventDto;
   test: IntegrityTestKind;
   pass: boolean;
+  /** true when a product-wet fail is not final: re-flush with water and re-test */
+  retest: boolean;
   reason: string;
   life: CartridgeLife | null;
   lifeError: string | null;

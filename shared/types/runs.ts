@@ -102,6 +102,8 @@ export type RunStageDto = {
   note: string | null;
   /** Every cartridge that was in this stage during the run (in now, and changed out). */
   cartridges: RunStageCartridgeDto[];
+  /** "ΔP not rising: possible bypass or gauge fault." when litres rise over 5+ readings and ΔP does not; else null */
+  flatWarning: string | null;
 };
 
 export type RunDetailDto = RunSummaryDto & {

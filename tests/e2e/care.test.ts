@@ -38,7 +38,7 @@ describe('Care on a phone in the cellar', () => {
     // Log a hot-water cycle with the water flow before and after.
     await page.getByLabel('What was done').selectOption('hot-water');
     await page.getByText('Hot water and steam scald').waitFor();
-    await page.getByLabel('Temperature').fill('82');
+    await page.getByLabel('Temperature', { exact: true }).fill('82');
     await page.getByLabel('Duration').fill('30');
     await page.getByLabel('Clean-water flow before').fill('3000');
     await page.getByLabel('Clean-water flow after').fill('4000');
@@ -46,7 +46,7 @@ describe('Care on a phone in the cellar', () => {
     await screenshot(page, 'care-cycle-phone');
     await page.screenshot({ path: `${outputDir}/care-cycle-phone-view.png` });
     // Inputs open the numeric keypad.
-    expect(await page.getByLabel('Temperature').getAttribute('inputmode')).toBe('decimal');
+    expect(await page.getByLabel('Temperature', { exact: true }).getAttribute('inputmode')).toBe('decimal');
     await page.getByRole('button', { name: 'Save cycle' }).click();
     await page.getByRole('heading', { name: 'Hot water cycle saved' }).waitFor();
     await page.getByRole('status').getByText(/care cycles left|No life forecast|ended/).first().waitFor();

@@ -55,7 +55,8 @@ describe('a run on a phone in the cellar', () => {
     }
     const forecast = page.getByTestId('forecast-0');
     await forecast.waitFor();
-    expect(await forecast.textContent()).toMatch(/≈ .* L \/ \d+:\d\d left/);
+    expect(await forecast.textContent()).toMatch(/≈ [\d,]+ L left · about \d+ (h|min)/);
+    expect(await forecast.textContent()).not.toMatch(/\d:\d\d/);
     expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
     await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).waitFor();
     await screenshot(page, 'run-forecast-phone');

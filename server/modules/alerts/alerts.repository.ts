@@ -47,6 +47,7 @@ export function createAlertsRepository(db: DbOrTx) {
             housingId: cartridgesTable.housingId,
             position: cartridgesTable.position,
             litresFiltered: cartridgesTable.litresFiltered,
+            lengthIn: cartridgesTable.lengthIn,
           },
           housingName: housingsTable.name,
           type: cartridgeTypesTable,

@@ -5,11 +5,13 @@ import {
   discAreaM2FromDiameterMm,
   fitConstantFlow,
   fitConstantPressure,
-  forecastRun,
+  foulingCheck,
+  forecastRunFromReadings,
   modifiedCloggingIndex,
   runAlarm,
   sizeTrain,
   vmaxSizing,
+  DP_NOT_RISING_MESSAGE,
 } from '../../../shared/engine';
 import type { CartridgeLifeInput, FilterabilityInput, FitRunInput, SizeTrainInput } from '../../../shared/schemas/calc';
 
@@ -19,18 +21,37 @@ export const calcService = {
     return sizeTrain(input);
   },
 
-  /** Fits every blocking law to run readings; with a terminal ΔP and a flow, forecasts the time left. */
+  /**
+   * Fits every blocking law to run readings; with a terminal ΔP and a flow, forecasts the time left.
+   * `best` is the best law only when ΔP really rises (significant K, rise beyond the gauge); else
+   * null with the reason in `note`.
+   */
   fitRun(input: FitRunInput) {
     const fits = fitConstantFlow(input.points);
-    const best = fits.find((f) => f.valid && f.kPerL > 0) ?? null;
+    const vMin = Math.min(...input.points.map((p) => p.volumeL));
+    const best = fits.find((f) => foulingCheck(f, { resolutionBar: input.resolutionBar, volumeMinL: vMin }).fouling) ?? null;
     let forecast = null;
     let alarm = null;
-    if (best && input.terminalDpBar !== undefined && input.flowLh !== undefined) {
-      const currentVolumeL = input.currentVolumeL ?? Math.max(...input.points.map((p) => p.volumeL));
-      forecast = forecastRun({ fit: best, currentVolumeL, terminalDpBar: input.terminalDpBar, flowLh: input.flowLh, nowMs: input.nowMs });
-      if (input.volumeToBottleL !== undefined) alarm = runAlarm({ forecast, volumeToBottleL: input.volumeToBottleL });
+    let note: string | null = best ? null : DP_NOT_RISING_MESSAGE;
+    if (input.terminalDpBar !== undefined && input.flowLh !== undefined) {
+      try {
+        forecast = forecastRunFromReadings({
+          points: input.points,
+          terminalDpBar: input.terminalDpBar,
+          flowLh: input.flowLh,
+          tempC: input.tempC,
+          currentVolumeL: input.currentVolumeL,
+          nowMs: input.nowMs,
+          resolutionBar: input.resolutionBar,
+          restartsAtL: input.restartsAtL,
+        }).forecast;
+        if (input.volumeToBottleL !== undefined) alarm = runAlarm({ forecast, volumeToBottleL: input.volumeToBottleL });
+      } catch (e) {
+        if (!(e instanceof RangeError)) throw e;
+        note = e.message;
+      }
     }
-    return { best: best?.law ?? null, fits, forecast, alarm };
+    return { best: best?.law ?? null, fits, forecast, alarm, note };
   },
 
   /** Clogging index (and modified index), and the Vmax disc test with optional sizing. */

@@ -19,6 +19,7 @@ export const presentCareTarget = (
   t: CareTypeRow,
   h: CareHousingRow | null,
   flowBasis: CareTargetDto['flowBasis'],
+  housingElementEquivalents: number | null = null,
 ): CareTargetDto => ({
   id: c.id,
   serial: c.serial,
@@ -28,6 +29,7 @@ export const presentCareTarget = (
   status: c.status,
   lengthIn: c.lengthIn,
   elementEquivalents: elementEquivalents({ cartridges: 1, lengthIn: c.lengthIn }),
+  housingElementEquivalents: c.status === 'installed' && h ? housingElementEquivalents : null,
   housingId: c.status === 'installed' && h ? h.id : null,
   housingName: c.status === 'installed' && h ? h.name : null,
   upstreamGasVolumeL: c.status === 'installed' && h ? h.upstreamGasVolumeL : null,

@@ -58,6 +58,15 @@ export function createCareRepository(db: DbOrTx) {
       return row ?? null;
     },
 
+    /** Lengths (inches) of the cartridges installed in a housing: a housing test covers them all. */
+    async installedLengths(wineryId: string, housingId: string) {
+      const rows = await db
+        .select({ lengthIn: cartridgesTable.lengthIn })
+        .from(cartridgesTable)
+        .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.housingId, housingId), eq(cartridgesTable.status, 'installed')));
+      return rows.map((r) => r.lengthIn);
+    },
+
     /** The as-new flow (registered event) and the water flows logged after cycles, oldest first. */
     async flowHistory(wineryId: string, cartridgeId: string) {
       return db

@@ -1,6 +1,7 @@
 import {
   cartridgeLife,
   cartridgeLifeVerdict,
+  normalisedWaterFlowLh,
   type CareCycle,
   type CareCycleKind,
   type CartridgeLife,
@@ -48,7 +49,7 @@ const CYCLE_KINDS: readonly CareCycleKind[] = ['steam', 'hot-water', 'chemical',
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
 
 /** The type's ratings the life forecast reads. */
-type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct'>;
+type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct' | 'waterFlowLhPer10in'>;
 
 const duplicateSerial = (serial: string) => conflict(`Serial ${serial} is already registered in this winery.`, 'duplicate_serial');
 
@@ -59,7 +60,7 @@ const duplicateSerial = (serial: string) => conflict(`Serial ${serial} is alread
  */
 export function lifeFromHistory(
   type: CartridgeTypeRow,
-  cartridge: Pick<CartridgeRow, 'litresFiltered'>,
+  cartridge: Pick<CartridgeRow, 'litresFiltered'> & Partial<Pick<CartridgeRow, 'lengthIn'>>,
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,
 ): { life: CartridgeLife | null; error: string | null } {
@@ -69,7 +70,7 @@ export function lifeFromHistory(
 /** As {@link lifeFromHistory}, the figures and verdict only (no plain-words account): for many cartridges at once. */
 export function lifeVerdictFromHistory(
   type: LifeRatings,
-  cartridge: Pick<CartridgeRow, 'litresFiltered'>,
+  cartridge: Pick<CartridgeRow, 'litresFiltered'> & Partial<Pick<CartridgeRow, 'lengthIn'>>,
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,
 ): { life: CartridgeLifeVerdict | null; error: string | null } {
@@ -79,7 +80,7 @@ export function lifeVerdictFromHistory(
 function forecastFromHistory<T>(
   forecast: (...args: Parameters<typeof cartridgeLife>) => T,
   type: LifeRatings,
-  cartridge: Pick<CartridgeRow, 'litresFiltered'>,
+  cartridge: Pick<CartridgeRow, 'litresFiltered'> & Partial<Pick<CartridgeRow, 'lengthIn'>>,
   events: Pick<CartridgeEventRow, 'kind' | 'at' | 'details'>[],
   now: Date,
 ): { life: T | null; error: string | null } {
@@ -90,20 +91,44 @@ function forecastFromHistory<T>(
   for (const e of oldestFirst) {
     const d = e.details ?? {};
     if (e.kind === 'cycle' && CYCLE_KINDS.includes(d.kind as CareCycleKind)) {
+      // flows to one cartridge at 20 °C (Darcy with IAPWS viscosity), whatever they were measured as
+      const norm = (v: number | undefined) => {
+        if (v === undefined || !(v > 0)) return v;
+        const housingEq = num(d.housingEquivalents);
+        const own = cartridge.lengthIn ? cartridge.lengthIn / 10 : undefined;
+        const byHousing = d.flowBasis === 'housing' && housingEq !== undefined && own !== undefined;
+        try {
+          return normalisedWaterFlowLh({
+            flowLh: v,
+            basis: byHousing ? 'housing' : 'cartridge',
+            cartridgeEquivalents: own,
+            housingEquivalents: housingEq,
+            waterTempC: num(d.waterTempC),
+          });
+        } catch {
+          return v;
+        }
+      };
       cycles.push({
         kind: d.kind as CareCycleKind,
         tempC: num(d.tempC),
         durationMin: num(d.durationMin),
         agent: typeof d.agent === 'string' ? d.agent : undefined,
-        waterFlowBeforeLh: num(d.waterFlowBeforeLh),
-        waterFlowAfterLh: num(d.waterFlowAfterLh),
+        waterFlowBeforeLh: norm(num(d.waterFlowBeforeLh)),
+        waterFlowAfterLh: norm(num(d.waterFlowAfterLh)),
         atMs: e.at.getTime(),
+        aboveRating: d.aboveRating === true,
       });
-    } else if (e.kind === 'integrity' && typeof d.pass === 'boolean') {
+    } else if (e.kind === 'integrity' && typeof d.pass === 'boolean' && d.retest !== true) {
+      // a product-wet fail that asks for a water re-test is not a verdict on the membrane
       integrity.push({ pass: d.pass, atMs: e.at.getTime() });
     } else if (e.kind === 'registered' && num(d.waterFlowNewLh) !== undefined && (d.waterFlowNewLh as number) > 0) {
       waterFlowNewLh = d.waterFlowNewLh as number;
     }
+  }
+  // without an as-new flow, the type's clean-water spec for this length (at its reference ΔP and 20 °C)
+  if (waterFlowNewLh === undefined && cartridge.lengthIn && type.waterFlowLhPer10in > 0) {
+    waterFlowNewLh = (type.waterFlowLhPer10in * cartridge.lengthIn) / 10;
   }
   // The pace of care so far, for a date estimate: cycles per week between the first and the latest cycle.
   let cyclesPerWeek: number | undefined;

@@ -1,5 +1,7 @@
 import {
+  detectFlatDp,
   fitConstantFlow,
+  foulingCheck,
   forecastRunFromReadings,
   requiredFlowLh,
   runAlarm,
@@ -62,18 +64,27 @@ function stageFigures(p: {
   lineFlowLh: number | null;
   currentVolumeL: number;
   volumeToBottleL: number;
-}): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note'> {
+  restartsAtL?: number[];
+}): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning'> {
   const latestFlow = [...p.readings].reverse().find((r) => r.flowLh !== null && r.flowLh > 0)?.flowLh ?? null;
   const flowLh = latestFlow ?? p.lineFlowLh;
-  const none = { fit: null, curve: [], forecast: null, alarm: null, flowLh };
+  const dpPoints = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
+  const flat = detectFlatDp(dpPoints.filter((q) => q.volumeL >= Math.max(0, ...(p.restartsAtL ?? []))));
+  const flatWarning = flat.flat ? flat.reason : null;
+  const none = { fit: null, curve: [], forecast: null, alarm: null, flowLh, flatWarning };
   if (p.readings.length < MIN_READINGS_FOR_FIT) {
     const more = MIN_READINGS_FOR_FIT - p.readings.length;
     return { ...none, note: `Log ${String(more)} more reading${more === 1 ? '' : 's'} on this stage for a fit and a forecast (at least ${String(MIN_READINGS_FOR_FIT)}).` };
   }
-  const points = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
+  const points = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar, flowLh: r.flowLh, tempC: r.tempC }));
   const maxV = Math.max(...points.map((q) => q.volumeL));
   if (flowLh === null) {
-    const best = fitConstantFlow(points).find((f) => f.valid && f.kPerL > 0) ?? null;
+    let best: ConstantFlowFit | null = null;
+    try {
+      best = fitConstantFlow(dpPoints).find((f) => foulingCheck(f).fouling) ?? null;
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+    }
     return {
       ...none,
       fit: best,
@@ -82,8 +93,14 @@ function stageFigures(p: {
     };
   }
   try {
-    const { forecast, fits } = forecastRunFromReadings({ points, terminalDpBar: p.terminalDpBar, flowLh, currentVolumeL: Math.max(p.currentVolumeL, maxV) });
-    const fit = fits.find((f) => f.law === forecast.law && f.valid && f.kPerL > 0) ?? null;
+    const { forecast, fits } = forecastRunFromReadings({
+      points,
+      terminalDpBar: p.terminalDpBar,
+      flowLh,
+      currentVolumeL: Math.max(p.currentVolumeL, maxV),
+      restartsAtL: p.restartsAtL,
+    });
+    const fit = forecast.segmentStartL === 0 ? (fits.find((f) => f.law === forecast.law && f.valid && f.kPerL > 0) ?? null) : null;
     return {
       fit,
       curve: fit ? fittedCurve(fit, p.terminalDpBar, maxV) : [],
@@ -91,6 +108,7 @@ function stageFigures(p: {
       alarm: runAlarm({ forecast, volumeToBottleL: p.volumeToBottleL }),
       flowLh,
       note: null,
+      flatWarning,
     };
   } catch (e) {
     if (e instanceof RangeError) return { ...none, note: e.message };
@@ -174,8 +192,16 @@ export function createRunsService(db: Database) {
         const terminalDpBar = type?.terminalDpBar ?? 0;
         const figures =
           terminalDpBar > 0
-            ? stageFigures({ readings: counted, terminalDpBar, lineFlowLh, currentVolumeL: summary.currentVolumeL, volumeToBottleL })
-            : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+            ? stageFigures({
+                readings: counted,
+                terminalDpBar,
+                lineFlowLh,
+                currentVolumeL: summary.currentVolumeL,
+                volumeToBottleL,
+                // A change or regeneration restores the stage: the forecast starts again from there.
+                restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
+              })
+            : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
         return {
           index,
           name: s.name ?? `Stage ${String(index + 1)}`,

@@ -53,6 +53,7 @@ export function createTodayRepository(db: DbOrTx) {
           ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
           ratedChemicalCycles: cartridgeTypesTable.ratedChemicalCycles,
           flowRecoveryMinPct: cartridgeTypesTable.flowRecoveryMinPct,
+          waterFlowLhPer10in: cartridgeTypesTable.waterFlowLhPer10in,
         })
         .from(cartridgeTypesTable)
         .where(eq(cartridgeTypesTable.wineryId, wineryId));
@@ -91,6 +92,7 @@ export function createTodayRepository(db: DbOrTx) {
             housingId: cartridgesTable.housingId,
             position: cartridgesTable.position,
             litresFiltered: cartridgesTable.litresFiltered,
+            lengthIn: cartridgesTable.lengthIn,
           },
           housingName: housingsTable.name,
           events: lifeEvents.events,

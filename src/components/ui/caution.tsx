@@ -39,3 +39,21 @@ export function CautionPanel({ title, children, icon, className }: CautionPanelP
     </aside>
   );
 }
+
+/**
+ * The gas caution: CO₂ or nitrogen used to push wine out of a train or to blanket a tank can
+ * displace the air in a cellar or a tank (asphyxiation). Shown at push-out and changeover and
+ * on tank pages; defers to the site's rules.
+ */
+export function GasCaution({ title = 'CO₂ and nitrogen – no air to breathe', className }: { title?: ReactNode; className?: string }) {
+  return (
+    <CautionPanel title={title} className={className}>
+      <ul>
+        <li>Pushing wine out with CO₂ or nitrogen fills drains, pits and low cellars with gas that gives no warning before collapse.</li>
+        <li>Vent to the outside, keep the cellar ventilated, and use a gas monitor where one is fitted.</li>
+        <li>Never enter or lean into a tank without the site’s confined-space procedure: tested air, a permit and a standby person.</li>
+      </ul>
+      <p className="mt-1">Local rules and the site’s own procedures govern.</p>
+    </CautionPanel>
+  );
+}

@@ -4,48 +4,100 @@ import {
   cartridgeLife,
   diffusionLimitForHousing,
   evaluateIntegrityTest,
-  expectedBubblePointBar,
+  judgeBubblePoint,
+  normalisedWaterFlowLh,
+  RECOVERY_SUSPECT_PCT,
   type IntegrityTestInput,
   type IntegrityVerdict,
   type UnitSystem,
 } from '@shared/engine';
-import type { CycleKind, IntegrityTestKind } from '@shared/schemas/care';
+import type { CycleKind, FlowBasis, IntegrityTestKind, WettingFluid } from '@shared/schemas/care';
 import type { CareTargetDto } from '@shared/types/care';
 
-export type RecoveryPreview = { basis: 'new' | 'first-after' | 'before'; pct: number; minPct: number };
+export type RecoveryPreview = { basis: 'new' | 'spec' | 'first-after' | 'before'; pct: number; minPct: number; suspect: boolean };
 
-/** Water flow after the cycle as a % of the as-new (or first) flow, else of the flow before. */
-export function recoveryPreview(target: CareTargetDto, kind: CycleKind, beforeLh: number | undefined, afterLh: number | undefined): RecoveryPreview | null {
+/**
+ * Water flow after the cycle as a % of the as-new (or spec, or first) flow, else of the flow before;
+ * flows first brought to one cartridge at 20 °C. `suspect` above 105 %: a housing's flow entered as one cartridge's?
+ */
+export function recoveryPreview(
+  target: CareTargetDto,
+  kind: CycleKind,
+  beforeLh: number | undefined,
+  afterLh: number | undefined,
+  opts: { waterTempC?: number; flowBasis?: FlowBasis } = {},
+): RecoveryPreview | null {
   if (afterLh === undefined || !(afterLh > 0)) return null;
   try {
+    const byHousing = opts.flowBasis === 'housing' && target.housingElementEquivalents !== null;
+    const norm = (q: number | undefined) =>
+      q === undefined || !(q > 0)
+        ? q
+        : normalisedWaterFlowLh({
+            flowLh: q,
+            basis: byHousing ? 'housing' : 'cartridge',
+            cartridgeEquivalents: target.elementEquivalents,
+            housingEquivalents: target.housingElementEquivalents ?? undefined,
+            waterTempC: opts.waterTempC,
+          });
+    const after = norm(afterLh) as number;
+    const before = norm(beforeLh);
     const life = cartridgeLife(
       { flowRecoveryMinPct: target.flowRecoveryMinPct },
-      { litresFiltered: 0, cycles: [{ kind, waterFlowBeforeLh: beforeLh, waterFlowAfterLh: afterLh }], waterFlowNewLh: target.flowBasis?.flowLh },
+      { litresFiltered: 0, cycles: [{ kind, waterFlowBeforeLh: before, waterFlowAfterLh: after }], waterFlowNewLh: target.flowBasis?.flowLh },
     );
     const point = life.recovery.points[0];
     if (!point) return null;
-    if (target.flowBasis) return { basis: target.flowBasis.kind, pct: point.recoveryPct, minPct: target.flowRecoveryMinPct };
-    if (point.gainPct !== null) return { basis: 'before', pct: point.gainPct, minPct: target.flowRecoveryMinPct };
+    if (target.flowBasis) {
+      return { basis: target.flowBasis.kind, pct: point.recoveryPct, minPct: target.flowRecoveryMinPct, suspect: point.recoveryPct > RECOVERY_SUSPECT_PCT };
+    }
+    if (point.gainPct !== null) return { basis: 'before', pct: point.gainPct, minPct: target.flowRecoveryMinPct, suspect: false };
     return null;
   } catch {
     return null;
   }
 }
 
-export type TestReadings = { bubblePointBar?: number; diffusionMlMin?: number; decayMbar?: number; testMin?: number; tempC?: number };
+export type TestReadings = {
+  bubblePointBar?: number;
+  diffusionMlMin?: number;
+  decayMbar?: number;
+  testMin?: number;
+  tempC?: number;
+  wettingFluid?: WettingFluid;
+  ethanolPctVol?: number;
+};
 
-/** The type's limit for this test, or why it cannot be judged. */
-export function integrityPreview(target: CareTargetDto, test: IntegrityTestKind, r: TestReadings, system: UnitSystem): { verdict: IntegrityVerdict } | { missing: string } | null {
+/** 10-inch equivalents a diffusion or pressure-hold test covers: the whole housing when installed (PDA TR 26). */
+export function testedEquivalents(target: CareTargetDto): number {
+  return target.housingElementEquivalents ?? target.elementEquivalents;
+}
+
+/** The type's limit for this test, or why it cannot be judged; `retest` when a product-wet fail asks for a water re-test. */
+export function integrityPreview(
+  target: CareTargetDto,
+  test: IntegrityTestKind,
+  r: TestReadings,
+  system: UnitSystem,
+): { verdict: IntegrityVerdict & { retest?: boolean } } | { missing: string } | null {
   try {
     let input: IntegrityTestInput;
     if (test === 'bubble-point') {
       if (target.bubblePointMinBar === null) return { missing: `${target.typeName} has no minimum bubble point in the catalogue.` };
       if (r.bubblePointBar === undefined) return null;
-      const minimumBar = r.tempC !== undefined ? expectedBubblePointBar({ waterBubblePointBar: target.bubblePointMinBar, tempC: r.tempC }) : target.bubblePointMinBar;
-      input = { kind: 'bubble-point', measuredBar: r.bubblePointBar, minimumBar };
+      const fluid = r.wettingFluid ?? 'water';
+      if (fluid !== 'water' && r.ethanolPctVol === undefined) return { missing: 'Enter the alcoholic strength of the wetting liquid: its surface tension sets the expected bubble point.' };
+      const j = judgeBubblePoint({
+        measuredBar: r.bubblePointBar,
+        waterMinBar: target.bubblePointMinBar,
+        tempC: r.tempC,
+        wetting: fluid === 'water' ? { liquid: 'water' } : { liquid: fluid, ethanolPctVol: r.ethanolPctVol as number },
+        system,
+      });
+      return { verdict: { pass: j.pass, reason: j.reason, retest: !j.final } };
     } else {
       if (target.diffusionMaxMlMinPer10in === null) return { missing: `${target.typeName} has no diffusion limit in the catalogue.` };
-      const maxMlMin = diffusionLimitForHousing(target.diffusionMaxMlMinPer10in, target.elementEquivalents);
+      const maxMlMin = diffusionLimitForHousing(target.diffusionMaxMlMinPer10in, testedEquivalents(target));
       if (test === 'diffusion') {
         if (r.diffusionMlMin === undefined) return null;
         input = { kind: 'diffusion', measuredMlMin: r.diffusionMlMin, maximumMlMin: maxMlMin };

@@ -2,6 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
+import { careTemperatureHint } from '@shared/engine';
 import { CYCLE_KINDS, cycleKindLabels, logCycleInputSchema, type CycleKind } from '@shared/schemas/care';
 import type { CareTargetDto, CycleResultDto } from '@shared/types/care';
 import { Button } from '@/components/ui/button';
@@ -17,12 +18,7 @@ import { ChemicalCaution, HeatCaution } from './care-cautions';
 import { recoveryPreview } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
 
-const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'at'] as const;
-
-const typicalHint: Partial<Record<CycleKind, string>> = {
-  'hot-water': 'Common wine practice: about 82 °C (180 °F) for at least 20–30 min, measured at the far end of the line (Practical Winery & Vineyard, 2009; UC Davis bottling workshop, 2019).',
-  steam: 'Hold at least 15 min once live steam shows at every outlet (The Grapevine Magazine, 2021; Process Heating).',
-};
+const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowBasis', 'aboveRatingConfirmed', 'at'] as const;
 
 /** Logs a regeneration, sanitation or sterilisation cycle of one cartridge. */
 export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: CycleResultDto) => void }) {
@@ -41,6 +37,9 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           concentrationPct: decimalText,
           waterFlowBeforeLh: decimalText,
           waterFlowAfterLh: decimalText,
+          waterTempC: decimalText,
+          flowBasis: z.string(),
+          aboveRatingConfirmed: z.boolean(),
           at: z.string(),
         })
         .transform((v) => ({
@@ -51,6 +50,9 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           concentrationPct: v.kind === 'chemical' ? v.concentrationPct : null,
           waterFlowBeforeLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowBeforeLh),
           waterFlowAfterLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowAfterLh),
+          waterTempC: toMetricOrKeep(units.fromInput, 'temperature', v.waterTempC),
+          flowBasis: v.flowBasis || undefined,
+          aboveRatingConfirmed: v.aboveRatingConfirmed || undefined,
           at: isoOrNow(v.at),
         }))
         .pipe(requestSchema(logCycleInputSchema)),
@@ -59,23 +61,31 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
 
   const form = useForm({
     resolver: zodResolver(schema),
-    defaultValues: { kind: 'hot-water', tempC: '', durationMin: '', agent: '', concentrationPct: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) },
+    defaultValues: { kind: 'hot-water', tempC: '', durationMin: '', agent: '', concentrationPct: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', waterTempC: '', flowBasis: 'cartridge', aboveRatingConfirmed: false, at: localDateTime(new Date()) },
   });
   const { errors } = form.formState;
-  const [kind, before, after] = form.watch(['kind', 'waterFlowBeforeLh', 'waterFlowAfterLh']);
+  const [kind, before, after, waterTemp, basisText, cycleTemp] = form.watch(['kind', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowBasis', 'tempC']);
   const cycleKind = (CYCLE_KINDS as readonly string[]).includes(kind) ? (kind as CycleKind) : 'hot-water';
 
   const toFlow = (s: string) => {
     const v = finite(parseTyped(s));
     return v === undefined ? undefined : units.fromInput('flow', v);
   };
-  const recovery = recoveryPreview(target, cycleKind, toFlow(before), toFlow(after));
+  const waterTempTyped = finite(parseTyped(waterTemp));
+  const recovery = recoveryPreview(target, cycleKind, toFlow(before), toFlow(after), {
+    waterTempC: waterTempTyped === undefined ? undefined : units.fromInput('temperature', waterTempTyped),
+    flowBasis: basisText === 'housing' ? 'housing' : 'cartridge',
+  });
+  // hints never suggest more than the rating (the lower of the cartridge's and, when installed, the housing's)
+  const hint = careTemperatureHint(cycleKind, target.maxTempC);
+  const cycleTempTyped = finite(parseTyped(cycleTemp));
+  const aboveRating = cycleTempTyped !== undefined && units.fromInput('temperature', cycleTempTyped) > target.maxTempC;
 
   const submit = form.handleSubmit(async (input) => {
     setAlert(null);
     try {
       const result = await log.mutateAsync({ cartridgeId: target.id, input });
-      form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) });
+      form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', aboveRatingConfirmed: false, at: localDateTime(new Date()) });
       onSaved(result);
     } catch (error) {
       setAlert(applyServerErrors(error, form.setError, fields));
@@ -97,7 +107,7 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           hint={
             <>
               {target.typeName} is rated to {units.format('temperature', target.maxTempC, 0)} at most.
-              {typicalHint[cycleKind] ? <span className="mt-0.5 block">{typicalHint[cycleKind]}</span> : null}
+              {hint.text ? <span className="mt-0.5 block">{hint.text}</span> : null}
             </>
           }
         >
@@ -107,6 +117,15 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           <NumberInput id="cycle-duration" unit="min" {...form.register('durationMin')} />
         </FormField>
       </div>
+      {aboveRating ? (
+        <label className="flex items-start gap-2 rounded border border-watch-200 bg-watch-50 px-4 py-3 text-base text-ink-900">
+          <input type="checkbox" className="mt-1 size-5" {...form.register('aboveRatingConfirmed')} />
+          <span>
+            It really ran above the {units.format('temperature', target.maxTempC, 0)} rating. Record it anyway: it is flagged on the cartridge, counts in its life, and the
+            cartridge should pass an integrity test before use.
+          </span>
+        </label>
+      ) : null}
       {cycleKind === 'chemical' ? (
         <div className="grid gap-4 sm:grid-cols-2">
           <FormField label="Cleaning agent" htmlFor="cycle-agent" error={errors.agent?.message} required>
@@ -128,16 +147,37 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
         <FormField label="Clean-water flow before" htmlFor="cycle-before" error={errors.waterFlowBeforeLh?.message}>
           <NumberInput id="cycle-before" unit={units.symbol('flow')} {...form.register('waterFlowBeforeLh')} />
         </FormField>
-        <FormField label="Clean-water flow after" htmlFor="cycle-after" error={errors.waterFlowAfterLh?.message} hint="At the same pressure and temperature as before.">
+        <FormField label="Clean-water flow after" htmlFor="cycle-after" error={errors.waterFlowAfterLh?.message} hint="At the same pressure as before.">
           <NumberInput id="cycle-after" unit={units.symbol('flow')} {...form.register('waterFlowAfterLh')} />
         </FormField>
+        <FormField label="Water temperature" htmlFor="cycle-water-temp" error={errors.waterTempC?.message} hint="Flows are brought to 20 °C water (colder water flows less).">
+          <NumberInput id="cycle-water-temp" unit={units.symbol('temperature')} {...form.register('waterTempC')} />
+        </FormField>
+        {target.housingElementEquivalents !== null ? (
+          <FormField label="Flows measured for" htmlFor="cycle-flow-basis" error={errors.flowBasis?.message}>
+            <Select
+              id="cycle-flow-basis"
+              {...form.register('flowBasis')}
+              options={[
+                { value: 'cartridge', label: 'This cartridge alone' },
+                { value: 'housing', label: `The whole housing (${target.housingName ?? 'its housing'})` },
+              ]}
+            />
+          </FormField>
+        ) : null}
       </div>
       <div aria-live="polite" className="text-base">
         {recovery ? (
           <p className="flex flex-wrap items-center gap-2">
             <span>
               Flow recovery <Quantity value={recovery.pct} unit="%" digits={0} className="font-semibold" />{' '}
-              {recovery.basis === 'new' ? 'of the as-new flow' : recovery.basis === 'first-after' ? 'of the first flow logged' : 'of the flow before (no as-new flow known)'}
+              {recovery.basis === 'new'
+                ? 'of the as-new flow'
+                : recovery.basis === 'spec'
+                  ? 'of the type’s clean-water flow for this length'
+                  : recovery.basis === 'first-after'
+                    ? 'of the first flow logged'
+                    : 'of the flow before (no as-new flow known)'}
               {target.flowBasis ? (
                 <span className="text-ink-600"> ({units.format('flow', target.flowBasis.flowLh)})</span>
               ) : null}
@@ -153,6 +193,11 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
         ) : (
           <p className="text-sm text-ink-600">Enter the flow after to see the recovery.</p>
         )}
+        {recovery?.suspect ? (
+          <p className="mt-1 text-base text-watch-800">
+            Above 105 % of the basis: was the whole housing’s flow entered as this cartridge’s? Choose “The whole housing” or check the reading.
+          </p>
+        ) : null}
       </div>
       <FormField label="When" htmlFor="cycle-at" error={errors.at?.message}>
         <Input id="cycle-at" type="datetime-local" {...form.register('at')} />

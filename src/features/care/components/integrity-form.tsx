@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { INTEGRITY_TESTS, integrityTestLabels, recordIntegrityInputSchema, type IntegrityTestKind } from '@shared/schemas/care';
+import { INTEGRITY_TESTS, integrityTestLabels, recordIntegrityInputSchema, WETTING_FLUIDS, wettingFluidLabels, type IntegrityTestKind, type WettingFluid } from '@shared/schemas/care';
 import type { CareTargetDto, IntegrityResultDto } from '@shared/types/care';
 import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
@@ -13,10 +13,10 @@ import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useRecordIntegrityTest } from '../api/record-integrity-test';
 import { PressureCaution } from './care-cautions';
-import { integrityPreview } from './care-preview';
+import { integrityPreview, testedEquivalents } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
 
-const fields = ['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC', 'wettingFluid', 'notes', 'at'] as const;
+const fields = ['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC', 'wettingFluid', 'ethanolPctVol', 'notes', 'at'] as const;
 
 /** Records a bubble-point, diffusion or pressure-hold test; previews pass or fail as the reading is typed. */
 export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: IntegrityResultDto) => void }) {
@@ -38,6 +38,7 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
           testMin: decimalText,
           tempC: decimalText,
           wettingFluid: z.string(),
+          ethanolPctVol: decimalText,
           notes: z.string(),
           at: z.string(),
         })
@@ -48,7 +49,8 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
           decayMbar: v.test === 'pressure-hold' ? decayToMbar(v.decayMbar) : null,
           testMin: v.test === 'pressure-hold' ? v.testMin : null,
           tempC: toMetricOrKeep(units.fromInput, 'temperature', v.tempC),
-          wettingFluid: v.wettingFluid || undefined,
+          wettingFluid: v.test === 'bubble-point' ? v.wettingFluid || undefined : undefined,
+          ethanolPctVol: v.test === 'bubble-point' && v.wettingFluid !== 'water' ? v.ethanolPctVol : null,
           notes: v.notes.trim() || undefined,
           at: isoOrNow(v.at),
         }))
@@ -58,10 +60,11 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
 
   const form = useForm({
     resolver: zodResolver(schema),
-    defaultValues: { test: 'bubble-point', bubblePointBar: '', diffusionMlMin: '', decayMbar: '', testMin: '10', tempC: '', wettingFluid: 'water', notes: '', at: localDateTime(new Date()) },
+    defaultValues: { test: 'bubble-point', bubblePointBar: '', diffusionMlMin: '', decayMbar: '', testMin: '10', tempC: '', wettingFluid: 'water', ethanolPctVol: '', notes: '', at: localDateTime(new Date()) },
   });
   const { errors } = form.formState;
-  const [test, bp, diff, decay, testMin, temp] = form.watch(['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC']);
+  const [test, bp, diff, decay, testMin, temp, fluidText, strength] = form.watch(['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC', 'wettingFluid', 'ethanolPctVol']);
+  const fluid: WettingFluid = (WETTING_FLUIDS as readonly string[]).includes(fluidText) ? (fluidText as WettingFluid) : 'water';
   const testKind = (INTEGRITY_TESTS as readonly string[]).includes(test) ? (test as IntegrityTestKind) : 'bubble-point';
 
   const typed = (s: string) => finite(parseTyped(s));
@@ -77,6 +80,8 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
       decayMbar: decayTyped === undefined ? undefined : (decayToMbar(decayTyped) as number),
       testMin: typed(testMin),
       tempC: tempTyped === undefined ? undefined : units.fromInput('temperature', tempTyped),
+      wettingFluid: fluid,
+      ethanolPctVol: typed(strength),
     },
     units.system,
   );
@@ -98,7 +103,9 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
         ? `Minimum for ${target.typeName}: ${units.format('pressure', target.bubblePointMinBar)} (water-wet, from the catalogue).`
         : undefined
       : target.diffusionMaxMlMinPer10in !== null
-        ? `Limit for ${target.typeName}: ${target.diffusionMaxMlMinPer10in} mL/min per 10″, × ${target.elementEquivalents} for this ${target.lengthIn}″ cartridge.`
+        ? target.housingElementEquivalents !== null
+          ? `Limit for ${target.typeName}: ${target.diffusionMaxMlMinPer10in} mL/min per 10″, × ${testedEquivalents(target)} for all the cartridges in ${target.housingName ?? 'the housing'} (the test covers the whole housing).`
+          : `Limit for ${target.typeName}: ${target.diffusionMaxMlMinPer10in} mL/min per 10″, × ${target.elementEquivalents} for this ${target.lengthIn}″ cartridge.`
         : undefined;
 
   return (
@@ -134,18 +141,27 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
         </div>
       ) : null}
       <div className="grid gap-4 sm:grid-cols-2">
-        <FormField label="Water temperature" htmlFor="it-temp" error={errors.tempC?.message} hint="Corrects the bubble-point minimum for water at this temperature.">
+        <FormField label="Liquid temperature" htmlFor="it-temp" error={errors.tempC?.message} hint="Corrects the bubble-point minimum for the wetting liquid at this temperature.">
           <NumberInput id="it-temp" unit={units.symbol('temperature')} {...form.register('tempC')} />
         </FormField>
-        <FormField label="Wetted with" htmlFor="it-fluid" error={errors.wettingFluid?.message}>
-          <Select id="it-fluid" {...form.register('wettingFluid')} options={[{ value: 'water', label: 'Water' }, { value: 'wine', label: 'Wine' }]} />
-        </FormField>
+        {testKind === 'bubble-point' ? (
+          <FormField label="Wetted with" htmlFor="it-fluid" error={errors.wettingFluid?.message} hint="The expected bubble point scales with the liquid’s surface tension.">
+            <Select id="it-fluid" {...form.register('wettingFluid')} options={WETTING_FLUIDS.map((k) => ({ value: k, label: wettingFluidLabels[k] }))} />
+          </FormField>
+        ) : null}
+        {testKind === 'bubble-point' && fluid !== 'water' ? (
+          <FormField label="Alcoholic strength" htmlFor="it-strength" error={errors.ethanolPctVol?.message} required>
+            <NumberInput id="it-strength" unit="% vol" {...form.register('ethanolPctVol')} />
+          </FormField>
+        ) : null}
       </div>
       <div aria-live="polite" className="rounded border border-ink-200 bg-ink-50 px-3 py-2">
         <p className="text-sm font-semibold text-ink-700">Before saving</p>
         {preview && 'verdict' in preview ? (
           <p className="mt-1 flex flex-wrap items-center gap-2 text-base">
-            <StatusBadge tone={preview.verdict.pass ? 'ok' : 'stop'}>{preview.verdict.pass ? 'Would pass' : 'Would fail'}</StatusBadge>
+            <StatusBadge tone={preview.verdict.pass ? 'ok' : preview.verdict.retest ? 'watch' : 'stop'}>
+              {preview.verdict.pass ? 'Would pass' : preview.verdict.retest ? 'Re-test with water' : 'Would fail'}
+            </StatusBadge>
             <span>{preview.verdict.reason}</span>
           </p>
         ) : preview && 'missing' in preview ? (

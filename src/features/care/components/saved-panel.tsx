@@ -82,10 +82,14 @@ export function IntegritySaved({ result, onAgain }: { result: IntegrityResultDto
         {integrityTestLabels[result.test]} test saved for <span className="num font-semibold">{result.event.serial}</span>
       </p>
       <h2 id="test-saved-title" className={cn('mt-1 flex items-center gap-2 text-2xl font-semibold', result.pass ? 'text-ok-800' : 'text-stop-700')}>
-        <Icon aria-hidden="true" className="size-9" /> {result.pass ? 'Passed' : 'Failed'}
+        <Icon aria-hidden="true" className="size-9" /> {result.pass ? 'Passed' : result.retest ? 'Not judged yet: re-test with water' : 'Failed'}
       </h2>
       <p className="mt-2 text-lg text-ink-900">{reasonInUnits(result, units.system)}</p>
-      {!result.pass ? (
+      {!result.pass && result.retest ? (
+        <p className="mt-1 text-base text-ink-800">
+          A product-wet reading below its limit is not a final fail. Do not filter wine through it until it passes: re-flush with water and test again.
+        </p>
+      ) : !result.pass ? (
         <p className="mt-1 text-base text-ink-800">
           Do not filter wine through it. Re-wet it and test again; if it fails again, everything filtered since its last good test is suspect.
         </p>

@@ -125,7 +125,9 @@ export function LifeGauge({ life, lifeError }: { life: CartridgeLife | null; lif
               {trend
                 ? trend.model === 'linear'
                   ? ` Trend: ${formatNumber(trend.slopePctPerCycle ?? 0, 2)} % per cycle.`
-                  : ` Trend: exponential, rate ${formatNumber(trend.ratePerCycle ?? 0, 4)} per cycle.`
+                  : trend.model === 'quadratic'
+                    ? ` Trend: ${(trend.curvaturePctPerCycle2 ?? 0) < 0 ? 'accelerating' : 'slowing'} decline.`
+                    : ` Trend: exponential, rate ${formatNumber(trend.ratePerCycle ?? 0, 4)} per cycle.`
                 : ''}
               {life.recovery.cyclesLeft !== null ? ` About ${formatNumber(Math.floor(life.recovery.cyclesLeft), 0)} cycles before the floor.` : ''}
             </p>

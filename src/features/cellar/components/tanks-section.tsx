@@ -4,6 +4,7 @@ import { useMemo, useState } from 'react';
 import type { TankDto } from '@shared/types/cellar';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { GasCaution } from '@/components/ui/caution';
 import { DataTable } from '@/components/ui/data-table';
 import { Dialog } from '@/components/ui/dialog';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -84,6 +85,9 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
           empty="No tanks yet. Add the tanks your lots are in, with their capacity."
         />
       )}
+      <div className="p-4">
+        <GasCaution title="Tank work: CO₂ and nitrogen – no air to breathe" />
+      </div>
       <TankFormDialog open={editing !== null} tank={editing} onClose={() => setEditing(null)} />
       <Dialog
         open={deleting !== null}

@@ -1,6 +1,7 @@
 import type { DayBlockKind } from '@shared/engine';
 import type { PlanDto } from '@shared/types/plans';
 import { Card } from '@/components/ui/card';
+import { GasCaution } from '@/components/ui/caution';
 import { cn } from '@/utils/cn';
 
 const kindWords: Record<DayBlockKind, string> = {
@@ -49,6 +50,9 @@ export function DayTimeline({ plan }: { plan: PlanDto }) {
           ))}
         </ol>
       )}
+      {t && t.blocks.some((b) => b.kind === 'push-out' || b.kind === 'changeover') ? (
+        <GasCaution title="At push-out and changeover: CO₂ and nitrogen – no air to breathe" className="mt-4" />
+      ) : null}
     </Card>
   );
 }

@@ -19,13 +19,12 @@ import { useUnits } from '@/lib/units';
 import { useCloseRun } from '../api/close-run';
 import { useRun } from '../api/get-run';
 import { ReadingCorrections } from './reading-corrections';
+import { forecastView } from './forecast-text';
 import { ReadingForm } from './reading-form';
 import { RunCartridges } from './run-cartridges';
 
 // The chart library is large: it loads after the page (and its reading form) has painted.
 const StageChart = lazy(() => import('./stage-chart').then((m) => ({ default: m.StageChart })));
-
-const hm = (h: number, m: number) => `${String(h)}:${String(m).padStart(2, '0')}`;
 
 function AlarmBadge({ stage }: { stage: RunStageDto }) {
   if (!stage.alarm) return null;
@@ -51,26 +50,33 @@ function AlarmBadge({ stage }: { stage: RunStageDto }) {
 function StageCard({ stage }: { stage: RunStageDto }) {
   const units = useUnits();
   const f = stage.forecast;
+  const view = forecastView(f, stage.note, (litres) => units.format('volume', litres));
   return (
     <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
       <div className="flex flex-col gap-4">
-        {f ? (
+        {stage.flatWarning ? (
+          <div role="alert" className="flex items-start gap-2 rounded border border-watch-200 bg-watch-50 px-4 py-3 text-base text-ink-900" data-testid={`flat-${String(stage.index)}`}>
+            <AlertTriangle aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-watch-700" />
+            <span>{stage.flatWarning} Check the housing’s bypass and drain valves and the gauge before trusting any forecast.</span>
+          </div>
+        ) : null}
+        {f && view.kind !== 'none' ? (
           <div className="flex flex-col gap-2" data-testid={`forecast-${String(stage.index)}`}>
             <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Left before terminal ΔP</p>
-            <p className="num text-2xl font-semibold text-ink-900">
-              ≈ {units.format('volume', f.volumeLeftL)} / {hm(f.timeLeft.hours, f.timeLeft.minutes)} left
-            </p>
+            <p className="num text-2xl font-semibold text-ink-900">{view.headline}</p>
             <p className="num text-base text-ink-700">
-              band {units.format('volume', f.low)} – {units.format('volume', f.high)}
-              {stage.flowLh ? <> · at {units.format('flow', stage.flowLh)}</> : null} · {f.law} blocking
+              {view.kind === 'figure' ? view.band : view.detail}
+              {stage.flowLh ? <> · at {units.format('flow', stage.flowLh)}</> : null}
             </p>
-            <AlarmBadge stage={stage} />
-            {stage.alarm?.alarm ? (
+            {view.kind === 'figure' ? <AlarmBadge stage={stage} /> : null}
+            {view.kind === 'figure' && stage.alarm?.alarm ? (
               <p className="text-base font-semibold text-stop-700">About {units.format('volume', stage.alarm.shortfallL)} short: have the next cartridges ready.</p>
             ) : null}
           </div>
         ) : (
-          <p className="text-base text-ink-700">{stage.note ?? 'No forecast yet.'}</p>
+          <p className="text-base text-ink-700" data-testid={`forecast-note-${String(stage.index)}`}>
+            {view.headline}
+          </p>
         )}
         {stage.readings.length > 0 ? (
           <Suspense fallback={<div className="h-56 w-full" aria-hidden="true" />}>

@@ -1,0 +1,88 @@
+// @vitest-environment node
+import { randomUUID } from 'node:crypto';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let owner: Client;
+let world: PlanWorld;
+
+beforeAll(async () => {
+  app = await startTestApp();
+  owner = (await signUp(app.baseUrl, { wineryName: 'Forecast Test Winery' })).client;
+  world = await createPlanWorld(owner);
+});
+afterAll(async () => {
+  await app?.close();
+});
+
+async function startedRun() {
+  const plan = await createPlan(owner, world.lineId);
+  const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
+  const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
+  expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
+  expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+  const res = await owner.post('/api/runs', { planLotId });
+  expect(res.status).toBe(201);
+  return res.body as { id: string };
+}
+
+function allFinite(x: unknown): boolean {
+  if (typeof x === 'number') return Number.isFinite(x);
+  if (x === null || typeof x !== 'object') return true;
+  return Object.values(x).every(allFinite);
+}
+
+describe('a stage whose ΔP does not rise (common practice, no source)', () => {
+  it('warns of a bypass or gauge fault and gives no litres', async () => {
+    const run = await startedRun();
+    for (const v of [400, 800, 1200, 1600, 2000]) {
+      const r = await owner.post(`/api/runs/${run.id}/readings`, { clientKey: randomUUID(), stageIndex: 0, volumeL: v, upstreamBar: 2.05, downstreamBar: 2.0, flowLh: 2400 });
+      expect(r.status).toBe(201);
+    }
+    const res = await owner.get(`/api/runs/${run.id}`);
+    expect(res.status).toBe(200);
+    const stage = res.body.stages[0];
+    expect(stage.flatWarning).toBe('ΔP not rising: possible bypass or gauge fault.');
+    expect(stage.forecast).toBeNull();
+    expect(stage.alarm).toBeNull();
+    expect(stage.note).toMatch(/bypass/);
+    expect(res.body.stages[1].flatWarning).toBeNull();
+  });
+
+  it('a rising stage with flows gets a finite forecast and no warning', async () => {
+    const run = await startedRun();
+    // cake law ΔP = 0.2(1 + 2e-4·V) at 2 400 L/h (generated here)
+    for (const v of [0, 500, 1000, 1500, 2000, 2500]) {
+      const dp = 0.2 * (1 + 2e-4 * v);
+      const r = await owner.post(`/api/runs/${run.id}/readings`, { clientKey: randomUUID(), stageIndex: 0, volumeL: v, upstreamBar: 2 + dp, downstreamBar: 2, flowLh: 2400, tempC: 15 });
+      expect(r.status).toBe(201);
+    }
+    const stage = (await owner.get(`/api/runs/${run.id}`)).body.stages[0];
+    expect(stage.flatWarning).toBeNull();
+    expect(stage.forecast).not.toBeNull();
+    // terminal 1.5 bar: V = (1.5/0.2 − 1)/2e-4 = 32 500 L → beyond 3 × 2 500 L seen (hand calculation)
+    expect(stage.forecast.volumeAtTerminalL).toBeCloseTo(32500, -1);
+    expect(stage.forecast.beyondReadings).toBe(true);
+    expect(allFinite(stage)).toBe(true);
+  });
+});
+
+describe('POST /api/calc/fit-run on flat readings', () => {
+  it('names no best law and no forecast, and says why', async () => {
+    const points = [0, 800, 1600, 2400].map((v) => ({ volumeL: v, dpBar: 0.05 }));
+    const res = await owner.post('/api/calc/fit-run', { points, terminalDpBar: 1, flowLh: 2400, volumeToBottleL: 5000, nowMs: 0 });
+    expect(res.status).toBe(200);
+    expect(res.body.best).toBeNull();
+    expect(res.body.forecast).toBeNull();
+    expect(res.body.alarm).toBeNull();
+    expect(res.body.note).toMatch(/bypass/);
+  });
+
+  it('refuses a reading temperature outside liquid water', async () => {
+    const points = [0, 800, 1600].map((v) => ({ volumeL: v, dpBar: 0.05, tempC: 120 }));
+    const res = await owner.post('/api/calc/fit-run', { points });
+    expect(res.status).toBe(400);
+  });
+});
