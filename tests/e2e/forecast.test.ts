@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
 import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 
@@ -22,6 +22,7 @@ describe('a flat stage on the run page (common practice, no source)', () => {
   it('shows the bypass warning and no litres-left figure, on a phone and a desk', async () => {
     const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Flat Stage Cellars' });
     const world = await createPlanWorld(owner);
+    await fillTrainHousings(owner, world);
     const plan = await createPlan(owner, world.lineId, { name: 'Flat day' });
     const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
     const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;

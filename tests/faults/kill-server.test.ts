@@ -9,7 +9,7 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runReadingsTable } from '../../server/db/schema';
 import { databaseUrl } from '../../scripts/lib/postgres';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { Client, signUp, startTestApp, type TestApp } from '../support/test-app';
 import { exited, freePort, spawnTs, waitUntil } from './support';
 
@@ -22,6 +22,7 @@ beforeAll(async () => {
   app = await startTestApp();
   owner = (await signUp(app.baseUrl, { wineryName: 'Fault Test Cellars' })).client;
   const world = await createPlanWorld(owner);
+  await fillTrainHousings(owner, world);
   const plan = await createPlan(owner, world.lineId);
   const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;

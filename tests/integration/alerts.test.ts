@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { alertsTable, cartridgeTypesTable } from '../../server/db/schema';
 import { ALERTS_DIGEST_QUEUE } from '../../server/lib/queue';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -215,6 +215,7 @@ describe('an approved plan', () => {
 describe('a running run', () => {
   it('raises a terminal-ΔP alarm and a flat-ΔP alarm at once, does not repeat a worsening within 30 minutes, and clears on close', async () => {
     const w = await createPlanWorld(owner);
+    await fillTrainHousings(owner, w);
     const plan = await createPlan(owner, w.lineId, { plannedDate: '2031-05-05' });
     const withLot = await addPlanLot(owner, plan.id, w.lotId, 6000);
     const planLotId = withLot.lots[0].id;

@@ -1,7 +1,7 @@
 // @vitest-environment node
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -12,6 +12,7 @@ beforeAll(async () => {
   app = await startTestApp();
   owner = (await signUp(app.baseUrl, { wineryName: 'Forecast Test Winery' })).client;
   world = await createPlanWorld(owner);
+  await fillTrainHousings(owner, world);
 });
 afterAll(async () => {
   await app?.close();

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import * as schema from '../../server/db/schema';
 import { createTank } from '../factories/cellar';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
 
 type RouteInfo = { method: string; path: string };
@@ -87,6 +87,7 @@ beforeAll(async () => {
   await addMember(app, ownerB, 'technician');
   await createTank(ownerB);
   const world = await createPlanWorld(ownerB);
+  await fillTrainHousings(ownerB, world);
   const plan = await createPlan(ownerB, world.lineId);
   const planLotId = (await addPlanLot(ownerB, plan.id, world.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(ownerB, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;

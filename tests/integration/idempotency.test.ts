@@ -60,7 +60,7 @@ describe('Idempotency-Key', () => {
     // The first person joins the second winery, then reuses a key there.
     const inv = await second.client.post('/api/team/invitations', { email: me.user.email, role: 'cellar-master' });
     expect(inv.status).toBe(201);
-    const mail = await app.mail.waitFor(me.user.email);
+    const mail = await app.mail.waitFor(me.user.email, { subject: /invited you/ });
     const token = new URL(mail.text.match(/https?:\/\/\S*\/invitation\S*/)![0]).searchParams.get('token')!;
     expect((await client.post('/api/invitations/accept', { token })).status).toBe(200);
     const k = key();
