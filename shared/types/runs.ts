@@ -29,7 +29,22 @@ export type RunReadingDto = {
   dpBar: number;
   flowLh: number | null;
   tempC: number | null;
+  /** Who logged it (their name), when known. */
+  byName: string | null;
 };
+
+/**
+ * The answer to one logged reading: the stored reading and, when asked for with
+ * `?with=stage`, its stage's new figures and the run's totals, so the phone updates what it
+ * shows without loading the whole run again.
+ */
+export type LoggedReadingDto = RunReadingDto & {
+  stage?: RunStageDto;
+  run?: Pick<RunDetailDto, 'currentVolumeL' | 'readingCount' | 'volumeToBottleL'>;
+};
+
+/** The answer to a batch of readings: how many were new, how many were already stored. */
+export type ReadingsBatchResultDto = { stored: number; duplicates: number };
 
 export type RunStageDto = {
   index: number;

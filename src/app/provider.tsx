@@ -1,7 +1,9 @@
-import { QueryClientProvider } from '@tanstack/react-query';
-import { Component, useState, type ErrorInfo, type ReactNode } from 'react';
+import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
+import { Component, useEffect, useState, type ErrorInfo, type ReactNode } from 'react';
 import { ErrorState } from '@/components/ui/states';
 import { ToastProvider } from '@/components/ui/toast';
+import { startOutbox } from '@/lib/offline/outbox-runtime';
+import { CACHE_MAX_AGE_MS, createCachePersister } from '@/lib/offline/query-persister';
 import { createQueryClient } from '@/lib/query-client';
 
 class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | null }> {
@@ -30,11 +32,14 @@ class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | 
 
 export function AppProvider({ children }: { children: ReactNode }) {
   const [queryClient] = useState(createQueryClient);
+  // The cache is kept in IndexedDB, so pages opened before show their last data offline.
+  const [persister] = useState(createCachePersister);
+  useEffect(() => startOutbox(queryClient), [queryClient]);
   return (
     <ErrorBoundary>
-      <QueryClientProvider client={queryClient}>
+      <PersistQueryClientProvider client={queryClient} persistOptions={{ persister, maxAge: CACHE_MAX_AGE_MS, buster: 'porewise-1' }}>
         <ToastProvider>{children}</ToastProvider>
-      </QueryClientProvider>
+      </PersistQueryClientProvider>
     </ErrorBoundary>
   );
 }

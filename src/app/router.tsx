@@ -1,11 +1,16 @@
-import { createBrowserRouter, Navigate, RouterProvider } from 'react-router-dom';
+import { createBrowserRouter, Navigate, RouterProvider, type RouteObject } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { AppLayout } from './routes/app/app-layout';
+import { RouteError } from './routes/route-error';
 
 const lazyPage = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
 
+/** Every route gets the error boundary (a page's own, so the shell stays around it). */
+const withErrors = (routes: RouteObject[]): RouteObject[] =>
+  routes.map((r) => ({ ...r, errorElement: r.errorElement ?? <RouteError />, ...(r.children ? { children: withErrors(r.children) } : {}) }) as RouteObject);
+
 export function createRouter() {
-  return createBrowserRouter([
+  return createBrowserRouter(withErrors([
     { path: paths.signIn, lazy: lazyPage(() => import('./routes/auth/sign-in')) },
     { path: paths.signUp, lazy: lazyPage(() => import('./routes/auth/sign-up')) },
     { path: paths.forgotPassword, lazy: lazyPage(() => import('./routes/auth/forgot-password')) },
@@ -34,7 +39,7 @@ export function createRouter() {
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },
-  ]);
+  ]));
 }
 
 export function AppRouter() {

@@ -6,6 +6,8 @@ export function createQueryClient() {
     defaultOptions: {
       queries: {
         staleTime: 30_000,
+        // Kept long enough to be saved to IndexedDB and shown offline later.
+        gcTime: 7 * 24 * 60 * 60 * 1000,
         refetchOnWindowFocus: false,
         retry: (count, error) => !(error instanceof ApiError && error.status >= 400 && error.status < 500) && count < 2,
       },

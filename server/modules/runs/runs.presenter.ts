@@ -13,6 +13,7 @@ export function presentReading(r: RunReadingRow): RunReadingDto {
     dpBar: r.upstreamBar - r.downstreamBar,
     flowLh: r.flowLh,
     tempC: r.tempC,
+    byName: r.byName ?? null,
   };
 }
 

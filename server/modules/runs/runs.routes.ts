@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { closeRunInputSchema, logReadingInputSchema, startRunInputSchema } from '../../../shared/schemas/runs';
+import { closeRunInputSchema, logReadingInputSchema, logReadingsBatchInputSchema, startRunInputSchema } from '../../../shared/schemas/runs';
 import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
@@ -32,8 +32,14 @@ export function runsRoutes({ db }: ModuleDeps) {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Run')));
   });
   // Idempotent by the reading's clientKey: a resent reading answers the stored one.
+  // `?with=stage` adds the stage's new figures, so the phone need not reload the run.
   router.post('/runs/:id/readings', ...log, validateBody(logReadingInputSchema), async (req, res) => {
-    res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+    const withStage = req.query.with === 'stage';
+    res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body, { withStage }));
+  });
+  // Up to 1,000 readings, idempotent per clientKey, all checked before any is stored.
+  router.post('/runs/:id/readings/batch', ...log, validateBody(logReadingsBatchInputSchema), async (req, res) => {
+    res.json(await service.logReadingsBatch(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
   });
   router.post('/runs/:id/close', ...log, validateBody(closeRunInputSchema), async (req, res) => {
     res.json(await service.close(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
