@@ -231,15 +231,19 @@ export function createRunsRepository(db: DbOrTx) {
         for share of r`);
       const run = runRes.rows[0] as { status: string; stage_count: number | string } | undefined;
       if (!run) return null;
-      const [keysRes, lastRes] = await Promise.all([
-        db.execute(sql`select client_key from run_readings where run_id = ${runId}::uuid and client_key = any(${clientKeys}::text[])`),
-        db.execute(sql`select stage_index, max(volume_l) as v from run_readings where run_id = ${runId}::uuid group by stage_index`),
-      ]);
+      // One statement, one snapshot: the stored keys and the litres agree with each other.
+      const seenRes = await db.execute(sql`
+        select
+          (select coalesce(json_agg(x.client_key), '[]'::json) from run_readings x
+            where x.run_id = ${runId}::uuid and x.client_key in (select jsonb_array_elements_text(${JSON.stringify(clientKeys)}::jsonb))) as keys,
+          (select coalesce(json_object_agg(s.stage_index, s.v), '{}'::json) from
+            (select stage_index, max(volume_l) as v from run_readings where run_id = ${runId}::uuid group by stage_index) s) as last`);
+      const seen = seenRes.rows[0] as { keys: string[]; last: Record<string, number> };
       return {
         status: run.status,
         stageCount: Number(run.stage_count),
-        storedKeys: new Set(keysRes.rows.map((k) => String((k as { client_key: string }).client_key))),
-        lastVolume: new Map(lastRes.rows.map((l) => [Number((l as { stage_index: number }).stage_index), Number((l as { v: number }).v)])),
+        storedKeys: new Set(seen.keys.map(String)),
+        lastVolume: new Map(Object.entries(seen.last).map(([k, v]) => [Number(k), Number(v)])),
       };
     },
 
