@@ -5,7 +5,7 @@ import { clientsClaim } from 'workbox-core';
 import { cleanupOutdatedCaches, createHandlerBoundToURL, precacheAndRoute } from 'workbox-precaching';
 import { NavigationRoute, registerRoute } from 'workbox-routing';
 import { idbOutboxStorage } from './lib/offline/idb-storage';
-import { flush, SendError, type Send } from './lib/offline/outbox';
+import { belongsTo, flush, SendError, type Send } from './lib/offline/outbox';
 
 type ExtendableEvent = Event & { waitUntil(p: Promise<unknown>): void };
 type SyncEvent = ExtendableEvent & { tag: string };
@@ -44,10 +44,10 @@ const send: Send = async (path, body, key) => {
 
 async function syncOutbox() {
   const me = await fetch('/api/me', { credentials: 'same-origin' })
-    .then((r) => (r.ok ? (r.json() as Promise<{ activeWineryId: string | null }>) : null))
+    .then((r) => (r.ok ? (r.json() as Promise<{ user: { id: string }; activeWineryId: string | null }>) : null))
     .catch(() => null);
   if (!me) throw new Error('Porewise cannot be reached or nobody is signed in; the browser will try again.');
-  const work = () => flush(idbOutboxStorage(), send, { only: (e) => e.wineryId === null || e.wineryId === me.activeWineryId });
+  const work = () => flush(idbOutboxStorage(), send, { only: (e) => belongsTo(e, { userId: me.user.id, wineryId: me.activeWineryId }) });
   const locks = (navigator as Navigator & { locks?: LockManager }).locks;
   const outcomes = locks ? await locks.request('porewise-outbox', work) : await work();
   for (const client of await sw.clients.matchAll({ type: 'window' })) client.postMessage('changed');

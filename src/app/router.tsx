@@ -36,6 +36,7 @@ export function createRouter() {
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
         { path: paths.team, lazy: lazyPage(() => import('./routes/app/team')) },
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
+        { path: paths.waiting, lazy: lazyPage(() => import('./routes/app/waiting')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },

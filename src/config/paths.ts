@@ -21,6 +21,8 @@ export const paths = {
   team: '/team',
   settings: '/settings',
   outbox: '/outbox',
+  /** Entries kept on this device that wait to be sent or were refused. */
+  waiting: '/waiting',
 } as const;
 
 export function withNext(path: string, next: string | null | undefined) {

@@ -4,12 +4,12 @@
 // when the connection returns, every little while while entries wait, and through Background
 // Sync in the service worker where the browser has it.
 import type { QueryClient } from '@tanstack/react-query';
-import { useSyncExternalStore } from 'react';
+import { useMemo, useSyncExternalStore } from 'react';
 import type { MeDto } from '@shared/types/api';
 import { api, ApiError } from '../api-client';
-import { sessionKeys } from '../session';
+import { sessionKeys, useMe } from '../session';
 import { idbOutboxStorage } from './idb-storage';
-import { flush, newKey, SendError, type Outcome, type OutboxEntry, type OutboxKind, type OutboxStorage, type Send } from './outbox';
+import { belongsTo, flush, newKey, SendError, type Outcome, type OutboxEntry, type OutboxKind, type OutboxStorage, type Send } from './outbox';
 
 export { newKey };
 export type { OutboxEntry, Outcome };
@@ -53,8 +53,9 @@ async function reload() {
   for (const l of listeners) l();
 }
 
-function activeWinery(): string | null {
-  return queryClient?.getQueryData<MeDto | null>(sessionKeys.me())?.activeWineryId ?? null;
+function who() {
+  const me = queryClient?.getQueryData<MeDto | null>(sessionKeys.me());
+  return { userId: me?.user.id ?? null, wineryId: me?.activeWineryId ?? null };
 }
 
 /** A feature's way to update its cache from the server's answer to one of its entries. */
@@ -67,8 +68,8 @@ export function flushOutbox(): Promise<Outcome[]> {
   running ??= (async () => {
     try {
       const work = async () => {
-        const wineryId = activeWinery();
-        return flush(store(), sendWithApi, { only: (e) => e.wineryId === null || wineryId === null || e.wineryId === wineryId });
+        const current = who();
+        return flush(store(), sendWithApi, { only: (e) => belongsTo(e, current) });
       };
       const locks = typeof navigator !== 'undefined' ? (navigator as Navigator & { locks?: LockManager }).locks : undefined;
       const outcomes = locks ? ((await locks.request('porewise-outbox', work)) as Outcome[]) : await work();
@@ -106,7 +107,7 @@ async function add(e: NewEntry): Promise<OutboxEntry> {
     ...(e.runId ? { runId: e.runId } : {}),
     label: e.label,
     createdAt: new Date().toISOString(),
-    wineryId: activeWinery(),
+    ...who(),
     status: 'waiting',
     attempts: 0,
     invalidate: e.invalidate,
@@ -197,6 +198,14 @@ function subscribe(l: () => void) {
 }
 
 /** Every kept entry (waiting and refused), oldest first; re-renders when it changes. */
-export function useOutbox(): OutboxEntry[] {
+export function useAllOutboxEntries(): OutboxEntry[] {
   return useSyncExternalStore(subscribe, outboxEntries, outboxEntries);
+}
+
+/** The signed-in person's entries in the active winery, oldest first. */
+export function useOutbox(): OutboxEntry[] {
+  const all = useAllOutboxEntries();
+  const me = useMe().data;
+  const current = { userId: me?.user.id ?? null, wineryId: me?.activeWineryId ?? null };
+  return useMemo(() => all.filter((e) => belongsTo(e, current)), [all, current.userId, current.wineryId]);
 }

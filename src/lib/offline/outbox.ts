@@ -26,8 +26,9 @@ export type OutboxEntry = {
   /** What a person reads in the list of waiting entries. */
   label: string;
   createdAt: string;
-  /** The winery the entry was made in (it is only sent while that winery is active). */
+  /** The winery the entry was made in and who made it: it is only sent while they are signed in there. */
   wineryId: string | null;
+  userId: string | null;
   status: 'waiting' | 'refused';
   refusal?: OutboxRefusal;
   attempts: number;
@@ -138,6 +139,7 @@ export async function flush(storage: OutboxStorage, send: Send, opts: { only?: (
         ok = true;
       } catch (err) {
         if (!isRefusal(err)) {
+          for (const e of group) await storage.put({ ...e, attempts: e.attempts + 1 });
           ok = false;
         } else {
           ok = true;
@@ -156,6 +158,11 @@ export async function flush(storage: OutboxStorage, send: Send, opts: { only?: (
     }
   }
   return outcomes;
+}
+
+/** Whether an entry may be sent for this signed-in person and active winery. */
+export function belongsTo(e: OutboxEntry, who: { userId: string | null; wineryId: string | null }) {
+  return who.userId !== null && e.userId === who.userId && e.wineryId === who.wineryId;
 }
 
 /** A Map-backed storage (tests, and browsers without IndexedDB). */

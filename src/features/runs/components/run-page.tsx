@@ -1,25 +1,25 @@
-import { AlertTriangle, CircleCheck, Eye, Lock } from 'lucide-react';
-import { useState } from 'react';
+import { AlertTriangle, CircleCheck, Eye } from 'lucide-react';
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import type { RunDetailDto, RunStageDto } from '@shared/types/runs';
-import { Button } from '@/components/ui/button';
+import type { LogReadingInput } from '@shared/schemas/runs';
+import type { RunReadingDto, RunStageDto } from '@shared/types/runs';
+import { FetchedAt } from '@/components/offline/fetched-at';
 import { CautionPanel } from '@/components/ui/caution';
 import { Card } from '@/components/ui/card';
-import { Dialog } from '@/components/ui/dialog';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
+import { useOutbox, type OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
-import { useCloseRun } from '../api/close-run';
+import { formatDuration } from '@/utils/duration';
 import { useRun } from '../api/get-run';
+import { CloseRun } from './close-run';
 import { ReadingForm } from './reading-form';
+import { ReadingsTable } from './readings-table';
 import { StageChart } from './stage-chart';
-
-const hm = (h: number, m: number) => `${String(h)}:${String(m).padStart(2, '0')}`;
 
 function AlarmBadge({ stage }: { stage: RunStageDto }) {
   if (!stage.alarm) return null;
@@ -42,9 +42,13 @@ function AlarmBadge({ stage }: { stage: RunStageDto }) {
   );
 }
 
-function StageCard({ stage }: { stage: RunStageDto }) {
+function StageCard({ stage, kept, rowActions }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode }) {
   const units = useUnits();
   const f = stage.forecast;
+  const waitingPoints = kept.map((e) => {
+    const x = e.body as LogReadingInput;
+    return { volumeL: x.volumeL, dpBar: x.upstreamBar - x.downstreamBar };
+  });
   return (
     <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
       <div className="flex flex-col gap-4">
@@ -52,7 +56,7 @@ function StageCard({ stage }: { stage: RunStageDto }) {
           <div className="flex flex-col gap-2" data-testid={`forecast-${String(stage.index)}`}>
             <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Left before terminal ΔP</p>
             <p className="num text-2xl font-semibold text-ink-900">
-              ≈ {units.format('volume', f.volumeLeftL)} / {hm(f.timeLeft.hours, f.timeLeft.minutes)} left
+              ≈ {units.format('volume', f.volumeLeftL)} / {formatDuration(f.timeLeft)} left
             </p>
             <p className="num text-base text-ink-700">
               band {units.format('volume', f.low)} – {units.format('volume', f.high)}
@@ -66,68 +70,35 @@ function StageCard({ stage }: { stage: RunStageDto }) {
         ) : (
           <p className="text-base text-ink-700">{stage.note ?? 'No forecast yet.'}</p>
         )}
-        {stage.readings.length > 0 ? <StageChart stage={stage} /> : null}
+        {stage.readings.length + kept.length > 0 ? <StageChart stage={stage} waiting={waitingPoints} /> : null}
         <p className="text-sm text-ink-600">
           {stage.readings.length} reading{stage.readings.length === 1 ? '' : 's'}
           {stage.readings.length > 0 ? <> · last ΔP {units.format('dp', stage.readings[stage.readings.length - 1].dpBar)}</> : null}
+          {kept.length > 0 ? <> · {kept.length} waiting to send</> : null}
         </p>
+        <ReadingsTable stage={stage} kept={kept} rowActions={rowActions} />
       </div>
     </Card>
   );
 }
 
-function CloseRun({ run }: { run: RunDetailDto }) {
-  const [open, setOpen] = useState(false);
-  const close = useCloseRun();
-  const toast = useToast();
-  const units = useUnits();
-  return (
-    <>
-      <Button variant="secondary" size="lg" onClick={() => setOpen(true)}>
-        <Lock aria-hidden="true" className="size-5" /> Close run
-      </Button>
-      <Dialog
-        open={open}
-        onClose={() => setOpen(false)}
-        title="Close this run?"
-        description={`${units.format('volume', run.currentVolumeL)} will be added to each cartridge installed in this train’s housings. No more readings can be logged.`}
-        footer={
-          <>
-            <Button variant="ghost" onClick={() => setOpen(false)}>
-              Keep running
-            </Button>
-            <Button
-              disabled={close.isPending}
-              onClick={() =>
-                close.mutate(
-                  { runId: run.id, input: {} },
-                  {
-                    onSuccess: () => {
-                      setOpen(false);
-                      toast.success('Run closed');
-                    },
-                    onError: (e) => toast.error(errorMessage(e)),
-                  },
-                )
-              }
-            >
-              Close run
-            </Button>
-          </>
-        }
-      />
-    </>
-  );
+export interface RunPageProps {
+  runId: string;
+  /** Slot for a stored reading's actions in the readings tables (correct / void). */
+  readingActions?: (reading: RunReadingDto, stage: RunStageDto) => ReactNode;
 }
 
-export function RunPage({ runId }: { runId: string }) {
+export function RunPage({ runId, readingActions }: RunPageProps) {
   const units = useUnits();
   const run = useRun(runId);
   const mayLog = useCan('runs:log');
+  const outbox = useOutbox();
   if (run.isPending) return <LoadingState />;
   if (run.isError) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
   const r = run.data;
   const running = r.status === 'running';
+  const kept = outbox.filter((e) => e.kind === 'reading' && e.runId === r.id);
+  const keptOf = (index: number) => kept.filter((e) => (e.body as LogReadingInput).stageIndex === index);
   return (
     <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
       <PageHeader
@@ -142,8 +113,14 @@ export function RunPage({ runId }: { runId: string }) {
           </>
         }
         description={`${r.planName} · ${r.trainName}${r.lineName ? ` · ${r.lineName}` : ''}`}
-        actions={running && mayLog ? <CloseRun run={r} /> : <StatusBadge tone="neutral">{running ? 'Running' : 'Closed'}</StatusBadge>}
+        actions={<StatusBadge tone="neutral">{running ? 'Running' : 'Closed'}</StatusBadge>}
       />
+      <FetchedAt at={run.dataUpdatedAt} />
+      {running && mayLog ? (
+        <Card>
+          <ReadingForm run={r} />
+        </Card>
+      ) : null}
       <section aria-label="Run so far" className="grid grid-cols-1 gap-3 sm:grid-cols-2">
         <div className="rounded-lg border border-ink-200 p-4">
           <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Filtered</p>
@@ -156,17 +133,17 @@ export function RunPage({ runId }: { runId: string }) {
           <p className="text-base text-ink-700">{running ? 'Running' : 'Closed'}</p>
         </div>
       </section>
-      {running && mayLog ? (
-        <Card>
-          <ReadingForm run={r} />
-        </Card>
-      ) : null}
       <CautionPanel title="Under pressure">
         Never open a housing under pressure and keep within its pressure and temperature ratings. Forecasts are planning estimates from the readings so far.
       </CautionPanel>
       {r.stages.map((s) => (
-        <StageCard key={s.index} stage={s} />
+        <StageCard key={s.index} stage={s} kept={keptOf(s.index)} rowActions={readingActions ? (reading) => readingActions(reading, s) : undefined} />
       ))}
+      {running && mayLog ? (
+        <div className="flex justify-end border-t border-ink-200 pt-4">
+          <CloseRun run={r} waiting={kept.filter((e) => e.status === 'waiting').length} />
+        </div>
+      ) : null}
     </div>
   );
 }
