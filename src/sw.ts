@@ -17,7 +17,8 @@ type Worker = {
 };
 const sw = self as unknown as Worker;
 
-precacheAndRoute(sw.__WB_MANIFEST);
+// Written out in full: the build finds and fills in `self.__WB_MANIFEST` by its text.
+precacheAndRoute((self as unknown as Worker).__WB_MANIFEST);
 cleanupOutdatedCaches();
 registerRoute(new NavigationRoute(createHandlerBoundToURL('/index.html'), { denylist: [/^\/api\//] }));
 void sw.skipWaiting();

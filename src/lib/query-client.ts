@@ -1,7 +1,9 @@
-import { QueryClient } from '@tanstack/react-query';
+import { onlineManager, QueryClient } from '@tanstack/react-query';
 import { ApiError } from './api-client';
 
 export function createQueryClient() {
+  // Start from the browser's own word (a page opened offline knows at once), then follow its events.
+  if (typeof navigator !== 'undefined' && typeof navigator.onLine === 'boolean') onlineManager.setOnline(navigator.onLine);
   return new QueryClient({
     defaultOptions: {
       queries: {

@@ -8,7 +8,7 @@ export type PhoneNavItem = { to: string; label: string; icon: ReactNode };
 export function PhoneNav({ items }: { items: PhoneNavItem[] }) {
   if (items.length === 0) return null;
   return (
-    <nav aria-label="Main sections" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] sm:hidden">
+    <nav aria-label="Cellar shortcuts" className="fixed inset-x-0 bottom-0 z-30 border-t border-ink-200 bg-white pb-[env(safe-area-inset-bottom)] sm:hidden">
       <ul className="grid" style={{ gridTemplateColumns: `repeat(${String(items.length)}, minmax(0, 1fr))` }}>
         {items.map((item) => (
           <li key={item.to}>

@@ -94,7 +94,7 @@ export function RunPage({ runId, readingActions }: RunPageProps) {
   const mayLog = useCan('runs:log');
   const outbox = useOutbox();
   if (run.isPending) return <LoadingState />;
-  if (run.isError) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
+  if (run.isError && !run.data) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
   const r = run.data;
   const running = r.status === 'running';
   const kept = outbox.filter((e) => e.kind === 'reading' && e.runId === r.id);
