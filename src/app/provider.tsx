@@ -5,6 +5,7 @@ import { ToastProvider } from '@/components/ui/toast';
 import { startOutbox } from '@/lib/offline/outbox-runtime';
 import { CACHE_MAX_AGE_MS, createCachePersister } from '@/lib/offline/query-persister';
 import { createQueryClient } from '@/lib/query-client';
+import { sessionKeys } from '@/lib/session';
 
 class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | null }> {
   override state = { error: null as Error | null };
@@ -30,6 +31,15 @@ class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | 
   }
 }
 
+/**
+ * Only successful answers are kept, and "nobody signed in" never is: a page reloaded right
+ * after signing in must not come back signed out from a kept answer.
+ */
+function keepQuery(query: { queryKey: readonly unknown[]; state: { status: string; data: unknown } }) {
+  if (query.state.status !== 'success') return false;
+  return !(query.queryKey[0] === sessionKeys.all[0] && query.queryKey[1] === 'me' && query.state.data === null);
+}
+
 export function AppProvider({ children }: { children: ReactNode }) {
   const [queryClient] = useState(createQueryClient);
   // The cache is kept in IndexedDB, so pages opened before show their last data offline.
@@ -37,7 +47,12 @@ export function AppProvider({ children }: { children: ReactNode }) {
   useEffect(() => startOutbox(queryClient), [queryClient]);
   return (
     <ErrorBoundary>
-      <PersistQueryClientProvider client={queryClient} persistOptions={{ persister, maxAge: CACHE_MAX_AGE_MS, buster: 'porewise-1' }}>
+      <PersistQueryClientProvider
+        client={queryClient}
+        persistOptions={{ persister, maxAge: CACHE_MAX_AGE_MS, buster: 'porewise-1', dehydrateOptions: { shouldDehydrateQuery: keepQuery } }}
+        // Who is signed in is asked again once the kept cache is back (when there is a connection).
+        onSuccess={() => void queryClient.invalidateQueries({ queryKey: sessionKeys.me() })}
+      >
         <ToastProvider>{children}</ToastProvider>
       </PersistQueryClientProvider>
     </ErrorBoundary>

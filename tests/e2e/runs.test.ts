@@ -54,9 +54,11 @@ describe('a run on a phone in the cellar', () => {
     }
     const forecast = page.getByTestId('forecast-0');
     await forecast.waitFor();
-    expect(await forecast.textContent()).toMatch(/≈ .* L \/ \d+:\d\d left/);
+    expect(await forecast.textContent()).toMatch(/≈ .* L \/ (\d+ h( \d\d min)?|\d+ min|under 1 min) left/);
+    // Right under Save: the stage's ΔP, what is left and a small chart.
+    expect(await page.getByTestId('saved-reading').textContent()).toMatch(/About .* L \/ .*min left|About .* L \/ \d+ h left/);
     expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
-    await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).waitFor();
+    await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).last().waitFor();
     await screenshot(page, 'run-forecast-phone');
 
     // Close with a confirmation.

@@ -28,8 +28,14 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
   const [up, setUp] = useState('');
   const [down, setDown] = useState('');
   // Flow and temperature change slowly: they stay filled in from one reading to the next.
-  const [flow, setFlow] = useState('');
-  const [temp, setTemp] = useState('');
+  // A page opened afresh starts from the run's latest flow and temperature.
+  const latest = (pick: (r: RunDetailDto['stages'][number]['readings'][number]) => number | null) =>
+    run.stages
+      .flatMap((st) => st.readings)
+      .filter((r) => pick(r) !== null)
+      .sort((a, b) => b.at.localeCompare(a.at))[0];
+  const [flow, setFlow] = useState(() => units.toInput('flow', latest((r) => r.flowLh)?.flowLh ?? null));
+  const [temp, setTemp] = useState(() => units.toInput('temperature', latest((r) => r.tempC)?.tempC ?? null, 1));
   const [errors, setErrors] = useState<Fields>({});
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState<{ stageIndex: number; text: string; waiting: boolean } | null>(null);
@@ -127,7 +133,7 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
           <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-watch-600 bg-watch-50 p-4">
             <CloudOff aria-hidden="true" className="size-10 shrink-0 text-watch-700" />
             <div>
-              <p className="text-2xl font-semibold text-watch-800">Kept — waiting to send</p>
+              <p className="text-xl font-semibold text-watch-800">Kept — waiting to send</p>
               <p className="num text-base text-ink-800">{saved.text}</p>
               <p className="text-sm text-ink-700">It is kept on this device and sent by itself when the connection is back.</p>
             </div>
