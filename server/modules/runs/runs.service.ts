@@ -11,7 +11,6 @@ import type {
   LoggedReadingDto,
   ReadingsBatchResultDto,
   RunDetailDto,
-  RunReadingDto,
   RunStageDto,
   RunStartOptionDto,
   RunSummaryDto,
