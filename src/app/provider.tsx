@@ -50,8 +50,9 @@ export function AppProvider({ children }: { children: ReactNode }) {
       <PersistQueryClientProvider
         client={queryClient}
         persistOptions={{ persister, maxAge: CACHE_MAX_AGE_MS, buster: 'porewise-1', dehydrateOptions: { shouldDehydrateQuery: keepQuery } }}
-        // Who is signed in is asked again once the kept cache is back (when there is a connection).
-        onSuccess={() => void queryClient.invalidateQueries({ queryKey: sessionKeys.me() })}
+        // Kept data shows at once, then everything is asked again (when there is a connection):
+        // opening or reloading the page always brings fresh figures and who is signed in.
+        onSuccess={() => void queryClient.invalidateQueries()}
       >
         <ToastProvider>{children}</ToastProvider>
       </PersistQueryClientProvider>
