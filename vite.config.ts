@@ -3,6 +3,7 @@ import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { defineConfig } from 'vite';
+import { VitePWA } from 'vite-plugin-pwa';
 
 const alias = {
   '@': fileURLToPath(new URL('./src', import.meta.url)),
@@ -11,7 +12,36 @@ const alias = {
 };
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    // An installable app that opens without a network: our own service worker (src/sw.ts)
+    // precaches the shell, the fonts and every route's code; main.tsx registers it.
+    VitePWA({
+      strategies: 'injectManifest',
+      srcDir: 'src',
+      filename: 'sw.ts',
+      injectRegister: false,
+      injectManifest: { globPatterns: ['**/*.{js,css,html,svg,png,woff2}'], maximumFileSizeToCacheInBytes: 3 * 1024 * 1024 },
+      manifest: {
+        name: 'Porewise',
+        short_name: 'Porewise',
+        description: 'Filtration planning, run tracking and cartridge care for winery cellars.',
+        lang: 'en',
+        start_url: '/today',
+        scope: '/',
+        display: 'standalone',
+        theme_color: '#1b535e',
+        background_color: '#f8fafc',
+        icons: [
+          { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png' },
+          { src: '/icons/icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+          { src: '/icons/icon.svg', sizes: 'any', type: 'image/svg+xml' },
+        ],
+      },
+    }),
+  ],
   resolve: { alias },
   server: {
     host: '127.0.0.1',

@@ -187,6 +187,7 @@ function parseTrustProxy(value: string | undefined): boolean | number | string {
 }
 
 function noCacheForHtml(res: import('express').Response, path: string) {
-  if (path.endsWith('.html')) res.setHeader('Cache-Control', 'no-cache');
+  // The service worker and the manifest are checked on every visit, so updates reach phones.
+  if (path.endsWith('.html') || path.endsWith('/sw.js') || path.endsWith('.webmanifest')) res.setHeader('Cache-Control', 'no-cache');
   else if (path.includes('/assets/')) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
 }

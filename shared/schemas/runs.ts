@@ -92,6 +92,17 @@ export const voidReadingInputSchema = z.object({
 });
 export type VoidReadingInput = z.infer<typeof voidReadingInputSchema>;
 
+/** Readings one batch request may carry (a phone's waiting readings, a logger's stretch). */
+export const READINGS_BATCH_MAX = 1000;
+
+export const logReadingsBatchInputSchema = z.object({
+  readings: z
+    .array(logReadingInputSchema)
+    .min(1, { error: 'Send at least one reading.' })
+    .max(READINGS_BATCH_MAX, { error: `Send at most ${READINGS_BATCH_MAX.toLocaleString('en')} readings in one request.` }),
+});
+export type LogReadingsBatchInput = z.infer<typeof logReadingsBatchInputSchema>;
+
 export const closeRunInputSchema = z.object({
   notes: z.string().trim().max(RUN_NOTES_MAX).optional(),
 });

@@ -31,6 +31,8 @@ export type RunReadingDto = {
   tempC: number | null;
   /** Who logged it, as named at the time. */
   createdByName: string | null;
+  /** Who logged it: the name at the time, else the person's current name. */
+  byName: string | null;
   /** The values as first logged, when a correction changed them; null otherwise. */
   original: { volumeL: number; upstreamBar: number; downstreamBar: number; flowLh: number | null; tempC: number | null } | null;
   /** Every correction and void, oldest first; the latest wins. */
@@ -82,6 +84,19 @@ export type RunChangeDto = {
   byName: string | null;
   at: string;
 };
+
+/**
+ * The answer to one logged reading: the stored reading and, when asked for with
+ * `?with=stage`, its stage's new figures and the run's totals, so the phone updates what it
+ * shows without loading the whole run again.
+ */
+export type LoggedReadingDto = RunReadingDto & {
+  stage?: RunStageDto;
+  run?: Pick<RunDetailDto, 'currentVolumeL' | 'readingCount' | 'volumeToBottleL'>;
+};
+
+/** The answer to a batch of readings: how many were new, how many were already stored. */
+export type ReadingsBatchResultDto = { stored: number; duplicates: number };
 
 export type RunStageDto = {
   index: number;

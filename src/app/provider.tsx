@@ -1,8 +1,11 @@
-import { QueryClientProvider } from '@tanstack/react-query';
-import { Component, useState, type ErrorInfo, type ReactNode } from 'react';
+import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
+import { Component, useEffect, useState, type ErrorInfo, type ReactNode } from 'react';
 import { ErrorState } from '@/components/ui/states';
 import { ToastProvider } from '@/components/ui/toast';
+import { startOutbox } from '@/lib/offline/outbox-runtime';
+import { CACHE_MAX_AGE_MS, createCachePersister } from '@/lib/offline/query-persister';
 import { createQueryClient } from '@/lib/query-client';
+import { sessionKeys } from '@/lib/session';
 
 class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | null }> {
   override state = { error: null as Error | null };
@@ -28,13 +31,31 @@ class ErrorBoundary extends Component<{ children: ReactNode }, { error: Error | 
   }
 }
 
+/**
+ * Only successful answers are kept, and "nobody signed in" never is: a page reloaded right
+ * after signing in must not come back signed out from a kept answer.
+ */
+function keepQuery(query: { queryKey: readonly unknown[]; state: { status: string; data: unknown } }) {
+  if (query.state.status !== 'success') return false;
+  return !(query.queryKey[0] === sessionKeys.all[0] && query.queryKey[1] === 'me' && query.state.data === null);
+}
+
 export function AppProvider({ children }: { children: ReactNode }) {
   const [queryClient] = useState(createQueryClient);
+  // The cache is kept in IndexedDB, so pages opened before show their last data offline.
+  const [persister] = useState(createCachePersister);
+  useEffect(() => startOutbox(queryClient), [queryClient]);
   return (
     <ErrorBoundary>
-      <QueryClientProvider client={queryClient}>
+      <PersistQueryClientProvider
+        client={queryClient}
+        persistOptions={{ persister, maxAge: CACHE_MAX_AGE_MS, buster: 'porewise-1', dehydrateOptions: { shouldDehydrateQuery: keepQuery } }}
+        // Kept data shows at once, then everything is asked again (when there is a connection):
+        // opening or reloading the page always brings fresh figures and who is signed in.
+        onSuccess={() => void queryClient.invalidateQueries()}
+      >
         <ToastProvider>{children}</ToastProvider>
-      </QueryClientProvider>
+      </PersistQueryClientProvider>
     </ErrorBoundary>
   );
 }

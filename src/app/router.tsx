@@ -1,11 +1,16 @@
-import { createBrowserRouter, Navigate, RouterProvider } from 'react-router-dom';
+import { createBrowserRouter, Navigate, RouterProvider, type RouteObject } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { AppLayout } from './routes/app/app-layout';
+import { RouteError } from './routes/route-error';
 
 const lazyPage = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
 
+/** Every route gets the error boundary (a page's own, so the shell stays around it). */
+const withErrors = (routes: RouteObject[]): RouteObject[] =>
+  routes.map((r) => ({ ...r, errorElement: r.errorElement ?? <RouteError />, ...(r.children ? { children: withErrors(r.children) } : {}) }) as RouteObject);
+
 export function createRouter() {
-  return createBrowserRouter([
+  return createBrowserRouter(withErrors([
     { path: paths.signIn, lazy: lazyPage(() => import('./routes/auth/sign-in')) },
     { path: paths.signUp, lazy: lazyPage(() => import('./routes/auth/sign-up')) },
     { path: paths.confirmSignUp, lazy: lazyPage(() => import('./routes/auth/confirm-sign-up')) },
@@ -36,10 +41,11 @@ export function createRouter() {
         { path: paths.settings, lazy: lazyPage(() => import('./routes/app/settings')) },
         { path: paths.notifications, lazy: lazyPage(() => import('./routes/app/notifications')) },
         { path: paths.recordsChanges, lazy: lazyPage(() => import('./routes/app/records-changes')) },
+        { path: paths.waiting, lazy: lazyPage(() => import('./routes/app/waiting')) },
       ],
     },
     { path: '*', lazy: lazyPage(() => import('./routes/not-found')) },
-  ]);
+  ]));
 }
 
 export function AppRouter() {

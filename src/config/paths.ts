@@ -26,6 +26,8 @@ export const paths = {
   notifications: '/notifications',
   outbox: '/outbox',
   recordsChanges: '/records/changes',
+  /** Entries kept on this device that wait to be sent or were refused. */
+  waiting: '/waiting',
 } as const;
 
 export function withNext(path: string, next: string | null | undefined) {

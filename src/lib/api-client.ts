@@ -21,12 +21,15 @@ function requestKey() {
   return Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
-async function request<T>(method: string, path: string, body?: unknown): Promise<T> {
+/** Per-request options: a caller's own Idempotency-Key (the outbox keeps one per entry). */
+export type RequestOptions = { idempotencyKey?: string };
+
+async function request<T>(method: string, path: string, body?: unknown, opts: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { accept: 'application/json' };
   if (body !== undefined) headers['content-type'] = 'application/json';
   // A create that loses its answer on a poor cellar connection is sent again with the same key,
   // and the server answers the retry instead of making a second record.
-  if (method === 'POST') headers['idempotency-key'] = requestKey();
+  if (method === 'POST') headers['idempotency-key'] = opts.idempotencyKey ?? requestKey();
   let res: Response | null = null;
   for (let attempt = 0; !res; attempt += 1) {
     try {
@@ -61,7 +64,7 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
 /** The one fetch wrapper: JSON in, JSON out, errors as ApiError. */
 export const api = {
   get: <T>(path: string) => request<T>('GET', path),
-  post: <T>(path: string, body: unknown = {}) => request<T>('POST', path, body),
+  post: <T>(path: string, body: unknown = {}, opts?: RequestOptions) => request<T>('POST', path, body, opts),
   put: <T>(path: string, body: unknown = {}) => request<T>('PUT', path, body),
   patch: <T>(path: string, body: unknown = {}) => request<T>('PATCH', path, body),
   delete: <T>(path: string) => request<T>('DELETE', path),

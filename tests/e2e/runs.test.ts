@@ -57,8 +57,10 @@ describe('a run on a phone in the cellar', () => {
     await forecast.waitFor();
     expect(await forecast.textContent()).toMatch(/≈ [\d,]+ L left · about \d+ (h|min)/);
     expect(await forecast.textContent()).not.toMatch(/\d:\d\d/);
+    // Right under Save: the stage's ΔP, what is left and a small chart.
+    expect(await page.getByTestId('saved-reading').textContent()).toMatch(/About .* L \/ .*min left|About .* L \/ \d+ h left|left|Beyond the readings|not rising/);
     expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
-    await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).waitFor();
+    await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).last().waitFor();
     await screenshot(page, 'run-forecast-phone');
 
     // Close with a confirmation.

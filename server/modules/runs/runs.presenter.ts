@@ -55,6 +55,7 @@ export function presentReading(r: EffectiveReading | RunReadingRow): RunReadingD
     flowLh: e.flowLh,
     tempC: e.tempC,
     createdByName: e.createdByName,
+    byName: e.createdByName ?? e.byName ?? null,
     original: e.original,
     voided: e.voided,
     corrections: e.corrections.map((c) => ({

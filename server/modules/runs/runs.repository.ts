@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import {
+  usersTable,
   cartridgeEventsTable,
   cartridgesTable,
   cartridgeTypesTable,
@@ -19,7 +20,42 @@ import {
 } from '../../db/schema';
 
 export type RunRow = typeof runsTable.$inferSelect;
-export type RunReadingRow = typeof runReadingsTable.$inferSelect;
+export type RunReadingRow = typeof runReadingsTable.$inferSelect & { byName?: string | null };
+/** A reading to store, already validated against the schema. */
+export type NewReading = {
+  stageIndex: number;
+  volumeL: number;
+  upstreamBar: number;
+  downstreamBar: number;
+  flowLh: number | null;
+  tempC: number | null;
+  at: Date | null;
+  clientKey: string;
+};
+
+/** A raw run_readings row (snake_case, from hand-written SQL) as the Drizzle row type. */
+function readingFromRaw(r: Record<string, unknown>): RunReadingRow {
+  const date = (v: unknown) => (v instanceof Date ? v : new Date(String(v)));
+  const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+  return {
+    id: String(r.id),
+    wineryId: String(r.winery_id),
+    createdAt: date(r.created_at),
+    updatedAt: date(r.updated_at),
+    runId: String(r.run_id),
+    stageIndex: Number(r.stage_index),
+    at: date(r.at),
+    volumeL: Number(r.volume_l),
+    upstreamBar: Number(r.upstream_bar),
+    downstreamBar: Number(r.downstream_bar),
+    flowLh: num(r.flow_lh),
+    tempC: num(r.temp_c),
+    clientKey: String(r.client_key),
+    createdBy: r.created_by === null || r.created_by === undefined ? null : String(r.created_by),
+    createdByName: r.created_by_name === null || r.created_by_name === undefined ? null : String(r.created_by_name),
+    byName: r.by_name === null || r.by_name === undefined ? null : String(r.by_name),
+  };
+}
 type ReadingInsert = typeof runReadingsTable.$inferInsert;
 type EventInsert = typeof cartridgeEventsTable.$inferInsert;
 export type RunStageCartridgeRow = typeof runStageCartridgesTable.$inferSelect;
@@ -169,19 +205,110 @@ export function createRunsRepository(db: DbOrTx) {
       return row ?? null;
     },
 
-    async readings(wineryId: string, runId: string) {
-      return db
-        .select()
+    async readings(wineryId: string, runId: string, stageIndex?: number): Promise<RunReadingRow[]> {
+      const rows = await db
+        .select({ reading: runReadingsTable, byName: usersTable.name })
         .from(runReadingsTable)
-        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)))
+        .leftJoin(usersTable, eq(usersTable.id, runReadingsTable.createdBy))
+        .where(
+          and(
+            eq(runReadingsTable.wineryId, wineryId),
+            eq(runReadingsTable.runId, runId),
+            stageIndex === undefined ? undefined : eq(runReadingsTable.stageIndex, stageIndex),
+          ),
+        )
         .orderBy(asc(runReadingsTable.stageIndex), asc(runReadingsTable.volumeL), asc(runReadingsTable.at));
+      return rows.map((r) => ({ ...r.reading, byName: r.byName }));
     },
 
-    async readingByKey(wineryId: string, runId: string, clientKey: string) {
+    /**
+     * Stores one reading in a single statement, only while the run is running and has the stage
+     * and the litres do not go down. The run row is share-locked for this statement alone, so
+     * readings never wait for each other, and a close (which takes the row for update) either
+     * comes first, and then this stores nothing, or waits for it. Null when nothing was stored:
+     * a resend of a stored key, or a check failed (the caller finds out which).
+     */
+    async insertReadingIfOpen(wineryId: string, runId: string, userId: string, r: NewReading): Promise<RunReadingRow | null> {
+      const result = await db.execute(sql`
+        with ins as (
+          insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
+          select r.winery_id, r.id, ${r.stageIndex}::int, coalesce(${r.at ? r.at.toISOString() : null}::timestamptz, now()),
+                 ${r.volumeL}::double precision, ${r.upstreamBar}::double precision, ${r.downstreamBar}::double precision,
+                 ${r.flowLh}::double precision, ${r.tempC}::double precision, ${r.clientKey}::text, ${userId}::text,
+                 (select u.name from users u where u.id = ${userId}::text)
+          from runs r
+          join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
+          join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
+          where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid and r.status = 'running'
+            and jsonb_array_length(t.stages) > ${r.stageIndex}::int
+            and ${r.volumeL}::double precision >= coalesce(
+              (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = ${r.stageIndex}::int), 0)
+          for share of r
+          on conflict (run_id, client_key) do nothing
+          returning *
+        )
+        select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`);
+      const row = result.rows[0] as Record<string, unknown> | undefined;
+      return row ? readingFromRaw(row) : null;
+    },
+
+    /**
+     * What a batch needs to be checked, read with the run row share-locked until the
+     * transaction ends (readings share it; a close waits): the run, its stage count, the keys
+     * of the batch already stored and the highest litres per stage.
+     */
+    async batchContext(wineryId: string, runId: string, clientKeys: string[]) {
+      const runRes = await db.execute(sql`
+        select r.status, r.plan_lot_id, coalesce(jsonb_array_length(t.stages), 0) as stage_count
+        from runs r
+        join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
+        left join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
+        where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid
+        for share of r`);
+      const run = runRes.rows[0] as { status: string; stage_count: number | string } | undefined;
+      if (!run) return null;
+      // One statement, one snapshot: the stored keys and the litres agree with each other.
+      const seenRes = await db.execute(sql`
+        select
+          (select coalesce(json_agg(x.client_key), '[]'::json) from run_readings x
+            where x.run_id = ${runId}::uuid and x.client_key in (select jsonb_array_elements_text(${JSON.stringify(clientKeys)}::jsonb))) as keys,
+          (select coalesce(json_object_agg(s.stage_index, s.v), '{}'::json) from
+            (select stage_index, max(volume_l) as v from run_readings where run_id = ${runId}::uuid group by stage_index) s) as last`);
+      const seen = seenRes.rows[0] as { keys: string[]; last: Record<string, number> };
+      return {
+        status: run.status,
+        stageCount: Number(run.stage_count),
+        storedKeys: new Set(seen.keys.map(String)),
+        lastVolume: new Map(Object.entries(seen.last).map(([k, v]) => [Number(k), Number(v)])),
+      };
+    },
+
+    /** Bulk insert; a key already stored (a concurrent resend) is skipped. Returns how many were stored. */
+    async insertReadings(values: ReadingInsert[]) {
+      if (values.length === 0) return 0;
+      const rows = await db
+        .insert(runReadingsTable)
+        .values(values)
+        .onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] })
+        .returning({ id: runReadingsTable.id });
+      return rows.length;
+    },
+
+    async readingByKey(wineryId: string, runId: string, clientKey: string): Promise<RunReadingRow | null> {
+      const [row] = await db
+        .select({ reading: runReadingsTable, byName: usersTable.name })
+        .from(runReadingsTable)
+        .leftJoin(usersTable, eq(usersTable.id, runReadingsTable.createdBy))
+        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId), eq(runReadingsTable.clientKey, clientKey)));
+      return row ? { ...row.reading, byName: row.byName } : null;
+    },
+
+    /** The run without locking it (for telling why a reading was not stored). */
+    async run(wineryId: string, id: string) {
       const [row] = await db
         .select()
-        .from(runReadingsTable)
-        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId), eq(runReadingsTable.clientKey, clientKey)));
+        .from(runsTable)
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
       return row ?? null;
     },
 

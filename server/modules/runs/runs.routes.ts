@@ -5,6 +5,7 @@ import {
   closeRunInputSchema,
   correctReadingInputSchema,
   logReadingInputSchema,
+  logReadingsBatchInputSchema,
   runChangeInputSchema,
   startRunInputSchema,
   voidReadingInputSchema,
@@ -54,8 +55,14 @@ export function runsRoutes({ db }: ModuleDeps) {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Run')));
   });
   // Idempotent by the reading's clientKey: a resent reading answers the stored one.
+  // `?with=stage` adds the stage's new figures, so the phone need not reload the run.
   router.post('/runs/:id/readings', ...log, validateBody(logReadingInputSchema), async (req, res) => {
-    res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
+    const withStage = req.query.with === 'stage';
+    res.status(201).json(await service.logReading(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body, { withStage }));
+  });
+  // Up to 1,000 readings, idempotent per clientKey, all checked before any is stored.
+  router.post('/runs/:id/readings/batch', ...log, validateBody(logReadingsBatchInputSchema), async (req, res) => {
+    res.json(await service.logReadingsBatch(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));
   });
   router.post('/runs/:id/changes', ...log, idempotent(db), validateBody(runChangeInputSchema), async (req, res) => {
     res.status(201).json(await service.change(tenantOf(res), idParam(req, 'id', 'Run'), res.locals.body));

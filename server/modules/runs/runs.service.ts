@@ -12,12 +12,21 @@ import type {
   CloseRunInput,
   CorrectReadingInput,
   LogReadingInput,
+  LogReadingsBatchInput,
   RunBlockReason,
   RunChangeInput,
   StartRunInput,
   VoidReadingInput,
 } from '../../../shared/schemas/runs';
-import type { RunDetailDto, RunReadingDto, RunStageDto, RunStartCheckDto, RunStartOptionDto, RunSummaryDto } from '../../../shared/types/runs';
+import type {
+  LoggedReadingDto,
+  ReadingsBatchResultDto,
+  RunDetailDto,
+  RunStageDto,
+  RunStartCheckDto,
+  RunStartOptionDto,
+  RunSummaryDto,
+} from '../../../shared/types/runs';
 import type { Database } from '../../db/client';
 import type { PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
@@ -26,7 +35,7 @@ import { createCartridgesRepository } from '../cartridges/cartridges.repository'
 import { installCartridge, removeCartridge } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
-import { createRunsRepository, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
+import { createRunsRepository, type NewReading, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
@@ -148,20 +157,36 @@ async function inspect(r: RunsRepository, wineryId: string, stages: PlanTrainSta
   };
 }
 
+function toNew(input: LogReadingInput): NewReading {
+  return {
+    stageIndex: input.stageIndex,
+    volumeL: input.volumeL,
+    upstreamBar: input.upstreamBar,
+    downstreamBar: input.downstreamBar,
+    flowLh: input.flowLh ?? null,
+    tempC: input.tempC ?? null,
+    at: input.at ? new Date(input.at) : null,
+    clientKey: input.clientKey,
+  };
+}
+
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
 
-  async function detail(wineryId: string, id: string): Promise<RunDetailDto> {
+  /** The run's summary, plan context and the figures of its stages (all, or just one). */
+  async function build(wineryId: string, id: string, onlyStage?: number) {
     const summary = await repo.summary(wineryId, id);
     if (!summary) throw notFound('Run');
     const ctx = await repo.planLot(wineryId, summary.run.planLotId);
     if (!ctx) throw notFound('Run');
-    const stages = ctx.train?.stages ?? [];
+    const all = ctx.train?.stages ?? [];
+    const wanted = onlyStage === undefined ? all.map((_s, index) => index) : [onlyStage].filter((i) => i < all.length);
+    const stages = wanted.map((index) => ({ index, s: all[index] }));
     const [types, housings, rawReadings, corrections, stints, changes] = await Promise.all([
-      repo.types(wineryId, [...new Set(stages.map((s) => s.cartridgeTypeId))]),
-      repo.housings(wineryId, [...new Set(stages.map((s) => s.housingId))]),
-      repo.readings(wineryId, id),
+      repo.types(wineryId, [...new Set(stages.map(({ s }) => s.cartridgeTypeId))]),
+      repo.housings(wineryId, [...new Set(stages.map(({ s }) => s.housingId))]),
+      repo.readings(wineryId, id, onlyStage),
       repo.corrections(wineryId, id),
       repo.stageCartridges(wineryId, id),
       repo.changes(wineryId, id),
@@ -170,6 +195,42 @@ export function createRunsService(db: Database) {
     const serialOf = new Map(stints.map((c) => [c.cartridgeId, c.serial]));
     const lineFlowLh = ctx.line ? requiredFlowLh({ bottlesPerHour: ctx.line.bottlesPerHour, bottleMl: ctx.line.bottleMl }) : null;
     const volumeToBottleL = Math.max(0, summary.volumeL - summary.currentVolumeL);
+    const stageDtos: RunStageDto[] = stages.map(({ s, index }) => {
+      const type = types.find((t) => t.id === s.cartridgeTypeId);
+      const housing = housings.find((h) => h.id === s.housingId);
+      const own = readings.filter((r) => r.stageIndex === index);
+      const counted = own.filter((r) => !r.voided);
+      const terminalDpBar = type?.terminalDpBar ?? 0;
+      const figures =
+        terminalDpBar > 0
+          ? stageFigures({
+              readings: counted,
+              terminalDpBar,
+              lineFlowLh,
+              currentVolumeL: summary.currentVolumeL,
+              volumeToBottleL,
+              // A change or regeneration restores the stage: the forecast starts again from there.
+              restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
+            })
+          : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+      return {
+        index,
+        name: s.name ?? `Stage ${String(index + 1)}`,
+        cartridgeTypeId: s.cartridgeTypeId,
+        cartridgeTypeName: type?.name ?? 'Unknown type',
+        housingId: s.housingId,
+        housingName: housing?.name ?? 'Unknown housing',
+        terminalDpBar,
+        readings: own.map(presentReading),
+        ...figures,
+        cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
+      };
+    });
+    return { summary, ctx, lineFlowLh, volumeToBottleL, stages: stageDtos, changes, serialOf };
+  }
+
+  async function detail(wineryId: string, id: string): Promise<RunDetailDto> {
+    const { summary, ctx, lineFlowLh, volumeToBottleL, stages, changes, serialOf } = await build(wineryId, id);
     const base = presentRunSummary(summary);
     return {
       ...base,
@@ -184,38 +245,23 @@ export function createRunsService(db: Database) {
         ? { reason: summary.run.overrideReason, byName: summary.run.overrideByName, checks: summary.run.overriddenChecks ?? [] }
         : null,
       changes: changes.map((c) => presentChange(c, serialOf)),
-      stages: stages.map((s, index) => {
-        const type = types.find((t) => t.id === s.cartridgeTypeId);
-        const housing = housings.find((h) => h.id === s.housingId);
-        const own = readings.filter((r) => r.stageIndex === index);
-        const counted = own.filter((r) => !r.voided);
-        const terminalDpBar = type?.terminalDpBar ?? 0;
-        const figures =
-          terminalDpBar > 0
-            ? stageFigures({
-                readings: counted,
-                terminalDpBar,
-                lineFlowLh,
-                currentVolumeL: summary.currentVolumeL,
-                volumeToBottleL,
-                // A change or regeneration restores the stage: the forecast starts again from there.
-                restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
-              })
-            : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
-        return {
-          index,
-          name: s.name ?? `Stage ${String(index + 1)}`,
-          cartridgeTypeId: s.cartridgeTypeId,
-          cartridgeTypeName: type?.name ?? 'Unknown type',
-          housingId: s.housingId,
-          housingName: housing?.name ?? 'Unknown housing',
-          terminalDpBar,
-          readings: own.map(presentReading),
-          ...figures,
-          cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
-        };
-      }),
+      stages,
     };
+  }
+
+  /** Why a reading was not stored (the single statement stores only when every check passes). */
+  async function refusal(wineryId: string, runId: string, input: { stageIndex: number; volumeL: number }): Promise<HttpError> {
+    const run = await repo.run(wineryId, runId);
+    if (!run) return notFound('Run');
+    if (run.status !== 'running') return conflict('This run is closed; it takes no more readings.', 'run_closed');
+    const ctx = await repo.planLot(wineryId, run.planLotId);
+    const stageCount = ctx?.train?.stages.length ?? 0;
+    if (input.stageIndex >= stageCount) return badRequest('Check the reading.', { stageIndex: 'Choose a stage of this run’s train.' });
+    const last = await repo.lastReading(wineryId, runId, input.stageIndex);
+    if (last && input.volumeL < last.volumeL) {
+      return badRequest('Check the reading.', { volumeL: `Litres cannot go down: the last reading of this stage was ${String(last.volumeL)} L.` });
+    }
+    return conflict('The reading could not be stored; send it again.');
   }
 
   return {
@@ -481,41 +527,70 @@ export function createRunsService(db: Database) {
       return detail(t.wineryId, runId);
     },
 
-    async logReading(t: TenantContext, runId: string, input: LogReadingInput): Promise<RunReadingDto> {
+    /**
+     * One reading, idempotent by its clientKey: one INSERT … ON CONFLICT DO NOTHING that checks
+     * the run is open, the stage exists and the litres do not go down. A resend answers the
+     * stored reading. With `withStage` the answer carries the stage's new figures.
+     */
+    async logReading(t: TenantContext, runId: string, input: LogReadingInput, opts: { withStage?: boolean } = {}): Promise<LoggedReadingDto> {
+      if (input.downstreamBar > input.upstreamBar) {
+        throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
+      }
+      const stored =
+        (await repo.insertReadingIfOpen(t.wineryId, runId, t.userId, toNew(input))) ?? (await repo.readingByKey(t.wineryId, runId, input.clientKey));
+      if (!stored) throw await refusal(t.wineryId, runId, input);
+      const reading = presentReading(stored);
+      if (!opts.withStage) return reading;
+      const { summary, volumeToBottleL, stages } = await build(t.wineryId, runId, stored.stageIndex);
+      return {
+        ...reading,
+        ...(stages[0] ? { stage: stages[0] } : {}),
+        run: { currentVolumeL: summary.currentVolumeL, readingCount: summary.readingCount, volumeToBottleL },
+      };
+    },
+
+    /**
+     * Up to READINGS_BATCH_MAX readings, all checked before any is stored (one bad reading: 400
+     * naming it, nothing stored). Keys already stored count as duplicates and are not checked
+     * again, so a resent batch stores nothing twice, even after the run was closed.
+     */
+    async logReadingsBatch(t: TenantContext, runId: string, input: LogReadingsBatchInput): Promise<ReadingsBatchResultDto> {
       return db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
-        const run = await r.lockRun(t.wineryId, runId);
-        if (!run) throw notFound('Run');
-        const existing = await r.readingByKey(t.wineryId, runId, input.clientKey);
-        if (existing) return presentReading(existing);
-        if (run.status !== 'running') throw conflict('This run is closed; it takes no more readings.', 'run_closed');
-        const ctx = await r.planLot(t.wineryId, run.planLotId);
-        const stageCount = ctx?.train?.stages.length ?? 0;
-        if (input.stageIndex >= stageCount) throw badRequest('Check the reading.', { stageIndex: 'Choose a stage of this run’s train.' });
-        if (input.downstreamBar > input.upstreamBar) {
-          throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
-        }
-        const last = await r.lastReading(t.wineryId, runId, input.stageIndex);
-        if (last && input.volumeL < last.volumeL) {
-          throw badRequest('Check the reading.', { volumeL: `Litres cannot go down: the last reading of this stage was ${String(last.volumeL)} L.` });
-        }
-        await r.insertReading({
-          wineryId: t.wineryId,
-          runId,
-          stageIndex: input.stageIndex,
-          volumeL: input.volumeL,
-          upstreamBar: input.upstreamBar,
-          downstreamBar: input.downstreamBar,
-          flowLh: input.flowLh ?? null,
-          tempC: input.tempC ?? null,
-          at: input.at ? new Date(input.at) : new Date(),
-          clientKey: input.clientKey,
-          createdBy: t.userId,
-          createdByName: t.userName ?? null,
+        const keys = input.readings.map((x) => x.clientKey);
+        const ctx = await r.batchContext(t.wineryId, runId, keys);
+        if (!ctx) throw notFound('Run');
+        const seen = new Set<string>();
+        const fresh: { i: number; x: LogReadingInput }[] = [];
+        input.readings.forEach((x, i) => {
+          if (ctx.storedKeys.has(x.clientKey) || seen.has(x.clientKey)) return;
+          seen.add(x.clientKey);
+          fresh.push({ i, x });
         });
-        const stored = await r.readingByKey(t.wineryId, runId, input.clientKey);
-        if (!stored) throw conflict('The reading could not be stored; send it again.');
-        return presentReading(stored);
+        const duplicates = input.readings.length - fresh.length;
+        if (fresh.length === 0) return { stored: 0, duplicates };
+        if (ctx.status !== 'running') throw conflict(`This run is closed; it takes no more readings (${String(fresh.length)} not stored).`, 'run_closed');
+        const fields: Record<string, string> = {};
+        const last = new Map(ctx.lastVolume);
+        for (const { i, x } of fresh) {
+          const at = `readings.${String(i)}`;
+          if (x.stageIndex >= ctx.stageCount) {
+            fields[`${at}.stageIndex`] = 'Choose a stage of this run’s train.';
+            continue;
+          }
+          if (x.downstreamBar > x.upstreamBar) fields[`${at}.downstreamBar`] = 'Downstream pressure cannot be above upstream; check the gauges.';
+          const before = last.get(x.stageIndex);
+          if (before !== undefined && x.volumeL < before) {
+            fields[`${at}.volumeL`] = `Litres cannot go down: the reading before it on this stage was ${String(before)} L.`;
+          } else last.set(x.stageIndex, x.volumeL);
+        }
+        const bad = Object.keys(fields).length;
+        if (bad > 0) throw badRequest(`Check the readings: ${String(bad)} ${bad === 1 ? 'is' : 'are'} not right, so none was stored.`, fields);
+        const now = new Date();
+        const stored = await r.insertReadings(
+          fresh.map(({ x }) => ({ ...toNew(x), at: x.at ? new Date(x.at) : now, wineryId: t.wineryId, runId, createdBy: t.userId, createdByName: t.userName ?? null })),
+        );
+        return { stored, duplicates: input.readings.length - stored };
       });
     },
 

@@ -1,14 +1,19 @@
-import { CalendarCheck, ClipboardList, Cylinder, Droplets, FileText, Filter, Gauge, History, Inbox, LogOut, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
+import { CalendarCheck, ClipboardList, Cylinder, Droplets, FileText, Filter, Gauge, History, Inbox, Settings as SettingsIcon, Users, Wine } from 'lucide-react';
 import { useEffect, useRef, type ReactNode } from 'react';
 import { NavLink, useLocation, useNavigate } from 'react-router-dom';
 import { can, roleLabels, type Action } from '@shared/permissions';
 import type { MeDto } from '@shared/types/api';
-import { Button } from '@/components/ui/button';
+import { OfflineBar } from '@/components/offline/offline-bar';
 import { Select } from '@/components/ui/select';
 import { paths } from '@/config/paths';
-import { activeMembership, useAppInfo, useSetActiveWinery, useSignOut } from '@/lib/session';
+import { activeMembership, useAppInfo, useSetActiveWinery } from '@/lib/session';
 import { cn } from '@/utils/cn';
 import { BrandMark } from './brand-mark';
+import { PhoneNav } from './phone-nav';
+import { SignOutButton } from './sign-out-button';
+
+/** The sections a phone's bottom bar offers (those the role may read). */
+const phoneSections: string[] = [paths.today, paths.runs, paths.care, paths.cartridges];
 
 type NavItem = { to: string; label: string; icon: ReactNode; action: Action; devOnly?: boolean };
 
@@ -31,7 +36,6 @@ const navItems: NavItem[] = [
 /** `headerExtra`: what the app adds beside the person's name (the notification bell). */
 export function AppShell({ me, children, headerExtra }: { me: MeDto; children: ReactNode; headerExtra?: ReactNode }) {
   const navigate = useNavigate();
-  const signOut = useSignOut();
   const switchWinery = useSetActiveWinery();
   const appInfo = useAppInfo();
   const membership = activeMembership(me);
@@ -70,15 +74,7 @@ export function AppShell({ me, children, headerExtra }: { me: MeDto; children: R
             <span className="hidden max-w-48 truncate text-sm text-ink-700 md:inline" title={me.user.email}>
               {me.user.name}
             </span>
-            <Button
-              variant="ghost"
-              size="sm"
-              icon={<LogOut aria-hidden="true" className="size-4" />}
-              loading={signOut.isPending}
-              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn) })}
-            >
-              Sign out
-            </Button>
+            <SignOutButton />
           </div>
         </div>
         <nav ref={navRef} aria-label="Sections" className="mx-auto max-w-6xl overflow-x-auto px-2">
@@ -102,8 +98,10 @@ export function AppShell({ me, children, headerExtra }: { me: MeDto; children: R
           </ul>
         </nav>
       </header>
+      <OfflineBar />
       <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
-      <footer className="border-t border-ink-200 bg-white">
+      <PhoneNav items={items.filter((i) => phoneSections.includes(i.to))} />
+      <footer className="border-t border-ink-200 bg-white pb-16 sm:pb-0">
         <p className="mx-auto max-w-6xl px-4 py-3 text-xs text-ink-500">
           Porewise figures are planning estimates. Local codes, the equipment makers' ratings and licensed practice govern.
         </p>

@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
-import { LoaderCircle, OctagonX, RotateCcw } from 'lucide-react';
+import { CloudOff, LoaderCircle, OctagonX, RotateCcw } from 'lucide-react';
+import { useOnline } from '@/lib/offline/use-online';
 import { cn } from '@/utils/cn';
 import { Button } from './button';
 
@@ -13,7 +14,25 @@ export interface LoadingStateProps {
   className?: string;
 }
 
+/** What shows instead of a spinner when there is no connection and nothing was kept for this page. */
+export function OfflineState({ className }: { className?: string }) {
+  return (
+    <div role="status" className={cn('flex gap-3 rounded border border-watch-200 bg-watch-50 px-4 py-3', className)}>
+      <CloudOff aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-watch-700" />
+      <div className="min-w-0 flex-1">
+        <p className="text-base font-semibold text-ink-900">You are offline — this page was not opened before</p>
+        <p className="mt-0.5 text-sm text-ink-800">It loads by itself when the connection is back. Pages opened before show what they last fetched.</p>
+        <Button variant="secondary" size="md" className="mt-3" icon={<RotateCcw />} onClick={() => window.location.reload()}>
+          Try again
+        </Button>
+      </div>
+    </div>
+  );
+}
+
 export function LoadingState({ label = 'Loading …', variant = 'spinner', lines = 3, className }: LoadingStateProps) {
+  const online = useOnline();
+  if (!online) return <OfflineState className={className} />;
   if (variant === 'skeleton') {
     return (
       <div role="status" aria-live="polite" className={cn('flex flex-col gap-2.5 py-2', className)}>

@@ -10,7 +10,7 @@ export function AppLayout() {
   const me = useMe();
   const location = useLocation();
   if (me.isPending) return <LoadingState className="mt-24" />;
-  if (me.isError) return <ErrorState className="m-8" message={me.error.message} onRetry={() => me.refetch()} />;
+  if (me.isError && !me.data) return <ErrorState className="m-8" message={me.error.message} onRetry={() => me.refetch()} />;
   if (!me.data) return <Navigate to={withNext(paths.signIn, location.pathname + location.search)} replace />;
   return (
     <AppShell me={me.data} headerExtra={<NotificationBell />}>

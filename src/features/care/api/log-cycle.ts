@@ -1,11 +1,25 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LogCycleInput } from '@shared/schemas/care';
 import type { CycleResultDto } from '@shared/types/care';
-import { api } from '@/lib/api-client';
+import { answerOf } from '@/lib/offline/kept';
+import { submit } from '@/lib/offline/outbox-runtime';
 import { careKeys, cartridgesCacheKey, todayCacheKey } from './keys';
 
-export const logCycle = ({ cartridgeId, input }: { cartridgeId: string; input: LogCycleInput }) =>
-  api.post<CycleResultDto>(`/cartridges/${encodeURIComponent(cartridgeId)}/cycles`, input);
+/**
+ * Kept on the device first and sent with its own Idempotency-Key (so a resend is stored once);
+ * without a connection it waits in the outbox and this throws KeptOnDevice.
+ */
+export const logCycle = async ({ cartridgeId, input, serial }: { cartridgeId: string; input: LogCycleInput; serial?: string }) =>
+  answerOf<CycleResultDto>(
+    await submit({
+      kind: 'care-cycle',
+      path: `/cartridges/${encodeURIComponent(cartridgeId)}/cycles`,
+      body: input as Record<string, unknown>,
+      label: `Care cycle${serial ? ` · ${serial}` : ''}`,
+      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...cartridgesCacheKey], [...todayCacheKey]],
+    }),
+    'the care cycle',
+  );
 
 export function useLogCycle() {
   const qc = useQueryClient();

@@ -1,11 +1,25 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RecordIntegrityInput } from '@shared/schemas/care';
 import type { IntegrityResultDto } from '@shared/types/care';
-import { api } from '@/lib/api-client';
+import { answerOf } from '@/lib/offline/kept';
+import { submit } from '@/lib/offline/outbox-runtime';
 import { careKeys, cartridgesCacheKey, todayCacheKey } from './keys';
 
-export const recordIntegrityTest = ({ cartridgeId, input }: { cartridgeId: string; input: RecordIntegrityInput }) =>
-  api.post<IntegrityResultDto>(`/cartridges/${encodeURIComponent(cartridgeId)}/integrity-tests`, input);
+/**
+ * Kept on the device first and sent with its own Idempotency-Key (so a resend is stored once);
+ * without a connection it waits in the outbox and this throws KeptOnDevice.
+ */
+export const recordIntegrityTest = async ({ cartridgeId, input, serial }: { cartridgeId: string; input: RecordIntegrityInput; serial?: string }) =>
+  answerOf<IntegrityResultDto>(
+    await submit({
+      kind: 'integrity-test',
+      path: `/cartridges/${encodeURIComponent(cartridgeId)}/integrity-tests`,
+      body: input as Record<string, unknown>,
+      label: `Integrity test${serial ? ` · ${serial}` : ''}`,
+      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...cartridgesCacheKey], [...todayCacheKey]],
+    }),
+    'the integrity test',
+  );
 
 export function useRecordIntegrityTest() {
   const qc = useQueryClient();

@@ -11,6 +11,7 @@ import { Input, NumberInput } from '@/components/ui/input';
 import { Quantity } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { KeptOnDevice } from '@/lib/offline/kept';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useLogCycle } from '../api/log-cycle';
@@ -25,6 +26,7 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
   const units = useUnits();
   const log = useLogCycle();
   const [alert, setAlert] = useState<string | null>(null);
+  const [kept, setKept] = useState<string | null>(null);
 
   const schema = useMemo(
     () =>
@@ -83,11 +85,18 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
 
   const submit = form.handleSubmit(async (input) => {
     setAlert(null);
+    setKept(null);
     try {
-      const result = await log.mutateAsync({ cartridgeId: target.id, input });
+      const result = await log.mutateAsync({ cartridgeId: target.id, input, serial: target.serial });
       form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', aboveRatingConfirmed: false, at: localDateTime(new Date()) });
       onSaved(result);
     } catch (error) {
+      if (error instanceof KeptOnDevice) {
+        // Kept in the outbox: clear the form so the same entry is not made twice.
+        form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) });
+        setKept(error.message);
+        return;
+      }
       setAlert(applyServerErrors(error, form.setError, fields));
     }
   });
@@ -202,6 +211,11 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
       <FormField label="When" htmlFor="cycle-at" error={errors.at?.message}>
         <Input id="cycle-at" type="datetime-local" {...form.register('at')} />
       </FormField>
+      {kept ? (
+        <p role="status" className="rounded border border-watch-200 bg-watch-50 px-3 py-2 text-base font-semibold text-ink-900">
+          {kept}
+        </p>
+      ) : null}
       {alert ? (
         <p role="alert" className="rounded border border-stop-200 bg-stop-50 px-3 py-2 text-base text-stop-700">
           {alert}

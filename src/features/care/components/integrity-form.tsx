@@ -9,6 +9,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { KeptOnDevice } from '@/lib/offline/kept';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useRecordIntegrityTest } from '../api/record-integrity-test';
@@ -23,6 +24,7 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
   const units = useUnits();
   const record = useRecordIntegrityTest();
   const [alert, setAlert] = useState<string | null>(null);
+  const [kept, setKept] = useState<string | null>(null);
   // Pressure decay is typed in mbar (metric) or psi (US customary).
   const decayUnit = units.system === 'us' ? units.symbol('dp') : 'mbar';
   const decayToMbar = (v: number | null) => (v === null || !Number.isFinite(v) || units.system !== 'us' ? v : units.fromInput('dp', v) * 1000);
@@ -88,11 +90,18 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
 
   const submit = form.handleSubmit(async (input) => {
     setAlert(null);
+    setKept(null);
     try {
-      const result = await record.mutateAsync({ cartridgeId: target.id, input });
+      const result = await record.mutateAsync({ cartridgeId: target.id, input, serial: target.serial });
       form.reset({ ...form.getValues(), bubblePointBar: '', diffusionMlMin: '', decayMbar: '', notes: '', at: localDateTime(new Date()) });
       onSaved(result);
     } catch (error) {
+      if (error instanceof KeptOnDevice) {
+        // Kept in the outbox: clear the form so the same entry is not made twice.
+        form.reset({ ...form.getValues(), bubblePointBar: '', diffusionMlMin: '', decayMbar: '', notes: '', at: localDateTime(new Date()) });
+        setKept(error.message);
+        return;
+      }
       setAlert(applyServerErrors(error, form.setError, fields));
     }
   });
@@ -176,6 +185,11 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
       <FormField label="When" htmlFor="it-at" error={errors.at?.message}>
         <Input id="it-at" type="datetime-local" {...form.register('at')} />
       </FormField>
+      {kept ? (
+        <p role="status" className="rounded border border-watch-200 bg-watch-50 px-3 py-2 text-base font-semibold text-ink-900">
+          {kept}
+        </p>
+      ) : null}
       {alert ? (
         <p role="alert" className="rounded border border-stop-200 bg-stop-50 px-3 py-2 text-base text-stop-700">
           {alert}

@@ -8,6 +8,7 @@ import { StatusBadge } from '@/components/ui/status-badge';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
+import { FetchedAt } from '@/components/offline/fetched-at';
 import { useCareRecent } from '../api/get-care-recent';
 
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
@@ -45,6 +46,7 @@ export function RecentCare() {
   const recent = useCareRecent();
   return (
     <Card title="Recent care" description="The latest 30 cycles and tests, newest first.">
+      <FetchedAt at={recent.dataUpdatedAt} />
       {recent.isPending ? (
         <LoadingState label="Loading recent care …" />
       ) : recent.isError ? (

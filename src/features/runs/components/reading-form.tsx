@@ -1,18 +1,15 @@
-import { CircleCheck } from 'lucide-react';
+import { CircleCheck, CloudOff } from 'lucide-react';
 import { useRef, useState, type FormEvent } from 'react';
 import type { RunDetailDto } from '@shared/types/runs';
 import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { NumberInput } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
-import { ApiError, errorMessage } from '@/lib/api-client';
+import { newKey } from '@/lib/offline/outbox-runtime';
 import { useUnits } from '@/lib/units';
-import { useLogReading } from '../api/log-reading';
+import { keepAndSendReading } from '../api/log-reading';
+import { SavedReading } from './saved-reading';
 import { parseNumberText } from '@/lib/number-input';
-
-function newKey() {
-  return Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
-}
 
 const parse = (s: string): number | null => {
   const n = parseNumberText(s);
@@ -24,17 +21,23 @@ type Fields = { volumeL?: string; upstreamBar?: string; downstreamBar?: string; 
 /** Log one reading: stage, litres so far and both gauges, in the person's units. */
 export function ReadingForm({ run }: { run: RunDetailDto }) {
   const units = useUnits();
-  const log = useLogReading();
+  const [pending, setPending] = useState(false);
   const [stage, setStage] = useState('0');
   const [volume, setVolume] = useState('');
   const [up, setUp] = useState('');
   const [down, setDown] = useState('');
   // Flow and temperature change slowly: they stay filled in from one reading to the next.
-  const [flow, setFlow] = useState('');
-  const [temp, setTemp] = useState('');
+  // A page opened afresh starts from the run's latest flow and temperature.
+  const latest = (pick: (r: RunDetailDto['stages'][number]['readings'][number]) => number | null) =>
+    run.stages
+      .flatMap((st) => st.readings)
+      .filter((r) => pick(r) !== null)
+      .sort((a, b) => b.at.localeCompare(a.at))[0];
+  const [flow, setFlow] = useState(() => units.toInput('flow', latest((r) => r.flowLh)?.flowLh ?? null));
+  const [temp, setTemp] = useState(() => units.toInput('temperature', latest((r) => r.tempC)?.tempC ?? null, 1));
   const [errors, setErrors] = useState<Fields>({});
   const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState<string | null>(null);
+  const [saved, setSaved] = useState<{ stageIndex: number; text: string; waiting: boolean } | null>(null);
   // The key of the reading being sent; kept until it is stored so a retry reuses it.
   const pendingKey = useRef<string | null>(null);
   const sent = useRef<string>('');
@@ -67,21 +70,25 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
       ...(f !== undefined ? { flowLh: units.fromInput('flow', f) } : {}),
       ...(t !== undefined ? { tempC: units.fromInput('temperature', t) } : {}),
     };
-    log.mutate(
-      { runId: run.id, input },
-      {
-        onSuccess: (r) => {
-          pendingKey.current = null;
-          setSaved(`${run.stages[r.stageIndex]?.name ?? 'Stage'} · ${units.format('volume', r.volumeL)} · ΔP ${units.format('dp', r.dpBar)}`);
-          setUp('');
-          setDown('');
-        },
-        onError: (err) => {
-          if (err instanceof ApiError && Object.keys(err.fields).length > 0) setErrors(err.fields as Fields);
-          setFormError(errorMessage(err));
-        },
-      },
-    );
+    const stageIndex = Number(stage);
+    const text = `${run.stages[stageIndex]?.name ?? 'Stage'} · ${units.format('volume', input.volumeL)} · ΔP ${units.format('dp', input.upstreamBar - input.downstreamBar)}`;
+    setPending(true);
+    // Kept on the device first: a dropped connection or a closed tab loses nothing.
+    void keepAndSendReading(run, input, text)
+      .then((outcome) => {
+        if (outcome.result === 'refused') {
+          const fields = outcome.refusal.fields as Fields;
+          if (Object.keys(fields).length > 0) setErrors(fields);
+          setFormError(outcome.refusal.message);
+          return;
+        }
+        pendingKey.current = null;
+        setSaved({ stageIndex, text, waiting: outcome.result === 'waiting' });
+        setUp('');
+        setDown('');
+      })
+      .catch(() => setFormError('The reading could not be kept on this device. Try again.'))
+      .finally(() => setPending(false));
   }
 
   return (
@@ -89,15 +96,6 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
       <h2 id="log-reading-title" className="text-xl font-semibold text-ink-900">
         Log reading
       </h2>
-      {saved ? (
-        <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-ok-600 bg-ok-50 p-4">
-          <CircleCheck aria-hidden="true" className="size-10 text-ok-700" />
-          <div>
-            <p className="text-2xl font-semibold text-ok-800">Saved</p>
-            <p className="num text-base text-ink-800">{saved}</p>
-          </div>
-        </div>
-      ) : null}
       <FormField label="Stage" htmlFor="reading-stage" error={errors.stageIndex}>
         <Select id="reading-stage" value={stage} onChange={(e) => setStage(e.target.value)} options={run.stages.map((s) => ({ value: String(s.index), label: `${String(s.index + 1)}. ${s.name}` }))} />
       </FormField>
@@ -125,9 +123,33 @@ export function ReadingForm({ run }: { run: RunDetailDto }) {
           {formError}
         </p>
       ) : null}
-      <Button type="submit" size="lg" disabled={log.isPending}>
-        {log.isPending ? 'Saving …' : 'Save reading'}
+      <Button type="submit" size="lg" disabled={pending}>
+        {pending ? 'Saving …' : 'Save reading'}
       </Button>
+      {/* Right under Save: what was kept, and the stage's ΔP, forecast and a small chart. */}
+      {saved ? (
+        saved.waiting ? (
+          <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-watch-600 bg-watch-50 p-4">
+            <CloudOff aria-hidden="true" className="size-10 shrink-0 text-watch-700" />
+            <div>
+              <p className="text-xl font-semibold text-watch-800">Kept — waiting to send</p>
+              <p className="num text-base text-ink-800">{saved.text}</p>
+              <p className="text-sm text-ink-700">It is kept on this device and sent by itself when the connection is back.</p>
+            </div>
+          </div>
+        ) : (
+          <div role="status" className="flex flex-col gap-3 rounded-lg border-2 border-ok-600 bg-ok-50 p-4">
+            <div className="flex items-center gap-3">
+              <CircleCheck aria-hidden="true" className="size-10 shrink-0 text-ok-700" />
+              <div>
+                <p className="text-2xl font-semibold text-ok-800">Saved</p>
+                <p className="num text-base text-ink-800">{saved.text}</p>
+              </div>
+            </div>
+            {run.stages[saved.stageIndex] ? <SavedReading stage={run.stages[saved.stageIndex]} /> : null}
+          </div>
+        )
+      ) : null}
     </form>
   );
 }

@@ -1,26 +1,25 @@
-import { AlertTriangle, CircleCheck, Eye, Lock } from 'lucide-react';
-import { lazy, Suspense, useState } from 'react';
+import { AlertTriangle, CircleCheck, Eye } from 'lucide-react';
+import { lazy, Suspense, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
-import type { RunDetailDto, RunStageDto } from '@shared/types/runs';
-import { Button } from '@/components/ui/button';
+import type { LogReadingInput } from '@shared/schemas/runs';
+import type { RunReadingDto, RunStageDto } from '@shared/types/runs';
+import { FetchedAt } from '@/components/offline/fetched-at';
 import { CautionPanel } from '@/components/ui/caution';
 import { Card } from '@/components/ui/card';
-import { Dialog } from '@/components/ui/dialog';
-import { FormField } from '@/components/ui/form-field';
-import { Textarea } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
+import { useOutbox, type OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
-import { useCloseRun } from '../api/close-run';
 import { useRun } from '../api/get-run';
-import { ReadingCorrections } from './reading-corrections';
+import { CloseRun } from './close-run';
 import { forecastView } from './forecast-text';
+import { ReadingCorrections } from './reading-corrections';
 import { ReadingForm } from './reading-form';
+import { ReadingsTable } from './readings-table';
 import { RunCartridges } from './run-cartridges';
 
 // The chart library is large: it loads after the page (and its reading form) has painted.
@@ -47,10 +46,14 @@ function AlarmBadge({ stage }: { stage: RunStageDto }) {
   );
 }
 
-function StageCard({ stage }: { stage: RunStageDto }) {
+function StageCard({ stage, kept, rowActions }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode }) {
   const units = useUnits();
   const f = stage.forecast;
   const view = forecastView(f, stage.note, (litres) => units.format('volume', litres));
+  const waitingPoints = kept.map((e) => {
+    const x = e.body as LogReadingInput;
+    return { volumeL: x.volumeL, dpBar: x.upstreamBar - x.downstreamBar };
+  });
   return (
     <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
       <div className="flex flex-col gap-4">
@@ -78,77 +81,39 @@ function StageCard({ stage }: { stage: RunStageDto }) {
             {view.headline}
           </p>
         )}
-        {stage.readings.length > 0 ? (
+        {stage.readings.length + kept.length > 0 ? (
           <Suspense fallback={<div className="h-56 w-full" aria-hidden="true" />}>
-            <StageChart stage={stage} />
+            <StageChart stage={stage} waiting={waitingPoints} />
           </Suspense>
         ) : null}
         <p className="text-sm text-ink-600">
           {stage.readings.length} reading{stage.readings.length === 1 ? '' : 's'}
           {stage.readings.length > 0 ? <> · last ΔP {units.format('dp', stage.readings[stage.readings.length - 1].dpBar)}</> : null}
+          {kept.length > 0 ? <> · {kept.length} waiting to send</> : null}
         </p>
+        <ReadingsTable stage={stage} kept={kept} rowActions={rowActions} />
       </div>
     </Card>
   );
 }
 
-function CloseRun({ run }: { run: RunDetailDto }) {
-  const [open, setOpen] = useState(false);
-  const [notes, setNotes] = useState('');
-  const close = useCloseRun();
-  const toast = useToast();
-  const units = useUnits();
-  return (
-    <>
-      <Button variant="secondary" size="lg" onClick={() => setOpen(true)}>
-        <Lock aria-hidden="true" className="size-5" /> Close run
-      </Button>
-      <Dialog
-        open={open}
-        onClose={() => setOpen(false)}
-        title="Close this run?"
-        description={`${units.format('volume', run.currentVolumeL)} through the train. Each cartridge is credited with the litres it carried while it was in. No more readings can be logged.`}
-        footer={
-          <>
-            <Button variant="ghost" onClick={() => setOpen(false)}>
-              Keep running
-            </Button>
-            <Button
-              disabled={close.isPending}
-              onClick={() =>
-                close.mutate(
-                  { runId: run.id, input: notes.trim() ? { notes } : {} },
-                  {
-                    onSuccess: () => {
-                      setOpen(false);
-                      toast.success('Run closed');
-                    },
-                    onError: (e) => toast.error(errorMessage(e)),
-                  },
-                )
-              }
-            >
-              Close run
-            </Button>
-          </>
-        }
-      >
-        <FormField label="Closing notes (optional)" htmlFor="close-notes" hint="Printed on the lot’s record.">
-          <Textarea id="close-notes" rows={3} maxLength={2000} value={notes} onChange={(e) => setNotes(e.target.value)} />
-        </FormField>
-      </Dialog>
-    </>
-  );
+export interface RunPageProps {
+  runId: string;
+  /** Slot for a stored reading's actions in the readings tables (correct / void). */
+  readingActions?: (reading: RunReadingDto, stage: RunStageDto) => ReactNode;
 }
 
-export function RunPage({ runId }: { runId: string }) {
+export function RunPage({ runId, readingActions }: RunPageProps) {
   const units = useUnits();
   const run = useRun(runId);
   const mayLog = useCan('runs:log');
+  const outbox = useOutbox();
   if (run.isPending) return <LoadingState />;
-  if (run.isError) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
+  if (run.isError && !run.data) return <ErrorState title="This run could not be loaded" message={errorMessage(run.error)} onRetry={() => void run.refetch()} />;
   const r = run.data;
   const running = r.status === 'running';
+  const kept = outbox.filter((e) => e.kind === 'reading' && e.runId === r.id);
+  const keptOf = (index: number) => kept.filter((e) => (e.body as LogReadingInput).stageIndex === index);
   return (
     <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
       <PageHeader
@@ -163,8 +128,14 @@ export function RunPage({ runId }: { runId: string }) {
           </>
         }
         description={`${r.planName} · ${r.trainName}${r.lineName ? ` · ${r.lineName}` : ''}`}
-        actions={running && mayLog ? <CloseRun run={r} /> : <StatusBadge tone="neutral">{running ? 'Running' : 'Closed'}</StatusBadge>}
+        actions={<StatusBadge tone="neutral">{running ? 'Running' : 'Closed'}</StatusBadge>}
       />
+      <FetchedAt at={run.dataUpdatedAt} />
+      {running && mayLog ? (
+        <Card>
+          <ReadingForm run={r} />
+        </Card>
+      ) : null}
       <section aria-label="Run so far" className="grid grid-cols-1 gap-3 sm:grid-cols-2">
         <div className="rounded-lg border border-ink-200 p-4">
           <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Filtered</p>
@@ -177,16 +148,11 @@ export function RunPage({ runId }: { runId: string }) {
           <p className="text-base text-ink-700">{running ? 'Running' : 'Closed'}</p>
         </div>
       </section>
-      {running && mayLog ? (
-        <Card>
-          <ReadingForm run={r} />
-        </Card>
-      ) : null}
       <CautionPanel title="Under pressure">
         Never open a housing under pressure and keep within its pressure and temperature ratings. Forecasts are planning estimates from the readings so far.
       </CautionPanel>
       {r.stages.map((s) => (
-        <StageCard key={s.index} stage={s} />
+        <StageCard key={s.index} stage={s} kept={keptOf(s.index)} rowActions={readingActions ? (reading) => readingActions(reading, s) : undefined} />
       ))}
       <RunCartridges run={r} />
       <ReadingCorrections run={r} />
@@ -194,6 +160,11 @@ export function RunPage({ runId }: { runId: string }) {
         <Card title="Closing notes">
           <p className="whitespace-pre-line text-base text-ink-900">{r.notes}</p>
         </Card>
+      ) : null}
+      {running && mayLog ? (
+        <div className="flex justify-end border-t border-ink-200 pt-4">
+          <CloseRun run={r} waiting={kept.filter((e) => e.status === 'waiting').length} />
+        </div>
       ) : null}
     </div>
   );

@@ -5,6 +5,7 @@ import { Link } from 'react-router-dom';
 import type { TodayDto } from '@shared/types/today';
 import { Card } from '@/components/ui/card';
 import { formatNumber } from '@/components/ui/quantity';
+import { FetchedAt } from '@/components/offline/fetched-at';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { paths } from '@/config/paths';
@@ -78,6 +79,7 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
         }
       />
       {alerts}
+      <FetchedAt at={today.dataUpdatedAt} />
       {today.isPending ? (
         <LoadingState />
       ) : today.isError ? (

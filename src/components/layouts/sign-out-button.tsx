@@ -1,0 +1,47 @@
+import { LogOut } from 'lucide-react';
+import { useState } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { Button } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
+import { paths } from '@/config/paths';
+import { useOutbox } from '@/lib/offline/outbox-runtime';
+import { useSignOut } from '@/lib/session';
+
+/** Sign out; with entries still kept on this device it warns first. */
+export function SignOutButton() {
+  const navigate = useNavigate();
+  const signOut = useSignOut();
+  const kept = useOutbox();
+  const [asking, setAsking] = useState(false);
+  const go = () => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn) });
+  const n = kept.length;
+  return (
+    <>
+      <Button variant="ghost" size="sm" icon={<LogOut aria-hidden="true" className="size-4" />} loading={signOut.isPending} onClick={() => (n > 0 ? setAsking(true) : go())}>
+        Sign out
+      </Button>
+      <Dialog
+        open={asking}
+        onClose={() => setAsking(false)}
+        title={`${String(n)} ${n === 1 ? 'entry has' : 'entries have'} not been sent`}
+        description="They stay on this device and are sent only when you sign in here again. Anyone else who signs in on this device will not send them. Stay signed in until they are sent if you can."
+        footer={
+          <>
+            <Button variant="ghost" onClick={() => setAsking(false)}>
+              Stay signed in
+            </Button>
+            <Button
+              variant="danger"
+              onClick={() => {
+                setAsking(false);
+                go();
+              }}
+            >
+              Sign out anyway
+            </Button>
+          </>
+        }
+      />
+    </>
+  );
+}

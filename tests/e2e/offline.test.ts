@@ -1,0 +1,123 @@
+// @vitest-environment node
+import type { Browser, Page } from 'playwright-core';
+import { sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
+import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startTestApp({ config: { clientDir } });
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+async function storedReadings(runId: string) {
+  const res = await app.db.execute(sql`select count(*)::int as n, count(distinct client_key)::int as keys from run_readings where run_id = ${runId}::uuid`);
+  return res.rows[0] as { n: number; keys: number };
+}
+
+async function logReading(page: Page, litres: string, up: string, down: string) {
+  await page.getByLabel('Litres through the train so far').fill(litres);
+  await page.getByLabel('Upstream pressure').fill(up);
+  await page.getByLabel('Downstream pressure').fill(down);
+  await page.getByRole('button', { name: 'Save reading' }).click();
+  await page.getByRole('status').filter({ hasText: `${Number(litres).toLocaleString('en')} L` }).first().waitFor();
+}
+
+describe('the cellar without signal', () => {
+  it('readings logged offline survive a reload and a closed tab, and are stored once when the connection returns', async () => {
+    const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Offline E2E Cellars' });
+    const world = await createPlanWorld(owner);
+    const plan = await createPlan(owner, world.lineId, { name: 'Offline day' });
+    const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
+    const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
+    expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
+    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    const tech = await addMember(app, owner, 'technician');
+    const run = (await tech.client.post('/api/runs', { planLotId })).body as { id: string };
+
+    const { context, page, errors } = await signInAs(browser, app.baseUrl, tech.email, { viewport: { width: 390, height: 844 }, mobile: true, password: TEST_PASSWORD });
+    // The installable app: manifest and a service worker that takes the page.
+    const manifest = await (await page.request.get(`${app.baseUrl}/manifest.webmanifest`)).json();
+    expect(manifest).toMatchObject({ name: 'Porewise', display: 'standalone' });
+    expect(manifest.icons.some((i: { sizes: string }) => i.sizes === '512x512')).toBe(true);
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready;
+    });
+    await page.goto(`${app.baseUrl}/runs/${run.id}`);
+    await page.getByRole('heading', { name: 'Log reading' }).waitFor();
+    expect(await page.evaluate(() => Boolean(navigator.serviceWorker.controller))).toBe(true);
+    // The section tabs a technician uses sit in the bottom bar on a phone.
+    const bottom = page.getByRole('navigation', { name: 'Cellar shortcuts' });
+    for (const name of ['Today', 'Runs', 'Care', 'Cartridges']) expect(await bottom.getByRole('link', { name }).isVisible()).toBe(true);
+    // Let the kept query cache reach IndexedDB.
+    await page.waitForTimeout(1500);
+
+    // Signal gone: three readings are kept on the phone.
+    await context.setOffline(true);
+    await page.getByLabel('Flow (optional)').fill('2400');
+    await logReading(page, '500', '2.20', '2.00');
+    await page.getByText('Kept — waiting to send').waitFor();
+    await logReading(page, '1000', '2.26', '2.00');
+    await logReading(page, '1500', '2.34', '2.00');
+    await page.getByTestId('offline-bar').getByText('3 entries waiting to send').waitFor();
+    expect(await page.getByTestId('readings-0').locator('[data-waiting]').count()).toBeGreaterThanOrEqual(3);
+    await screenshot(page, 'offline-run-waiting-phone');
+
+    // Reload while still offline: the page opens from the device with the three waiting.
+    await page.reload();
+    await page.getByRole('heading', { name: 'Log reading' }).waitFor();
+    await page.getByTestId('fetched-at').waitFor();
+    await page.getByTestId('offline-bar').getByText('3 entries waiting to send').waitFor();
+    expect(await page.getByTestId('readings-0').locator('ul [data-waiting]').count()).toBe(3);
+    expect(await storedReadings(run.id)).toEqual({ n: 0, keys: 0 });
+    await screenshot(page, 'offline-run-reloaded-phone');
+
+    // A section never opened before: the offline message, not an error page.
+    await page.getByRole('navigation', { name: 'Cellar shortcuts' }).getByRole('link', { name: 'Cartridges' }).click();
+    await page.getByText('You are offline — this page was not opened before').waitFor();
+    expect(await page.getByText('Unexpected Application Error').count()).toBe(0);
+    await screenshot(page, 'offline-never-opened-phone');
+    await page.goBack();
+    await page.getByRole('heading', { name: 'Log reading' }).waitFor();
+
+    // Back online: sent, stored exactly once.
+    await context.setOffline(false);
+    await expect.poll(() => storedReadings(run.id), { timeout: 20_000 }).toEqual({ n: 3, keys: 3 });
+    await page.getByTestId('offline-bar').getByText('waiting to send').waitFor({ state: 'detached', timeout: 20_000 });
+    await expect.poll(async () => page.getByTestId('readings-0').locator('ul > li').count(), { timeout: 20_000 }).toBe(3);
+    expect(await page.getByTestId('readings-0').locator('[data-waiting]').count()).toBe(0);
+
+    // Again, with the tab closed and reopened before the signal returns.
+    await context.setOffline(true);
+    await logReading(page, '2000', '2.45', '2.00');
+    await logReading(page, '2500', '2.58', '2.00');
+    await page.close();
+    const reopened = await context.newPage();
+    const reopenedErrors: string[] = [];
+    reopened.on('pageerror', (e) => reopenedErrors.push(e.message));
+    await reopened.goto(`${app.baseUrl}/runs/${run.id}`);
+    await reopened.getByRole('heading', { name: 'Log reading' }).waitFor();
+    await reopened.getByTestId('offline-bar').getByText('2 entries waiting to send').waitFor();
+    expect((await storedReadings(run.id)).n).toBe(3);
+    await context.setOffline(false);
+    await expect.poll(() => storedReadings(run.id), { timeout: 20_000 }).toEqual({ n: 5, keys: 5 });
+    await reopened.getByTestId('offline-bar').getByText('waiting to send').waitFor({ state: 'detached', timeout: 20_000 });
+    await reopened.getByTestId('forecast-0').waitFor();
+    expect(await reopened.getByTestId('forecast-0').textContent()).toMatch(/≈ .* L \/ (\d+ h( \d\d min)?|\d+ min|under 1 min) left/);
+    await screenshot(reopened, 'offline-run-sent-phone');
+    await reopened.setViewportSize({ width: 1280, height: 900 });
+    await screenshot(reopened, 'offline-run-sent-desktop');
+
+    expect(errors.filter((e) => !/Failed to fetch|ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(e))).toEqual([]);
+    expect(reopenedErrors).toEqual([]);
+    await context.close();
+  });
+});
