@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/permissions';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -18,6 +18,7 @@ beforeAll(async () => {
     members[role] = (await addMember(app, owner, role)).client;
   }
   world = await createPlanWorld(owner);
+  await fillTrainHousings(owner, world);
 });
 afterAll(async () => {
   await app?.close();

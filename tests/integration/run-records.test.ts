@@ -5,7 +5,7 @@ import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { forecastRunFromReadings, requiredFlowLh } from '../../shared/engine';
 import type { Role } from '../../shared/permissions';
-import { cartridgesTable, runReadingsTable } from '../../server/db/schema';
+import { cartridgesTable, planTrainsTable, runReadingsTable } from '../../server/db/schema';
 import { createCartridgeType } from '../factories/equipment';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, installCartridges, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -118,10 +118,17 @@ describe('starting a run checks the cartridges physically in the train', () => {
   it('the same housing serving two stages is refused, and cannot be overridden', async () => {
     const w = await createPlanWorld(owner);
     await installCartridges(owner, w.prefilterTypeId, w.prefilterHousingId, 3);
-    const { planLotId } = await plannedLot(w, [
+    const stages = [
       { name: 'Prefilter', cartridgeTypeId: w.prefilterTypeId, housingId: w.prefilterHousingId, housingCount: 1, capacityLPerM2: 3000 },
-      { name: 'Polish', cartridgeTypeId: w.prefilterTypeId, housingId: w.prefilterHousingId, housingCount: 1, capacityLPerM2: 3000 },
-    ]);
+      { name: 'Polish', cartridgeTypeId: w.prefilterTypeId, housingId: w.membraneHousingId, housingCount: 1, capacityLPerM2: 3000 },
+    ];
+    const { planLotId } = await plannedLot(w, stages);
+    // Approval refuses one housing in two stages, so such a train can only come from an older
+    // record or a hand edit: the run's own check still stops it.
+    await app.db
+      .update(planTrainsTable)
+      .set({ stages: stages.map((st) => ({ ...st, housingId: w.prefilterHousingId })) })
+      .where(eq(planTrainsTable.planLotId, planLotId));
     const refused = await owner.post('/api/runs', { planLotId, override: { reason: 'Try anyway.' } });
     expect(refused.status).toBe(409);
     expect(codes(refused)).toEqual(['1:housing_shared']);
