@@ -37,7 +37,8 @@ describe('demo runs', () => {
         const carried = (s.cartridges as Stint[]).reduce((sum, c) => sum + (c.litresCarried ?? 0), 0);
         const perRound = carried / (s.cartridges as Stint[]).filter((c) => c.installedAtVolumeL === 0).length;
         expect(perRound).toBeCloseTo(d.currentVolumeL, 6);
-        expect(s.fit).not.toBeNull();
+        // a fit, or the plain words why there is none (too few readings since a change, ΔP not rising)
+        expect(s.fit !== null || s.forecast !== null || Boolean(s.note) || Boolean(s.flatWarning)).toBe(true);
       }
     }
     // a changed-out prefilter is in stock with exactly the litres it carried in its history

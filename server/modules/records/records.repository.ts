@@ -15,6 +15,9 @@ import {
   runReadingsTable,
   runsTable,
   usersTable,
+  runChangesTable,
+  runReadingCorrectionsTable,
+  runStageCartridgesTable,
 } from '../../db/schema';
 
 export type RecordRunRow = Awaited<ReturnType<ReturnType<typeof createRecordsRepository>['runsOfLot']>>[number];
@@ -40,6 +43,8 @@ export type StageCartridgeRow = {
   chemicalNow: number;
   installedAtVolumeL: number;
   removedAtVolumeL: number | null;
+  /** Litres before the run, as snapshotted when the run started (runs bound to their cartridges). */
+  snapshotLitresAtStart?: number;
 };
 
 /** A change or regeneration during a run. */
@@ -81,13 +86,21 @@ export function createRecordsRepository(db: DbOrTx) {
     const conds: SQL[] = [eq(cartridgeEventsTable.wineryId, wineryId), eq(cartridgeEventsTable.kind, 'run'), sql`${runIdOfEvent} = ${runsTable.id}::text`];
     if (filter.serial) conds.push(sql`lower(${cartridgesTable.serial}) = lower(${filter.serial})`);
     if (filter.batch) conds.push(sql`lower(${cartridgesTable.batch}) = lower(${filter.batch})`);
-    return exists(
-      db
-        .select({ one: sql`1` })
-        .from(cartridgeEventsTable)
-        .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
-        .where(and(...conds)),
-    );
+    const snap: SQL[] = [eq(runStageCartridgesTable.wineryId, wineryId), eq(runStageCartridgesTable.runId, runsTable.id)];
+    if (filter.serial) snap.push(sql`lower(${runStageCartridgesTable.serial}) = lower(${filter.serial})`);
+    if (filter.batch) snap.push(sql`lower(coalesce(${runStageCartridgesTable.batch}, '')) = lower(${filter.batch})`);
+    return or(
+      // Runs bound to their cartridges: serial and batch as they were at the start.
+      exists(db.select({ one: sql`1` }).from(runStageCartridgesTable).where(and(...snap))),
+      // Older runs: the cartridges their close credited.
+      exists(
+        db
+          .select({ one: sql`1` })
+          .from(cartridgeEventsTable)
+          .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
+          .where(and(...conds)),
+      ),
+    )!;
   }
 
   return {
@@ -182,6 +195,53 @@ export function createRecordsRepository(db: DbOrTx) {
       run: { id: string; status: 'running' | 'closed'; startedAt: Date },
       stageHousingIds: string[],
     ): Promise<StageCartridgeRow[]> {
+      // Runs bound to their cartridges: what the start and each change snapshotted, one row per
+      // cartridge and stage (a regeneration splits a stint; the litres add up).
+      const snapped = await db
+        .select({
+          stint: runStageCartridgesTable,
+          kind: cartridgeTypesTable.kind,
+          litresNow: cartridgesTable.litresFiltered,
+          steamNow: cartridgesTable.steamCycles,
+          hotWaterNow: cartridgesTable.hotWaterCycles,
+          chemicalNow: cartridgesTable.chemicalCycles,
+        })
+        .from(runStageCartridgesTable)
+        .innerJoin(cartridgesTable, eq(cartridgesTable.id, runStageCartridgesTable.cartridgeId))
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, runStageCartridgesTable.typeId))
+        .where(and(eq(runStageCartridgesTable.wineryId, wineryId), eq(runStageCartridgesTable.runId, run.id)))
+        .orderBy(asc(runStageCartridgesTable.installedAtVolumeL), asc(runStageCartridgesTable.createdAt));
+      if (snapped.length > 0) {
+        const rows = new Map<string, StageCartridgeRow>();
+        for (const { stint: s, ...now } of snapped) {
+          const key = `${String(s.stageIndex)}|${s.cartridgeId}`;
+          const prev = rows.get(key);
+          if (prev) {
+            prev.litresCarried = prev.litresCarried === null || s.litresCarried === null ? null : prev.litresCarried + s.litresCarried;
+            prev.removedAtVolumeL = s.removedAtVolumeL;
+            continue;
+          }
+          rows.set(key, {
+            stageIndex: s.stageIndex,
+            cartridgeId: s.cartridgeId,
+            serial: s.serial,
+            batch: s.batch ?? '',
+            typeName: s.typeName,
+            kind: now.kind,
+            ratingUm: s.ratingUm,
+            lengthIn: s.lengthIn ?? 0,
+            litresCarried: s.litresCarried,
+            litresNow: now.litresNow,
+            steamNow: now.steamNow,
+            hotWaterNow: now.hotWaterNow,
+            chemicalNow: now.chemicalNow,
+            installedAtVolumeL: s.installedAtVolumeL,
+            removedAtVolumeL: s.removedAtVolumeL,
+            snapshotLitresAtStart: s.litresAtStart,
+          });
+        }
+        return [...rows.values()].sort((a, b) => a.stageIndex - b.stageIndex || a.installedAtVolumeL - b.installedAtVolumeL || a.serial.localeCompare(b.serial));
+      }
       if (stageHousingIds.length === 0) return [];
       const stageOfHousing = (housingId: string | null) => (housingId ? stageHousingIds.indexOf(housingId) : -1);
       const columns = {
@@ -253,16 +313,51 @@ export function createRecordsRepository(db: DbOrTx) {
      * Changes and regenerations during a run. Today there are none to read (runs record no
      * changes yet). TODO(run_changes): read run_changes by run id when that table lands.
      */
-    async runChanges(_wineryId: string, _runId: string): Promise<RunChangeRow[]> {
-      return [];
+    async runChanges(wineryId: string, runId: string): Promise<RunChangeRow[]> {
+      const rows = await db
+        .select()
+        .from(runChangesTable)
+        .where(and(eq(runChangesTable.wineryId, wineryId), eq(runChangesTable.runId, runId)))
+        .orderBy(asc(runChangesTable.atVolumeL), asc(runChangesTable.createdAt));
+      if (rows.length === 0) return [];
+      const ids = [...new Set(rows.flatMap((r) => [...r.removedCartridgeIds, ...r.installedCartridgeIds]))];
+      const serials = ids.length
+        ? await db.select({ id: cartridgesTable.id, serial: cartridgesTable.serial }).from(cartridgesTable).where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.id, ids)))
+        : [];
+      const serialOf = new Map(serials.map((x) => [x.id, x.serial]));
+      return rows.map((r) => ({
+        stageIndex: r.stageIndex,
+        kind: r.kind,
+        atVolumeL: r.atVolumeL,
+        removedSerials: r.removedCartridgeIds.map((id) => serialOf.get(id) ?? id),
+        installedSerials: r.installedCartridgeIds.map((id) => serialOf.get(id) ?? id),
+        byName: r.createdByName,
+        at: r.createdAt,
+      }));
     },
 
     /**
      * Corrections and voidings of a run's readings. Today there are none (readings cannot be
      * corrected yet). TODO(run_reading_corrections): read that table by run id, oldest first.
      */
-    async readingCorrections(_wineryId: string, _runId: string): Promise<ReadingCorrectionRow[]> {
-      return [];
+    async readingCorrections(wineryId: string, runId: string): Promise<ReadingCorrectionRow[]> {
+      const rows = await db
+        .select()
+        .from(runReadingCorrectionsTable)
+        .where(and(eq(runReadingCorrectionsTable.wineryId, wineryId), eq(runReadingCorrectionsTable.runId, runId)))
+        .orderBy(asc(runReadingCorrectionsTable.createdAt));
+      return rows.map((r) => ({
+        readingId: r.readingId,
+        kind: r.kind,
+        volumeL: r.volumeL,
+        upstreamBar: r.upstreamBar,
+        downstreamBar: r.downstreamBar,
+        flowLh: r.flowLh,
+        tempC: r.tempC,
+        reason: r.reason,
+        byName: r.createdByName,
+        at: r.createdAt,
+      }));
     },
 
     /** Cycles, integrity tests and run credits of these cartridges, oldest first, with who. */

@@ -113,7 +113,7 @@ function atStart(c: StageCartridgeRow, history: RecordEventRow[], startedAt: Dat
   const count = (kind: string) => since.filter((e) => e.kind === 'cycle' && e.details.kind === kind).length;
   const litresSince = since.filter((e) => e.kind === 'run').reduce((sum, e) => sum + (typeof e.details.litres === 'number' ? e.details.litres : 0), 0);
   return {
-    litresAtStart: Math.max(0, c.litresNow - litresSince),
+    litresAtStart: c.snapshotLitresAtStart ?? Math.max(0, c.litresNow - litresSince),
     cyclesAtStart: {
       steam: Math.max(0, c.steamNow - count('steam')),
       hotWater: Math.max(0, c.hotWaterNow - count('hot-water')),
@@ -263,9 +263,9 @@ export function createRecordsService(db: Database) {
       id: run.id,
       status: run.status,
       startedAt: iso(run.startedAt),
-      startedByName: row.startedByName,
+      startedByName: run.startedByName ?? row.startedByName,
       closedAt: run.closedAt ? iso(run.closedAt) : null,
-      closedByName: row.closedByName,
+      closedByName: run.closedByName ?? row.closedByName,
       volumeFilteredL,
       bottles,
       analyses: lab
@@ -290,9 +290,8 @@ export function createRecordsService(db: Database) {
         sizing,
         sizingNote,
       },
-      // TODO(runs.override_reason): read the run's override reason and who gave it when the column lands.
-      overrideReason: null,
-      overrideByName: null,
+      overrideReason: run.overrideReason ?? null,
+      overrideByName: run.overrideByName ?? null,
       stages: stageDtos,
       notes: run.notes,
     };
