@@ -14,7 +14,7 @@ import type { Role } from '../../shared/permissions';
 import { deliveryCsv, serialPrefix } from '../factories/cartridges';
 import { createLot, createTank, labResultBody, lotBody, tankBody } from '../factories/cellar';
 import { cartridgeTypeInput, housingInput, lineInput } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, planBody, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, planBody, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, uniqueEmail, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -42,7 +42,6 @@ beforeAll(async () => {
     members[role] = { client: m.client, userId: m.userId };
   }
   world = await createPlanWorld(owner);
-  await fillTrainHousings(owner, world);
 });
 afterAll(async () => {
   await app?.close();

@@ -1,6 +1,8 @@
 import type { Database } from '../../db/client';
 import { inRecord, notFound } from '../../lib/errors';
+import type { AuditKind } from '../../../shared/schemas/audit';
 import type { TenantContext } from '../../middleware/authorize';
+import { audited } from '../audit/audit.service';
 import { createArchiveRepository, type ArchivableKind, type ArchiveRepository } from './archive.repository';
 
 const names: Record<ArchivableKind | 'plan-lots', string> = {
@@ -10,6 +12,13 @@ const names: Record<ArchivableKind | 'plan-lots', string> = {
   cartridges: 'cartridge',
   housings: 'housing',
   'cartridge-types': 'cartridge type',
+};
+const auditKindOf: Record<ArchivableKind, AuditKind> = {
+  lots: 'lot',
+  plans: 'plan',
+  cartridges: 'cartridge',
+  housings: 'housing',
+  'cartridge-types': 'cartridge-type',
 };
 const notFoundNames: Record<ArchivableKind, string> = {
   lots: 'Lot',
@@ -36,7 +45,11 @@ export function createArchiveService(db: Database) {
   return {
     async setArchived(t: TenantContext, kind: ArchivableKind, id: string, archived: boolean) {
       const at = archived ? new Date() : null;
-      if (!(await repo.setArchived(kind, t.wineryId, id, at))) throw notFound(notFoundNames[kind]);
+      // The change log gets one event in the same transaction (none when nothing was found).
+      const done = await audited(db, t, { action: archived ? 'archive' : 'unarchive', kind: auditKindOf[kind], id }, (tx) =>
+        createArchiveRepository(tx).setArchived(kind, t.wineryId, id, at),
+      );
+      if (!done) throw notFound(notFoundNames[kind]);
       return { id, archived, archivedAt: at ? at.toISOString() : null };
     },
   };

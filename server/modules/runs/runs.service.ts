@@ -425,6 +425,7 @@ export function createRunsService(db: Database) {
           createdBy: t.userId,
           createdByName: t.userName ?? null,
         });
+        await recordChange(tx, t, { action: 'change', kind: 'run', id: runId });
         for (const id of input.removedCartridgeIds) {
           const stint = open.find((c) => c.cartridgeId === id);
           if (stint) await r.endStint(t.wineryId, stint.id, input.atVolumeL);
@@ -510,6 +511,7 @@ export function createRunsService(db: Database) {
           createdBy: t.userId,
           createdByName: t.userName ?? null,
         });
+        await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);
     },
@@ -523,6 +525,7 @@ export function createRunsService(db: Database) {
         const reading = await r.reading(t.wineryId, runId, readingId);
         if (!reading) throw notFound('Reading');
         await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
+        await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);
     },
