@@ -41,7 +41,6 @@ export async function refuseIfInRecord(repo: ArchiveRepository, kind: Archivable
 
 /** Archive and unarchive: hidden from lists by default, still in every record. */
 export function createArchiveService(db: Database) {
-  const repo = createArchiveRepository(db);
   return {
     async setArchived(t: TenantContext, kind: ArchivableKind, id: string, archived: boolean) {
       const at = archived ? new Date() : null;
