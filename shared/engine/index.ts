@@ -16,3 +16,4 @@ export * from './readiness';
 export * from './cartridge-life';
 export * from './train-sizing';
 export * from './day-timeline';
+export * from './day-needs';

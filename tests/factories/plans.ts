@@ -85,3 +85,14 @@ export const addPlanLot = async (client: Client, planId: string, lotId: string, 
 
 export const addTrain = async (client: Client, planId: string, planLotId: string, body: unknown) =>
   ok<PlanDto>(await client.post(`/api/plans/${planId}/lots/${planLotId}/trains`, body), 201, 'adding a train');
+
+let serials = 0;
+/** Registers `howMany` 30-inch cartridges of each of the world's two types (through the API), so a plan is not short of stock. */
+export async function stockPlanWorld(client: Client, w: PlanWorld, howMany = 12): Promise<void> {
+  for (const typeId of [w.prefilterTypeId, w.membraneTypeId]) {
+    for (let i = 0; i < howMany; i++) {
+      serials += 1;
+      await ok(await client.post('/api/cartridges', { serial: `PW-${Date.now().toString(36)}-${process.pid}-${serials}`, typeId, lengthIn: 30 }), 201, 'Register cartridge');
+    }
+  }
+}

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
 import { createLabResult, createLot, discPoints } from '../factories/cellar';
 import { createCartridgeType } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, stockPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -17,19 +17,21 @@ beforeAll(async () => {
   app = await startTestApp();
   owner = (await signUp(app.baseUrl, { wineryName: 'Approval Test Winery' })).client;
   world = await createPlanWorld(owner);
+  await stockPlanWorld(owner, world);
 });
 afterAll(async () => {
   await app?.close();
 });
 
 /** A draft for one lot whose only train is chosen. */
-async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam' } = {}) {
-  const plan = await createPlan(owner, world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
-  const withLot = await addPlanLot(owner, plan.id, opts.lotId ?? world.lotId);
+async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam'; client?: Client; lineId?: string } = {}) {
+  const who = opts.client ?? owner;
+  const plan = await createPlan(who, opts.lineId ?? world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
+  const withLot = await addPlanLot(who, plan.id, opts.lotId ?? world.lotId);
   const planLotId = withLot.lots[0].id;
-  const withTrain = await addTrain(owner, plan.id, planLotId, train);
+  const withTrain = await addTrain(who, plan.id, planLotId, train);
   const trainId = withTrain.lots[0].trains[0].id;
-  const chosen = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+  const chosen = await who.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
   expect(chosen.status).toBe(200);
   return { planId: plan.id, detail: chosen.body as PlanDto };
 }
@@ -112,6 +114,27 @@ describe('approval with cautions needs a written reason, kept with the approval'
     const res = await owner.post(`/api/plans/${clean.planId}/approve`);
     expect(res.status).toBe(200);
     expect(res.body.approvalOverride).toBeNull();
+  });
+});
+
+describe('a cartridge stock shortfall needs a written reason', () => {
+  it('a winery with no usable cartridges for the day: refused without a reason, approved with one; stocked, approved bare', async () => {
+    const other = (await signUp(app.baseUrl, { wineryName: 'Approval Stock Winery' })).client;
+    const w = await createPlanWorld(other);
+    const { planId, detail } = await chosenDraft(trainBody(w), { client: other, lineId: w.lineId, lotId: w.lotId });
+    expect(detail.needs.every((n) => n.verdict === 'short')).toBe(true);
+    const bare = await other.post(`/api/plans/${planId}/approve`);
+    expect(bare.status).toBe(409);
+    expect(bare.body.error.code).toBe('plan_needs_reason');
+    expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/Stock: .* needs 3 for the day, 0 usable on hand, 3 short/);
+    const ok = await other.post(`/api/plans/${planId}/approve`, { reason: 'Delivery due the day before.' });
+    expect(ok.status).toBe(200);
+    expect(ok.body.approvalOverride.cautions.join(' ')).toMatch(/short/);
+
+    await stockPlanWorld(other, w, 3);
+    const stocked = await chosenDraft(trainBody(w), { client: other, lineId: w.lineId, lotId: w.lotId });
+    expect(stocked.detail.needs.every((n) => n.verdict === 'enough')).toBe(true);
+    expect((await other.post(`/api/plans/${stocked.planId}/approve`)).status).toBe(200);
   });
 });
 
