@@ -39,7 +39,7 @@ describe('dayCartridgeNeeds', () => {
     expect(day.lines).toEqual([
       expect.objectContaining({ cartridgeTypeId: 'mem', cartridgesNeeded: 3, elementEquivalentsNeeded: 9, lotLabels: ['A'], cartridgesAvailable: 3, shortfall: 0, verdict: 'enough' }),
     ]);
-    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 0, regenerations: 0, changes: 0 }]);
+    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 0, regenerations: 0, changes: 0, stops: [] }]);
   });
 
   it('changes the carried set during the next lot when its capacity runs out', () => {
@@ -52,7 +52,7 @@ describe('dayCartridgeNeeds', () => {
       stock('mem', 3),
     );
     expect(day.lines[0]).toMatchObject({ cartridgesNeeded: 6, lotLabels: ['A', 'B'], shortfall: 3, verdict: 'short' });
-    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 1, regenerations: 0, changes: 1 }]);
+    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 1, regenerations: 0, changes: 1, stops: [{ kind: 'change', afterL: 4000 }] }]);
   });
 
   it('regenerates a carried regenerable set before changing it', () => {
@@ -67,9 +67,10 @@ describe('dayCartridgeNeeds', () => {
       stock('pre', 10),
     );
     expect(day.lots.map((l) => l.stages)).toEqual([
-      [{ carriedOver: false, newSets: 1, regenerations: 2, changes: 0 }],
-      [{ carriedOver: true, newSets: 0, regenerations: 0, changes: 0 }],
-      [{ carriedOver: true, newSets: 1, regenerations: 0, changes: 1 }],
+      [{ carriedOver: false, newSets: 1, regenerations: 2, changes: 0, stops: [{ kind: 'regeneration', afterL: 4000 }, { kind: 'regeneration', afterL: 8000 }] }],
+      [{ carriedOver: true, newSets: 0, regenerations: 0, changes: 0, stops: [] }],
+      // The carried set is used up exactly: the change comes before the first litre of C.
+      [{ carriedOver: true, newSets: 1, regenerations: 0, changes: 1, stops: [{ kind: 'change', afterL: 0 }] }],
     ]);
     expect(day.lines[0]).toMatchObject({ cartridgesNeeded: 6, lotLabels: ['A', 'C'] });
   });
@@ -84,7 +85,7 @@ describe('dayCartridgeNeeds', () => {
       ],
       [],
     );
-    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 0, regenerations: 2, changes: 0 }]);
+    expect(day.lots[1].stages).toEqual([{ carriedOver: true, newSets: 0, regenerations: 2, changes: 0, stops: [{ kind: 'regeneration', afterL: 1000 }, { kind: 'regeneration', afterL: 5000 }] }]);
     expect(day.lines[0]).toMatchObject({ cartridgesNeeded: 3, cartridgesAvailable: 0, shortfall: 3 });
   });
 
@@ -102,7 +103,7 @@ describe('dayCartridgeNeeds', () => {
       [],
     );
     expect(day.lots.map((l) => l.stages?.[0].newSets ?? null)).toEqual([1, 1, null, 1, 1, 1]);
-    expect(day.lots[5].stages?.[0]).toEqual({ carriedOver: false, newSets: 1, regenerations: null, changes: null });
+    expect(day.lots[5].stages?.[0]).toEqual({ carriedOver: false, newSets: 1, regenerations: null, changes: null, stops: [] });
     expect(day.lines[0].cartridgesNeeded).toBe(15);
   });
 
@@ -126,6 +127,23 @@ describe('dayCartridgeNeeds', () => {
     expect(cartridgeSpent({ steamCycles: 99, hotWaterCycles: 500, chemicalCycles: 19 }, rated)).toBe(false);
     expect(cartridgeSpent({ steamCycles: 100, hotWaterCycles: 0, chemicalCycles: 0 }, rated)).toBe(true);
     expect(cartridgeSpent({ steamCycles: 0, hotWaterCycles: 0, chemicalCycles: 20 }, rated)).toBe(true);
+  });
+
+  it('lists the stops of a lot not carried over: regenerations, then a change to a new set', () => {
+    // 1 + 1 loads per set, 4,000 L per load, 13,000 L: loads at 0, 4,000, 8,000, 12,000 L;
+    // sets 1 (loads 0–1) and 2 (loads 2–3).
+    const day = dayCartridgeNeeds([{ lotId: 'a', label: 'A', volumeL: 13000, stages: [prefilter({ maxRegenerationsPerLot: 1 })] }], []);
+    expect(day.lots[0].stages?.[0]).toEqual({
+      carriedOver: false,
+      newSets: 2,
+      regenerations: 2,
+      changes: 1,
+      stops: [
+        { kind: 'regeneration', afterL: 4000 },
+        { kind: 'change', afterL: 8000 },
+        { kind: 'regeneration', afterL: 12000 },
+      ],
+    });
   });
 
   it('refuses a negative volume', () => {

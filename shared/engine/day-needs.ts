@@ -58,6 +58,8 @@ export interface DayNeedsStageUse {
   regenerations: number | null;
   /** Changes to a new set during the lot (not counting a set installed before it starts), or null when unknown. */
   changes: number | null;
+  /** Each regeneration and change during the lot, after so many litres of it, in order (for the day's timeline). */
+  stops: { kind: 'regeneration' | 'change'; afterL: number }[];
 }
 
 /** Cartridges of one type and length over the day. */
@@ -135,7 +137,7 @@ export function dayCartridgeNeeds(lots: readonly DayNeedsLot[], cartridges: read
       if (s.capacityL === null || !(s.capacityL > 0)) {
         if (s.capacityL !== null) requireNonNegative(`${lot.label} capacity`, s.capacityL);
         newSets = 1;
-        use = { carriedOver: false, newSets, regenerations: null, changes: null };
+        use = { carriedOver: false, newSets, regenerations: null, changes: null, stops: [] };
         next.push(null);
       } else {
         const cap = s.capacityL;
@@ -143,7 +145,7 @@ export function dayCartridgeNeeds(lots: readonly DayNeedsLot[], cartridges: read
         const carriedL = prev ? prev.fractionLeft * cap : 0;
         if (prev && lot.volumeL <= carriedL + 1e-9 * cap) {
           newSets = 0;
-          use = { carriedOver: true, newSets, regenerations: 0, changes: 0 };
+          use = { carriedOver: true, newSets, regenerations: 0, changes: 0, stops: [] };
           next.push({ fractionLeft: Math.max(0, prev.fractionLeft - lot.volumeL / cap), loadsOnSet: prev.loadsOnSet });
         } else {
           const rest = lot.volumeL - carriedL;
@@ -153,7 +155,16 @@ export function dayCartridgeNeeds(lots: readonly DayNeedsLot[], cartridges: read
           newSets = perSet === Infinity ? (restLoads > 0 ? 1 : 0) : Math.ceil(restLoads / perSet);
           const loadsOnSet = restLoads > 0 ? (perSet === Infinity ? restLoads : restLoads - (newSets - 1) * perSet) : (prev?.loadsOnSet ?? 0) + loads;
           const changes = prev ? newSets : newSets - 1;
-          use = { carriedOver: Boolean(prev), newSets, regenerations: loads - newSets, changes };
+          // Load j starts after carriedL + j × capacity litres; the first load of a lot not carried
+          // over is the set installed before it. Loads on the carried set are regenerations; then
+          // each new set's first load is a change and its others regenerations.
+          const stops: DayNeedsStageUse['stops'] = [];
+          for (let j = prev ? 0 : 1; j < loads; j++) {
+            const k = j - onCurrent;
+            const kind = j < onCurrent ? 'regeneration' : perSet === Infinity ? (k === 0 ? 'change' : 'regeneration') : k % perSet === 0 ? 'change' : 'regeneration';
+            stops.push({ kind, afterL: carriedL + j * cap });
+          }
+          use = { carriedOver: Boolean(prev), newSets, regenerations: loads - newSets, changes, stops };
           next.push({ fractionLeft: Math.max(0, (loads * cap - rest) / cap), loadsOnSet });
         }
       }

@@ -135,6 +135,52 @@ describe('a cartridge stock shortfall needs a written reason', () => {
     const stocked = await chosenDraft(trainBody(w), { client: other, lineId: w.lineId, lotId: w.lotId });
     expect(stocked.detail.needs.every((n) => n.verdict === 'enough')).toBe(true);
     expect((await other.post(`/api/plans/${stocked.planId}/approve`)).status).toBe(200);
+
+    // A membrane whose latest bubble point failed (2.0 < 3.2 bar) is no longer usable stock.
+    const membranes = (await other.get(`/api/cartridges?typeId=${w.membraneTypeId}`)).body.items as { id: string }[];
+    expect(membranes.length).toBe(3);
+    const failed = await other.post(`/api/cartridges/${membranes[0].id}/integrity-tests`, { test: 'bubble-point', bubblePointBar: 2, wettingFluid: 'water' });
+    expect(failed.status).toBe(201);
+    const after = (await other.get(`/api/plans/${stocked.planId}`)).body as PlanDto;
+    expect(after.needs.find((n) => n.kind === 'membrane')).toMatchObject({ cartridgesAvailable: 2, notUsable: 1, shortfall: 1, verdict: 'short' });
+  });
+});
+
+describe('the day: needs with a set carried over, and every regeneration on the timeline', () => {
+  it('two lots through the same train use one set; a small capacity puts each regeneration on the timeline', async () => {
+    // Prefilter 3,000 L/m² × 0.45 m² × 9 = 12,150 L per load; membrane 2,000 × 0.7 × 9 = 12,600 L:
+    // 6,000 L then 3,000 L fit one set of each (hand-calculated).
+    const plan = await createPlan(owner, world.lineId);
+    await addPlanLot(owner, plan.id, world.lotId, 6000);
+    const two = await addPlanLot(owner, plan.id, world.secondLotId, 3000);
+    const choose = async (planLotId: string, body: Record<string, unknown>) => {
+      const withTrain = await addTrain(owner, plan.id, planLotId, body);
+      const trainId = withTrain.lots.find((l) => l.id === planLotId)!.trains.at(-1)!.id;
+      const res = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+      expect(res.status).toBe(200);
+      return res.body as PlanDto;
+    };
+    const [first, second] = two.lots;
+    await choose(first.id, trainBody(world));
+    const both = await choose(second.id, trainBody(world));
+    expect(both.needs.map((n) => [n.kind, n.cartridgesNeeded, n.lotCodes])).toEqual([
+      ['prefilter', 3, [first.lot.code]],
+      ['membrane', 3, [first.lot.code]],
+    ]);
+    expect(both.timeline!.blocks.filter((b) => b.kind === 'regeneration' || b.kind === 'change')).toEqual([]);
+
+    // Prefilter at 500 L/m²: 2,025 L per load, so 6,000 L takes 3 loads: regenerated after 2,025 and 4,050 L.
+    const small = trainBody(world, { name: 'Small' });
+    small.stages[0].capacityLPerM2 = 500;
+    const withStops = await choose(first.id, small);
+    const stops = withStops.timeline!.blocks.filter((b) => b.planLotId === first.id && b.kind !== 'run' && b.kind !== 'push-out');
+    expect(stops.map((b) => [b.kind, b.label, b.minutes])).toEqual([
+      ['regeneration', `${first.lot.code}: Regeneration of Prefilter`, 20],
+      ['regeneration', `${first.lot.code}: Regeneration of Prefilter`, 20],
+    ]);
+    const runs = withStops.timeline!.blocks.filter((b) => b.planLotId === first.id && b.kind === 'run');
+    const flow = withStops.requiredFlowLh!;
+    expect(runs.map((b) => b.minutes)).toEqual([2025, 2025, 1950].map((l) => expect.closeTo((l / flow) * 60, 6)));
   });
 });
 

@@ -91,6 +91,7 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
   if (planLots.length === 0) blockers.push('Add at least one lot to bottle.');
 
   const dayLots: DayNeedsLot[] = [];
+  const stageNames: string[][] = [];
   const lots: PlanLotDto[] = [];
   for (const { planLot, lot: lotRow } of planLots) {
     const lot = { ...lotRow, vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null };
@@ -121,11 +122,12 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
       }
     }
     dayLots.push({ lotId: planLot.id, label: lot.code, volumeL: planLot.volumeL, stages: dayStages });
+    stageNames.push(chosen?.outcome.ok ? chosen.outcome.result.stages.map((s) => s.name) : []);
     lots.push(presentPlanLot(planLot, lot, dtos.map((d) => d.dto)));
   }
 
   // The day's needs in lot order (a set carries over between lots of the same train) against usable stock.
-  const day = dayCartridgeNeeds(
+  const dayNeeds = dayCartridgeNeeds(
     dayLots,
     stock.map((c) => ({
       cartridgeTypeId: c.typeId,
@@ -135,7 +137,7 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
       latestIntegrityPass: c.latestIntegrityPass,
     })),
   );
-  const needList: PlanNeedDto[] = day.lines.map((n) => {
+  const needList: PlanNeedDto[] = dayNeeds.lines.map((n) => {
     const type = typeById.get(n.cartridgeTypeId)!;
     return {
       cartridgeTypeId: n.cartridgeTypeId,
@@ -175,7 +177,14 @@ async function buildPlan(repo: PlansRepository, wineryId: string, id: string, op
       const day = buildDayTimeline({
         startMs: planStartMs(row.plan.plannedDate, row.plan.startTime),
         sanitationKind: row.plan.sanitationKind,
-        lots: planLots.map(({ planLot, lot }) => ({ lotId: planLot.id, label: lot.code, volumeL: planLot.volumeL, flowLh: flowLh! })),
+        lots: planLots.map(({ planLot, lot }, i) => ({
+          lotId: planLot.id,
+          label: lot.code,
+          volumeL: planLot.volumeL,
+          flowLh: flowLh!,
+          // Every regeneration and change of the chosen train's stages within the lot.
+          stops: (dayNeeds.lots[i].stages ?? []).flatMap((use, k) => use.stops.map((stop) => ({ ...stop, stage: stageNames[i][k] }))),
+        })),
       });
       timeline = presentTimeline(day, row.plan.plannedDate, null);
     } catch (error) {
