@@ -1,6 +1,6 @@
 import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
 import { useEffect, useId, useMemo, useState } from 'react';
-import { suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
+import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
 import {
   BLOCKING_WARNING_CODES,
   STAGES_MAX,
@@ -73,10 +73,13 @@ function Figure({ label, children, tone, testId }: { label: string; children: Re
   );
 }
 
+/** "⅓" for the engine's clean-ΔP share of terminal, else the percentage. */
+const fractionWords = Math.abs(CLEAN_DP_MAX_FRACTION_OF_TERMINAL - 1 / 3) < 1e-9 ? '⅓' : `${Math.round(CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100)} % of`;
+
 /** The engine's figures for one stage, in the person's units. */
 function StageFigures({ s }: { s: StageSizing }) {
   const u = useUnits();
-  const third = s.terminalDpBar / 3;
+  const third = s.terminalDpBar * CLEAN_DP_MAX_FRACTION_OF_TERMINAL;
   const dpShare = Math.min(1, s.cleanDpBar / s.terminalDpBar);
   return (
     <dl className="mt-2 rounded border border-ink-200 bg-ink-50 px-2.5 py-1.5">
@@ -87,11 +90,11 @@ function StageFigures({ s }: { s: StageSizing }) {
         {u.format('flow', s.fluxLhPer10in)} <span className="font-normal text-ink-600">of {u.format('flow', s.designFluxLhPer10in)}</span>
       </Figure>
       <Figure label="Clean ΔP" tone={s.cleanDpBar > third ? 'over' : 'ok'} testId="stage-dp">
-        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} (⅓ terminal)</span>
+        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} ({fractionWords} terminal)</span>
       </Figure>
       <div aria-hidden="true" className="relative my-1 h-1.5 rounded-full bg-ink-200">
         <div className={cn('h-1.5 rounded-full', s.cleanDpBar > third ? 'bg-stop-600' : 'bg-primary-600')} style={{ width: `${Math.max(2, dpShare * 100)}%` }} />
-        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: '33.33%' }} />
+        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: `${CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100}%` }} />
       </div>
       <Figure label="To terminal ΔP" testId="stage-capacity">
         {s.infeasible ? (
