@@ -76,7 +76,7 @@ export function isKnownUnit(unit: string): boolean {
 export type UnitSystem = 'metric' | 'us';
 
 /** Kinds of quantity shown to users. `dp` is a differential pressure; `pressure` is gauge. */
-export type QuantityKind = 'pressure' | 'dp' | 'volume' | 'flow' | 'temperature' | 'area' | 'flux' | 'length';
+export type QuantityKind = 'pressure' | 'dp' | 'volume' | 'flow' | 'temperature' | 'area' | 'flux' | 'length' | 'loading';
 
 /** All quantity kinds, in a stable order. */
 export const QUANTITY_KINDS: readonly QuantityKind[] = [
@@ -88,11 +88,12 @@ export const QUANTITY_KINDS: readonly QuantityKind[] = [
   'area',
   'flux',
   'length',
+  'loading',
 ];
 
 /**
  * The unit in which the engine and the database store each kind of quantity
- * (mathjs unit names): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m.
+ * (mathjs unit names): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m, L/m².
  */
 export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
   pressure: 'bar',
@@ -103,6 +104,7 @@ export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
   area: 'm^2',
   flux: 'LMH',
   length: 'm',
+  loading: 'L/m^2',
 };
 
 /** How one kind of quantity is shown in one unit system. */
@@ -126,6 +128,8 @@ export const DISPLAY_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Quantity
     area: { unit: 'm^2', symbol: 'm²', digits: 2 },
     flux: { unit: 'LMH', symbol: 'L/m²/h', digits: 0 },
     length: { unit: 'm', symbol: 'm', digits: 2 },
+    // Litres per m² of filter: a stage's capacity and a disc test's Vmax.
+    loading: { unit: 'L/m^2', symbol: 'L/m²', digits: 0 },
   },
   us: {
     pressure: { unit: 'psi', symbol: 'psi', digits: 1 },
@@ -136,6 +140,7 @@ export const DISPLAY_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Quantity
     area: { unit: 'ft^2', symbol: 'ft²', digits: 1 },
     flux: { unit: 'gfd', symbol: 'gal/ft²/day', digits: 1 },
     length: { unit: 'ft', symbol: 'ft', digits: 2 },
+    loading: { unit: 'gal/ft^2', symbol: 'gal/ft²', digits: 1 },
   },
 };
 
@@ -244,4 +249,18 @@ export function formatQuantity(
   const d = displayUnitFor(kind, valueInMetric, system, opts);
   const { value, unit } = toUserUnits(kind, valueInMetric, system, opts);
   return `${formatNumber(value, opts?.digits ?? d.digits)} ${unit}`;
+}
+
+/** Litres in the volume a cost is given per: a hectolitre (metric), 100 US gallons (US customary). */
+export const COST_VOLUME_BASIS: Readonly<Record<UnitSystem, { litres: number; per: string }>> = {
+  metric: { litres: 100, per: 'hL' },
+  // 100 gal × 3.785411784 L (NIST Handbook 44 App. C).
+  us: { litres: 378.5411784, per: '100 gal' },
+};
+
+/** A cost per hL shown in the person's units: per hL (metric) or per 100 US gal. */
+export function costPerVolumeBasis(costPerHl: number, system: UnitSystem): { value: number; per: string } {
+  requireFinite('cost per hL', costPerHl);
+  const basis = COST_VOLUME_BASIS[system];
+  return { value: (costPerHl * basis.litres) / 100, per: basis.per };
 }

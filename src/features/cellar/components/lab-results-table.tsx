@@ -25,7 +25,7 @@ function DiscCell({ disc }: { disc: LabResultDto['disc'] }) {
   }
   return (
     <span className="flex flex-col items-end">
-      <Quantity value={disc.vmaxLPerM2} unit="L/m²" digits={0} />
+      <MetricQuantity kind="loading" value={disc.vmaxLPerM2} />
       <span className="text-xs text-ink-600">
         J₀ <MetricQuantity kind="flux" value={disc.j0LPerM2H} />
       </span>

@@ -1,6 +1,6 @@
 import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
 import { useEffect, useId, useMemo, useState } from 'react';
-import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
+import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, COST_VOLUME_BASIS, costPerVolumeBasis, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
 import {
   BLOCKING_WARNING_CODES,
   STAGES_MAX,
@@ -26,20 +26,28 @@ import { parseNumberText } from '@/lib/number-input';
 /** A stage as typed: text fields stay text until sized or saved. */
 type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
 
-const toDraft = (t: PlanTrainDto): DraftStage[] =>
+type Units = ReturnType<typeof useUnits>;
+
+/** Capacity per m² as shown in the person's units (L/m² or gal/ft²). */
+const capacityText = (v: number | null, u: Units) => (v === null ? '' : u.toInput('loading', v));
+
+const toDraft = (t: PlanTrainDto, u: Units): DraftStage[] =>
   t.stages.map((s) => ({
     name: s.name ?? '',
     cartridgeTypeId: s.cartridgeTypeId,
     housingId: s.housingId,
     housingCount: String(s.housingCount),
-    capacity: s.capacityLPerM2 === null ? '' : String(s.capacityLPerM2),
+    capacity: capacityText(s.capacityLPerM2, u),
   }));
 
 const parseNumber = (text: string) => parseNumberText(text) ?? undefined;
 
-const toStages = (draft: DraftStage[]): TrainStageInput[] =>
-  draft.map((d) => {
-    const capacity = parseNumber(d.capacity);
+/** Stages to size or save; a capacity left as shown keeps its stored value exactly (no rounding back from gal/ft²). */
+const toStages = (draft: DraftStage[], t: PlanTrainDto, u: Units): TrainStageInput[] =>
+  draft.map((d, i) => {
+    const stored = t.stages[i]?.capacityLPerM2 ?? null;
+    const typed = parseNumber(d.capacity);
+    const capacity = stored !== null && d.capacity === capacityText(stored, u) ? stored : typed === undefined ? undefined : u.fromInput('loading', typed);
     return {
       ...(d.name.trim() ? { name: d.name.trim() } : {}),
       cartridgeTypeId: d.cartridgeTypeId,
@@ -60,6 +68,9 @@ const interventionWords = (s: StageSizing) => {
 
 const money = (v: number | null, currency: string | null) =>
   v === null ? '—' : new Intl.NumberFormat(undefined, { style: 'currency', currency: currency ?? 'EUR', maximumFractionDigits: 2 }).format(v);
+
+/** A cost per hL in the person's units: per hL, or per 100 gal in US customary. */
+const costPer = (v: number | null, u: Units) => (v === null ? null : costPerVolumeBasis(v, u.system).value);
 
 function Figure({ label, children, tone, testId }: { label: string; children: React.ReactNode; tone?: 'ok' | 'over'; testId?: string }) {
   return (
@@ -111,9 +122,9 @@ function StageFigures({ s }: { s: StageSizing }) {
       <Figure label="Regenerations or changes" testId="stage-interventions">
         <span className="font-normal">{interventionWords(s)}</span>
       </Figure>
-      <Figure label="Cost per hL" testId="stage-cost">
+      <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}`} testId="stage-cost">
         {s.costIsLowerBound ? 'at least ' : ''}
-        {money(s.costPerHl, s.currency)}
+        {money(costPer(s.costPerHl, u), s.currency)}
         {s.costBasis === 'service-life' ? <span className="font-normal text-ink-600"> (set spread over its life)</span> : null}
         {s.costBasis === 'whole-set' ? <span className="font-normal text-ink-600"> (whole set: no rated cycles)</span> : null}
       </Figure>
@@ -159,9 +170,9 @@ function Totals({ r }: { r: TrainSizingResult }) {
         {u.format('pressure', r.totals.pumpPressureCleanBar)} → {u.format('pressure', r.totals.pumpPressureEndOfRunBar)}
       </Figure>
       <Figure label="Hold-up">{u.format('volume', r.totals.holdUpL, 1)}</Figure>
-      <Figure label="Cost per hL, train" testId="train-cost">
+      <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}, train`} testId="train-cost">
         {r.totals.costIsLowerBound && r.totals.costPerHl !== null ? 'at least ' : ''}
-        {money(r.totals.costPerHl, r.totals.currency)}
+        {money(costPer(r.totals.costPerHl, u), r.totals.currency)}
         {r.totals.unpricedStages.length > 0 && r.totals.costPerHl !== null ? <span className="font-normal text-ink-600"> (priced stages only)</span> : null}
       </Figure>
     </dl>
@@ -187,17 +198,18 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
   const choose = useUpdatePlanLot();
   const { cartridgeTypes, housings } = plan.catalogue;
   const [name, setName] = useState(train.name);
-  const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train));
+  const u = useUnits();
+  const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train, u));
   const [suggestNote, setSuggestNote] = useState<string | null>(null);
-  const saved = JSON.stringify({ n: train.name, s: toDraft(train) });
+  const saved = JSON.stringify({ n: train.name, s: toDraft(train, u) });
   useEffect(() => {
     setName(train.name);
-    setDraft(toDraft(train));
+    setDraft(toDraft(train, u));
   }, [saved]);
   const dirty = saved !== JSON.stringify({ n: name, s: draft });
   const chosen = planLot.chosenTrainId === train.id;
 
-  const stages = useMemo(() => toStages(draft), [draft]);
+  const stages = useMemo(() => toStages(draft, train, u), [draft, train, u.system]);
   const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses, sanitationKind: plan.sanitationKind };
   const sized = useMemo(
     () => sizePlanTrain(source),
@@ -281,7 +293,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
                     <NumberInput id={`${id}-n${i}`} disabled={!editable} value={d.housingCount} onChange={(e) => setStage(i, { housingCount: e.target.value })} />
                   </FormField>
                   <FormField label="Capacity" htmlFor={`${id}-c${i}`}>
-                    <NumberInput id={`${id}-c${i}`} unit="L/m²" placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
+                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
                   </FormField>
                 </div>
               </div>
