@@ -22,6 +22,7 @@ import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
 import { parseNumberText } from '@/lib/number-input';
+import { HosesEditor, toDraftHoses, toHoses, type DraftHose } from './hoses-editor';
 
 /** A stage as typed: text fields stay text until sized or saved. */
 type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
@@ -47,7 +48,7 @@ const toStages = (draft: DraftStage[], t: PlanTrainDto, u: Units): TrainStageInp
   draft.map((d, i) => {
     const stored = t.stages[i]?.capacityLPerM2 ?? null;
     const typed = parseNumber(d.capacity);
-    const capacity = stored !== null && d.capacity === capacityText(stored, u) ? stored : typed === undefined ? undefined : u.fromInput('loading', typed);
+    const capacity = stored !== null && d.capacity === capacityText(stored, u) ? stored : typed === undefined || !Number.isFinite(typed) ? typed : u.fromInput('loading', typed);
     return {
       ...(d.name.trim() ? { name: d.name.trim() } : {}),
       cartridgeTypeId: d.cartridgeTypeId,
@@ -169,6 +170,9 @@ function Totals({ r }: { r: TrainSizingResult }) {
       <Figure label="Pump pressure, clean → end">
         {u.format('pressure', r.totals.pumpPressureCleanBar)} → {u.format('pressure', r.totals.pumpPressureEndOfRunBar)}
       </Figure>
+      <Figure label="Line loss (hoses)" testId="train-line-loss">
+        {u.format('dp', r.totals.lineLossBar)}
+      </Figure>
       <Figure label="Hold-up">{u.format('volume', r.totals.holdUpL, 1)}</Figure>
       <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}, train`} testId="train-cost">
         {r.totals.costIsLowerBound && r.totals.costPerHl !== null ? 'at least ' : ''}
@@ -201,19 +205,22 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
   const u = useUnits();
   const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train, u));
   const [suggestNote, setSuggestNote] = useState<string | null>(null);
-  const saved = JSON.stringify({ n: train.name, s: toDraft(train, u) });
+  const [hoseDraft, setHoseDraft] = useState<DraftHose[]>(() => toDraftHoses(train.hoses, u));
+  const saved = JSON.stringify({ n: train.name, s: toDraft(train, u), h: toDraftHoses(train.hoses, u) });
   useEffect(() => {
     setName(train.name);
     setDraft(toDraft(train, u));
+    setHoseDraft(toDraftHoses(train.hoses, u));
   }, [saved]);
-  const dirty = saved !== JSON.stringify({ n: name, s: draft });
+  const dirty = saved !== JSON.stringify({ n: name, s: draft, h: hoseDraft });
   const chosen = planLot.chosenTrainId === train.id;
 
   const stages = useMemo(() => toStages(draft, train, u), [draft, train, u.system]);
-  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses, sanitationKind: plan.sanitationKind };
+  const hoses = useMemo(() => toHoses(hoseDraft, train.hoses, u), [hoseDraft, train.hoses, u.system]);
+  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses, sanitationKind: plan.sanitationKind };
   const sized = useMemo(
     () => sizePlanTrain(source),
-    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, train.hoses, plan.sanitationKind],
+    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, hoses, plan.sanitationKind],
   );
 
   const setStage = (i: number, patch: Partial<DraftStage>) => setDraft((d) => d.map((s, k) => (k === i ? { ...s, ...patch } : s)));
@@ -237,7 +244,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
 
   const onSave = async () => {
     try {
-      await save.mutateAsync({ planId: plan.id, planLotId: planLot.id, trainId: train.id, changes: { name, stages } });
+      await save.mutateAsync({ planId: plan.id, planLotId: planLot.id, trainId: train.id, changes: { name, stages, hoses: hoses.length > 0 ? hoses : null } });
       toast.success(`${name} saved`);
     } catch (error) {
       toast.error('The train was not saved', errorMessage(error, { preferField: true }));
@@ -302,6 +309,8 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
           );
         })}
       </ol>
+
+      <HosesEditor id={`${id}-hoses`} draft={hoseDraft} setDraft={setHoseDraft} editable={editable} units={u} />
 
       {sized.ok ? (
         <>
