@@ -62,6 +62,7 @@ describe('buildDayTimeline — hot-water day with two lots (hand calculation)', 
       runMin: 150,
       pushOutMin: 20,
       changeoverMin: 30,
+      interventionMin: 0,
       nonRunMin: 135,
       volumeL: 6187.5,
     });
@@ -157,5 +158,44 @@ describe('buildDayTimeline — properties (fast-check)', () => {
       ),
       { numRuns: 200 },
     );
+  });
+});
+
+describe('buildDayTimeline — regenerations and changes within a lot', () => {
+  it('cuts the run at each stop and merges stops of two stages at the same litre (hand-calculated; durations common practice, no source)', () => {
+    // 6,000 L at 2,000 L/h: 3 h. Prefilter regenerated after 2,000 L; membrane changed and
+    // prefilter regenerated after 4,000 L (one 30-min change block).
+    const day = buildDayTimeline({
+      startMs: 0,
+      sanitationKind: 'hot-water',
+      steps: { sanitationMin: 0, coolDownMin: 0, integrityTestMin: 0, pushOutMin: 0, postIntegrityTestMin: 0 },
+      lots: [
+        {
+          label: 'W1',
+          volumeL: 6000,
+          flowLh: 2000,
+          stops: [
+            { kind: 'regeneration', stage: 'Prefilter', afterL: 4000 },
+            { kind: 'regeneration', stage: 'Prefilter', afterL: 2000 },
+            { kind: 'change', stage: 'Membrane', afterL: 4000 },
+          ],
+        },
+      ],
+    });
+    expect(day.blocks.map((b) => [b.kind, b.label, (b.endMs - b.startMs) / MIN])).toEqual([
+      ['run', 'Run: W1', 60],
+      ['regeneration', 'W1: Regeneration of Prefilter', 20],
+      ['run', 'Run: W1', 60],
+      ['change', 'W1: Regeneration of Prefilter, change of Membrane', 30],
+      ['run', 'Run: W1', 60],
+    ]);
+    expect(day.totals).toMatchObject({ runMin: 180, interventionMin: 50, nonRunMin: 50, totalMin: 230 });
+    expect(DEFAULT_DAY_STEPS.steam).toMatchObject({ regenerationMin: 20, changeMin: 30 });
+  });
+
+  it('refuses a stop at or after the end of the lot', () => {
+    expect(() =>
+      buildDayTimeline({ startMs: 0, sanitationKind: 'steam', lots: [{ label: 'A', volumeL: 1000, flowLh: 1000, stops: [{ kind: 'change', stage: 'M', afterL: 1000 }] }] }),
+    ).toThrow(RangeError);
   });
 });

@@ -10,7 +10,7 @@ import { requireFinite, requireNonNegative, requirePositive } from './errors';
 export type SanitationKind = 'hot-water' | 'steam';
 
 /** Kinds of block on the day's timeline. */
-export type DayBlockKind = 'sanitation' | 'integrity-before' | 'run' | 'push-out' | 'changeover' | 'integrity-after';
+export type DayBlockKind = 'sanitation' | 'integrity-before' | 'run' | 'regeneration' | 'change' | 'push-out' | 'changeover' | 'integrity-after';
 
 /** Durations of the day's steps, minutes. */
 export interface DayStepsMin {
@@ -26,6 +26,10 @@ export interface DayStepsMin {
   changeoverMin: number;
   /** Integrity test of the membranes after the run, min. */
   postIntegrityTestMin: number;
+  /** Regenerating a stage's set within a lot (backflush or hot water, then a rinse), min. */
+  regenerationMin: number;
+  /** Changing a stage's set within a lot (drain, swap, flush, and test a membrane), min. */
+  changeMin: number;
 }
 
 /**
@@ -51,7 +55,9 @@ export const DEFAULT_STEAM_SANITATION_MIN = 45;
  * cool-down 15 min after hot water (cold water through the housings) and 30 min after steam
  * (the assembly must be back to room temperature before a pressure-based integrity test);
  * integrity test 20 min before and 20 min after the run (wetting check, stabilisation,
- * test); push-out 10 min per lot; changeover 30 min between lots.
+ * test); push-out 10 min per lot; changeover 30 min between lots; a regeneration within a
+ * lot 20 min (backflush or hot water and a rinse); a change of set within a lot 30 min
+ * (drain, swap, flush, and an integrity test of a new membrane set).
  */
 export const DEFAULT_DAY_STEPS: Readonly<Record<SanitationKind, Readonly<DayStepsMin>>> = {
   'hot-water': {
@@ -61,6 +67,8 @@ export const DEFAULT_DAY_STEPS: Readonly<Record<SanitationKind, Readonly<DayStep
     pushOutMin: 10,
     changeoverMin: 30,
     postIntegrityTestMin: 20,
+    regenerationMin: 20,
+    changeMin: 30,
   },
   steam: {
     sanitationMin: DEFAULT_STEAM_SANITATION_MIN,
@@ -69,6 +77,8 @@ export const DEFAULT_DAY_STEPS: Readonly<Record<SanitationKind, Readonly<DayStep
     pushOutMin: 10,
     changeoverMin: 30,
     postIntegrityTestMin: 20,
+    regenerationMin: 20,
+    changeMin: 30,
   },
 };
 
@@ -80,6 +90,17 @@ export interface DayLot {
   volumeL: number;
   /** Flow through the train, L/h. */
   flowLh: number;
+  /** Regenerations and changes within the lot, each after so many litres of it (see `dayCartridgeNeeds`). */
+  stops?: DayLotStop[];
+}
+
+/** A regeneration or change of one stage's set within a lot. */
+export interface DayLotStop {
+  kind: 'regeneration' | 'change';
+  /** The stage's name, for the label. */
+  stage: string;
+  /** Litres of the lot bottled before the stop, 0 ≤ afterL < the lot's volume. */
+  afterL: number;
 }
 
 /** Input of {@link buildDayTimeline}. */
@@ -116,6 +137,8 @@ export interface DayTimelineTotals {
   runMin: number;
   pushOutMin: number;
   changeoverMin: number;
+  /** Regenerations and changes within the lots, min. */
+  interventionMin: number;
   /** Everything but the runs, min. */
   nonRunMin: number;
   volumeL: number;
@@ -133,7 +156,8 @@ const MS_PER_MIN = 60_000;
 
 /**
  * Builds the ordered blocks of a bottling day: sanitation, cool-down, integrity test
- * before, then for each lot its run (volume ÷ flow) and push-out, a changeover between
+ * before, then for each lot its run (volume ÷ flow, cut by each regeneration or change of a
+ * stage's set within the lot) and push-out, a changeover between
  * consecutive lots, and the integrity test after the last lot. Steps of zero minutes are
  * left out. Durations are planning figures; see {@link DEFAULT_DAY_STEPS} for their basis.
  *
@@ -157,6 +181,8 @@ export function buildDayTimeline(input: DayTimelineInput): DayTimeline {
     pushOutMin: s.pushOutMin ?? d.pushOutMin,
     changeoverMin: s.changeoverMin ?? d.changeoverMin,
     postIntegrityTestMin: s.postIntegrityTestMin ?? d.postIntegrityTestMin,
+    regenerationMin: s.regenerationMin ?? d.regenerationMin,
+    changeMin: s.changeMin ?? d.changeMin,
   };
   requireNonNegative('sanitation time (min)', steps.sanitationMin);
   requireNonNegative('cool-down time (min)', steps.coolDownMin);
@@ -164,9 +190,15 @@ export function buildDayTimeline(input: DayTimelineInput): DayTimeline {
   requireNonNegative('push-out time (min)', steps.pushOutMin);
   requireNonNegative('changeover time (min)', steps.changeoverMin);
   requireNonNegative('post-run integrity test time (min)', steps.postIntegrityTestMin);
+  requireNonNegative('regeneration time (min)', steps.regenerationMin);
+  requireNonNegative('change time (min)', steps.changeMin);
   for (let i = 0; i < lots.length; i++) {
     requirePositive(`volume of lot ${String(i + 1)} (L)`, lots[i].volumeL);
     requirePositive(`flow of lot ${String(i + 1)} (L/h)`, lots[i].flowLh);
+    for (const stop of lots[i].stops ?? []) {
+      requireNonNegative(`litres before a stop in lot ${String(i + 1)}`, stop.afterL);
+      if (stop.afterL >= lots[i].volumeL) throw new RangeError(`A stop in lot ${String(i + 1)} comes after its whole volume (${String(stop.afterL)} L).`);
+    }
   }
 
   const blocks: DayBlock[] = [];
@@ -189,13 +221,31 @@ export function buildDayTimeline(input: DayTimelineInput): DayTimeline {
   add('integrity-before', 'Integrity test before the run', steps.integrityTestMin);
   let runMin = 0;
   let volumeL = 0;
+  let interventionMin = 0;
   for (let i = 0; i < lots.length; i++) {
     const lot = lots[i];
     if (i > 0) add('changeover', `Changeover to ${lot.label}`, steps.changeoverMin, i);
-    const minutes = (lot.volumeL / lot.flowLh) * 60;
-    runMin += minutes;
+    runMin += (lot.volumeL / lot.flowLh) * 60;
     volumeL += lot.volumeL;
-    add('run', `Run: ${lot.label}`, minutes, i);
+    // The run is cut at each stop; stops of several stages at the same litre are one block
+    // (a change when any stage is changed), as long as the longest of them.
+    const groups = new Map<number, DayLotStop[]>();
+    for (const stop of [...(lot.stops ?? [])].sort((a, b) => a.afterL - b.afterL)) {
+      const key = [...groups.keys()].find((k) => Math.abs(k - stop.afterL) <= 1e-6 * lot.volumeL) ?? stop.afterL;
+      groups.set(key, [...(groups.get(key) ?? []), stop]);
+    }
+    let doneL = 0;
+    for (const [afterL, stops] of groups) {
+      add('run', `Run: ${lot.label}`, ((afterL - doneL) / lot.flowLh) * 60, i);
+      doneL = afterL;
+      const change = stops.some((x) => x.kind === 'change');
+      const minutes = change ? Math.max(steps.changeMin, stops.some((x) => x.kind === 'regeneration') ? steps.regenerationMin : 0) : steps.regenerationMin;
+      const what = stops.map((x) => `${x.kind === 'change' ? 'change' : 'regeneration'} of ${x.stage}`).join(', ');
+      const before = t;
+      add(change ? 'change' : 'regeneration', `${lot.label}: ${what[0].toUpperCase()}${what.slice(1)}`, minutes, i);
+      interventionMin += (t - before) / MS_PER_MIN;
+    }
+    add('run', `Run: ${lot.label}`, ((lot.volumeL - doneL) / lot.flowLh) * 60, i);
     add('push-out', `Push-out: ${lot.label}`, steps.pushOutMin, i);
   }
   add('integrity-after', 'Integrity test after the run', steps.postIntegrityTestMin);
@@ -205,7 +255,7 @@ export function buildDayTimeline(input: DayTimelineInput): DayTimeline {
   const integrityMin = steps.integrityTestMin + steps.postIntegrityTestMin;
   const pushOutMin = steps.pushOutMin * nLots;
   const changeoverMin = steps.changeoverMin * (nLots - 1);
-  const nonRunMin = sanitationMin + integrityMin + pushOutMin + changeoverMin;
+  const nonRunMin = sanitationMin + integrityMin + pushOutMin + changeoverMin + interventionMin;
   return {
     blocks,
     steps,
@@ -218,6 +268,7 @@ export function buildDayTimeline(input: DayTimelineInput): DayTimeline {
       runMin,
       pushOutMin,
       changeoverMin,
+      interventionMin,
       nonRunMin,
       volumeL,
     },

@@ -18,3 +18,4 @@ export * from './cartridge-life';
 export * from './train-sizing';
 export * from './day-timeline';
 export * from './alerts';
+export * from './day-needs';

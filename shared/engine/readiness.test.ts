@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import {
   WINE_STYLES,
+  cloggingIndexVerdict,
   defaultReadinessThresholds,
   lotReadiness,
   readinessThresholdsSchema,
@@ -189,5 +190,17 @@ describe('input checks', () => {
     [{ style: 'orange' as WineStyle }],
   ] as const)('rejects %o', (lot) => {
     expect(() => lotReadiness(lot as Parameters<typeof lotReadiness>[0])).toThrow(RangeError);
+  });
+});
+
+describe('cloggingIndexVerdict: one source for the badge and the readiness', () => {
+  it('34 s is above the 20 s limit (Chambre d’agriculture de la Gironde), within 50 s (Romat 2014): borderline, as the readiness says', () => {
+    const v = cloggingIndexVerdict(34);
+    expect(v).toMatchObject({ verdict: 'borderline', short: 'above 20 s' });
+    const lot = lotReadiness({ style: 'white', cloggingIndex: 34 });
+    expect(lot.reasons).toContain(v.reason);
+    expect(cloggingIndexVerdict(20).verdict).toBe('ready');
+    expect(cloggingIndexVerdict(51).verdict).toBe('not-ready');
+    expect(cloggingIndexVerdict(25, { readyMaxS: 30, borderlineMaxS: 60 }).verdict).toBe('ready');
   });
 });

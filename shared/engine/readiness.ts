@@ -177,6 +177,33 @@ function parseThresholds(t: ReadinessThresholds): ReadinessThresholds {
 }
 
 /**
+ * The clogging index judged against the readiness limits: the one source of its verdict, for
+ * the lot's readiness and for the badge beside each lab result (ready ≤ readyMaxS;
+ * borderline ≤ borderlineMaxS; not ready above; sources in {@link defaultReadinessThresholds}).
+ */
+export function cloggingIndexVerdict(
+  ci: number,
+  limits: Pick<ReadinessThresholds['cloggingIndex'], 'readyMaxS' | 'borderlineMaxS'> = defaultReadinessThresholds.cloggingIndex,
+): { verdict: 'ready' | 'borderline' | 'not-ready'; reason: string; short: string } {
+  requireFinite('clogging index', ci);
+  if (ci <= limits.readyMaxS) {
+    return { verdict: 'ready', short: `within ${fmt(limits.readyMaxS, 0)} s`, reason: `Clogging index ${fmt(ci, 0)} s is within the ${fmt(limits.readyMaxS, 0)} s limit for membrane filtration.` };
+  }
+  if (ci <= limits.borderlineMaxS) {
+    return {
+      verdict: 'borderline',
+      short: `above ${fmt(limits.readyMaxS, 0)} s`,
+      reason: `Clogging index ${fmt(ci, 0)} s is above the ${fmt(limits.readyMaxS, 0)} s limit for membrane filtration but within ${fmt(limits.borderlineMaxS, 0)} s: expect trouble if the filter is undersized.`,
+    };
+  }
+  return {
+    verdict: 'not-ready',
+    short: `above ${fmt(limits.borderlineMaxS, 0)} s`,
+    reason: `Clogging index ${fmt(ci, 0)} s is above the ${fmt(limits.borderlineMaxS, 0)} s limit: the membrane will clog fast; prefilter or re-treat first.`,
+  };
+}
+
+/**
  * Readiness verdict of a wine lot for membrane filtration.
  *
  * Criteria, each judged only when its data is present:
@@ -228,22 +255,9 @@ export function lotReadiness(
   }
 
   if (lot.cloggingIndex !== undefined) {
-    const c = th.cloggingIndex;
-    const x = lot.cloggingIndex;
-    if (x <= c.readyMaxS) {
-      verdicts.push('ready');
-      reasons.push(`Clogging index ${fmt(x, 0)} s is within the ${fmt(c.readyMaxS, 0)} s limit for membrane filtration.`);
-    } else if (x <= c.borderlineMaxS) {
-      verdicts.push('borderline');
-      reasons.push(
-        `Clogging index ${fmt(x, 0)} s is above the ${fmt(c.readyMaxS, 0)} s limit for membrane filtration but within ${fmt(c.borderlineMaxS, 0)} s: expect trouble if the filter is undersized.`,
-      );
-    } else {
-      verdicts.push('not-ready');
-      reasons.push(
-        `Clogging index ${fmt(x, 0)} s is above the ${fmt(c.borderlineMaxS, 0)} s limit: the membrane will clog fast; prefilter or re-treat first.`,
-      );
-    }
+    const ci = cloggingIndexVerdict(lot.cloggingIndex, th.cloggingIndex);
+    verdicts.push(ci.verdict);
+    reasons.push(ci.reason);
     if (lot.turbidityNtu !== undefined && lot.turbidityNtu >= th.cloggingIndexValidity.validBelowNtu) {
       reasons.push(
         `The clogging index is only meaningful below ${fmt(th.cloggingIndexValidity.validBelowNtu)} NTU; at ${fmt(lot.turbidityNtu)} NTU treat it with caution.`,

@@ -4,6 +4,7 @@ import {
   DISPLAY_UNITS,
   METRIC_STORAGE_UNITS,
   QUANTITY_KINDS,
+  costPerVolumeBasis,
   convert,
   formatDurationWords,
   formatNumber,
@@ -123,6 +124,8 @@ describe('display helpers', () => {
     ['flux', 1697.743056, 'us', '1,000.0 gal/ft²/day'],
     ['length', 0.254, 'metric', '0.25 m'],
     ['length', 3.048, 'us', '10.00 ft'],
+    ['loading', 2000, 'metric', '2,000 L/m²'],
+    ['loading', 2000, 'us', '49.1 gal/ft²'], // 1 gal/ft² = 3.785411784 L / 0.09290304 m² = 40.7458 L/m²
   ] as const)('formatQuantity(%s, %f, %s) = %s', (kind, v, system, text) => {
     expect(formatQuantity(kind, v, system)).toBe(text);
   });
@@ -198,5 +201,14 @@ describe('formatDurationWords (common practice, no source: durations never read 
         expect(s).not.toMatch(/NaN|Infinity|e\+/);
       }),
     );
+  });
+});
+
+describe('cost per volume in the person\'s units', () => {
+  it('per hL in metric; per 100 US gal (378.5411784 L, NIST Handbook 44) in US customary', () => {
+    expect(costPerVolumeBasis(1.2, 'metric')).toEqual({ value: 1.2, per: 'hL' });
+    const us = costPerVolumeBasis(1.2, 'us');
+    expect(us.per).toBe('100 gal');
+    expect(us.value).toBeCloseTo(1.2 * 3.785411784, 12);
   });
 });

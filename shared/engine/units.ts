@@ -93,6 +93,9 @@ const UNITS: Readonly<Record<string, UnitDef>> = {
   'L/(m^2 h)': { dim: 'velocity', factors: [[L, 1, 1], [1, 1, -2], [H, 1, -1]] },
   'gal/(ft^2 day)': { dim: 'velocity', factors: [[GAL, 1, 1], [FT, 1, -2], [DAY, 1, -1]] },
   'm/s': { dim: 'velocity', factors: [[1, 1, 1], [1, 1, -1]] },
+  // Volume per filter area (capacity, Vmax): a length dimensionally.
+  'L/m^2': { dim: 'length', factors: [[L, 1, 1], [1, 1, -2]] },
+  'gal/ft^2': { dim: 'length', factors: [[GAL, 1, 1], [FT, 1, -2]] },
   mm: one('length', 1, 0.001),
   m: one('length', 1),
   in: one('length', IN),
@@ -166,7 +169,7 @@ export function isKnownUnit(unit: string): boolean {
 export type UnitSystem = 'metric' | 'us';
 
 /** Kinds of quantity shown to users. `dp` is a differential pressure; `pressure` is gauge. */
-export type QuantityKind = 'pressure' | 'dp' | 'volume' | 'flow' | 'temperature' | 'area' | 'flux' | 'length';
+export type QuantityKind = 'pressure' | 'dp' | 'volume' | 'flow' | 'temperature' | 'area' | 'flux' | 'length' | 'loading';
 
 /** All quantity kinds, in a stable order. */
 export const QUANTITY_KINDS: readonly QuantityKind[] = [
@@ -178,11 +181,12 @@ export const QUANTITY_KINDS: readonly QuantityKind[] = [
   'area',
   'flux',
   'length',
+  'loading',
 ];
 
 /**
  * The unit in which the engine and the database store each kind of quantity
- * (unit names as {@link convert} writes them): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m.
+ * (unit names as {@link convert} writes them): bar (gauge pressure and ΔP), L, L/h, °C, m², L/m²/h, m, L/m².
  */
 export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
   pressure: 'bar',
@@ -193,6 +197,7 @@ export const METRIC_STORAGE_UNITS: Readonly<Record<QuantityKind, string>> = {
   area: 'm^2',
   flux: 'LMH',
   length: 'm',
+  loading: 'L/m^2',
 };
 
 /** How one kind of quantity is shown in one unit system. */
@@ -216,6 +221,8 @@ export const DISPLAY_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Quantity
     area: { unit: 'm^2', symbol: 'm²', digits: 2 },
     flux: { unit: 'LMH', symbol: 'L/m²/h', digits: 0 },
     length: { unit: 'm', symbol: 'm', digits: 2 },
+    // Litres per m² of filter: a stage's capacity and a disc test's Vmax.
+    loading: { unit: 'L/m^2', symbol: 'L/m²', digits: 0 },
   },
   us: {
     pressure: { unit: 'psi', symbol: 'psi', digits: 1 },
@@ -226,6 +233,7 @@ export const DISPLAY_UNITS: Readonly<Record<UnitSystem, Readonly<Record<Quantity
     area: { unit: 'ft^2', symbol: 'ft²', digits: 1 },
     flux: { unit: 'gfd', symbol: 'gal/ft²/day', digits: 1 },
     length: { unit: 'ft', symbol: 'ft', digits: 2 },
+    loading: { unit: 'gal/ft^2', symbol: 'gal/ft²', digits: 1 },
   },
 };
 
@@ -361,4 +369,18 @@ export function formatDurationWords(hours: number): string {
     return m === 0 ? `about ${String(h)} h` : `about ${String(h)} h ${String(m)} min`;
   }
   return `about ${String(Math.round(hours / 24))} days`;
+}
+
+/** Litres in the volume a cost is given per: a hectolitre (metric), 100 US gallons (US customary). */
+export const COST_VOLUME_BASIS: Readonly<Record<UnitSystem, { litres: number; per: string }>> = {
+  metric: { litres: 100, per: 'hL' },
+  // 100 gal × 3.785411784 L (NIST Handbook 44 App. C).
+  us: { litres: 378.5411784, per: '100 gal' },
+};
+
+/** A cost per hL shown in the person's units: per hL (metric) or per 100 US gal. */
+export function costPerVolumeBasis(costPerHl: number, system: UnitSystem): { value: number; per: string } {
+  requireFinite('cost per hL', costPerHl);
+  const basis = COST_VOLUME_BASIS[system];
+  return { value: (costPerHl * basis.litres) / 100, per: basis.per };
 }

@@ -19,7 +19,16 @@ export type TankRefDto = { id: string; name: string };
 
 export type ReadinessDto = { verdict: ReadinessVerdict; reasons: string[] };
 
-export type CloggingIndexBandDto = { band: CloggingIndexBand; label: string };
+export type CloggingIndexBandDto = {
+  /** Romat's interpretation band (0.65 µm disc), for reference. */
+  band: CloggingIndexBand;
+  label: string;
+  /** The verdict against the winery's readiness limits: the same as the lot's readiness says. */
+  verdict: 'ready' | 'borderline' | 'not-ready';
+  /** A few words for the badge ("above 20 s"). */
+  short: string;
+  reason: string;
+};
 
 /** The Vmax disc test of a lab result, reduced by the constant-pressure fit. */
 export type DiscTestDto = {

@@ -102,11 +102,13 @@ export type PlanNeedDto = {
   kind: 'prefilter' | 'membrane';
   ratingUm: number;
   lengthIn: number;
-  /** Cartridges the chosen trains need (cartridges per set × sets used, summed over the lots). */
+  /** New cartridges the chosen trains need over the day (a set carries over between lots of the same train). */
   cartridgesNeeded: number;
   elementEquivalentsNeeded: number;
-  /** In stock plus installed. */
+  /** Usable cartridges in stock plus installed (not spent, latest integrity test not failed). */
   cartridgesAvailable: number;
+  /** Cartridges of this type and length held but not usable (spent, failed test, being regenerated). */
+  notUsable: number;
   inStock: number;
   installed: number;
   elementEquivalentsAvailable: number;

@@ -125,8 +125,14 @@ describe('plans', () => {
     await page.getByRole('list', { name: 'Timeline' }).getByText(/Run: SV-/).waitFor();
     await screenshot(page, 'plan-compare-desktop');
 
+    // No cartridges registered: the stock shortfall needs a written reason, kept with the approval.
     await page.getByRole('button', { name: 'Approve plan' }).click();
+    const ask = page.getByRole('dialog', { name: 'Approve with a written reason?' });
+    await ask.getByRole('list', { name: 'Cautions' }).getByText(/Stock: PES 0\.45 µm .* short/).waitFor();
+    await ask.getByLabel('Reason for approving anyway').fill('Membranes arrive the day before.');
+    await ask.getByRole('button', { name: 'Approve with this reason' }).click();
     await page.getByText('Approved plans are read-only').waitFor();
+    await page.getByText(/Reason given: “Membranes arrive the day before\.”/).waitFor();
     expect(await page.getByRole('button', { name: 'Save train' }).count()).toBe(0);
     await page.getByRole('button', { name: 'Reopen' }).waitFor();
     await page.getByRole('button', { name: 'Mark done' }).waitFor();

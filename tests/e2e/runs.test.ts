@@ -26,7 +26,7 @@ describe('a run on a phone in the cellar', () => {
     const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
     const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
     expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
     const tech = await addMember(app, owner, 'technician');
 
     const { context, page, errors } = await signInAs(browser, app.baseUrl, tech.email, { viewport: { width: 390, height: 844 }, mobile: true, password: TEST_PASSWORD });

@@ -107,3 +107,14 @@ export async function fillTrainHousings(client: Client, w: PlanWorld) {
   const membranes = await installCartridges(client, w.membraneTypeId, w.membraneHousingId);
   return { prefilters, membranes };
 }
+
+let serials = 0;
+/** Registers `howMany` 30-inch cartridges of each of the world's two types (through the API), so a plan is not short of stock. */
+export async function stockPlanWorld(client: Client, w: PlanWorld, howMany = 12): Promise<void> {
+  for (const typeId of [w.prefilterTypeId, w.membraneTypeId]) {
+    for (let i = 0; i < howMany; i++) {
+      serials += 1;
+      await ok(await client.post('/api/cartridges', { serial: `PW-${Date.now().toString(36)}-${process.pid}-${serials}`, typeId, lengthIn: 30 }), 201, 'Register cartridge');
+    }
+  }
+}

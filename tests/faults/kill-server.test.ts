@@ -27,7 +27,7 @@ beforeAll(async () => {
   const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
   expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+  expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
   const run = await owner.post('/api/runs', { planLotId });
   expect(run.status).toBe(201);
   runId = run.body.id;

@@ -294,6 +294,10 @@ describe('lab results and readiness', () => {
     const older = await owner.post(`/api/lots/${lot.id}/lab-results`, labResultBody({ sampledAt: '2025-03-01T09:00:00Z', turbidityNtu: 2.4, t200s: 30, t400s: 90 }));
     expect(older.status).toBe(201);
     expect(older.body).toMatchObject({ cloggingIndex: 30, cloggingIndexBand: { band: 'good' }, disc: null, createdBy: 'Test Owner' });
+    // The badge's verdict is the readiness verdict (one source): 30 s is above the 20 s limit, never "good".
+    expect(older.body.cloggingIndexBand).toMatchObject({ verdict: 'borderline', short: 'above 20 s' });
+    const lotNow = (await owner.get(`/api/lots/${lot.id}`)).body;
+    expect(lotNow.readiness.reasons.join(' ')).toContain(older.body.cloggingIndexBand.reason);
     const newer = await createLabResult(owner, lot.id, { sampledAt: '2025-03-12T09:00:00Z' });
     const list = await owner.get(`/api/lots/${lot.id}/lab-results`);
     expect(list.body.total).toBe(2);

@@ -92,7 +92,7 @@ beforeAll(async () => {
   const planLotId = (await addPlanLot(ownerB, plan.id, world.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(ownerB, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
   await ownerB.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
-  await ownerB.post(`/api/plans/${plan.id}/approve`);
+  await ownerB.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' });
   await ownerB.post('/api/runs', { planLotId });
   const cartridge = await ownerB.post('/api/cartridges', { serial: `FZ${Date.now().toString(36).toUpperCase()}`, typeId: world.membraneTypeId, lengthIn: 30 });
   expect(cartridge.status).toBe(201);

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
 import { createLabResult, createLot, discPoints } from '../factories/cellar';
 import { createCartridgeType } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, stockPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -17,19 +17,21 @@ beforeAll(async () => {
   app = await startTestApp();
   owner = (await signUp(app.baseUrl, { wineryName: 'Approval Test Winery' })).client;
   world = await createPlanWorld(owner);
+  await stockPlanWorld(owner, world);
 });
 afterAll(async () => {
   await app?.close();
 });
 
 /** A draft for one lot whose only train is chosen. */
-async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam' } = {}) {
-  const plan = await createPlan(owner, world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
-  const withLot = await addPlanLot(owner, plan.id, opts.lotId ?? world.lotId);
+async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam'; client?: Client; lineId?: string } = {}) {
+  const who = opts.client ?? owner;
+  const plan = await createPlan(who, opts.lineId ?? world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
+  const withLot = await addPlanLot(who, plan.id, opts.lotId ?? world.lotId);
   const planLotId = withLot.lots[0].id;
-  const withTrain = await addTrain(owner, plan.id, planLotId, train);
+  const withTrain = await addTrain(who, plan.id, planLotId, train);
   const trainId = withTrain.lots[0].trains[0].id;
-  const chosen = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+  const chosen = await who.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
   expect(chosen.status).toBe(200);
   return { planId: plan.id, detail: chosen.body as PlanDto };
 }
@@ -112,6 +114,73 @@ describe('approval with cautions needs a written reason, kept with the approval'
     const res = await owner.post(`/api/plans/${clean.planId}/approve`);
     expect(res.status).toBe(200);
     expect(res.body.approvalOverride).toBeNull();
+  });
+});
+
+describe('a cartridge stock shortfall needs a written reason', () => {
+  it('a winery with no usable cartridges for the day: refused without a reason, approved with one; stocked, approved bare', async () => {
+    const other = (await signUp(app.baseUrl, { wineryName: 'Approval Stock Winery' })).client;
+    const w = await createPlanWorld(other);
+    const { planId, detail } = await chosenDraft(trainBody(w), { client: other, lineId: w.lineId, lotId: w.lotId });
+    expect(detail.needs.every((n) => n.verdict === 'short')).toBe(true);
+    const bare = await other.post(`/api/plans/${planId}/approve`);
+    expect(bare.status).toBe(409);
+    expect(bare.body.error.code).toBe('plan_needs_reason');
+    expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/Stock: .* needs 3 for the day, 0 usable on hand, 3 short/);
+    const ok = await other.post(`/api/plans/${planId}/approve`, { reason: 'Delivery due the day before.' });
+    expect(ok.status).toBe(200);
+    expect(ok.body.approvalOverride.cautions.join(' ')).toMatch(/short/);
+
+    await stockPlanWorld(other, w, 3);
+    const stocked = await chosenDraft(trainBody(w), { client: other, lineId: w.lineId, lotId: w.lotId });
+    expect(stocked.detail.needs.every((n) => n.verdict === 'enough')).toBe(true);
+    expect((await other.post(`/api/plans/${stocked.planId}/approve`)).status).toBe(200);
+
+    // A membrane whose latest bubble point failed (2.0 < 3.2 bar) is no longer usable stock.
+    const membranes = (await other.get(`/api/cartridges?typeId=${w.membraneTypeId}`)).body.items as { id: string }[];
+    expect(membranes.length).toBe(3);
+    const failed = await other.post(`/api/cartridges/${membranes[0].id}/integrity-tests`, { test: 'bubble-point', bubblePointBar: 2, wettingFluid: 'water' });
+    expect(failed.status).toBe(201);
+    const after = (await other.get(`/api/plans/${stocked.planId}`)).body as PlanDto;
+    expect(after.needs.find((n) => n.kind === 'membrane')).toMatchObject({ cartridgesAvailable: 2, notUsable: 1, shortfall: 1, verdict: 'short' });
+  });
+});
+
+describe('the day: needs with a set carried over, and every regeneration on the timeline', () => {
+  it('two lots through the same train use one set; a small capacity puts each regeneration on the timeline', async () => {
+    // Prefilter 3,000 L/m² × 0.45 m² × 9 = 12,150 L per load; membrane 2,000 × 0.7 × 9 = 12,600 L:
+    // 6,000 L then 3,000 L fit one set of each (hand-calculated).
+    const plan = await createPlan(owner, world.lineId);
+    await addPlanLot(owner, plan.id, world.lotId, 6000);
+    const two = await addPlanLot(owner, plan.id, world.secondLotId, 3000);
+    const choose = async (planLotId: string, body: Record<string, unknown>) => {
+      const withTrain = await addTrain(owner, plan.id, planLotId, body);
+      const trainId = withTrain.lots.find((l) => l.id === planLotId)!.trains.at(-1)!.id;
+      const res = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+      expect(res.status).toBe(200);
+      return res.body as PlanDto;
+    };
+    const [first, second] = two.lots;
+    await choose(first.id, trainBody(world));
+    const both = await choose(second.id, trainBody(world));
+    expect(both.needs.map((n) => [n.kind, n.cartridgesNeeded, n.lotCodes])).toEqual([
+      ['prefilter', 3, [first.lot.code]],
+      ['membrane', 3, [first.lot.code]],
+    ]);
+    expect(both.timeline!.blocks.filter((b) => b.kind === 'regeneration' || b.kind === 'change')).toEqual([]);
+
+    // Prefilter at 500 L/m²: 2,025 L per load, so 6,000 L takes 3 loads: regenerated after 2,025 and 4,050 L.
+    const small = trainBody(world, { name: 'Small' });
+    small.stages[0].capacityLPerM2 = 500;
+    const withStops = await choose(first.id, small);
+    const stops = withStops.timeline!.blocks.filter((b) => b.planLotId === first.id && b.kind !== 'run' && b.kind !== 'push-out');
+    expect(stops.map((b) => [b.kind, b.label, b.minutes])).toEqual([
+      ['regeneration', `${first.lot.code}: Regeneration of Prefilter`, 20],
+      ['regeneration', `${first.lot.code}: Regeneration of Prefilter`, 20],
+    ]);
+    const runs = withStops.timeline!.blocks.filter((b) => b.planLotId === first.id && b.kind === 'run');
+    const flow = withStops.requiredFlowLh!;
+    expect(runs.map((b) => b.minutes)).toEqual([2025, 2025, 1950].map((l) => expect.closeTo((l / flow) * 60, 6)));
   });
 });
 

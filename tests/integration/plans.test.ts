@@ -144,7 +144,7 @@ describe('plans: create, read, edit, delete', () => {
         await c.post(`/api/plans/${plan.id}/lots/${planLotId}/trains`, trainBody(world)),
         await c.patch(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`, { name: 'x' }),
         await c.delete(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`),
-        await c.post(`/api/plans/${plan.id}/approve`),
+        await c.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' }),
         await c.post(`/api/plans/${plan.id}/reopen`),
         await c.post(`/api/plans/${plan.id}/done`),
       ];
@@ -153,7 +153,7 @@ describe('plans: create, read, edit, delete', () => {
     // A winemaker drafts but does not approve.
     await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
     expect((await members.winemaker.post(`/api/plans/${plan.id}/approve`)).status).toBe(403);
-    expect((await members['cellar-master'].post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    expect((await members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
   });
 
   it('lists with search, status filter, sorting and pages', async () => {
@@ -295,7 +295,7 @@ describe('plans: approval and status', () => {
     expect(Object.values(blocked.body.error.fields).join(' ')).toMatch(/Weak.*housing's 1\.00 bar rating/);
 
     await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
-    const approved = await members['cellar-master'].post(`/api/plans/${plan.id}/approve`);
+    const approved = await members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' });
     expect(approved.status).toBe(200);
     expect(approved.body).toMatchObject({ status: 'approved', approvedBy: 'Test cellar-master', approvalBlockers: [] });
     expect(approved.body.approvedAt).toEqual(expect.any(String));
@@ -321,7 +321,7 @@ describe('plans: approval and status', () => {
     expect(reopened.body).toMatchObject({ status: 'draft', approvedBy: null, approvedAt: null });
     expect((await owner.post(`${p}/done`)).status).toBe(409);
     expect((await owner.post(`${p}/reopen`)).status).toBe(409);
-    expect((await owner.post(`${p}/approve`)).status).toBe(200);
+    expect((await owner.post(`${p}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
     const done = await owner.post(`${p}/done`);
     expect(done.body.status).toBe('done');
     expect((await owner.post(`${p}/reopen`)).status).toBe(409);

@@ -34,7 +34,7 @@ async function plannedLot(opts: { approve?: boolean; w?: PlanWorld } = {}) {
   const withTrain = await addTrain(owner, plan.id, planLotId, trainBody(w));
   const trainId = withTrain.lots[0].trains[0].id;
   expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  if (opts.approve !== false) expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+  if (opts.approve !== false) expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
   return { planId: plan.id, planLotId };
 }
 

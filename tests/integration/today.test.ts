@@ -231,14 +231,14 @@ async function plannedWinery(name: string) {
 
   const sooner = await createPlan(client, w.lineId, { name: `Rosé sooner ${name}`, plannedDate: isoDay(3) });
   await withTrain(sooner.id, w.secondLotId);
-  await ok(await client.post(`/api/plans/${sooner.id}/approve`), 'approving');
+  await ok(await client.post(`/api/plans/${sooner.id}/approve`, { reason: 'Cartridges arrive the day before.' }), 'approving');
 
   const todays = await createPlan(client, w.lineId, { name: `Empty today ${name}`, plannedDate: isoDay(0) });
 
   const past = await createPlan(client, w.lineId, { name: `Past ${name}`, plannedDate: isoDay(-2) });
   const done = await createPlan(client, w.lineId, { name: `Done ${name}`, plannedDate: isoDay(5) });
   await withTrain(done.id, w.lotId);
-  await ok(await client.post(`/api/plans/${done.id}/approve`), 'approving');
+  await ok(await client.post(`/api/plans/${done.id}/approve`, { reason: 'Cartridges arrive the day before.' }), 'approving');
   await ok(await client.post(`/api/plans/${done.id}/done`), 'marking done');
 
   return { client, world: w, plans: { ahead: aheadDetail, sooner, todays, past, done } };

@@ -55,7 +55,7 @@ const labResultValues = (input: LabResultInput): LabResultValues => {
 const duplicateTank = (name: string) => conflict(`There is already a tank called "${name}". Choose another name.`, 'duplicate_tank');
 const duplicateLot = (code: string) => conflict(`Lot code ${code} is already used in this winery. Choose another code.`, 'duplicate_lot_code');
 
-const presentResult = (row: LabResultRow) => presentLabResult(row, analyseLabResult(row));
+const presentResult = (row: LabResultRow, thresholds: ReadinessThresholds) => presentLabResult(row, analyseLabResult(row, thresholds));
 
 /** Whether the thresholds are the untouched defaults (the winery has not set its own). */
 const isDefaultThresholds = (t: ReadinessThresholds) => t === defaultReadinessThresholds || JSON.stringify(t) === JSON.stringify(defaultReadinessThresholds);
@@ -83,7 +83,7 @@ export function createCellarService(db: Database) {
       readinessThresholdsFor(db, tenant.wineryId),
     ]);
     if (!row) throw notFound('Lot');
-    const analysis = latest ? analyseLabResult(latest) : null;
+    const analysis = latest ? analyseLabResult(latest, thresholds) : null;
     const readiness = readinessOf(row.style, latest && analysis ? { ...latest, analysis } : null, thresholds);
     return presentLot(
       row,
@@ -94,9 +94,9 @@ export function createCellarService(db: Database) {
   }
 
   async function getLabResult(tenant: TenantContext, lotId: string, id: string): Promise<LabResultDto> {
-    const row = await r.labResults.find(tenant.wineryId, lotId, id);
+    const [row, thresholds] = await Promise.all([r.labResults.find(tenant.wineryId, lotId, id), readinessThresholdsFor(db, tenant.wineryId)]);
     if (!row) throw notFound('Lab result');
-    return presentResult(row);
+    return presentResult(row, thresholds);
   }
 
   return {
@@ -155,7 +155,7 @@ export function createCellarService(db: Database) {
                 discDiameterMm: row.latestDiscDiameterMm,
                 discPoints: row.latestDiscPoints,
               };
-        const withAnalysis = latest ? { ...latest, analysis: analyseLabResult(latest) } : null;
+        const withAnalysis = latest ? { ...latest, analysis: analyseLabResult(latest, thresholds) } : null;
         return presentLotListItem(row, withAnalysis, readinessOf(row.style, withAnalysis, thresholds));
       });
       return { items, total };
@@ -204,8 +204,8 @@ export function createCellarService(db: Database) {
     // ----- lab results -----
     async listLabResults(tenant: TenantContext, lotId: string): Promise<ListDto<LabResultDto>> {
       if (!(await r.lots.exists(tenant.wineryId, lotId))) throw notFound('Lot');
-      const rows = await r.labResults.list(tenant.wineryId, lotId);
-      return { items: rows.map(presentResult), total: rows.length };
+      const [rows, thresholds] = await Promise.all([r.labResults.list(tenant.wineryId, lotId), readinessThresholdsFor(db, tenant.wineryId)]);
+      return { items: rows.map((row) => presentResult(row, thresholds)), total: rows.length };
     },
     getLabResult,
     async createLabResult(tenant: TenantContext, lotId: string, input: LabResultInput) {

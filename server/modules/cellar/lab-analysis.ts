@@ -3,6 +3,8 @@
 import {
   cloggingIndex,
   cloggingIndexBand,
+  cloggingIndexVerdict,
+  defaultReadinessThresholds,
   discAreaM2FromDiameterMm,
   fitConstantPressure,
   lotReadiness,
@@ -38,7 +40,7 @@ function attempt<T>(fn: () => T): { ok: true; value: T } | { ok: false; reason: 
 }
 
 /** Clogging index (T400 − 2·T200) with its band, and the Vmax / initial flux of a disc test. */
-export function analyseLabResult(m: LabMeasurements): LabAnalysis {
+export function analyseLabResult(m: LabMeasurements, thresholds: ReadinessThresholds = defaultReadinessThresholds): LabAnalysis {
   let ci: number | null = null;
   let band: CloggingIndexBandDto | null = null;
   if (m.t200s !== null && m.t400s !== null) {
@@ -46,7 +48,7 @@ export function analyseLabResult(m: LabMeasurements): LabAnalysis {
     if (r.ok) {
       ci = r.value;
       const b = cloggingIndexBand(ci);
-      band = { band: b.band, label: b.label };
+      band = { band: b.band, label: b.label, ...cloggingIndexVerdict(ci, thresholds.cloggingIndex) };
     }
   }
 

@@ -214,9 +214,27 @@ export function createPlansRepository(db: DbOrTx) {
       return prepared().catalogueHousings.execute({ wineryId });
     },
 
-    /** Cartridges in stock and installed per type and length (one grouped query). */
+    /**
+     * The winery's cartridges in stock, installed or being regenerated, with their cycle counts, their type's rated
+     * cycles and the result of their latest integrity test (for the engine's usable stock).
+     */
     async stock(wineryId: string) {
-      return prepared().stock.execute({ wineryId });
+      return db
+        .select({
+          typeId: cartridgesTable.typeId,
+          lengthIn: cartridgesTable.lengthIn,
+          status: cartridgesTable.status,
+          steamCycles: cartridgesTable.steamCycles,
+          hotWaterCycles: cartridgesTable.hotWaterCycles,
+          chemicalCycles: cartridgesTable.chemicalCycles,
+          ratedSteamCycles: cartridgeTypesTable.ratedSteamCycles,
+          ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
+          ratedChemicalCycles: cartridgeTypesTable.ratedChemicalCycles,
+          latestIntegrityPass: sql<boolean | null>`(select (e.details->>'pass')::boolean from cartridge_events e where e.cartridge_id = ${cartridgesTable.id} and e.kind = 'integrity' order by e.at desc, e.id desc limit 1)`,
+        })
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inArray(cartridgesTable.status, ['in-stock', 'installed', 'regenerating'])));
     },
 
     // ---- reference checks (each scoped to the winery) --------------------------------

@@ -1,4 +1,4 @@
-import { buildDayTimeline, requiredFlowLh } from '../../../shared/engine';
+import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, type DayNeedsLot } from '../../../shared/engine';
 import {
   blockingReasons,
   planStartMs,
@@ -103,15 +103,14 @@ async function buildPlan(
   }
   const line = row.line;
   const lineSource = line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null;
-  const housingById = new Map(housings.map((h) => [h.id, h]));
   const typeById = new Map(types.map((t) => [t.id, t]));
 
   const blockers: string[] = [];
   if (!line) blockers.push('Choose a bottling line for the plan.');
   if (planLots.length === 0) blockers.push('Add at least one lot to bottle.');
 
-  type NeedAcc = Omit<PlanNeedDto, 'cartridgesAvailable' | 'inStock' | 'installed' | 'elementEquivalentsAvailable' | 'shortfall' | 'verdict'>;
-  const needs = new Map<string, NeedAcc>();
+  const dayLots: DayNeedsLot[] = [];
+  const stageNames: string[][] = [];
   const lots: PlanLotDto[] = [];
   for (const { planLot, lot: lotRow } of planLots) {
     const lot = { ...lotRow, vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null };
@@ -121,51 +120,60 @@ async function buildPlan(
       return { row: t, outcome, dto: presentTrain(t, outcome, blockingReasons(outcome)) };
     });
     const chosen = dtos.find((d) => d.row.id === planLot.chosenTrainId);
+    let dayStages: DayNeedsLot['stages'] = null;
     if (!chosen) {
       blockers.push(`${lot.code}: choose the train to use.`);
     } else {
       for (const reason of chosen.dto.blockingReasons) blockers.push(`${lot.code} (${chosen.row.name}): ${reason}`);
       if (chosen.outcome.ok) {
-        chosen.outcome.result.stages.forEach((s, i) => {
-          const stored = chosen.row.stages[i];
-          const type = typeById.get(stored.cartridgeTypeId)!;
-          const lengthIn = housingById.get(stored.housingId)!.lengthIn;
-          const key = `${type.id}|${lengthIn}`;
-          const acc = needs.get(key) ?? {
-            cartridgeTypeId: type.id,
-            typeName: type.name,
-            kind: type.kind,
-            ratingUm: type.ratingUm,
-            lengthIn,
-            cartridgesNeeded: 0,
-            elementEquivalentsNeeded: 0,
-            lotCodes: [],
-          };
-          acc.cartridgesNeeded += s.cartridgeCount * s.setsUsed;
-          acc.elementEquivalentsNeeded += s.elementEquivalents * s.setsUsed;
-          if (!acc.lotCodes.includes(lot.code)) acc.lotCodes.push(lot.code);
-          needs.set(key, acc);
-        });
+        const input = chosen.outcome.input;
+        dayStages = chosen.outcome.result.stages.map((s, i) => ({
+          cartridgeTypeId: chosen.row.stages[i].cartridgeTypeId,
+          housingId: chosen.row.stages[i].housingId,
+          housingCount: s.housingCount,
+          lengthIn: input.stages[i].housing.lengthIn,
+          cartridgeCount: s.cartridgeCount,
+          elementEquivalents: s.elementEquivalents,
+          capacityL: s.capacityL,
+          regenerable: input.stages[i].cartridgeType.regenerable === true,
+          maxRegenerationsPerLot: input.stages[i].cartridgeType.maxRegenerationsPerLot,
+        }));
       }
     }
+    dayLots.push({ lotId: planLot.id, label: lot.code, volumeL: planLot.volumeL, stages: dayStages });
+    stageNames.push(chosen?.outcome.ok ? chosen.outcome.result.stages.map((s) => s.name) : []);
     lots.push(presentPlanLot(planLot, lot, dtos.map((d) => d.dto)));
   }
 
-  const stockByKey = new Map(stock.map((s) => [`${s.typeId}|${s.lengthIn}`, s]));
-  const needList: PlanNeedDto[] = [...needs.entries()].map(([key, n]) => {
-    const s = stockByKey.get(key);
-    const inStock = s?.inStock ?? 0;
-    const installed = s?.installed ?? 0;
-    const available = inStock + installed;
-    const shortfall = Math.max(0, n.cartridgesNeeded - available);
+  // The day's needs in lot order (a set carries over between lots of the same train) against usable stock.
+  const dayNeeds = dayCartridgeNeeds(
+    dayLots,
+    stock.map((c) => ({
+      cartridgeTypeId: c.typeId,
+      lengthIn: c.lengthIn,
+      status: c.status,
+      spent: cartridgeSpent(c, c),
+      latestIntegrityPass: c.latestIntegrityPass,
+    })),
+  );
+  const needList: PlanNeedDto[] = dayNeeds.lines.map((n) => {
+    const type = typeById.get(n.cartridgeTypeId)!;
     return {
-      ...n,
-      inStock,
-      installed,
-      cartridgesAvailable: available,
-      elementEquivalentsAvailable: (available * n.lengthIn) / 10,
-      shortfall,
-      verdict: shortfall > 0 ? 'short' : 'enough',
+      cartridgeTypeId: n.cartridgeTypeId,
+      typeName: type.name,
+      kind: type.kind,
+      ratingUm: type.ratingUm,
+      lengthIn: n.lengthIn,
+      cartridgesNeeded: n.cartridgesNeeded,
+      elementEquivalentsNeeded: n.elementEquivalentsNeeded,
+      inStock: n.inStock,
+      installed: n.installed,
+      cartridgesAvailable: n.cartridgesAvailable,
+      elementEquivalentsAvailable: (n.cartridgesAvailable * n.lengthIn) / 10,
+      notUsable: n.notUsable,
+      shortfall: n.shortfall,
+      verdict: n.verdict,
+      lotCodes: n.lotLabels,
     };
   });
   needList.sort((a, b) => (a.kind === b.kind ? a.typeName.localeCompare(b.typeName) || a.lengthIn - b.lengthIn : a.kind === 'prefilter' ? -1 : 1));
@@ -188,7 +196,14 @@ async function buildPlan(
       const day = buildDayTimeline({
         startMs: planStartMs(row.plan.plannedDate, row.plan.startTime),
         sanitationKind: row.plan.sanitationKind,
-        lots: planLots.map(({ planLot, lot }) => ({ lotId: planLot.id, label: lot.code, volumeL: planLot.volumeL, flowLh: flowLh! })),
+        lots: planLots.map(({ planLot, lot }, i) => ({
+          lotId: planLot.id,
+          label: lot.code,
+          volumeL: planLot.volumeL,
+          flowLh: flowLh!,
+          // Every regeneration and change of the chosen train's stages within the lot.
+          stops: (dayNeeds.lots[i].stages ?? []).flatMap((use, k) => use.stops.map((stop) => ({ ...stop, stage: stageNames[i][k] }))),
+        })),
       });
       timeline = presentTimeline(day, row.plan.plannedDate, null);
     } catch (error) {
@@ -219,8 +234,8 @@ export function createPlansService(db: Database) {
   const cellar = createCellarService(db);
 
   /**
-   * What approval accepts only with a written reason: a chosen train's flux above design and a
-   * lot not ready for membrane filtration by its latest analysis.
+   * What approval accepts only with a written reason: a chosen train's flux above design, a
+   * lot not ready for membrane filtration by its latest analysis, and a cartridge stock shortfall.
    */
   async function approvalCautions(tenant: TenantContext, detail: PlanDto): Promise<string[]> {
     const cautions: string[] = [];
@@ -232,8 +247,13 @@ export function createPlansService(db: Database) {
       const readiness = (await cellar.getLot(tenant, lot.lot.id)).readiness;
       if (readiness.verdict === 'not-ready') cautions.push(`${lot.lot.code} is not ready for membrane filtration: ${readiness.reasons.join(' ')}`);
     }
-    // A stock shortfall stays advice on the plan (Cartridges needed) until usable stock is counted
-    // per day by the engine; making it a caution is the next step.
+    for (const n of detail.needs) {
+      if (n.verdict === 'short') {
+        cautions.push(
+          `Stock: ${n.typeName} (${String(n.lengthIn)}-inch) needs ${String(n.cartridgesNeeded)} for the day, ${String(n.cartridgesAvailable)} usable on hand, ${String(n.shortfall)} short.`,
+        );
+      }
+    }
     return cautions;
   }
 

@@ -52,7 +52,7 @@ function Facts({ c }: { c: CartridgeDetailDto }) {
         </Fact>
         <Fact label="Housing · round">{c.housingName ? `${c.housingName} · ${c.position ?? '—'}` : '—'}</Fact>
         <Fact label="Received">{c.receivedAt ? format(new Date(`${c.receivedAt}T00:00:00`), 'd MMM yyyy') : '—'}</Fact>
-        <Fact label="Litres filtered">
+        <Fact label="Volume filtered">
           <Measure kind="volume" value={c.litresFiltered} />
         </Fact>
         <Fact label="Cycles">

@@ -12,7 +12,7 @@ const budgetLabel: Record<BudgetUse['factor'], string> = {
   'hot-water cycles': 'Hot-water cycles',
   'chemical cycles': 'Chemical cycles',
   'steam minutes': 'Steam time',
-  litres: 'Litres',
+  litres: 'Volume',
 };
 
 function BudgetBar({ b, limiting }: { b: BudgetUse; limiting: boolean }) {
@@ -96,7 +96,7 @@ export function LifeGauge({ life, lifeError }: { life: CartridgeLife | null; lif
             <dd className="text-2xl font-semibold text-ink-950">{life.remainingCycles === null ? '—' : <Quantity value={life.remainingCycles} unit="" digits={0} />}</dd>
           </div>
           <div>
-            <dt className="text-sm text-ink-600">Litres left</dt>
+            <dt className="text-sm text-ink-600">Volume left</dt>
             <dd className="text-2xl font-semibold text-ink-950">
               <Measure kind="volume" value={life.remainingLitres} />
             </dd>

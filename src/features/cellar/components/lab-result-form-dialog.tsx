@@ -4,7 +4,8 @@ import { Plus, Trash2 } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { cloggingIndex, cloggingIndexBand } from '@shared/engine/filterability';
+import { cloggingIndex } from '@shared/engine/filterability';
+import { cloggingIndexVerdict, defaultReadinessThresholds, type ReadinessThresholds } from '@shared/engine/readiness';
 import { labResultInputSchema } from '@shared/schemas/cellar';
 import type { LabResultDto } from '@shared/types/cellar';
 import { Button } from '@/components/ui/button';
@@ -25,8 +26,10 @@ const localDateTime = (d: Date) => format(d, "yyyy-MM-dd'T'HH:mm");
 /** Parses typed text the way the form does, for the live preview. */
 const typed = (s: string) => decimalText.parse(s ?? '');
 
-/** Clogging index and band of what is typed so far (the server computes the saved figure). */
-function CloggingPreview({ t200, t400 }: { t200: string; t400: string }) {
+type CiLimits = Pick<ReadinessThresholds['cloggingIndex'], 'readyMaxS' | 'borderlineMaxS'>;
+
+/** Clogging index of what is typed so far, judged as the lot's readiness judges it (the server computes the saved figure). */
+function CloggingPreview({ t200, t400, limits }: { t200: string; t400: string; limits: CiLimits }) {
   const a = typed(t200);
   const b = typed(t400);
   if (a === null || b === null || !Number.isFinite(a) || !Number.isFinite(b)) return null;
@@ -34,7 +37,7 @@ function CloggingPreview({ t200, t400 }: { t200: string; t400: string }) {
     const ci = cloggingIndex(a, b);
     return (
       <p className="text-sm text-ink-700 sm:col-span-2" aria-live="polite">
-        Clogging index <Quantity value={ci} unit="s" digits={0} className="font-semibold" /> — {cloggingIndexBand(ci).label}.
+        Clogging index <Quantity value={ci} unit="s" digits={0} className="font-semibold" /> — {cloggingIndexVerdict(ci, limits).reason}
       </p>
     );
   } catch (error) {
@@ -47,7 +50,20 @@ function CloggingPreview({ t200, t400 }: { t200: string; t400: string }) {
 }
 
 /** Adds a lab result to a lot, or edits one when `result` is given. */
-export function LabResultFormDialog({ open, onClose, lotId, result }: { open: boolean; onClose: () => void; lotId: string; result?: LabResultDto | null }) {
+export function LabResultFormDialog({
+  open,
+  onClose,
+  lotId,
+  result,
+  ciLimits = defaultReadinessThresholds.cloggingIndex,
+}: {
+  open: boolean;
+  onClose: () => void;
+  lotId: string;
+  result?: LabResultDto | null;
+  /** The winery's clogging-index limits (the lot's readiness thresholds). */
+  ciLimits?: CiLimits;
+}) {
   const units = useUnits();
   const create = useCreateLabResult();
   const update = useUpdateLabResult();
@@ -159,7 +175,7 @@ export function LabResultFormDialog({ open, onClose, lotId, result }: { open: bo
         <FormField label="Time to 400 mL" htmlFor="lr-t400" hint="Clogging test, from the start." error={errors.t400s?.message}>
           <NumberInput id="lr-t400" unit="s" {...form.register('t400s')} />
         </FormField>
-        <CloggingPreview t200={t200} t400={t400} />
+        <CloggingPreview t200={t200} t400={t400} limits={ciLimits} />
         <FormField label="Free SO₂" htmlFor="lr-so2" error={errors.freeSo2MgL?.message}>
           <NumberInput id="lr-so2" unit="mg/L" {...form.register('freeSo2MgL')} />
         </FormField>

@@ -11,8 +11,8 @@ import { Quantity } from '@/components/ui/quantity';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
 
-const bandTone: Record<string, StatusTone> = { 'very-good': 'ok', good: 'watch', poor: 'stop', 'very-poor': 'stop' };
-const bandWord: Record<string, string> = { 'very-good': 'very good', good: 'good', poor: 'poor', 'very-poor': 'very poor' };
+// The badge says what the lot's readiness says: the verdict against the winery's limits (engine).
+const verdictTone: Record<'ready' | 'borderline' | 'not-ready', StatusTone> = { ready: 'ok', borderline: 'watch', 'not-ready': 'stop' };
 
 function DiscCell({ disc }: { disc: LabResultDto['disc'] }) {
   if (!disc) return <span className="text-ink-500">—</span>;
@@ -25,7 +25,7 @@ function DiscCell({ disc }: { disc: LabResultDto['disc'] }) {
   }
   return (
     <span className="flex flex-col items-end">
-      <Quantity value={disc.vmaxLPerM2} unit="L/m²" digits={0} />
+      <MetricQuantity kind="loading" value={disc.vmaxLPerM2} />
       <span className="text-xs text-ink-600">
         J₀ <MetricQuantity kind="flux" value={disc.j0LPerM2H} />
       </span>
@@ -70,9 +70,11 @@ export function LabResultsTable({
             <span className="inline-flex items-center gap-2">
               <Quantity value={row.original.cloggingIndex} unit="s" digits={0} />
               {row.original.cloggingIndexBand ? (
-                <StatusBadge size="sm" tone={bandTone[row.original.cloggingIndexBand.band]}>
-                  {bandWord[row.original.cloggingIndexBand.band]}
-                </StatusBadge>
+                <span title={row.original.cloggingIndexBand.reason}>
+                  <StatusBadge size="sm" tone={verdictTone[row.original.cloggingIndexBand.verdict]}>
+                    {row.original.cloggingIndexBand.short}
+                  </StatusBadge>
+                </span>
               ) : null}
             </span>
           ),

@@ -172,7 +172,7 @@ export function LotPage({ lotId }: { lotId: string }) {
       <AttachmentPanel ownerKind="lot" ownerId={l.id} title="Lab reports and files" />
 
       <LotFormDialog open={editingLot} lot={l} onClose={() => setEditingLot(false)} />
-      <LabResultFormDialog open={resultForm.open} result={resultForm.result} lotId={l.id} onClose={() => setResultForm({ open: false, result: null })} />
+      <LabResultFormDialog open={resultForm.open} result={resultForm.result} lotId={l.id} ciLimits={l.thresholds.cloggingIndex} onClose={() => setResultForm({ open: false, result: null })} />
       <Dialog
         open={deletingLot}
         onClose={() => {

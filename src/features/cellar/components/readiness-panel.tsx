@@ -25,7 +25,7 @@ export function ReadinessPanel({ lot }: { lot: LotDto }) {
     { what: 'Clogging test validity', value: `below ${t.cloggingIndexValidity.validBelowNtu} NTU`, source: t.cloggingIndexValidity.source },
     {
       what: 'Vmax safety factor',
-      value: `ready ≥ ${t.vmax.readyMinSafetyFactor}× · borderline ≥ ${t.vmax.borderlineMinSafetyFactor}× the planned L/m²`,
+      value: `ready ≥ ${t.vmax.readyMinSafetyFactor}× · borderline ≥ ${t.vmax.borderlineMinSafetyFactor}× the planned volume per filter area`,
       source: t.vmax.source,
     },
   ];

@@ -8,6 +8,7 @@ import { GasCaution } from '@/components/ui/caution';
 import { DataTable } from '@/components/ui/data-table';
 import { Dialog } from '@/components/ui/dialog';
 import { ErrorState, LoadingState } from '@/components/ui/states';
+import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
@@ -31,7 +32,21 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
       { header: 'Tank', accessorKey: 'name', meta: { className: 'font-semibold whitespace-nowrap' } },
       { header: 'Capacity', accessorKey: 'capacityL', meta: { numeric: true }, cell: ({ row }) => <MetricQuantity kind="volume" value={row.original.capacityL} /> },
       { header: 'Lots', accessorKey: 'lotCount', meta: { numeric: true } },
-      { header: 'Wine held', accessorKey: 'lotVolumeL', meta: { numeric: true }, cell: ({ row }) => <MetricQuantity kind="volume" value={row.original.lotVolumeL} /> },
+      {
+        header: 'Wine held',
+        accessorKey: 'lotVolumeL',
+        meta: { numeric: true },
+        cell: ({ row }) => (
+          <span className="inline-flex flex-wrap items-center justify-end gap-2">
+            <MetricQuantity kind="volume" value={row.original.lotVolumeL} />
+            {row.original.lotVolumeL > row.original.capacityL ? (
+              <StatusBadge size="sm" tone="stop">
+                above capacity
+              </StatusBadge>
+            ) : null}
+          </span>
+        ),
+      },
       { header: 'Notes', accessorKey: 'notes', meta: { className: 'min-w-40 text-ink-700' } },
       ...(mayEdit
         ? [
@@ -75,15 +90,25 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
       ) : tanks.isError ? (
         <ErrorState className="m-4" message={tanks.error.message} onRetry={() => tanks.refetch()} />
       ) : (
-        <DataTable
-          caption="Tanks"
-          className="rounded-none border-0"
-          columns={columns}
-          data={tanks.data.items}
-          getRowId={(t) => t.id}
-          clientSorting
-          empty="No tanks yet. Add the tanks your lots are in, with their capacity."
-        />
+        <>
+          {tanks.data.items
+            .filter((t) => t.lotVolumeL > t.capacityL)
+            .map((t) => (
+              <p key={t.id} role="alert" className="mx-4 my-2 rounded border border-stop-200 bg-stop-50 px-3 py-2 text-sm text-stop-700">
+                {t.name} holds <MetricQuantity kind="volume" value={t.lotVolumeL} /> of lots, more than its capacity of <MetricQuantity kind="volume" value={t.capacityL} />: check the
+                lots’ volumes or the tank’s capacity.
+              </p>
+            ))}
+          <DataTable
+            caption="Tanks"
+            className="rounded-none border-0"
+            columns={columns}
+            data={tanks.data.items}
+            getRowId={(t) => t.id}
+            clientSorting
+            empty="No tanks yet. Add the tanks your lots are in, with their capacity."
+          />
+        </>
       )}
       <div className="p-4">
         <GasCaution title="Tank work: CO₂ and nitrogen – no air to breathe" />

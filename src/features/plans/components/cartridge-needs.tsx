@@ -8,7 +8,7 @@ export function CartridgeNeeds({ plan }: { plan: PlanDto }) {
   return (
     <Card
       title="Cartridges needed"
-      description="For the chosen trains: cartridges per set × sets used, summed over the lots, against those in stock and installed (regenerating ones not counted)."
+      description="New cartridges the chosen trains need over the day, lot after lot (a set stays in for the next lot of the same train while it has capacity), against usable ones in stock and installed. Spent cartridges, those whose latest integrity test failed and those being regenerated are not counted. A shortfall needs a written reason at approval."
       actions={plan.needs.length > 0 ? short > 0 ? <StatusBadge tone="stop">{`${short} short`}</StatusBadge> : <StatusBadge tone="ok">enough</StatusBadge> : null}
       flush
     >
@@ -44,6 +44,7 @@ export function CartridgeNeeds({ plan }: { plan: PlanDto }) {
                     <span className="font-semibold">{n.cartridgesAvailable}</span>
                     <div className="text-xs text-ink-600">
                       {n.inStock} in stock, {n.installed} installed
+                      {n.notUsable > 0 ? `; ${n.notUsable} not usable` : ''}
                     </div>
                   </td>
                   <td className="px-3 py-2">

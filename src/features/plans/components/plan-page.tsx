@@ -2,6 +2,7 @@ import { format } from 'date-fns';
 import { ArrowLeft, CalendarPlus, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
+import { DEFAULT_FLOW_MARGIN_PCT } from '@shared/engine';
 import { sanitationKindLabels } from '@shared/schemas/plans';
 import type { PlanDto } from '@shared/types/plans';
 import { Button, buttonClasses } from '@/components/ui/button';
@@ -36,7 +37,7 @@ function Facts({ plan }: { plan: PlanDto }) {
   const items: [string, string][] = [
     ['Date', dayLabel(plan.plannedDate)],
     ['Line', plan.line ? `${plan.line.name} · ${plan.line.bottlesPerHour.toLocaleString()} bottles/h of ${plan.line.bottleMl} mL` : 'none: choose one'],
-    ['Flow the filters carry', plan.requiredFlowLh === null ? '—' : `${u.format('flow', plan.requiredFlowLh)} (line + 10 %)`],
+    ['Flow the filters carry', plan.requiredFlowLh === null ? '—' : `${u.format('flow', plan.requiredFlowLh)} (line + ${DEFAULT_FLOW_MARGIN_PCT} %)`],
     ['Start', `${plan.startTime} · ${sanitationKindLabels[plan.sanitationKind].toLowerCase()} sanitation`],
   ];
   if (plan.approvedAt) items.push(['Approved', `${format(new Date(plan.approvedAt), 'd MMM yyyy HH:mm')}${plan.approvedBy ? ` by ${plan.approvedBy}` : ''}`]);

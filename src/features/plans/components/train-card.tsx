@@ -1,6 +1,6 @@
 import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
 import { useEffect, useId, useMemo, useState } from 'react';
-import { suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
+import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, COST_VOLUME_BASIS, costPerVolumeBasis, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
 import {
   BLOCKING_WARNING_CODES,
   STAGES_MAX,
@@ -22,24 +22,33 @@ import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
 import { parseNumberText } from '@/lib/number-input';
+import { HosesEditor, toDraftHoses, toHoses, type DraftHose } from './hoses-editor';
 
 /** A stage as typed: text fields stay text until sized or saved. */
 type DraftStage = { name: string; cartridgeTypeId: string; housingId: string; housingCount: string; capacity: string };
 
-const toDraft = (t: PlanTrainDto): DraftStage[] =>
+type Units = ReturnType<typeof useUnits>;
+
+/** Capacity per m² as shown in the person's units (L/m² or gal/ft²). */
+const capacityText = (v: number | null, u: Units) => (v === null ? '' : u.toInput('loading', v));
+
+const toDraft = (t: PlanTrainDto, u: Units): DraftStage[] =>
   t.stages.map((s) => ({
     name: s.name ?? '',
     cartridgeTypeId: s.cartridgeTypeId,
     housingId: s.housingId,
     housingCount: String(s.housingCount),
-    capacity: s.capacityLPerM2 === null ? '' : String(s.capacityLPerM2),
+    capacity: capacityText(s.capacityLPerM2, u),
   }));
 
 const parseNumber = (text: string) => parseNumberText(text) ?? undefined;
 
-const toStages = (draft: DraftStage[]): TrainStageInput[] =>
-  draft.map((d) => {
-    const capacity = parseNumber(d.capacity);
+/** Stages to size or save; a capacity left as shown keeps its stored value exactly (no rounding back from gal/ft²). */
+const toStages = (draft: DraftStage[], t: PlanTrainDto, u: Units): TrainStageInput[] =>
+  draft.map((d, i) => {
+    const stored = t.stages[i]?.capacityLPerM2 ?? null;
+    const typed = parseNumber(d.capacity);
+    const capacity = stored !== null && d.capacity === capacityText(stored, u) ? stored : typed === undefined || !Number.isFinite(typed) ? typed : u.fromInput('loading', typed);
     return {
       ...(d.name.trim() ? { name: d.name.trim() } : {}),
       cartridgeTypeId: d.cartridgeTypeId,
@@ -61,6 +70,9 @@ const interventionWords = (s: StageSizing) => {
 const money = (v: number | null, currency: string | null) =>
   v === null ? '—' : new Intl.NumberFormat(undefined, { style: 'currency', currency: currency ?? 'EUR', maximumFractionDigits: 2 }).format(v);
 
+/** A cost per hL in the person's units: per hL, or per 100 gal in US customary. */
+const costPer = (v: number | null, u: Units) => (v === null ? null : costPerVolumeBasis(v, u.system).value);
+
 function Figure({ label, children, tone, testId }: { label: string; children: React.ReactNode; tone?: 'ok' | 'over'; testId?: string }) {
   return (
     <div className="flex items-baseline justify-between gap-2 border-b border-ink-100 py-1 last:border-0" data-testid={testId}>
@@ -73,10 +85,13 @@ function Figure({ label, children, tone, testId }: { label: string; children: Re
   );
 }
 
+/** "⅓" for the engine's clean-ΔP share of terminal, else the percentage. */
+const fractionWords = Math.abs(CLEAN_DP_MAX_FRACTION_OF_TERMINAL - 1 / 3) < 1e-9 ? '⅓' : `${Math.round(CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100)} % of`;
+
 /** The engine's figures for one stage, in the person's units. */
 function StageFigures({ s }: { s: StageSizing }) {
   const u = useUnits();
-  const third = s.terminalDpBar / 3;
+  const third = s.terminalDpBar * CLEAN_DP_MAX_FRACTION_OF_TERMINAL;
   const dpShare = Math.min(1, s.cleanDpBar / s.terminalDpBar);
   return (
     <dl className="mt-2 rounded border border-ink-200 bg-ink-50 px-2.5 py-1.5">
@@ -87,11 +102,11 @@ function StageFigures({ s }: { s: StageSizing }) {
         {u.format('flow', s.fluxLhPer10in)} <span className="font-normal text-ink-600">of {u.format('flow', s.designFluxLhPer10in)}</span>
       </Figure>
       <Figure label="Clean ΔP" tone={s.cleanDpBar > third ? 'over' : 'ok'} testId="stage-dp">
-        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} (⅓ terminal)</span>
+        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} ({fractionWords} terminal)</span>
       </Figure>
       <div aria-hidden="true" className="relative my-1 h-1.5 rounded-full bg-ink-200">
         <div className={cn('h-1.5 rounded-full', s.cleanDpBar > third ? 'bg-stop-600' : 'bg-primary-600')} style={{ width: `${Math.max(2, dpShare * 100)}%` }} />
-        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: '33.33%' }} />
+        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: `${CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100}%` }} />
       </div>
       <Figure label="To terminal ΔP" testId="stage-capacity">
         {s.infeasible ? (
@@ -108,9 +123,9 @@ function StageFigures({ s }: { s: StageSizing }) {
       <Figure label="Regenerations or changes" testId="stage-interventions">
         <span className="font-normal">{interventionWords(s)}</span>
       </Figure>
-      <Figure label="Cost per hL" testId="stage-cost">
+      <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}`} testId="stage-cost">
         {s.costIsLowerBound ? 'at least ' : ''}
-        {money(s.costPerHl, s.currency)}
+        {money(costPer(s.costPerHl, u), s.currency)}
         {s.costBasis === 'service-life' ? <span className="font-normal text-ink-600"> (set spread over its life)</span> : null}
         {s.costBasis === 'whole-set' ? <span className="font-normal text-ink-600"> (whole set: no rated cycles)</span> : null}
       </Figure>
@@ -155,10 +170,13 @@ function Totals({ r }: { r: TrainSizingResult }) {
       <Figure label="Pump pressure, clean → end">
         {u.format('pressure', r.totals.pumpPressureCleanBar)} → {u.format('pressure', r.totals.pumpPressureEndOfRunBar)}
       </Figure>
+      <Figure label="Line loss (hoses)" testId="train-line-loss">
+        {u.format('dp', r.totals.lineLossBar)}
+      </Figure>
       <Figure label="Hold-up">{u.format('volume', r.totals.holdUpL, 1)}</Figure>
-      <Figure label="Cost per hL, train" testId="train-cost">
+      <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}, train`} testId="train-cost">
         {r.totals.costIsLowerBound && r.totals.costPerHl !== null ? 'at least ' : ''}
-        {money(r.totals.costPerHl, r.totals.currency)}
+        {money(costPer(r.totals.costPerHl, u), r.totals.currency)}
         {r.totals.unpricedStages.length > 0 && r.totals.costPerHl !== null ? <span className="font-normal text-ink-600"> (priced stages only)</span> : null}
       </Figure>
     </dl>
@@ -184,21 +202,25 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
   const choose = useUpdatePlanLot();
   const { cartridgeTypes, housings } = plan.catalogue;
   const [name, setName] = useState(train.name);
-  const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train));
+  const u = useUnits();
+  const [draft, setDraft] = useState<DraftStage[]>(() => toDraft(train, u));
   const [suggestNote, setSuggestNote] = useState<string | null>(null);
-  const saved = JSON.stringify({ n: train.name, s: toDraft(train) });
+  const [hoseDraft, setHoseDraft] = useState<DraftHose[]>(() => toDraftHoses(train.hoses, u));
+  const saved = JSON.stringify({ n: train.name, s: toDraft(train, u), h: toDraftHoses(train.hoses, u) });
   useEffect(() => {
     setName(train.name);
-    setDraft(toDraft(train));
+    setDraft(toDraft(train, u));
+    setHoseDraft(toDraftHoses(train.hoses, u));
   }, [saved]);
-  const dirty = saved !== JSON.stringify({ n: name, s: draft });
+  const dirty = saved !== JSON.stringify({ n: name, s: draft, h: hoseDraft });
   const chosen = planLot.chosenTrainId === train.id;
 
-  const stages = useMemo(() => toStages(draft), [draft]);
-  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses: train.hoses, sanitationKind: plan.sanitationKind };
+  const stages = useMemo(() => toStages(draft, train, u), [draft, train, u.system]);
+  const hoses = useMemo(() => toHoses(hoseDraft, train.hoses, u), [hoseDraft, train.hoses, u.system]);
+  const source = { wine: planLot.lot, volumeL: planLot.volumeL, line: plan.line, stages, types: cartridgeTypes, housings, hoses, sanitationKind: plan.sanitationKind };
   const sized = useMemo(
     () => sizePlanTrain(source),
-    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, train.hoses, plan.sanitationKind],
+    [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, hoses, plan.sanitationKind],
   );
 
   const setStage = (i: number, patch: Partial<DraftStage>) => setDraft((d) => d.map((s, k) => (k === i ? { ...s, ...patch } : s)));
@@ -222,7 +244,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
 
   const onSave = async () => {
     try {
-      await save.mutateAsync({ planId: plan.id, planLotId: planLot.id, trainId: train.id, changes: { name, stages } });
+      await save.mutateAsync({ planId: plan.id, planLotId: planLot.id, trainId: train.id, changes: { name, stages, hoses: hoses.length > 0 ? hoses : null } });
       toast.success(`${name} saved`);
     } catch (error) {
       toast.error('The train was not saved', errorMessage(error, { preferField: true }));
@@ -278,7 +300,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
                     <NumberInput id={`${id}-n${i}`} disabled={!editable} value={d.housingCount} onChange={(e) => setStage(i, { housingCount: e.target.value })} />
                   </FormField>
                   <FormField label="Capacity" htmlFor={`${id}-c${i}`}>
-                    <NumberInput id={`${id}-c${i}`} unit="L/m²" placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
+                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
                   </FormField>
                 </div>
               </div>
@@ -287,6 +309,8 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
           );
         })}
       </ol>
+
+      <HosesEditor id={`${id}-hoses`} draft={hoseDraft} setDraft={setHoseDraft} editable={editable} units={u} />
 
       {sized.ok ? (
         <>

@@ -1,0 +1,56 @@
+// @vitest-environment node
+// Every figure on the plan screen in the person's units (issue: plans you can approve with
+// confidence): in US customary no litre, bar, °C or per-hL figure shows.
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
+import { signUp, startTestApp, type TestApp } from '../support/test-app';
+
+let app: TestApp;
+let browser: Browser;
+
+beforeAll(async () => {
+  app = await startTestApp({ config: { clientDir } });
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+describe('the plan screen in US customary units', () => {
+  it('shows gallons, gal/min, psi, °F, gal/ft² and cost per 100 gal, and no metric figure', async () => {
+    const { client } = await signUp(app.baseUrl, { wineryName: 'US Plan Test Cellars' });
+    expect((await client.put('/api/me', { units: 'us' })).status).toBe(200);
+    const world = await createPlanWorld(client);
+    const plan = await createPlan(client, world.lineId, { name: 'US day' });
+    const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+    const trainId = (await addTrain(client, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
+    expect((await client.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
+
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
+    const page = await ctx.newPage();
+    const errors = watchPageErrors(page);
+    await page.goto(`${app.baseUrl}/plans/${plan.id}`);
+    const option = page.getByRole('article', { name: /Option A/ });
+    await option.waitFor();
+    await page.getByRole('list', { name: 'Timeline' }).waitFor();
+    const text = (await page.getByRole('main').innerText()).replace(/\s+/g, ' ');
+    // US figures present (6,000 L = 1,585 gal; capacity 3,000 L/m² = 73.6 gal/ft²).
+    expect(text).toMatch(/1,585 gal/);
+    expect(text).toMatch(/gal\/min/);
+    expect(text).toMatch(/psi/);
+    expect(text).toMatch(/Cost per 100 gal/);
+    expect(await option.getByRole('listitem', { name: 'Stage 1' }).getByLabel('Capacity').inputValue()).toBe(String(Number(((3000 * 0.09290304) / 3.785411784).toFixed(4))));
+    await option.getByRole('listitem', { name: 'Stage 1' }).getByText('gal/ft²').first().waitFor();
+    // No metric figure: a number followed by a metric unit.
+    const metric = text.match(/\d\s?(L|L\/h|L\/m²|bar|°C|hL|m²)(?![a-zA-Z/²])/g) ?? [];
+    expect(metric).toEqual([]);
+    expect(text).not.toMatch(/per hL/);
+    await screenshot(page, 'plan-us-units-desktop');
+    expect(errors).toEqual([]);
+    await ctx.close();
+  });
+});
