@@ -28,7 +28,7 @@ describe('starting a run on the cartridges physically in the train', () => {
     const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
     const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
     expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
     const tech = await addMember(app, owner, 'technician');
     const master = await addMember(app, owner, 'cellar-master');
 

@@ -61,7 +61,7 @@ export async function startRunOf(owner: Client, w: BottledWorld, lotId: string, 
   const planLotId = (await addPlanLot(owner, plan.id, lotId, volumeL)).lots[0].id;
   const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(w))).lots[0].trains[0].id;
   await ok(await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId }), 200, 'choosing the train');
-  await ok(await owner.post(`/api/plans/${plan.id}/approve`), 200, 'approving');
+  await ok(await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' }), 200, 'approving');
   const run = await ok<{ id: string }>(await starter.post('/api/runs', { planLotId }), 201, 'starting the run');
   return { runId: run.id, planId: plan.id, planName: plan.name };
 }

@@ -179,7 +179,7 @@ describe('an approved plan', () => {
     const planLotId = withLot.lots[0].id;
     const t = await addTrain(owner, plan.id, planLotId, trainBody(w));
     await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: t.lots[0].trains[0].id });
-    const approved = await people['cellar-master'].client.post(`/api/plans/${plan.id}/approve`);
+    const approved = await people['cellar-master'].client.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' });
     expect(approved.status).toBe(200);
     expect(approved.body.needs.some((n: { shortfall: number }) => n.shortfall > 0)).toBe(true);
     const [short] = await until('the stock alert', async () => {
@@ -221,7 +221,7 @@ describe('a running run', () => {
     const planLotId = withLot.lots[0].id;
     const t = await addTrain(owner, plan.id, planLotId, trainBody(w));
     await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: t.lots[0].trains[0].id });
-    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
     const run = await people.technician.client.post('/api/runs', { planLotId });
     expect(run.status).toBe(201);
     const runId = run.body.id as string;
@@ -390,7 +390,7 @@ describe('calendars', () => {
     const t = await addTrain(owner, plan.id, planLotId, trainBody(w));
     await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: t.lots[0].trains[0].id });
     const draftOnly = await createPlan(owner, w.lineId, { plannedDate: '2031-08-02' });
-    expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
 
     const feed = await people.technician.client.post('/api/me/calendar-feed');
     expect(feed.status).toBe(201);

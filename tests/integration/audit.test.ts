@@ -174,9 +174,9 @@ describe('the change log: one event per change, in the same transaction', () => 
     const withTrain = await addTrain(owner, plan.id, planLotId, trainBody(world));
     expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: withTrain.lots[0].trains[0].id })).status).toBe(200);
     const steps: [() => Promise<Res>, string, string][] = [
-      [() => owner.post(`/api/plans/${plan.id}/approve`), 'plan', 'approve'],
+      [() => owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' }), 'plan', 'approve'],
       [() => owner.post(`/api/plans/${plan.id}/reopen`), 'plan', 'reopen'],
-      [() => owner.post(`/api/plans/${plan.id}/approve`), 'plan', 'approve'],
+      [() => owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' }), 'plan', 'approve'],
       [() => members.technician.client.post('/api/runs', { planLotId }), 'run', 'start'],
     ];
     for (const [step, kind, action] of steps) {

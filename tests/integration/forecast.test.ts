@@ -23,7 +23,7 @@ async function startedRun() {
   const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
   expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+  expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
   const res = await owner.post('/api/runs', { planLotId });
   expect(res.status).toBe(201);
   return res.body as { id: string };

@@ -31,7 +31,7 @@ async function plannedLot(w: PlanWorld, stages?: unknown[]) {
   const planLotId = (await addPlanLot(owner, plan.id, w.lotId, 6000)).lots[0].id;
   const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(w, stages ? { stages } : {}))).lots[0].trains[0].id;
   expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  expect((await owner.post(`/api/plans/${plan.id}/approve`)).status).toBe(200);
+  expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
   return { planId: plan.id, planLotId };
 }
 
