@@ -54,7 +54,7 @@ export type RecordPlanDto = {
   approvedAt: string | null;
   approvedByName: string | null;
   /**
-   * Where the sized figures come from: 'frozen-at-approval' once plans keep a snapshot, 'stored-train'
+   * Where the sized figures come from: 'frozen-at-approval' (plans approved since plans keep their sizing), 'stored-train'
    * while they are sized from the stored train (the train cannot change after approval).
    */
   sizingSource: 'frozen-at-approval' | 'stored-train';

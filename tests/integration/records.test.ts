@@ -68,7 +68,7 @@ describe('the bottling filtration record', () => {
     expect(run.bottles).toBe(5333);
     expect(run.analyses).toMatchObject({ turbidityNtu: 0.6, cloggingIndex: 10 });
     expect(['ready', 'borderline', 'not-ready', 'unknown']).toContain(run.readiness.verdict);
-    expect(run.plan).toMatchObject({ name: bottled.planName, approvedByName: 'Rosa Owner', sizingSource: 'stored-train', bottleMl: 750 });
+    expect(run.plan).toMatchObject({ name: bottled.planName, approvedByName: 'Rosa Owner', sizingSource: 'frozen-at-approval', bottleMl: 750 });
     expect(run.plan.approvedAt).toBeTruthy();
     expect(run.plan.sizing?.stages.map((s) => s.kind)).toEqual(['prefilter', 'membrane']);
     expect(run.plan.sizing?.batchL).toBe(4000);
@@ -267,6 +267,23 @@ describe('the bottling filtration record', () => {
         expect(fonts).not.toMatch(/Helvetica/);
         if (word === 'FAIL') expect(text).toMatch(/Warning: .*failed its integrity test after the run/);
       }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe('the whole-winery export carries each record’s fingerprint', () => {
+  it('manifest.json lists the bottled lot with the same fingerprint as its record', async () => {
+    const record = (await owner.get(`/api/records/lots/${bottled.lotId}`)).body as FilterRecordDto;
+    const res = await fetch(`${app.baseUrl}/api/export/winery`, { headers: { cookie: [...owner.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
+    expect(res.status).toBe(200);
+    const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-manifest-'));
+    try {
+      const zip = join(dir, 'export.zip');
+      writeFileSync(zip, Buffer.from(await res.arrayBuffer()));
+      const manifest = JSON.parse(execFileSync('unzip', ['-p', zip, 'manifest.json'], { encoding: 'utf8' })) as { records: { lotId: string; fingerprint: string }[] };
+      expect(manifest.records.find((r) => r.lotId === bottled.lotId)?.fingerprint).toBe(record.fingerprint);
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }

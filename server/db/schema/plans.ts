@@ -38,6 +38,8 @@ export const plansTable = pgTable(
     /** Cautions the approver accepted (flux above design, a lot not ready, a stock shortfall) and their written reason. */
     approvalCautions: jsonb('approval_cautions').$type<string[]>(),
     approvalReason: text('approval_reason'),
+    /** Each lot's chosen-train sizing as it stood at approval (by plan lot id), for the record. */
+    approvedSizing: jsonb('approved_sizing').$type<Record<string, unknown>>(),
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
     createdByName: text('created_by_name'),
     /** 1 for a new plan; a reopened plan whose lots were run continues as a new row with revision + 1. */

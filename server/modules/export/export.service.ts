@@ -5,6 +5,7 @@ import type { Database } from '../../db/client';
 import { csvStream } from '../../lib/csv';
 import { notFound } from '../../lib/errors';
 import type { Storage } from '../../lib/storage';
+import { createRecordsService } from '../records/records.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { createExportRepository, exportHeader, exportTables } from './export.repository';
 
@@ -20,6 +21,8 @@ export type ExportManifest = {
   counts: Record<string, number>;
   files: ExportFileEntry[];
   attachments: ExportFileEntry[];
+  /** Each bottled lot's filtration record fingerprint (SHA-256 of its canonical JSON), to check printed copies. */
+  records: { lotId: string; lotCode: string; fingerprint: string }[];
   notes: string[];
 };
 
@@ -37,6 +40,7 @@ const zipSafe = (name: string) =>
  * one page of rows or one attachment at a time.
  */
 export function createExportService({ db, storage }: { db: Database; storage: Storage }) {
+  const recordsService = createRecordsService(db);
   const repo = createExportRepository(db);
 
   return {
@@ -127,6 +131,17 @@ export function createExportService({ db, storage }: { db: Database; storage: St
         attachments.push({ file, bytes: buffer.byteLength, sha256: createHash('sha256').update(buffer).digest('hex') });
       }
 
+      // One record at a time, page by page: memory does not grow with the winery's history.
+      const records: ExportManifest['records'] = [];
+      for (let page = 1; ; page++) {
+        const { items, total } = await recordsService.list(tenant, { page, pageSize: 100 } as Parameters<typeof recordsService.list>[1]);
+        for (const item of items) {
+          const r = await recordsService.record(tenant, item.lotId, now);
+          records.push({ lotId: item.lotId, lotCode: r.lot.code, fingerprint: r.fingerprint });
+        }
+        if (items.length === 0 || page * 100 >= total) break;
+      }
+
       const manifest: ExportManifest = {
         format: 'porewise-winery-export',
         version: 1,
@@ -136,6 +151,7 @@ export function createExportService({ db, storage }: { db: Database; storage: St
         counts: Object.fromEntries(files.map((f) => [f.file.replace(/\.csv$/, ''), f.rows ?? 0])),
         files,
         attachments,
+        records,
         notes,
       };
       await add(Buffer.from(JSON.stringify(manifest, null, 2)), 'manifest.json');

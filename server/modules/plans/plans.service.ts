@@ -463,6 +463,10 @@ export function createPlansService(db: Database) {
             approvedAt: now,
             approvalCautions: cautions.length > 0 ? cautions : null,
             approvalReason: cautions.length > 0 ? reason : null,
+            // The sized figures as approved, frozen for the filtration record.
+            approvedSizing: Object.fromEntries(
+              detail.lots.map((l) => [l.id, l.trains.find((t) => t.id === l.chosenTrainId)?.sizing ?? null]),
+            ),
           }),
         );
       });
@@ -487,7 +491,7 @@ export function createPlansService(db: Database) {
         if (runs.open > 0) throw runOpen();
         if (runs.closed === 0) {
           await audited(tx, tenant, { action: 'reopen', kind: 'plan', id }, () =>
-            r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedByName: null, approvedAt: null, approvalCautions: null, approvalReason: null }),
+            r.updatePlan(tenant.wineryId, id, { status: 'draft', approvedBy: null, approvedByName: null, approvedAt: null, approvalCautions: null, approvalReason: null, approvedSizing: null }),
           );
           return id;
         }

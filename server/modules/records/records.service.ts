@@ -1,5 +1,6 @@
 import { fitConstantFlow, formatNumber, volumeAtDp, type ConstantFlowFit } from '../../../shared/engine';
 import { sizePlanTrain } from '../../../shared/schemas/plans';
+import type { TrainSizingResult } from '../../../shared/engine';
 import type { RecordLotsQuery, VerifyRecordInput } from '../../../shared/schemas/records';
 import type {
   FilterRecordDto,
@@ -166,9 +167,12 @@ export function createRecordsService(db: Database) {
     // Sized figures of the chosen train (the train of an approved plan cannot change).
     let sizing: RecordSizingDto | null = null;
     let sizingNote: string | null = null;
+    // The figures frozen when the plan was approved; else (older plans) sized again from the stored train.
+    const frozen = (plan.approvedSizing?.[planLot.id] ?? null) as TrainSizingResult | null;
+    const sizingSource: 'frozen-at-approval' | 'stored-train' = frozen ? 'frozen-at-approval' : 'stored-train';
     if (!train) sizingNote = 'The plan has no chosen train for this lot.';
     else {
-      const outcome = sizePlanTrain({
+      const outcome: { ok: true; result: TrainSizingResult } | { ok: false; error: string } = frozen ? { ok: true, result: frozen } : sizePlanTrain({
         wine: lot,
         volumeL: planLot.volumeL,
         line: line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null,
@@ -286,7 +290,7 @@ export function createRecordsService(db: Database) {
         bottleMl,
         approvedAt: plan.approvedAt ? iso(plan.approvedAt) : null,
         approvedByName: row.approvedByName,
-        sizingSource: 'stored-train',
+        sizingSource,
         sizing,
         sizingNote,
       },

@@ -394,7 +394,7 @@ export function createRunsRepository(db: DbOrTx) {
     async reapprove(wineryId: string, planId: string, userId: string, userName: string | null) {
       await db
         .update(plansTable)
-        .set({ approvedBy: userId, approvedByName: userName, approvedAt: new Date(), updatedAt: new Date() })
+        .set({ approvedBy: userId, approvedByName: userName, approvedAt: new Date(), approvedSizing: null, updatedAt: new Date() })
         .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, planId)));
     },
 
