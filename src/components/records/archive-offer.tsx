@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { Archive } from 'lucide-react';
+import { Archive, ArchiveRestore } from 'lucide-react';
 import { Button } from '@/components/ui/button';
 import { useToast } from '@/components/ui/toast';
 import { api, ApiError, errorMessage } from '@/lib/api-client';
@@ -53,5 +53,30 @@ export function ShowArchivedToggle({ id, checked, onChange }: { id: string; chec
       <input id={id} type="checkbox" className="size-5" checked={checked} onChange={(e) => onChange(e.target.checked)} />
       Show archived
     </label>
+  );
+}
+
+/** Archive a row, or restore an archived one to the lists; it stays in every record either way. */
+export function ArchiveToggleButton({ kind, id, name, archivedAt }: { kind: ArchivableKind; id: string; name: string; archivedAt: string | null }) {
+  const archive = useSetArchived();
+  const toast = useToast();
+  const archived = archivedAt !== null;
+  return (
+    <Button
+      variant="secondary"
+      icon={archived ? <ArchiveRestore aria-hidden="true" className="size-4" /> : <Archive aria-hidden="true" className="size-4" />}
+      loading={archive.isPending}
+      onClick={() =>
+        archive.mutate(
+          { kind, id, archived: !archived },
+          {
+            onSuccess: () => toast.success(archived ? 'Restored' : 'Archived', archived ? `${name} is back in the lists.` : `${name} is hidden from lists and stays in every record.`),
+            onError: (e) => toast.error(archived ? 'Not restored' : 'Not archived', errorMessage(e)),
+          },
+        )
+      }
+    >
+      {archived ? 'Restore from archive' : 'Archive'}
+    </Button>
   );
 }

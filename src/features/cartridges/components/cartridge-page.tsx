@@ -16,6 +16,7 @@ import { useCan } from '@/lib/session';
 import { useCartridge } from '../api/get-cartridge';
 import { useRemoveCartridge } from '../api/remove-cartridge';
 import { CartridgeStatusBadge } from '@/components/status/cartridge-status-badge';
+import { ArchiveToggleButton } from '@/components/records/archive-offer';
 import { HistoryTimeline } from './history-timeline';
 import { HousingCaution } from './housing-caution';
 import { InstallDialog } from './install-dialog';
@@ -116,6 +117,7 @@ export function CartridgePage({ id }: { id: string }) {
                 Edit details
               </Button>
             ) : null}
+            {mayRetire ? <ArchiveToggleButton kind="cartridges" id={c.id} name={c.serial} archivedAt={c.archivedAt} /> : null}
             {canRetire ? (
               <Button size="lg" variant="secondary" icon={<Archive />} onClick={() => setDialog('retire')}>
                 Retire…

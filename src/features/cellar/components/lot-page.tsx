@@ -5,7 +5,7 @@ import { Link, useNavigate } from 'react-router-dom';
 import { wineStyleLabels } from '@shared/schemas/cellar';
 import type { LabResultDto, LotDto } from '@shared/types/cellar';
 import { AttachmentPanel } from '@/components/attachments/attachment-panel';
-import { ArchiveOffer, isInRecord } from '@/components/records/archive-offer';
+import { ArchiveOffer, ArchiveToggleButton, isInRecord } from '@/components/records/archive-offer';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
@@ -134,6 +134,7 @@ export function LotPage({ lotId }: { lotId: string }) {
                 <Button variant="secondary" icon={<Pencil aria-hidden="true" className="size-4" />} onClick={() => setEditingLot(true)}>
                   Edit lot
                 </Button>
+                <ArchiveToggleButton kind="lots" id={l.id} name={l.code} archivedAt={l.archivedAt} />
                 {mayDelete ? (
                   <Button variant="secondary" icon={<Trash2 aria-hidden="true" className="size-4" />} onClick={() => setDeletingLot(true)}>
                     Delete lot

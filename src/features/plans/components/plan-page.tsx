@@ -7,6 +7,7 @@ import { sanitationKindLabels } from '@shared/schemas/plans';
 import type { PlanDto } from '@shared/types/plans';
 import { Button, buttonClasses } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { ArchiveToggleButton } from '@/components/records/archive-offer';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
 import { FormField } from '@/components/ui/form-field';
@@ -136,6 +137,7 @@ export function PlanPage({ planId }: { planId: string }) {
         <CalendarPlus aria-hidden="true" className="size-4" />
         Add to calendar
       </a>
+      {mayDraft ? <ArchiveToggleButton kind="plans" id={p.id} name={p.name} archivedAt={p.archivedAt} /> : null}
       {editable ? (
         <>
           <Button variant="secondary" icon={<Pencil />} onClick={() => setEditing(true)}>
