@@ -78,7 +78,6 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
           </>
         }
       />
-      {alerts}
       <FetchedAt at={today.dataUpdatedAt} />
       {today.isPending ? (
         <LoadingState />
@@ -106,9 +105,16 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
           )}
           {/* A new winery starts with its cellar and equipment; a plan needs both. */}
           {!isNewWinery(today.data.counts) || today.data.upcomingPlans.length > 0 ? <NextBottlingDays plans={today.data.upcomingPlans} /> : null}
+          {alerts}
           <p className="flex items-start gap-2 text-sm text-ink-600">
             <Activity aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
-            <span>Runs in progress will appear here once run logging is in use.</span>
+            <span>
+              Runs in progress, with their readings and forecasts, are on the{' '}
+              <Link to={paths.runs} className="text-primary-700 underline-offset-2 hover:underline">
+                Runs
+              </Link>{' '}
+              page.
+            </span>
           </p>
           {isNewWinery(today.data.counts) ? null : (
             <div className="grid items-start gap-6 lg:grid-cols-2">
