@@ -41,7 +41,7 @@ describe('today', () => {
     await cartridges.getByRole('link').first().waitFor();
     expect(await cartridges.getByRole('link').count()).toBeGreaterThanOrEqual(1);
     await page.getByRole('list', { name: 'Stock by type' }).waitFor();
-    expect(await page.getByText('Runs in progress will appear here once run logging is in use.').count()).toBe(1);
+    expect(await page.getByText(/Runs in progress, with their readings and forecasts, are on the/).count()).toBe(1);
     await screenshot(page, 'today-desktop');
 
     await notReady.click();
@@ -106,7 +106,7 @@ describe('today', () => {
     await page.goto(app.baseUrl);
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     await page.getByRole('heading', { name: 'Set up your cellar' }).waitFor();
-    expect(await page.getByText('Runs in progress will appear here once run logging is in use.').count()).toBe(1);
+    expect(await page.getByText(/Runs in progress, with their readings and forecasts, are on the/).count()).toBe(1);
     // Nothing to plan with yet: the cellar and equipment come first.
     expect(await page.getByRole('heading', { name: 'Next bottling days' }).count()).toBe(0);
     await screenshot(page, 'today-new-winery-phone');
