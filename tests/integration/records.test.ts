@@ -289,3 +289,24 @@ describe('the whole-winery export carries each record’s fingerprint', () => {
     }
   });
 });
+
+describe('a corrected reading changes the record and its fingerprint, and keeps the original', () => {
+  it('correcting a reading: new fingerprint, the old one no longer verifies, the record shows both values', async () => {
+    const other = await createBottledLot(owner, { world });
+    const before = (await owner.get(`/api/records/lots/${other.lotId}`)).body as FilterRecordDto;
+    const run = (await owner.get(`/api/runs/${other.runId}`)).body as { stages: { readings: { id: string; volumeL: number; upstreamBar: number; downstreamBar: number }[] }[] };
+    const first = run.stages[0].readings[0];
+    const corrected = await owner.post(`/api/runs/${other.runId}/readings/${first.id}/correct`, {
+      volumeL: first.volumeL,
+      upstreamBar: first.upstreamBar + 0.05,
+      downstreamBar: first.downstreamBar,
+      reason: 'Gauge read from the wrong housing.',
+    });
+    expect(corrected.status).toBeLessThan(300);
+    const after = (await owner.get(`/api/records/lots/${other.lotId}`)).body as FilterRecordDto;
+    expect(after.fingerprint).not.toBe(before.fingerprint);
+    expect((await owner.post('/api/records/verify', { lotId: other.lotId, fingerprint: before.fingerprint })).body.matches).toBe(false);
+    expect((await owner.post('/api/records/verify', { lotId: other.lotId, fingerprint: after.fingerprint })).body.matches).toBe(true);
+    expect(JSON.stringify(after)).toContain('Gauge read from the wrong housing.');
+  });
+});
