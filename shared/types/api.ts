@@ -61,6 +61,8 @@ export type WinerySettingsDto = {
   timeZone: string;
   /** Days an order of cartridges takes to arrive (the stock alert's lead time). */
   orderLeadTimeDays: number;
+  /** The smallest ΔP step the winery's gauges show, bar (runs count fouling only above it). */
+  gaugeResolutionBar: number;
 };
 
 export type AttachmentDto = {

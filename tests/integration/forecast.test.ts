@@ -87,3 +87,27 @@ describe('POST /api/calc/fit-run on flat readings', () => {
     expect(res.status).toBe(400);
   });
 });
+
+describe('the winery’s gauge resolution (a setting; default 0.02 bar, common practice, no source)', () => {
+  it('a coarser gauge makes a small ΔP rise "not rising" instead of a forecast', async () => {
+    const log = async (runId: string) => {
+      // ΔP rises 0.10 → 0.16 bar over 2,500 L (cake-like, generated here): fouling for a 0.02 bar gauge.
+      for (const v of [0, 500, 1000, 1500, 2000, 2500]) {
+        const dp = 0.1 * (1 + 2.4e-4 * v);
+        expect((await owner.post(`/api/runs/${runId}/readings`, { clientKey: randomUUID(), stageIndex: 0, volumeL: v, upstreamBar: 2 + dp, downstreamBar: 2, flowLh: 2400, tempC: 15 })).status).toBe(201);
+      }
+      return (await owner.get(`/api/runs/${runId}`)).body.stages[0];
+    };
+    expect((await owner.get('/api/settings/winery')).body.gaugeResolutionBar).toBe(0.02);
+    const fine = await log((await startedRun()).id);
+    expect(fine.forecast).not.toBeNull();
+    expect((await owner.put('/api/settings/winery', { gaugeResolutionBar: 0.1 })).status).toBe(200);
+    const coarse = await log((await startedRun()).id);
+    expect(coarse.forecast).toBeNull();
+    expect(coarse.flatWarning).toBe('ΔP not rising: possible bypass or gauge fault.');
+    const bad = await owner.put('/api/settings/winery', { gaugeResolutionBar: 5 });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.gaugeResolutionBar).toMatch(/At most/);
+    expect((await owner.put('/api/settings/winery', { gaugeResolutionBar: 0.02 })).status).toBe(200);
+  });
+});

@@ -37,6 +37,7 @@ import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks'
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
 import { createRunsRepository, type NewReading, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
+import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
 const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
@@ -74,11 +75,16 @@ function stageFigures(p: {
   currentVolumeL: number;
   volumeToBottleL: number;
   restartsAtL?: number[];
+  /** The winery's gauge resolution, bar: a smaller ΔP rise is not fouling. */
+  resolutionBar?: number;
 }): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning'> {
   const latestFlow = [...p.readings].reverse().find((r) => r.flowLh !== null && r.flowLh > 0)?.flowLh ?? null;
   const flowLh = latestFlow ?? p.lineFlowLh;
   const dpPoints = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
-  const flat = detectFlatDp(dpPoints.filter((q) => q.volumeL >= Math.max(0, ...(p.restartsAtL ?? []))));
+  const flat = detectFlatDp(
+    dpPoints.filter((q) => q.volumeL >= Math.max(0, ...(p.restartsAtL ?? []))),
+    { resolutionBar: p.resolutionBar },
+  );
   const flatWarning = flat.flat ? flat.reason : null;
   const none = { fit: null, curve: [], forecast: null, alarm: null, flowLh, flatWarning };
   if (p.readings.length < MIN_READINGS_FOR_FIT) {
@@ -90,7 +96,7 @@ function stageFigures(p: {
   if (flowLh === null) {
     let best: ConstantFlowFit | null = null;
     try {
-      best = fitConstantFlow(dpPoints).find((f) => foulingCheck(f).fouling) ?? null;
+      best = fitConstantFlow(dpPoints).find((f) => foulingCheck(f, { resolutionBar: p.resolutionBar }).fouling) ?? null;
     } catch (e) {
       if (!(e instanceof RangeError)) throw e;
     }
@@ -108,6 +114,7 @@ function stageFigures(p: {
       flowLh,
       currentVolumeL: Math.max(p.currentVolumeL, maxV),
       restartsAtL: p.restartsAtL,
+      resolutionBar: p.resolutionBar,
     });
     const fit = forecast.segmentStartL === 0 ? (fits.find((f) => f.law === forecast.law && f.valid && f.kPerL > 0) ?? null) : null;
     return {
@@ -183,13 +190,14 @@ export function createRunsService(db: Database) {
     const all = ctx.train?.stages ?? [];
     const wanted = onlyStage === undefined ? all.map((_s, index) => index) : [onlyStage].filter((i) => i < all.length);
     const stages = wanted.map((index) => ({ index, s: all[index] }));
-    const [types, housings, rawReadings, corrections, stints, changes] = await Promise.all([
+    const [types, housings, rawReadings, corrections, stints, changes, resolutionBar] = await Promise.all([
       repo.types(wineryId, [...new Set(stages.map(({ s }) => s.cartridgeTypeId))]),
       repo.housings(wineryId, [...new Set(stages.map(({ s }) => s.housingId))]),
       repo.readings(wineryId, id, onlyStage),
       repo.corrections(wineryId, id),
       repo.stageCartridges(wineryId, id),
       repo.changes(wineryId, id),
+      gaugeResolutionFor(db, wineryId),
     ]);
     const readings = effectiveReadings(rawReadings, corrections);
     const serialOf = new Map(stints.map((c) => [c.cartridgeId, c.serial]));
@@ -211,6 +219,7 @@ export function createRunsService(db: Database) {
               volumeToBottleL,
               // A change or regeneration restores the stage: the forecast starts again from there.
               restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
+              resolutionBar,
             })
           : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
       return {

@@ -1,3 +1,4 @@
+import { GAUGE_RESOLUTION_BAR_DEFAULT } from '../../../shared/engine';
 import { defaultReadinessThresholds, readinessThresholdsSchema, type ReadinessThresholds } from '../../../shared/engine/readiness';
 import type { UpdateWinerySettingsInput } from '../../../shared/schemas/winery-settings';
 import type { WinerySettingsDto } from '../../../shared/types/api';
@@ -10,6 +11,18 @@ import { audited } from '../audit/audit.service';
 function thresholdsFrom(settings: Record<string, unknown>): ReadinessThresholds | null {
   const parsed = readinessThresholdsSchema.safeParse(settings.readinessThresholds);
   return parsed.success ? parsed.data : null;
+}
+
+/** The gauge resolution a winery set, bar, or the engine's default (0.02 bar). */
+function gaugeResolutionOf(settings: Record<string, unknown>): number {
+  const v = settings.gaugeResolutionBar;
+  return typeof v === 'number' && Number.isFinite(v) && v > 0 ? v : GAUGE_RESOLUTION_BAR_DEFAULT;
+}
+
+/** The gauge resolution a winery uses for its runs' fouling checks, bar. */
+export async function gaugeResolutionFor(db: DbOrTx, wineryId: string): Promise<number> {
+  const winery = await createWinerySettingsRepository(db).find(wineryId);
+  return winery ? gaugeResolutionOf(winery.settings) : GAUGE_RESOLUTION_BAR_DEFAULT;
 }
 
 /** The readiness thresholds a winery uses: its own, or the defaults. */
@@ -31,6 +44,7 @@ export function createWinerySettingsService(db: DbOrTx) {
       readinessThresholdsAreDefault: own === null,
       defaultReadinessThresholds,
       ...alertSettingsOf(winery.settings),
+      gaugeResolutionBar: gaugeResolutionOf(winery.settings),
     };
   }
   return {
@@ -43,6 +57,7 @@ export function createWinerySettingsService(db: DbOrTx) {
       else if (input.readinessThresholds) settings.readinessThresholds = input.readinessThresholds;
       if (input.timeZone !== undefined) settings.timeZone = input.timeZone;
       if (input.orderLeadTimeDays !== undefined) settings.orderLeadTimeDays = input.orderLeadTimeDays;
+      if (input.gaugeResolutionBar !== undefined) settings.gaugeResolutionBar = input.gaugeResolutionBar;
       await audited(db, { wineryId, userId: actorId }, { action: 'update', kind: 'settings', id: wineryId }, (tx) => createWinerySettingsRepository(tx).update(wineryId, { name: input.name, settings }));
       return get(wineryId);
     },
