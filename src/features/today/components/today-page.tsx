@@ -110,7 +110,7 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
             <Activity aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
             <span>
               Runs in progress, with their readings and forecasts, are on the{' '}
-              <Link to={paths.runs} className="text-primary-700 underline-offset-2 hover:underline">
+              <Link to={paths.runs} className="inline-flex min-h-11 items-center text-primary-700 underline-offset-2 hover:underline">
                 Runs
               </Link>{' '}
               page.
