@@ -14,6 +14,11 @@ export function createDatabase(url: string, opts: { max?: number } = {}) {
   // 'error' on the pool; without a listener Node would exit. The pool drops that client and
   // opens a new connection on the next query, so the server recovers by itself.
   pool.on('error', (err) => logger.warn({ code: (err as { code?: string }).code, message: err.message }, 'database connection lost (idle client)'));
+  // A client checked out of the pool (a transaction between two of its queries) can lose its
+  // connection too; its error then reaches the waiting query or the next one, never the process.
+  pool.on('connect', (client) => {
+    client.on('error', (err) => logger.warn({ code: (err as { code?: string }).code, message: err.message }, 'database connection lost (client in use)'));
+  });
   const db = drizzle(pool, { schema });
   return { db, pool };
 }
