@@ -14,7 +14,7 @@ import type { Role } from '../../shared/permissions';
 import { deliveryCsv, serialPrefix } from '../factories/cartridges';
 import { createLot, createTank, labResultBody, lotBody, tankBody } from '../factories/cellar';
 import { cartridgeTypeInput, housingInput, lineInput } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, planBody, trainBody, type PlanWorld } from '../factories/plans';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, planBody, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, signUp, startTestApp, uniqueEmail, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -62,23 +62,6 @@ async function upload(client: Client, fields: Record<string, string>, file: { na
   const headers: Record<string, string> = { origin: client.baseUrl, cookie: [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ') };
   const res = await fetch(`${client.baseUrl}/api/attachments`, { method: 'POST', headers, body: form });
   return { status: res.status, body: await res.json().catch(() => null), text: '' };
-}
-
-/** Housings holding cartridges of the planned types, so a run can start whatever checks starting makes. */
-async function fillHousings() {
-  const prefix = serialPrefix();
-  const pairs: [string, string][] = [
-    [world.prefilterTypeId, world.prefilterHousingId],
-    [world.membraneTypeId, world.membraneHousingId],
-  ];
-  let i = 0;
-  for (const [typeId, housingId] of pairs) {
-    for (let k = 0; k < 3; k++) {
-      const c = await owner.post('/api/cartridges', { serial: `${prefix}-F${(i += 1)}`, batch: 'B-FILL', typeId, lengthIn: 30 });
-      expect(c.status).toBe(201);
-      expect((await owner.post(`/api/cartridges/${c.body.id}/install`, { housingId })).status).toBe(200);
-    }
-  }
 }
 
 type Res = { status: number; body: any; text: string };
@@ -167,7 +150,7 @@ describe('the change log: one event per change, in the same transaction', () => 
     expect(events.map((e) => e.action)).toEqual(['import', 'import']);
     expect(events.map((e) => e.recordId).sort()).toEqual([...imported.body.cartridgeIds].sort());
 
-    await fillHousings();
+    await fillTrainHousings(owner, world);
     const plan = await createPlan(owner, world.lineId);
     const withLot = await addPlanLot(owner, plan.id, world.secondLotId, 3000);
     const planLotId = withLot.lots[0].id;
