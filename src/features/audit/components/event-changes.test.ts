@@ -16,4 +16,11 @@ describe('change log wording', () => {
     expect(valueText(true)).toBe('yes');
     expect(valueText('x'.repeat(300))).toHaveLength(121);
   });
+  it('shows a train\'s stages in words, not as raw JSON', () => {
+    const text = valueText([{ role: 'membrane', housingId: 'h1', capacityLPerM2: null }, { role: 'prefilter', housingId: 'h2' }]);
+    expect(text).toBe('1) Role membrane, Housing id h1; 2) Role prefilter, Housing id h2');
+    expect(text).not.toContain('{');
+    expect(valueText([])).toBe('none');
+    expect(valueText({ hoses: [{ lengthM: 5 }] })).toBe('Hoses (1) Length (m) 5)');
+  });
 });

@@ -24,6 +24,7 @@ const UNIT_SUFFIXES: [RegExp, string][] = [
   [/C$/, '°C'],
   [/L$/, 'L'],
   [/M2$/, 'm²'],
+  [/M$/, 'm'],
   [/S$/, 's'],
 ];
 
@@ -58,8 +59,27 @@ export function valueText(value: unknown): string {
   }
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '—';
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
-  const json = JSON.stringify(value);
-  return json.length > MAX_VALUE_CHARS ? `${json.slice(0, MAX_VALUE_CHARS)}…` : json;
+  const text = structureText(value);
+  return text.length > MAX_VALUE_CHARS ? `${text.slice(0, MAX_VALUE_CHARS)}…` : text;
+}
+
+/** A nested value (a train's stages, a hose list) as labelled words instead of raw JSON. */
+function structureText(value: unknown): string {
+  if (Array.isArray(value)) {
+    if (value.length === 0) return 'none';
+    return value.map((item, i) => (isPlainObject(item) ? `${i + 1}) ${structureText(item)}` : valueText(item))).join('; ');
+  }
+  if (isPlainObject(value)) {
+    const parts = Object.entries(value)
+      .filter(([, v]) => v !== null && v !== undefined && v !== '')
+      .map(([k, v]) => `${fieldLabel(k)} ${Array.isArray(v) || isPlainObject(v) ? `(${structureText(v)})` : valueText(v)}`);
+    return parts.length ? parts.join(', ') : '—';
+  }
+  return valueText(value);
+}
+
+function isPlainObject(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
 /** The changed fields of an event, each as before → after. */
