@@ -1,5 +1,6 @@
 // @vitest-environment node
 import { describe, expect, it } from 'vitest';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot, outputDir } from '../support/browser';
 
 const app = setupBrowserApp({ demo: true });
@@ -11,6 +12,7 @@ describe('Care on a phone in the cellar', () => {
     await page.getByRole('heading', { name: 'Care', exact: true }).waitFor();
     await page.getByRole('list', { name: 'Recent care' }).waitFor();
     await screenshot(page, 'care-find-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Find a demo membrane by its serial.
     await page.getByLabel('Cartridge serial').fill('QW-PES045');
@@ -29,6 +31,7 @@ describe('Care on a phone in the cellar', () => {
     await page.getByLabel('Clean-water flow before').fill('3000');
     await page.getByLabel('Clean-water flow after').fill('4000');
     await page.getByText(/Flow recovery \d+/).waitFor();
+    await expectNoSeriousA11yViolations(page);
     await screenshot(page, 'care-cycle-phone');
     await page.screenshot({ path: `${outputDir}/care-cycle-phone-view.png` });
     // Inputs open the numeric keypad.

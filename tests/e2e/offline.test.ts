@@ -3,6 +3,7 @@ import type { Page } from 'playwright-core';
 import { sql } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { approvedPlanLot, startRun } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { addMember, signUp } from '../support/test-app';
 
@@ -55,6 +56,7 @@ describe('the cellar without signal', () => {
     await page.getByTestId('offline-bar').getByText('3 entries waiting to send').waitFor();
     expect(await page.getByTestId('readings-0').locator('[data-waiting]').count()).toBeGreaterThanOrEqual(3);
     await screenshot(page, 'offline-run-waiting-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Reload while still offline: the page opens from the device with the three waiting.
     await page.reload();

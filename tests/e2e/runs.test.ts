@@ -1,6 +1,7 @@
 // @vitest-environment node
 import { describe, expect, it } from 'vitest';
 import { approvedPlanLot } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { addMember, signUp } from '../support/test-app';
 
@@ -45,6 +46,7 @@ describe('a run on a phone in the cellar', () => {
     expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
     await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).last().waitFor();
     await screenshot(page, 'run-forecast-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Close with a confirmation.
     await page.getByRole('button', { name: 'Close run' }).click();

@@ -1,5 +1,6 @@
 // @vitest-environment node
 import { describe, expect, it } from 'vitest';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { cartridgeEventsTable } from '../../server/db/schema';
 import type { PlanDto } from '../../shared/types/plans';
@@ -26,6 +27,7 @@ describe('today', () => {
     await page.getByRole('list', { name: 'Stock by type' }).waitFor();
     expect(await page.getByText(/Runs in progress, with their readings and forecasts, are on the/).count()).toBe(1);
     await screenshot(page, 'today-desktop');
+    await expectNoSeriousA11yViolations(page);
 
     await notReady.click();
     await page.getByRole('heading', { name: 'Readiness for membrane filtration' }).waitFor();
@@ -69,6 +71,7 @@ describe('today', () => {
     await page.getByRole('list', { name: 'Lots to look at' }).getByRole('link').filter({ hasText: 'QW-23-PN04' }).waitFor();
     await page.getByRole('list', { name: 'Cartridges to look at' }).getByRole('link').first().waitFor();
     await screenshot(page, 'today-phone');
+    await expectNoSeriousA11yViolations(page);
     const scrollsSideways = await page.evaluate(() => document.documentElement.scrollWidth > window.innerWidth + 1);
     expect(scrollsSideways).toBe(false);
     // Every link on the page is a comfortable target.
