@@ -73,6 +73,11 @@ describe('entries the server refuses after a spell offline', () => {
     await logReading(page, '3000', '2.40', '2.00');
     await logReading(page, '3500', '2.50', '2.00');
     await bar.getByText('2 entries waiting to send').waitFor();
+    // Signing out while they wait asks first.
+    await page.getByRole('button', { name: 'Sign out' }).first().click();
+    await page.getByRole('dialog').getByRole('heading', { name: '2 entries have not been sent' }).waitFor();
+    await page.getByRole('dialog').getByRole('button', { name: 'Stay signed in' }).click();
+    await page.getByRole('dialog').waitFor({ state: 'detached' });
     expect((await owner.post(`/api/runs/${run.id}/close`, {})).status).toBe(200);
     await context.setOffline(false);
     await bar.getByRole('link', { name: '2 entries refused — check them' }).waitFor({ timeout: 30_000 });
@@ -92,6 +97,7 @@ describe('entries the server refuses after a spell offline', () => {
     await page.getByRole('button', { name: 'Sign out' }).first().click();
     const warn = page.getByRole('dialog');
     await warn.getByRole('heading', { name: '2 entries have not been sent' }).waitFor();
+    await warn.getByText('All were refused by the server and wait on the Waiting page for you to fix, move or discard.', { exact: false }).waitFor();
     await screenshot(page, 'waiting-sign-out-warning-phone');
     await warn.getByRole('button', { name: 'Stay signed in' }).click();
     await warn.waitFor({ state: 'detached' });
