@@ -86,6 +86,7 @@ describe('Care on a phone in the cellar', () => {
     await page.getByLabel('Pressure decay read').fill('20');
     await page.getByRole('list', { name: 'Recent care' }).waitFor();
     await screenshot(page, 'care-desktop');
+    await expectNoSeriousA11yViolations(page);
     expect(errors).toEqual([]);
     await context.close();
   });

@@ -1,6 +1,7 @@
 // @vitest-environment node
 import { describe, expect, it } from 'vitest';
 import { approvedPlanLot, createPlanWorld, installCartridges } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { addMember, signUp } from '../support/test-app';
 
@@ -69,6 +70,7 @@ describe('starting a run on the cartridges physically in the train', () => {
     await screenshot(desk.page, 'run-change-dialog-desktop');
     await desk.page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click();
     await screenshot(desk.page, 'run-corrected-reading-desktop');
+    await expectNoSeriousA11yViolations(desk.page);
     await desk.page.setViewportSize(PHONE);
     await screenshot(desk.page, 'run-started-with-override-phone');
     expect(desk.errors).toEqual([]);
