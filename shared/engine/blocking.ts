@@ -27,14 +27,6 @@ export type BlockingLaw = 'complete' | 'standard' | 'intermediate' | 'cake';
 /** The four blocking laws, in Hermia's order of decreasing exponent n (2, 1.5, 1, 0). */
 export const BLOCKING_LAWS: readonly BlockingLaw[] = ['complete', 'standard', 'intermediate', 'cake'];
 
-/** Hermia's exponent n in d²t/dv² = k (dt/dv)^n for each law (Hermia 1982). */
-export const HERMIA_EXPONENT: Readonly<Record<BlockingLaw, number>> = {
-  complete: 2,
-  standard: 1.5,
-  intermediate: 1,
-  cake: 0,
-};
-
 function checkLaw(law: BlockingLaw): void {
   if (!BLOCKING_LAWS.includes(law)) {
     throw new RangeError(`Unknown blocking law "${String(law)}": use complete, standard, intermediate or cake.`);

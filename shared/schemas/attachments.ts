@@ -3,7 +3,6 @@ import { z } from 'zod';
 export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
 export const attachmentOwnerKinds = ['lot', 'lab-result', 'cartridge-type', 'cartridge', 'housing'] as const;
 export type AttachmentOwnerKind = (typeof attachmentOwnerKinds)[number];
-export const attachmentFileKinds = ['pdf', 'png', 'jpeg', 'csv'] as const;
 
 export const attachmentOwnerSchema = z.object({
   ownerKind: z.enum(attachmentOwnerKinds, { error: 'Attach to a lot, lab result, cartridge type, cartridge or housing.' }),

@@ -23,7 +23,6 @@ export const CAPACITY_MAX_L_PER_M2 = 1_000_000;
 
 export const planStatuses = ['draft', 'approved', 'done'] as const;
 export type PlanStatus = (typeof planStatuses)[number];
-export const planStatusLabels: Record<PlanStatus, string> = { draft: 'draft', approved: 'approved', done: 'done' };
 
 export const sanitationKinds = ['hot-water', 'steam'] as const;
 export type PlanSanitationKind = (typeof sanitationKinds)[number];

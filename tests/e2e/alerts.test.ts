@@ -1,24 +1,11 @@
 // @vitest-environment node
 // The bell: a technician records a failed bubble point on a phone; the owner's bell count rises,
 // the owner opens the alert and lands on the cartridge. Screenshots at desktop and 390 px.
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, outputDir, screenshot, signInAs } from '../support/browser';
-import { startTestApp, type TestApp } from '../support/test-app';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot, outputDir } from '../support/browser';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  await seedDemo(app.db);
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp({ demo: true });
 
 async function unreadCount(page: Page): Promise<number> {
   const label = (await page.getByTestId('notification-bell').getAttribute('aria-label')) ?? '';
@@ -28,7 +15,7 @@ async function unreadCount(page: Page): Promise<number> {
 
 describe('Alerts reach the owner', () => {
   it('the bell count rises when a technician records a failed bubble point; the owner opens the alert and lands on the cartridge', async () => {
-    const owner = await signInAs(browser, app.baseUrl, 'owner@quillwater.test', { viewport: { width: 1280, height: 900 }, password: DEMO_PASSWORD });
+    const owner = await app.signIn('owner@quillwater.test', { viewport: DESKTOP });
     await owner.page.goto(`${app.baseUrl}/today`);
     await owner.page.getByTestId('notification-bell').waitFor();
     const before = await unreadCount(owner.page);
@@ -43,7 +30,7 @@ describe('Alerts reach the owner', () => {
     const cartridgeId = (await reg.json()).id as string;
 
     // The technician, on a phone, records a failed bubble point.
-    const tech = await signInAs(browser, app.baseUrl, 'tech@quillwater.test', { viewport: { width: 390, height: 844 }, mobile: true, password: DEMO_PASSWORD });
+    const tech = await app.signIn('tech@quillwater.test', { viewport: PHONE, mobile: true });
     await tech.page.goto(`${app.baseUrl}/care`);
     await tech.page.getByLabel('Cartridge serial').fill(serial);
     await tech.page.getByRole('list', { name: 'Matching cartridges' }).getByRole('button').first().click();
@@ -87,7 +74,7 @@ describe('Alerts reach the owner', () => {
   }, 120_000);
 
   it('the notifications page and the alert settings at 390 px', async () => {
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, 'owner@quillwater.test', { viewport: { width: 390, height: 844 }, mobile: true, password: DEMO_PASSWORD });
+    const { context, page, errors } = await app.signIn('owner@quillwater.test', { viewport: PHONE, mobile: true });
     await page.goto(`${app.baseUrl}/notifications`);
     await page.getByRole('heading', { name: 'Notifications', exact: true }).waitFor();
     await page.getByTestId('notification').first().waitFor();

@@ -1,30 +1,18 @@
 // @vitest-environment node
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, outputDir, screenshot, signInAs } from '../support/browser';
-import { startTestApp, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot, outputDir } from '../support/browser';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  await seedDemo(app.db);
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp({ demo: true });
 
 describe('Care on a phone in the cellar', () => {
   it('a technician finds a cartridge, logs a hot-water cycle and records a bubble-point test', async () => {
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, 'tech@quillwater.test', { viewport: { width: 390, height: 844 }, mobile: true, password: DEMO_PASSWORD });
+    const { context, page, errors } = await app.signIn('tech@quillwater.test', { viewport: PHONE, mobile: true });
     await page.goto(`${app.baseUrl}/care`);
     await page.getByRole('heading', { name: 'Care', exact: true }).waitFor();
     await page.getByRole('list', { name: 'Recent care' }).waitFor();
     await screenshot(page, 'care-find-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Find a demo membrane by its serial.
     await page.getByLabel('Cartridge serial').fill('QW-PES045');
@@ -43,6 +31,7 @@ describe('Care on a phone in the cellar', () => {
     await page.getByLabel('Clean-water flow before').fill('3000');
     await page.getByLabel('Clean-water flow after').fill('4000');
     await page.getByText(/Flow recovery \d+/).waitFor();
+    await expectNoSeriousA11yViolations(page);
     await screenshot(page, 'care-cycle-phone');
     await page.screenshot({ path: `${outputDir}/care-cycle-phone-view.png` });
     // Inputs open the numeric keypad.
@@ -87,7 +76,7 @@ describe('Care on a phone in the cellar', () => {
   });
 
   it('shows the screen on a desktop', async () => {
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, 'cellar@quillwater.test', { viewport: { width: 1280, height: 900 }, password: DEMO_PASSWORD });
+    const { context, page, errors } = await app.signIn('cellar@quillwater.test', { viewport: DESKTOP });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Care' }).click();
     await page.getByRole('heading', { name: 'Care', exact: true }).waitFor();
     await page.getByLabel('Cartridge serial').fill('QW-PES045');
@@ -97,6 +86,7 @@ describe('Care on a phone in the cellar', () => {
     await page.getByLabel('Pressure decay read').fill('20');
     await page.getByRole('list', { name: 'Recent care' }).waitFor();
     await screenshot(page, 'care-desktop');
+    await expectNoSeriousA11yViolations(page);
     expect(errors).toEqual([]);
     await context.close();
   });

@@ -1,29 +1,12 @@
 // @vitest-environment node
-import type { Browser, BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { cartridgeEventsTable, cartridgesTable } from '../../server/db/schema';
 import { deliveryCsv, insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-async function signedInContext(cookies: Map<string, string>, viewport: { width: number; height: number }, mobile = false): Promise<BrowserContext> {
-  const ctx = await browser.newContext({ viewport, ...(mobile ? { isMobile: true, hasTouch: true } : {}) });
-  await ctx.addCookies([...cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  return ctx;
-}
+const app = setupBrowserApp();
 
 describe('cartridges in the browser', () => {
   it('imports a delivery with one bad row, fixes it, installs a cartridge and reads its page', async () => {
@@ -43,9 +26,7 @@ describe('cartridges in the browser', () => {
     ]);
     const fixed = bad.replace('PES membrane 0.46 µm', 'PES membrane 0.45 µm');
 
-    const desk = await signedInContext(client.cookies, { width: 1280, height: 900 });
-    const page = await desk.newPage();
-    const errors = watchPageErrors(page);
+    const { context: desk, page, errors } = await app.pageFor(client, { viewport: DESKTOP });
 
     // Empty winery: the page says what to do first.
     await page.goto(`${app.baseUrl}/cartridges`);
@@ -115,9 +96,7 @@ describe('cartridges in the browser', () => {
     await page.getByText(/batch B25-040-R/).first().waitFor();
 
     // On a phone in the cellar: install a cartridge from its own page.
-    const phone = await signedInContext(client.cookies, { width: 390, height: 844 }, true);
-    const mobile = await phone.newPage();
-    const mobileErrors = watchPageErrors(mobile);
+    const { context: phone, page: mobile, errors: mobileErrors } = await app.pageFor(client, { viewport: PHONE, mobile: true });
     await mobile.goto(`${app.baseUrl}/cartridges`);
     await mobile.getByRole('heading', { name: 'Inventory' }).waitFor();
     await screenshot(mobile, 'cartridges-inventory-phone');

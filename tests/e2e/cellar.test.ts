@@ -1,37 +1,17 @@
 // @vitest-environment node
-import type { Browser, BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { discPoints } from '../factories/cellar';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir }, withStorage: true });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-/** A browser context signed in as the client's person (same session cookie). */
-async function contextFor(client: Client, viewport: { width: number; height: number }, mobile = false): Promise<BrowserContext> {
-  const ctx = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
-  await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  return ctx;
-}
+const app = setupBrowserApp({ withStorage: true });
 
 const daysAgo = (n: number) => new Date(Date.now() - n * 86_400_000).toISOString();
 
 describe('cellar', () => {
   it('adds a tank, a lot and a lab result in the browser and shows the readiness', async () => {
     const { client } = await signUp(app.baseUrl, { name: 'Odile Farrant', wineryName: 'Hollowmere Test Cellars' });
-    const desktop = await contextFor(client, { width: 1280, height: 900 });
-    const page = await desktop.newPage();
-    const errors = watchPageErrors(page);
+    const { context: desktop, page, errors } = await app.pageFor(client, { viewport: DESKTOP });
 
     // A new winery is told to start with tanks and lots.
     await page.goto(`${app.baseUrl}/cellar`);
@@ -123,9 +103,7 @@ describe('cellar', () => {
     await screenshot(page, 'cellar-desktop');
 
     // A phone in the cellar: the same two pages at 390 px.
-    const phone = await contextFor(client, { width: 390, height: 844 }, true);
-    const phonePage = await phone.newPage();
-    const phoneErrors = watchPageErrors(phonePage);
+    const { context: phone, page: phonePage, errors: phoneErrors } = await app.pageFor(client, { viewport: PHONE, mobile: true });
     await phonePage.goto(`${app.baseUrl}/cellar`);
     await phonePage.getByRole('list', { name: 'Wine lots' }).getByRole('link', { name: /HM-24-CH01/ }).getByText('ready').waitFor();
     await screenshot(phonePage, 'cellar-phone');

@@ -1,29 +1,12 @@
 // @vitest-environment node
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
-import type { Browser, BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createLot, createTank, lotBody, tankBody } from '../factories/cellar';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir }, withStorage: true });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-async function contextFor(client: Client, viewport: { width: number; height: number }, mobile = false): Promise<BrowserContext> {
-  const ctx = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile, acceptDownloads: true });
-  await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  return ctx;
-}
+const app = setupBrowserApp({ withStorage: true });
 
 describe('change log', () => {
   it('an owner filters the change log, downloads the CSV, and sees a lot’s own history', async () => {
@@ -34,9 +17,7 @@ describe('change log', () => {
     const lot = await createLot(cellarMaster, { code: 'QB-25-RS02', name: 'Rosé, saignée' });
     await cellarMaster.put(`/api/lots/${lot.id}`, lotBody({ code: 'QB-25-RS02', name: 'Rosé, saignée', volumeL: 4100 }));
 
-    const desktop = await contextFor(owner, { width: 1280, height: 900 });
-    const page = await desktop.newPage();
-    const errors = watchPageErrors(page);
+    const { context: desktop, page, errors } = await app.pageFor(owner, { viewport: DESKTOP, acceptDownloads: true });
     await page.goto(`${app.baseUrl}/today`);
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Change log' }).click();
     await page.getByRole('heading', { name: 'Change log' }).waitFor();
@@ -82,9 +63,7 @@ describe('change log', () => {
     await screenshot(page, 'change-log-settings-export-desktop');
     expect(errors).toEqual([]);
 
-    const phone = await contextFor(owner, { width: 390, height: 844 }, true);
-    const small = await phone.newPage();
-    const phoneErrors = watchPageErrors(small);
+    const { context: phone, page: small, errors: phoneErrors } = await app.pageFor(owner, { viewport: PHONE, mobile: true, acceptDownloads: true });
     await small.goto(`${app.baseUrl}/records/changes?kind=tank`);
     await small.getByText('2 changes match the filters').waitFor();
     await small.getByRole('list', { name: 'Change log' }).getByText('New door seal').waitFor();

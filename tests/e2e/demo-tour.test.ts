@@ -1,32 +1,14 @@
 // @vitest-environment node
 // A walk through the demo winery as the cellar team would use it: every screen, each role,
 // desktop and phone width, no page errors. Screenshots land in test-output/.
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
-import { startTestApp, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  await seedDemo(app.db);
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-function signIn(email: string, viewport: { width: number; height: number }) {
-  return signInAs(browser, app.baseUrl, email, { viewport, password: DEMO_PASSWORD });
-}
+const app = setupBrowserApp({ demo: true });
 
 describe('demo tour', () => {
   it('the cellar master walks every screen on a laptop', async () => {
-    const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    const { context, page, errors } = await app.signIn('cellar@quillwater.test', { viewport: DESKTOP });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cellar' }).click();
     await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
     await page.getByText('Quillwater Estate').first().waitFor();
@@ -54,7 +36,7 @@ describe('demo tour', () => {
   });
 
   it('the technician works from a phone: cartridges and a cartridge page', async () => {
-    const { context, page, errors } = await signIn('tech@quillwater.test', { width: 390, height: 844 });
+    const { context, page, errors } = await app.signIn('tech@quillwater.test', { viewport: PHONE });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cartridges' }).click();
     await page.getByRole('heading', { name: 'Stock by type' }).waitFor();
     await screenshot(page, 'demo-cartridges-technician-phone');
@@ -73,7 +55,7 @@ describe('demo tour', () => {
   });
 
   it('Brambleford never sees Quillwater’s records', async () => {
-    const { context, page, errors } = await signIn('owner@brambleford.test', { width: 1280, height: 900 });
+    const { context, page, errors } = await app.signIn('owner@brambleford.test', { viewport: DESKTOP });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Cellar' }).click();
     await page.getByRole('heading', { name: 'Cellar', exact: true }).waitFor();
     await page.getByText('Your cellar is empty').waitFor();

@@ -1,35 +1,15 @@
 // @vitest-environment node
-import type { Browser, BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createCartridgeType, createLine } from '../factories/equipment';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-/** A browser context signed in as the person behind `client` (same session cookie). */
-async function contextFor(client: Client, viewport: { width: number; height: number }, mobile = false): Promise<BrowserContext> {
-  const context = await browser.newContext({ viewport, ...(mobile ? { isMobile: true, hasTouch: true } : {}) });
-  await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  return context;
-}
+const app = setupBrowserApp();
 
 describe('equipment', () => {
   it('an owner adds a housing and sees the 10-inch equivalents follow the typing; a technician sees no edit buttons', async () => {
     const { client: owner } = await signUp(app.baseUrl, { name: 'Ada Fenwick', wineryName: 'Harrowgate Test Cellars' });
-    const desktop = await contextFor(owner, { width: 1280, height: 860 });
-    const page = await desktop.newPage();
-    const errors = watchPageErrors(page);
+    const { context: desktop, page, errors } = await app.pageFor(owner, { viewport: { width: 1280, height: 860 } });
 
     // A new winery is told what to add first.
     await page.goto(`${app.baseUrl}/equipment`);
@@ -113,9 +93,7 @@ describe('equipment', () => {
     // A technician reads the same equipment on a phone, without any edit commands, in US units.
     const tech = await addMember(app, owner, 'technician');
     expect((await tech.client.put('/api/me', { name: 'Rowan Pike', units: 'us' })).status).toBe(200);
-    const phone = await contextFor(tech.client, { width: 390, height: 844 }, true);
-    const techPage = await phone.newPage();
-    const techErrors = watchPageErrors(techPage);
+    const { context: phone, page: techPage, errors: techErrors } = await app.pageFor(tech.client, { viewport: PHONE, mobile: true });
     await techPage.goto(`${app.baseUrl}/equipment`);
     await techPage.getByRole('row', { name: /Membrane housing 1/ }).waitFor();
     expect(await techPage.getByRole('row', { name: /Membrane housing 1/ }).textContent()).toContain('psi');
@@ -133,9 +111,7 @@ describe('equipment', () => {
     await screenshot(techPage, 'equipment-cartridge-type-details-phone');
 
     // The owner's form on a phone.
-    const ownerPhone = await contextFor(owner, { width: 390, height: 844 }, true);
-    const ownerPhonePage = await ownerPhone.newPage();
-    const ownerPhoneErrors = watchPageErrors(ownerPhonePage);
+    const { context: ownerPhone, page: ownerPhonePage, errors: ownerPhoneErrors } = await app.pageFor(owner, { viewport: PHONE, mobile: true });
     await ownerPhonePage.goto(`${app.baseUrl}/equipment`);
     await ownerPhonePage.getByRole('button', { name: 'Add housing' }).click();
     await ownerPhonePage.getByRole('dialog', { name: 'Add a housing' }).getByLabel('Rounds').fill('3');

@@ -2,31 +2,18 @@
 // The pages the hardening touched: sign-up's "check your mail", the confirmation link, the mail
 // outbox (closed to strangers, open with the printed key) and the forgot-password hint — at
 // desktop and phone width, with the strict CSP (any CSP violation is a console error and fails).
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { linkFrom, startTestApp, TEST_OUTBOX_KEY, TEST_PASSWORD, uniqueEmail, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { setupBrowserApp, PHONE, screenshot } from '../support/browser';
+import { linkFrom, TEST_OUTBOX_KEY, TEST_PASSWORD, uniqueEmail } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe.each([
   ['desktop', { width: 1280, height: 800 }],
-  ['phone', { width: 390, height: 844 }],
+  ['phone', PHONE],
 ])('hardened pages (%s)', (label, viewport) => {
   it('sign-up → check your mail → link → signed in; outbox closed without the key, open with it', async () => {
-    const context = await browser.newContext({ viewport, isMobile: label === 'phone', hasTouch: label === 'phone' });
-    const page = await context.newPage();
-    const errors = watchPageErrors(page);
+    const { context, page, errors } = await app.newPage({ viewport, mobile: label === 'phone' });
     const email = uniqueEmail(`e2e-harden-${label}`);
 
     await page.goto(`${app.baseUrl}/sign-up`);
@@ -40,9 +27,7 @@ describe.each([
     await screenshot(page, `harden-sign-up-check-mail-${label}`);
 
     // A stranger's browser cannot read the outbox…
-    const stranger = await browser.newContext({ viewport });
-    const strangerPage = await stranger.newPage();
-    const strangerErrors = watchPageErrors(strangerPage);
+    const { context: stranger, page: strangerPage, errors: strangerErrors } = await app.newPage({ viewport });
     await strangerPage.goto(`${app.baseUrl}/outbox`);
     await strangerPage.getByText('opens only for an owner').waitFor();
     await screenshot(strangerPage, `harden-outbox-closed-${label}`);

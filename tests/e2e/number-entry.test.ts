@@ -2,30 +2,19 @@
 // One way to type a number (issue: plans you can approve with confidence): the person's decimal
 // mark decides how "3,000" and "3,5" are read, the form says how an ambiguous entry was read, and
 // a figure shown in US units and left untouched is never rounded back into storage.
-import type { Browser, BrowserContext } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createLot } from '../factories/cellar';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, screenshot, watchPageErrors } from '../support/browser';
+import { signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
+const app = setupBrowserApp();
 
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-/** A signed-in context whose decimal mark is set as Settings sets it (localStorage `porewise.decimalMark`). */
-async function contextFor(client: Client, mark: '.' | ',' | null, viewport = { width: 1280, height: 900 }): Promise<BrowserContext> {
-  const ctx = await browser.newContext({ viewport, locale: 'en-GB' });
-  await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  if (mark) await ctx.addInitScript((m) => window.localStorage.setItem('porewise.decimalMark', m), mark);
-  return ctx;
+/** A signed-in page whose decimal mark is set as Settings sets it (localStorage `porewise.decimalMark`). */
+async function pageWithMark(client: Client, mark: '.' | ',' | null) {
+  const context = await app.contextFor(client, { viewport: DESKTOP, locale: 'en-GB' });
+  if (mark) await context.addInitScript((m) => window.localStorage.setItem('porewise.decimalMark', m), mark);
+  const page = await context.newPage();
+  return { context, page, errors: watchPageErrors(page) };
 }
 
 describe('typing numbers in a lot form', () => {
@@ -34,9 +23,7 @@ describe('typing numbers in a lot form', () => {
     [',', 'decimal comma', 3, 'Read as 3 (decimal comma).'],
   ] as const)('with a %s (%s), "3,000" L is %d and "3,5" °C is 3.5', async (mark, _words, volumeL, reading) => {
     const { client } = await signUp(app.baseUrl, { wineryName: `Decimal ${mark === '.' ? 'Point' : 'Comma'} Test Cellars` });
-    const ctx = await contextFor(client, mark);
-    const page = await ctx.newPage();
-    const errors = watchPageErrors(page);
+    const { context: ctx, page, errors } = await pageWithMark(client, mark);
     await page.goto(`${app.baseUrl}/cellar`);
     await page.getByRole('button', { name: 'Add lot' }).first().click();
     const dialog = page.getByRole('dialog');
@@ -64,9 +51,7 @@ describe('US customary units', () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'US Units Test Cellars' });
     expect((await client.put('/api/me', { units: 'us' })).status).toBe(200);
     const lot = await createLot(client, { volumeL: 3800, tempC: 12.3 });
-    const ctx = await contextFor(client, null);
-    const page = await ctx.newPage();
-    const errors = watchPageErrors(page);
+    const { context: ctx, page, errors } = await pageWithMark(client, null);
     await page.goto(`${app.baseUrl}/cellar/lots/${lot.id}`);
     await page.getByRole('button', { name: 'Edit lot' }).click();
     const dialog = page.getByRole('dialog');

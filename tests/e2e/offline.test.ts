@@ -1,22 +1,13 @@
 // @vitest-environment node
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { sql } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
-import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { approvedPlanLot, startRun } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 async function storedReadings(runId: string) {
   const res = await app.db.execute(sql`select count(*)::int as n, count(distinct client_key)::int as keys from run_readings where run_id = ${runId}::uuid`);
@@ -34,17 +25,11 @@ async function logReading(page: Page, litres: string, up: string, down: string) 
 describe('the cellar without signal', () => {
   it('readings logged offline survive a reload and a closed tab, and are stored once when the connection returns', async () => {
     const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Offline E2E Cellars' });
-    const world = await createPlanWorld(owner);
-    await fillTrainHousings(owner, world);
-    const plan = await createPlan(owner, world.lineId, { name: 'Offline day' });
-    const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
-    const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
-    expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
+    const { planLotId } = await approvedPlanLot(owner, { name: 'Offline day' });
     const tech = await addMember(app, owner, 'technician');
-    const run = (await tech.client.post('/api/runs', { planLotId })).body as { id: string };
+    const run = await startRun(tech.client, planLotId);
 
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, tech.email, { viewport: { width: 390, height: 844 }, mobile: true, password: TEST_PASSWORD });
+    const { context, page, errors } = await app.signIn(tech.email, { viewport: PHONE, mobile: true });
     // The installable app: manifest and a service worker that takes the page.
     const manifest = await (await page.request.get(`${app.baseUrl}/manifest.webmanifest`)).json();
     expect(manifest).toMatchObject({ name: 'Porewise', display: 'standalone' });
@@ -71,6 +56,7 @@ describe('the cellar without signal', () => {
     await page.getByTestId('offline-bar').getByText('3 entries waiting to send').waitFor();
     expect(await page.getByTestId('readings-0').locator('[data-waiting]').count()).toBeGreaterThanOrEqual(3);
     await screenshot(page, 'offline-run-waiting-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Reload while still offline: the page opens from the device with the three waiting.
     await page.reload();
@@ -114,7 +100,7 @@ describe('the cellar without signal', () => {
     await reopened.getByTestId('forecast-0').waitFor();
     expect(await reopened.getByTestId('forecast-0').textContent()).toMatch(/≈ [\d,]+ L left · about \d+|≈ [\d,]+ L left · under a minute|Beyond the readings/);
     await screenshot(reopened, 'offline-run-sent-phone');
-    await reopened.setViewportSize({ width: 1280, height: 900 });
+    await reopened.setViewportSize(DESKTOP);
     await screenshot(reopened, 'offline-run-sent-desktop');
 
     expect(errors.filter((e) => !/Failed to fetch|ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(e))).toEqual([]);

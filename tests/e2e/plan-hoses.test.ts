@@ -2,25 +2,14 @@
 // Hoses on the plan screen (issue: plans you can approve with confidence): each train's hoses are
 // edited in place, the line loss and the pump pressure are recomputed live by the engine, and
 // saving the train keeps them.
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { formatQuantity } from '../../shared/engine/units';
 import type { PlanDto } from '../../shared/types/plans';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('hoses on the plan screen', () => {
   it('a hose typed on the train raises the line loss and pump pressure live, and is saved with the train', async () => {
@@ -31,13 +20,10 @@ describe('hoses on the plan screen', () => {
     await addTrain(client, plan.id, planLotId, trainBody(world));
 
     for (const viewport of [
-      { width: 1280, height: 900 },
-      { width: 390, height: 844 },
+      DESKTOP,
+      PHONE,
     ]) {
-      const ctx = await browser.newContext({ viewport, isMobile: viewport.width < 500, hasTouch: viewport.width < 500 });
-      await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-      const page = await ctx.newPage();
-      const errors = watchPageErrors(page);
+      const { context: ctx, page, errors } = await app.pageFor(client, { viewport, mobile: viewport.width < 500 });
       await page.goto(`${app.baseUrl}/plans/${plan.id}`);
       const option = page.getByRole('article', { name: /Option A/ });
       await option.waitFor();

@@ -1,23 +1,12 @@
 // @vitest-environment node
 // Every figure on the plan screen in the person's units (issue: plans you can approve with
 // confidence): in US customary no litre, bar, °C or per-hL figure shows.
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, screenshot } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('the plan screen in US customary units', () => {
   it('shows gallons, gal/min, psi, °F, gal/ft² and cost per 100 gal, and no metric figure', async () => {
@@ -29,10 +18,7 @@ describe('the plan screen in US customary units', () => {
     const trainId = (await addTrain(client, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
     expect((await client.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
 
-    const ctx = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-    const page = await ctx.newPage();
-    const errors = watchPageErrors(page);
+    const { context: ctx, page, errors } = await app.pageFor(client, { viewport: DESKTOP });
     await page.goto(`${app.baseUrl}/plans/${plan.id}`);
     const option = page.getByRole('article', { name: /Option A/ });
     await option.waitFor();

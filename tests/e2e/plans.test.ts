@@ -1,28 +1,12 @@
 // @vitest-environment node
-import type { Browser, BrowserContext, Locator } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Locator } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { createLot } from '../factories/cellar';
 import { createCartridgeType, createHousing, createLine } from '../factories/equipment';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-async function contextFor(client: Client, viewport: { width: number; height: number }, mobile = false): Promise<BrowserContext> {
-  const context = await browser.newContext({ viewport, ...(mobile ? { isMobile: true, hasTouch: true } : {}) });
-  await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  return context;
-}
+const app = setupBrowserApp();
 
 /** Displayed figures are rounded to whole L/h: within one of the target. */
 const near = (value: number, target: number) => Math.abs(value - target) <= 1;
@@ -56,9 +40,7 @@ describe('plans', () => {
     await createLot(owner, { code: `SV-${Date.now().toString(36).toUpperCase()}`, name: 'Albariño, east block', volumeL: 6000, tempC: 12 });
     const cellar = await addMember(app, owner, 'cellar-master');
 
-    const desktop = await contextFor(cellar.client, { width: 1280, height: 900 });
-    const page = await desktop.newPage();
-    const errors = watchPageErrors(page);
+    const { context: desktop, page, errors } = await app.pageFor(cellar.client, { viewport: DESKTOP });
     await page.goto(`${app.baseUrl}/today`);
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Plans' }).click();
     await page.getByRole('heading', { name: 'Plans', exact: true }).waitFor();
@@ -147,9 +129,7 @@ describe('plans', () => {
 
     // The same plan on a phone, as a winemaker (reads, no approval command).
     const winemaker = await addMember(app, owner, 'winemaker');
-    const phone = await contextFor(winemaker.client, { width: 390, height: 844 }, true);
-    const phonePage = await phone.newPage();
-    const phoneErrors = watchPageErrors(phonePage);
+    const { context: phone, page: phonePage, errors: phoneErrors } = await app.pageFor(winemaker.client, { viewport: PHONE, mobile: true });
     await phonePage.goto(planUrl);
     await phonePage.getByRole('article', { name: /Option A/ }).waitFor();
     expect(await phonePage.getByRole('button', { name: 'Approve plan' }).count()).toBe(0);
@@ -180,9 +160,7 @@ describe('plans', () => {
     ];
     await owner.post(`/api/plans/${plan.id}/lots/${withLot.lots[0].id}/trains`, { name: 'Option A', stages });
     await owner.post(`/api/plans/${plan.id}/lots/${withLot.lots[0].id}/trains`, { name: 'Option B', stages });
-    const phone = await contextFor(owner, { width: 390, height: 844 }, true);
-    const page = await phone.newPage();
-    const errors = watchPageErrors(page);
+    const { context: phone, page, errors } = await app.pageFor(owner, { viewport: PHONE, mobile: true });
     await page.goto(`${app.baseUrl}/plans/${plan.id}`);
     const optionA = page.getByRole('article', { name: /Option A/ });
     await optionA.waitFor();

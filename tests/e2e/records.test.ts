@@ -2,23 +2,12 @@
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { createBottledLot, createRecordWorld } from '../factories/records';
-import { clientDir, launchBrowser, outputDir, screenshot, signInAs } from '../support/browser';
-import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot, outputDir } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('records: the reverse trace and the filtration record', () => {
   it('an auditor finds a lot by a cartridge serial, opens its record, sees the integrity before and after, and downloads the PDF', async () => {
@@ -29,7 +18,7 @@ describe('records: the reverse trace and the filtration record', () => {
     const auditor = await addMember(app, owner, 'auditor');
     const serial = world.memSerials[1];
 
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, auditor.email, { viewport: { width: 1280, height: 900 }, password: TEST_PASSWORD });
+    const { context, page, errors } = await app.signIn(auditor.email, { viewport: DESKTOP });
     await page.getByRole('navigation', { name: 'Sections' }).getByRole('link', { name: 'Records' }).click();
     await page.getByRole('heading', { name: 'Records', exact: true }).waitFor();
     await page.getByLabel('Cartridge serial').fill(serial);
@@ -80,7 +69,7 @@ describe('records: the reverse trace and the filtration record', () => {
     await page.emulateMedia({ media: 'screen' });
 
     // On a phone.
-    await page.setViewportSize({ width: 390, height: 844 });
+    await page.setViewportSize(PHONE);
     await screenshot(page, 'record-phone');
     // Viewport-sized views of the parts that matter most on a phone.
     await page.evaluate(() => window.scrollTo(0, 0));

@@ -1,21 +1,11 @@
 // @vitest-environment node
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, installCartridges, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
-import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { approvedPlanLot, createPlanWorld, installCartridges } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('starting a run on the cartridges physically in the train', () => {
   it('a technician’s start is refused for a mismatched housing; the cellar master starts it with a written reason', async () => {
@@ -24,16 +14,12 @@ describe('starting a run on the cartridges physically in the train', () => {
     // membranes sit in the housing the plan gives the prefilter
     await installCartridges(owner, world.membraneTypeId, world.prefilterHousingId, 3);
     await installCartridges(owner, world.membraneTypeId, world.membraneHousingId, 3);
-    const plan = await createPlan(owner, world.lineId, { name: 'Start check day' });
-    const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
-    const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
-    expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
+    await approvedPlanLot(owner, { world, fill: false, name: 'Start check day' });
     const tech = await addMember(app, owner, 'technician');
     const master = await addMember(app, owner, 'cellar-master');
 
     // The technician, on a phone: refused, with the reason and what to do; no override field.
-    const phone = await signInAs(browser, app.baseUrl, tech.email, { viewport: { width: 390, height: 844 }, mobile: true, password: TEST_PASSWORD });
+    const phone = await app.signIn(tech.email, { viewport: PHONE, mobile: true });
     await phone.page.goto(`${app.baseUrl}/runs`);
     await phone.page.getByRole('button', { name: 'Start run' }).click();
     const dialog = phone.page.getByRole('dialog');
@@ -47,7 +33,7 @@ describe('starting a run on the cartridges physically in the train', () => {
     await phone.context.close();
 
     // The cellar master, at a desk: starts anyway with a written reason, kept on the run.
-    const desk = await signInAs(browser, app.baseUrl, master.email, { viewport: { width: 1280, height: 900 }, password: TEST_PASSWORD });
+    const desk = await app.signIn(master.email, { viewport: DESKTOP });
     await desk.page.goto(`${app.baseUrl}/runs`);
     await desk.page.getByRole('button', { name: 'Start run' }).click();
     const d2 = desk.page.getByRole('dialog');
@@ -84,7 +70,8 @@ describe('starting a run on the cartridges physically in the train', () => {
     await screenshot(desk.page, 'run-change-dialog-desktop');
     await desk.page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click();
     await screenshot(desk.page, 'run-corrected-reading-desktop');
-    await desk.page.setViewportSize({ width: 390, height: 844 });
+    await expectNoSeriousA11yViolations(desk.page);
+    await desk.page.setViewportSize(PHONE);
     await screenshot(desk.page, 'run-started-with-override-phone');
     expect(desk.errors).toEqual([]);
     await desk.context.close();

@@ -1,35 +1,19 @@
 // @vitest-environment node
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, signInAs } from '../support/browser';
-import { addMember, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { approvedPlanLot } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { addMember, signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('a run on a phone in the cellar', () => {
   it('a technician starts the run of an approved plan’s lot, logs three readings and sees the forecast', async () => {
     const { client: owner } = await signUp(app.baseUrl, { wineryName: 'Runs E2E Cellars' });
-    const world = await createPlanWorld(owner);
-    await fillTrainHousings(owner, world);
-    const plan = await createPlan(owner, world.lineId, { name: 'Run day whites' });
-    const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
-    const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
-    expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-    expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
+    await approvedPlanLot(owner, { name: 'Run day whites', reason: 'Cartridges arrive the day before.' });
     const tech = await addMember(app, owner, 'technician');
 
-    const { context, page, errors } = await signInAs(browser, app.baseUrl, tech.email, { viewport: { width: 390, height: 844 }, mobile: true, password: TEST_PASSWORD });
+    const { context, page, errors } = await app.signIn(tech.email, { viewport: PHONE, mobile: true });
     await page.goto(`${app.baseUrl}/runs`);
     await page.getByRole('heading', { name: 'Runs', exact: true }).waitFor();
     await screenshot(page, 'runs-list-phone');
@@ -62,12 +46,13 @@ describe('a run on a phone in the cellar', () => {
     expect(await forecast.textContent()).toMatch(/2,400 L\/h/);
     await page.getByRole('img', { name: /ΔP against litres for Prefilter/ }).last().waitFor();
     await screenshot(page, 'run-forecast-phone');
+    await expectNoSeriousA11yViolations(page);
 
     // Close with a confirmation.
     await page.getByRole('button', { name: 'Close run' }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Close run' }).click();
     await page.getByText('Closed', { exact: true }).first().waitFor();
-    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.setViewportSize(DESKTOP);
     await screenshot(page, 'run-closed-desktop');
     expect(errors).toEqual([]);
     await context.close();

@@ -1,27 +1,14 @@
 // @vitest-environment node
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { linkFrom, startTestApp, TEST_PASSWORD, uniqueEmail, type TestApp } from '../support/test-app';
+import { describe, expect, it } from 'vitest';
+import { setupBrowserApp, PHONE, screenshot } from '../support/browser';
+import { linkFrom, TEST_PASSWORD, uniqueEmail } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('sign-up, sign-out, sign-in, invite a technician', () => {
   it('works end to end in Chromium', async () => {
     const ownerEmail = uniqueEmail('e2e-owner');
-    const owner = await browser.newContext({ viewport: { width: 1280, height: 800 } });
-    const page = await owner.newPage();
-    const errors = watchPageErrors(page);
+    const { context: owner, page, errors } = await app.newPage({ viewport: { width: 1280, height: 800 } });
 
     // Sign up: land in the shell with the winery and the person in the header.
     await page.goto(`${app.baseUrl}/sign-up`);
@@ -65,9 +52,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
     const link = linkFrom(mail.text, '/invitation');
 
     // The technician accepts in a second browser context.
-    const tech = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-    const techPage = await tech.newPage();
-    const techErrors = watchPageErrors(techPage);
+    const { context: tech, page: techPage, errors: techErrors } = await app.newPage({ viewport: PHONE, mobile: true });
     await techPage.goto(link);
     await techPage.getByText('Join Larchmere Test Cellars as technician').waitFor();
     await techPage.getByLabel('Your name').fill('Rowan Pike');
@@ -112,9 +97,7 @@ describe('sign-up, sign-out, sign-in, invite a technician', () => {
 
   it('resets a forgotten password through the e-mailed link', async () => {
     const email = uniqueEmail('e2e-reset');
-    const ctx = await browser.newContext({ viewport: { width: 390, height: 844 } });
-    const page = await ctx.newPage();
-    const errors = watchPageErrors(page);
+    const { context: ctx, page, errors } = await app.newPage({ viewport: PHONE });
     await page.goto(`${app.baseUrl}/sign-up`);
     await page.getByLabel('Your name').fill('Ash Morrow');
     await page.getByLabel('E-mail', { exact: true }).fill(email);

@@ -1,35 +1,19 @@
 // @vitest-environment node
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
-import { clientDir, launchBrowser, screenshot, watchPageErrors, signInAs } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
+import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { cartridgeEventsTable } from '../../server/db/schema';
 import type { PlanDto } from '../../shared/types/plans';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
 import { createLot } from '../factories/cellar';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { addMember, signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  await seedDemo(app.db);
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
-
-function signIn(email: string, viewport: { width: number; height: number }, mobile = false) {
-  return signInAs(browser, app.baseUrl, email, { viewport, mobile, password: DEMO_PASSWORD });
-}
+const app = setupBrowserApp({ demo: true });
 
 describe('today', () => {
   it('the cellar master lands on Today and follows a lot and a cartridge from it', async () => {
-    const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    const { context, page, errors } = await app.signIn('cellar@quillwater.test', { viewport: DESKTOP });
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     await page.waitForURL(/\/today$/);
     await page.getByText('Quillwater Estate').first().waitFor();
@@ -43,6 +27,7 @@ describe('today', () => {
     await page.getByRole('list', { name: 'Stock by type' }).waitFor();
     expect(await page.getByText(/Runs in progress, with their readings and forecasts, are on the/).count()).toBe(1);
     await screenshot(page, 'today-desktop');
+    await expectNoSeriousA11yViolations(page);
 
     await notReady.click();
     await page.getByRole('heading', { name: 'Readiness for membrane filtration' }).waitFor();
@@ -58,7 +43,7 @@ describe('today', () => {
   });
 
   it('shows the demo bottling day a week ahead first, and opens its plan', async () => {
-    const { context, page, errors } = await signIn('cellar@quillwater.test', { width: 1280, height: 900 });
+    const { context, page, errors } = await app.signIn('cellar@quillwater.test', { viewport: DESKTOP });
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     const days = page.getByRole('list', { name: 'Next bottling days' });
     const plan = days.getByRole('link').filter({ hasText: 'Whites bottling, week ahead' });
@@ -80,12 +65,13 @@ describe('today', () => {
   });
 
   it('works on a phone in one column', async () => {
-    const { context, page, errors } = await signIn('tech@quillwater.test', { width: 390, height: 844 }, true);
+    const { context, page, errors } = await app.signIn('tech@quillwater.test', { viewport: PHONE, mobile: true });
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     await page.getByRole('list', { name: 'Next bottling days' }).getByRole('link').filter({ hasText: 'Whites bottling, week ahead' }).waitFor();
     await page.getByRole('list', { name: 'Lots to look at' }).getByRole('link').filter({ hasText: 'QW-23-PN04' }).waitFor();
     await page.getByRole('list', { name: 'Cartridges to look at' }).getByRole('link').first().waitFor();
     await screenshot(page, 'today-phone');
+    await expectNoSeriousA11yViolations(page);
     const scrollsSideways = await page.evaluate(() => document.documentElement.scrollWidth > window.innerWidth + 1);
     expect(scrollsSideways).toBe(false);
     // Every link on the page is a comfortable target.
@@ -99,10 +85,7 @@ describe('today', () => {
 
   it('tells a new winery what to enter first', async () => {
     const { client } = await signUp(app.baseUrl, { name: 'Iris Penhallow', wineryName: 'Saltmarsh Test Cellars' });
-    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-    await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-    const page = await context.newPage();
-    const errors = watchPageErrors(page);
+    const { context, page, errors } = await app.pageFor(client, { viewport: PHONE, mobile: true });
     await page.goto(app.baseUrl);
     await page.getByRole('heading', { name: 'Today', exact: true }).waitFor();
     await page.getByRole('heading', { name: 'Set up your cellar' }).waitFor();
@@ -121,10 +104,7 @@ describe('today', () => {
     await createLot(owner);
     const { client: auditor } = await addMember(app, owner, 'auditor');
     const open = async (client: Client) => {
-      const context = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true, hasTouch: true });
-      await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-      const page = await context.newPage();
-      const errors = watchPageErrors(page);
+      const { context, page, errors } = await app.pageFor(client, { viewport: PHONE, mobile: true });
       await page.goto(`${app.baseUrl}/today`);
       await page.getByText('No bottling day planned yet.').waitFor();
       return { context, page, errors };
@@ -161,10 +141,7 @@ describe('today', () => {
     const short = (chosen.body as PlanDto).needs.filter((n) => n.verdict === 'short');
     expect(short.length).toBe(2);
 
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-    const page = await context.newPage();
-    const errors = watchPageErrors(page);
+    const { context, page, errors } = await app.pageFor(client, { viewport: DESKTOP });
     await page.goto(`${app.baseUrl}/today`);
     const cartridge = page.getByRole('list', { name: 'Cartridges to look at' }).getByRole('link').filter({ hasText: serial });
     await cartridge.waitFor();

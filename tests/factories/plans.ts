@@ -118,3 +118,27 @@ export async function stockPlanWorld(client: Client, w: PlanWorld, howMany = 12)
     }
   }
 }
+
+export type ReadyLot = { world: PlanWorld; plan: PlanDto; planLotId: string; trainId: string };
+
+/**
+ * A lot ready for a run: a plan on the world's first lot (6,000 L) with one two-stage train,
+ * chosen and approved. The world's housings are filled with the planned cartridges first
+ * unless `fill: false` (or a `world` set up by the caller is given with `fill: false`).
+ */
+export async function approvedPlanLot(
+  owner: Client,
+  opts: { world?: PlanWorld; fill?: boolean; name?: string; reason?: string } = {},
+): Promise<ReadyLot> {
+  const world = opts.world ?? (await createPlanWorld(owner));
+  if (opts.fill !== false) await fillTrainHousings(owner, world);
+  const plan = await createPlan(owner, world.lineId, { name: opts.name ?? 'Run day' });
+  const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
+  const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
+  await ok(await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId }), 200, 'choosing the train');
+  await ok(await owner.post(`/api/plans/${plan.id}/approve`, { reason: opts.reason ?? 'Test day: stock counted separately.' }), 200, 'approving the plan');
+  return { world, plan, planLotId, trainId };
+}
+
+/** Starts the run of an approved plan lot as `client`; answers the run's id. */
+export const startRun = async (client: Client, planLotId: string) => ok<{ id: string }>(await client.post('/api/runs', { planLotId }), 201, 'starting a run');

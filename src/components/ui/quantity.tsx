@@ -18,7 +18,7 @@ export function formatNumber(value: number, digits?: number): string {
   }).format(value);
 }
 
-/** A figure in tabular digits with its unit in a lighter weight: "1.42 bar". */
+/** A figure in tabular digits with its unit in a lighter weight (same colour, so it keeps the text's contrast): "1.42 bar". */
 export function Quantity({ value, unit, digits, className }: QuantityProps) {
   const text = typeof value === 'number' ? formatNumber(value, digits) : value;
   return (
@@ -27,7 +27,7 @@ export function Quantity({ value, unit, digits, className }: QuantityProps) {
       {unit ? (
         <>
           {'\u00a0'}
-          <span className="font-normal opacity-70">{unit}</span>
+          <span className="font-normal">{unit}</span>
         </>
       ) : null}
     </span>

@@ -14,7 +14,7 @@ export function OpenAlerts({ max = 5 }: { max?: number }) {
       title="Open alerts"
       description="Conditions that hold now and need someone to act."
       actions={
-        <Link to={paths.notifications} className="text-sm font-semibold text-primary-700 underline">
+        <Link to={paths.notifications} className="inline-flex min-h-11 items-center text-sm font-semibold text-primary-700 underline">
           All notifications
         </Link>
       }
