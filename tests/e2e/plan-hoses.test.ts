@@ -4,7 +4,7 @@
 // saving the train keeps them.
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { formatQuantity } from '../../shared/engine/units';
+import { formatQuantity } from '../../shared/engine';
 import type { PlanDto } from '../../shared/types/plans';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
 import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
