@@ -32,7 +32,7 @@ export default tseslint.config(
             { target: './src', from: './server', message: 'The client may not import server code.' },
             { target: './server', from: './src', message: 'The server may not import client code.' },
             {
-              target: ['./src', './server', './scripts', './tests', './shared/schemas', './shared/types', './shared/permissions.ts'],
+              target: ['./src', './server', './scripts', './tests', './shared/adapters', './shared/schemas', './shared/types', './shared/permissions.ts'],
               from: './shared/engine',
               except: ['./index.ts'],
               message: 'Import the engine through its public surface, shared/engine/index.ts (`@shared/engine`).',
