@@ -31,6 +31,12 @@ export default tseslint.config(
             { target: './shared', from: './server', message: 'shared/ is isomorphic: it may not import the server.' },
             { target: './src', from: './server', message: 'The client may not import server code.' },
             { target: './server', from: './src', message: 'The server may not import client code.' },
+            {
+              target: ['./src', './server', './scripts', './tests', './shared/adapters', './shared/schemas', './shared/types', './shared/permissions.ts'],
+              from: './shared/engine',
+              except: ['./index.ts'],
+              message: 'Import the engine through its public surface, shared/engine/index.ts (`@shared/engine`).',
+            },
             ...features.map((f) => ({
               target: `./src/features/${f}`,
               from: './src/features',

@@ -48,7 +48,14 @@ export default defineConfig({
     port: 5173,
     proxy: { '/api': `http://127.0.0.1:${process.env.PORT ?? 3000}` },
   },
-  build: { outDir: 'dist/client', emptyOutDir: true, chunkSizeWarningLimit: 900 },
+  build: {
+    outDir: 'dist/client',
+    emptyOutDir: true,
+    chunkSizeWarningLimit: 900,
+    // The engine is pure (no work at import: ESLint keeps it so), so a page that imports one
+    // helper through shared/engine/index.ts bundles that helper's modules and no others.
+    rolldownOptions: { treeshake: { moduleSideEffects: [{ test: /[\\/]shared[\\/]engine[\\/]/, sideEffects: false }] } },
+  },
   test: {
     reporters: ['default'],
     projects: [

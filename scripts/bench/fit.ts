@@ -5,9 +5,7 @@
  * constant-pressure disc test (standard blocking, J0 = 20 L m⁻² min⁻¹, k_s = 0.01 m²/L,
  * 0.3 % noise).
  */
-import { blockingVolume } from '../../shared/engine/blocking';
-import { fitConstantFlow } from '../../shared/engine/fit-constant-flow';
-import { fitConstantPressure } from '../../shared/engine/fit-constant-pressure';
+import { blockingVolume, fitConstantFlow, fitConstantPressure } from '../../shared/engine';
 import { seededNormals } from '../../tests/support/seeded-random';
 
 

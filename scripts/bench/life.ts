@@ -3,7 +3,7 @@
  * recompute the forecast of every cartridge in a list, so one forecast over a long
  * history (200 care cycles) must stay fast.
  */
-import { cartridgeLife, type CareCycle, type CareCycleKind, type CartridgeHistory, type CartridgeRatings } from '../../shared/engine/cartridge-life';
+import { cartridgeLife, type CareCycle, type CareCycleKind, type CartridgeHistory, type CartridgeRatings } from '../../shared/engine';
 
 /** A 30" PES membrane type; fictional ratings. */
 const ratings: CartridgeRatings = {

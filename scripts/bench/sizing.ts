@@ -2,7 +2,7 @@
  * Benchmark cases for train sizing: the plan screen recomputes a sizing on every
  * keystroke, so one four-stage sizing must stay well under 0.2 ms.
  */
-import { sizeTrain, type TrainSizingInput } from '../../shared/engine/train-sizing';
+import { sizeTrain, type TrainSizingInput } from '../../shared/engine';
 
 /** A four-stage train (two prefilters, a 0.65 µm and a 0.45 µm membrane) on a 3,000 bottles/h line; fictional data. */
 const fourStageTrain: TrainSizingInput = {

@@ -672,21 +672,72 @@ const collect = (list: string[], line: () => string): void => {
   list.push(line());
 };
 
+/** The plain-words account of a forecast: lines are closures, built only when `say` is `collect`. */
+type Notes = { known: string[]; missing: string[]; say: (list: string[], line: () => string) => void };
+
+/**
+ * The forecast in named steps: what is known, the budgets (care cycles by kind, steam
+ * minutes, litres), the flow-recovery trend, the integrity tests, whether life has ended,
+ * what limits it and how much is left, and the date.
+ */
 function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, options: CartridgeLifeOptions, explain: boolean): CartridgeLife {
   validate(ratings, history, options);
-  const known: string[] = [];
-  const missing: string[] = [];
   // The plain statements are built only when asked for (each line is a closure, evaluated by `collect`).
-  const say: (list: string[], line: () => string) => void = explain ? collect : ignore;
+  const notes: Notes = { known: [], missing: [], say: explain ? collect : ignore };
   const cycles = orderCycles(history.cycles);
+  const counts = careCounts(cycles);
+  const litres = history.litresFiltered;
+  const litresPerCycle = counts.total > 0 && litres > 0 ? litres / counts.total : null;
+
+  noteRatingsAndUse(ratings, counts, litres, notes);
+  const budgets = cycleBudgets(ratings, counts, notes);
+  budgets.push(steamMinutesBudget(ratings, cycles, notes));
+  budgets.push(litresBudget(ratings, litres, litresPerCycle, notes));
+  const { say, known } = notes;
+  if (litresPerCycle !== null) say(known, () => `Litres per care cycle so far: ${fmtNum(litresPerCycle, 0)} L.`);
+
+  const recovery = recoveryState(ratings.flowRecoveryMinPct, cycles, history, notes);
+  const integrity = integrityState(history, notes);
+  const end = endOfLife(options.integrityRule ?? 'latest', integrity, budgets, recovery);
+  const left = remainingLife(budgets, recovery.cyclesLeft, end, litresPerCycle, notes);
+  const estimatedEndMs = estimatedEnd(options, left.remainingCycles, end.ended, notes);
+
+  const frac = (f: BudgetFactor) => (budgets.find((b) => b.factor === f) as BudgetUse).fraction;
+  return {
+    counts,
+    litresFiltered: litres,
+    litresPerCycle,
+    budgets,
+    fractionUsed: {
+      steamCycles: frac('steam cycles'),
+      hotWaterCycles: frac('hot-water cycles'),
+      chemicalCycles: frac('chemical cycles'),
+      litres: frac('litres'),
+      steamMinutes: frac('steam minutes'),
+    },
+    recovery,
+    integrity,
+    limitingFactor: left.limitingFactor,
+    remainingCycles: left.remainingCycles,
+    remainingLitres: left.remainingLitres,
+    ended: end.ended,
+    endedBecause: end.endedBecause,
+    estimatedEndMs,
+    known: notes.known,
+    missing: notes.missing,
+  };
+}
+
+/** Care cycles by kind, and how many ran above the temperature rating. */
+function careCounts(cycles: CareCycle[]): CartridgeLife['counts'] {
   const total = cycles.length;
   const count = (k: CareCycleKind) => cycles.filter((c) => c.kind === k).length;
   const aboveRating = cycles.filter((c) => c.aboveRating === true).length;
-  const counts = { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total, aboveRating };
-  const litres = history.litresFiltered;
-  const litresPerCycle = total > 0 && litres > 0 ? litres / total : null;
+  return { steam: count('steam'), hotWater: count('hot-water'), chemical: count('chemical'), backflush: count('backflush'), total, aboveRating };
+}
 
-  // --- ratings known / missing
+/** Which ratings the type gives, the recovery floor, the litres and cycles so far; a caution for cycles above the rating. */
+function noteRatingsAndUse(ratings: CartridgeRatings, counts: CartridgeLife['counts'], litres: number, { known, missing, say }: Notes): void {
   const ratingLines: [number | undefined, string, string][] = [
     [ratings.ratedSteamCycles, 'rated steam cycles', ''],
     [ratings.ratedHotWaterCycles, 'rated hot-water cycles', ''],
@@ -698,9 +749,10 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
     if (v !== undefined) say(known, () => `${name[0].toUpperCase()}${name.slice(1)}: ${fmtNum(v)}${unit}.`);
     else say(missing, () => `The cartridge type gives no ${name}.`);
   }
+  const { total, aboveRating } = counts;
   say(known, () => `Flow recovery floor: ${fmtNum(ratings.flowRecoveryMinPct)} %.`);
   say(known, () => `Litres filtered: ${fmtNum(litres, 0)} L.`);
-  say(known, () => 
+  say(known, () =>
     `${String(total)} care cycle${total === 1 ? '' : 's'} logged (${String(counts.steam)} steam, ${String(counts.hotWater)} hot-water, ${String(counts.chemical)} chemical, ${String(counts.backflush)} backflush).`,
   );
 
@@ -709,8 +761,10 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
       `${String(aboveRating)} cycle${aboveRating === 1 ? '' : 's'} ran above the temperature rating: the maker's cycle ratings may no longer hold, so treat the life left as shorter and test integrity before use.`,
     );
   }
+}
 
-  // --- budgets
+/** Steam, hot-water and chemical cycles used against their ratings. Backflushes count against none. */
+function cycleBudgets(ratings: CartridgeRatings, counts: CartridgeLife['counts'], { missing, say }: Notes): BudgetUse[] {
   const budgets: BudgetUse[] = [
     cycleBudget('steam cycles', counts.steam, ratings.ratedSteamCycles),
     cycleBudget('hot-water cycles', counts.hotWater, ratings.ratedHotWaterCycles),
@@ -719,8 +773,14 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   for (const b of budgets) {
     if (b.rated === null && b.used !== null && b.used > 0) say(missing, () => `No rating for ${b.factor}, though the cartridge has had ${String(b.used)}.`);
   }
+  return budgets;
+}
 
-  // steam minutes
+/**
+ * Cumulative steam minutes against the rating: unknown durations count at the longest logged
+ * one (so the use is not under-stated); cycles left = remaining minutes ÷ that longest cycle.
+ */
+function steamMinutesBudget(ratings: CartridgeRatings, cycles: CareCycle[], { known, missing, say }: Notes): BudgetUse {
   const steam = cycles.filter((c) => c.kind === 'steam');
   const durations = steam.filter((c) => c.durationMin !== undefined).map((c) => c.durationMin as number);
   const unknownDur = steam.length - durations.length;
@@ -732,56 +792,55 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   if (steam.length > 0) {
     if (unknownDur === 0) say(known, () => `Steam time: ${fmtNum(steamMinutesUsed as number)} min over ${String(steam.length)} steam cycles.`);
     else if (longest !== null)
-      say(missing, () => 
+      say(missing, () =>
         `Duration of ${String(unknownDur)} of ${String(steam.length)} steam cycles (counted at the longest logged, ${fmtNum(longest)} min).`,
       );
     else say(missing, () => `Duration of all ${String(steam.length)} steam cycles, so steam time is unknown.`);
   }
-  {
-    const rated = ratings.ratedSteamMinutes;
-    let b: BudgetUse;
-    if (rated === undefined || steamMinutesUsed === null) {
-      b = { factor: 'steam minutes', unit: 'min', used: steamMinutesUsed, rated: rated ?? null, fraction: null, remaining: null, cyclesLeft: null };
-    } else {
-      const remaining = Math.max(0, rated - steamMinutesUsed);
-      b = {
-        factor: 'steam minutes',
-        unit: 'min',
-        used: steamMinutesUsed,
-        rated,
-        fraction: steamMinutesUsed / rated,
-        remaining,
-        cyclesLeft: longest !== null && longest > 0 ? remaining / longest : remaining === 0 ? 0 : null,
-      };
-    }
-    budgets.push(b);
+  const rated = ratings.ratedSteamMinutes;
+  if (rated === undefined || steamMinutesUsed === null) {
+    return { factor: 'steam minutes', unit: 'min', used: steamMinutesUsed, rated: rated ?? null, fraction: null, remaining: null, cyclesLeft: null };
   }
+  const remaining = Math.max(0, rated - steamMinutesUsed);
+  return {
+    factor: 'steam minutes',
+    unit: 'min',
+    used: steamMinutesUsed,
+    rated,
+    fraction: steamMinutesUsed / rated,
+    remaining,
+    cyclesLeft: longest !== null && longest > 0 ? remaining / longest : remaining === 0 ? 0 : null,
+  };
+}
 
-  // litres
-  {
-    const rated = ratings.ratedLitres;
-    if (rated === undefined) {
-      budgets.push({ factor: 'litres', unit: 'L', used: litres, rated: null, fraction: null, remaining: null, cyclesLeft: null });
-    } else {
-      const remaining = Math.max(0, rated - litres);
-      budgets.push({
-        factor: 'litres',
-        unit: 'L',
-        used: litres,
-        rated,
-        fraction: litres / rated,
-        remaining,
-        cyclesLeft: remaining === 0 ? 0 : litresPerCycle !== null ? remaining / litresPerCycle : null,
-      });
-      if (litresPerCycle === null) {
-        say(missing, () => 'Litres per cycle (no cycles or no litres logged yet), so the litres budget cannot be counted in cycles.');
-      }
-    }
+/** Litres filtered against the rating; cycles left = remaining litres ÷ litres per cycle so far. */
+function litresBudget(ratings: CartridgeRatings, litres: number, litresPerCycle: number | null, { missing, say }: Notes): BudgetUse {
+  const rated = ratings.ratedLitres;
+  if (rated === undefined) {
+    return { factor: 'litres', unit: 'L', used: litres, rated: null, fraction: null, remaining: null, cyclesLeft: null };
   }
-  if (litresPerCycle !== null) say(known, () => `Litres per care cycle so far: ${fmtNum(litresPerCycle, 0)} L.`);
+  const remaining = Math.max(0, rated - litres);
+  if (litresPerCycle === null) {
+    say(missing, () => 'Litres per cycle (no cycles or no litres logged yet), so the litres budget cannot be counted in cycles.');
+  }
+  return {
+    factor: 'litres',
+    unit: 'L',
+    used: litres,
+    rated,
+    fraction: litres / rated,
+    remaining,
+    cyclesLeft: remaining === 0 ? 0 : litresPerCycle !== null ? remaining / litresPerCycle : null,
+  };
+}
 
-  // --- flow recovery
-  const minPct = ratings.flowRecoveryMinPct;
+/**
+ * Flow recovery after each measured cycle against the as-new flow (or, lacking it, the first
+ * flow after a regeneration, which overstates recovery), its trend ({@link fitRecoveryTrend})
+ * and the cycles before the trend reaches the floor.
+ */
+function recoveryState(minPct: number, cycles: CareCycle[], history: CartridgeHistory, { known, missing, say }: Notes): CartridgeLife['recovery'] {
+  const total = cycles.length;
   const measured = cycles
     .map((c, i) => ({ c, cycle: i + 1 }))
     .filter((p) => p.c.waterFlowAfterLh !== undefined);
@@ -824,19 +883,22 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   const trend = fitRecoveryTrend(points, minPct);
   if (points.length === 1) say(missing, () => 'A second flow-recovery measurement, needed for a trend.');
   const latestPct = points.length ? points[points.length - 1].recoveryPct : null;
-  let flowCyclesLeft: number | null = null;
+  let cyclesLeft: number | null = null;
   if (trend) {
-    say(known, () => 
+    say(known, () =>
       trend.model === 'linear'
         ? `Flow recovery trend: linear, ${fmtNum(trend.slopePctPerCycle as number, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`
         : trend.model === 'quadratic'
           ? `Flow recovery trend: ${(trend.curvaturePctPerCycle2 as number) < 0 ? 'accelerating' : 'slowing'} decline (quadratic, r² ${fmtNum(trend.r2, 3)}).`
           : `Flow recovery trend: exponential, ${fmtNum((Math.exp(trend.ratePerCycle as number) - 1) * 100, 2)} % per cycle (r² ${fmtNum(trend.r2, 3)}).`,
     );
-    if (trend.cycleAtMinimum !== null) flowCyclesLeft = Math.max(0, trend.cycleAtMinimum - total);
+    if (trend.cycleAtMinimum !== null) cyclesLeft = Math.max(0, trend.cycleAtMinimum - total);
   }
+  return { basis, minPct, points, latestPct, trend, cyclesLeft };
+}
 
-  // --- integrity
+/** Integrity tests: how many, how many failed, and whether the latest (by time when every test has one) passed. */
+function integrityState(history: CartridgeHistory, { known, missing, say }: Notes): CartridgeLife['integrity'] {
   const tests = history.integrity ?? [];
   const orderedTests =
     tests.length > 0 && tests.every((t) => t.atMs !== undefined)
@@ -846,14 +908,22 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   const latestPass = orderedTests.length ? orderedTests[orderedTests.length - 1].pass : null;
   if (tests.length === 0) say(missing, () => 'Integrity test results.');
   else
-    say(known, () => 
+    say(known, () =>
       `${String(tests.length)} integrity test${tests.length === 1 ? '' : 's'}, ${String(failures)} failed; latest ${latestPass ? 'passed' : 'failed'}.`,
     );
+  return { tests: tests.length, failures, latestPass };
+}
 
-  // --- ended?
+/** Life has ended when integrity failed (by the rule), a budget is used up, or the latest recovery is below the floor. */
+function endOfLife(
+  rule: NonNullable<CartridgeLifeOptions['integrityRule']>,
+  integrity: CartridgeLife['integrity'],
+  budgets: BudgetUse[],
+  recovery: CartridgeLife['recovery'],
+): { ended: boolean; endedBecause: string[]; endFactors: LimitingFactor[] } {
   const endedBecause: string[] = [];
   const endFactors: LimitingFactor[] = [];
-  const rule = options.integrityRule ?? 'latest';
+  const { failures, latestPass } = integrity;
   if ((rule === 'latest' && latestPass === false) || (rule === 'any' && failures > 0)) {
     endedBecause.push(rule === 'latest' ? 'The latest integrity test failed.' : `${String(failures)} integrity test(s) failed.`);
     endFactors.push('integrity');
@@ -864,13 +934,29 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
       endFactors.push(b.factor);
     }
   }
+  const { latestPct, minPct } = recovery;
   if (latestPct !== null && latestPct < minPct) {
     endedBecause.push(`Flow recovered to only ${fmtNum(latestPct)} %, below the ${fmtNum(minPct)} % floor.`);
     endFactors.push('flow recovery');
   }
-  const ended = endedBecause.length > 0;
+  return { ended: endedBecause.length > 0, endedBecause, endFactors };
+}
 
-  // --- limiting factor and remaining life
+/**
+ * What limits life and how much is left: the fewest cycles left over the budgets and the
+ * recovery trend (ties by {@link FACTOR_ORDER}), rounded down; litres left = the smaller of
+ * the litres budget and litres per cycle × cycles left. Zero when life has ended.
+ */
+function remainingLife(
+  budgets: BudgetUse[],
+  flowCyclesLeft: number | null,
+  end: { ended: boolean; endFactors: LimitingFactor[] },
+  litresPerCycle: number | null,
+  { missing, say }: Notes,
+): { limitingFactor: LimitingFactor | null; remainingCycles: number | null; remainingLitres: number | null } {
+  if (end.ended) {
+    return { limitingFactor: FACTOR_ORDER.find((f) => end.endFactors.includes(f)) ?? null, remainingCycles: 0, remainingLitres: 0 };
+  }
   const candidates: { factor: LimitingFactor; cyclesLeft: number }[] = [];
   for (const b of budgets) if (b.cyclesLeft !== null) candidates.push({ factor: b.factor, cyclesLeft: b.cyclesLeft });
   if (flowCyclesLeft !== null) candidates.push({ factor: 'flow recovery', cyclesLeft: flowCyclesLeft });
@@ -878,64 +964,35 @@ function lifeForecast(ratings: CartridgeRatings, history: CartridgeHistory, opti
   let limitingFactor: LimitingFactor | null = null;
   let remainingCycles: number | null = null;
   let remainingLitres: number | null = null;
-  if (ended) {
-    limitingFactor = FACTOR_ORDER.find((f) => endFactors.includes(f)) ?? null;
-    remainingCycles = 0;
-    remainingLitres = 0;
-  } else {
-    let best: { factor: LimitingFactor; cyclesLeft: number } | null = null;
-    for (const c of candidates) {
-      if (
-        best === null ||
-        c.cyclesLeft < best.cyclesLeft - EPS ||
-        (Math.abs(c.cyclesLeft - best.cyclesLeft) <= EPS && FACTOR_ORDER.indexOf(c.factor) < FACTOR_ORDER.indexOf(best.factor))
-      ) {
-        best = c;
-      }
+  let best: { factor: LimitingFactor; cyclesLeft: number } | null = null;
+  for (const c of candidates) {
+    if (
+      best === null ||
+      c.cyclesLeft < best.cyclesLeft - EPS ||
+      (Math.abs(c.cyclesLeft - best.cyclesLeft) <= EPS && FACTOR_ORDER.indexOf(c.factor) < FACTOR_ORDER.indexOf(best.factor))
+    ) {
+      best = c;
     }
-    const litresBudget = budgets.find((b) => b.factor === 'litres') as BudgetUse;
-    if (best) {
-      limitingFactor = best.factor;
-      remainingCycles = Math.floor(best.cyclesLeft + EPS);
-    }
-    const litreOptions: number[] = [];
-    if (litresBudget.remaining !== null) litreOptions.push(litresBudget.remaining);
-    if (remainingCycles !== null && litresPerCycle !== null) litreOptions.push(litresPerCycle * remainingCycles);
-    if (litreOptions.length) remainingLitres = Math.min(...litreOptions);
-    if (limitingFactor === null && litresBudget.remaining !== null) limitingFactor = 'litres';
-    if (limitingFactor === null) say(missing, () => 'Any rating or trend that limits life, so no forecast can be made.');
   }
+  const litresUse = budgets.find((b) => b.factor === 'litres') as BudgetUse;
+  if (best) {
+    limitingFactor = best.factor;
+    remainingCycles = Math.floor(best.cyclesLeft + EPS);
+  }
+  const litreOptions: number[] = [];
+  if (litresUse.remaining !== null) litreOptions.push(litresUse.remaining);
+  if (remainingCycles !== null && litresPerCycle !== null) litreOptions.push(litresPerCycle * remainingCycles);
+  if (litreOptions.length) remainingLitres = Math.min(...litreOptions);
+  if (limitingFactor === null && litresUse.remaining !== null) limitingFactor = 'litres';
+  if (limitingFactor === null) say(missing, () => 'Any rating or trend that limits life, so no forecast can be made.');
+  return { limitingFactor, remainingCycles, remainingLitres };
+}
 
-  // --- date
-  let estimatedEndMs: number | null = null;
+/** Estimated end of life: now + cycles left ÷ cycles per week, when both are given. */
+function estimatedEnd(options: CartridgeLifeOptions, remainingCycles: number | null, ended: boolean, { missing, say }: Notes): number | null {
   if (options.cyclesPerWeek !== undefined && options.nowMs !== undefined) {
-    if (remainingCycles !== null) estimatedEndMs = options.nowMs + (remainingCycles / options.cyclesPerWeek) * WEEK_MS;
-  } else if (!ended) {
-    say(missing, () => 'Average care cycles per week and the current date, for a date estimate.');
+    return remainingCycles !== null ? options.nowMs + (remainingCycles / options.cyclesPerWeek) * WEEK_MS : null;
   }
-
-  const frac = (f: BudgetFactor) => (budgets.find((b) => b.factor === f) as BudgetUse).fraction;
-  return {
-    counts,
-    litresFiltered: litres,
-    litresPerCycle,
-    budgets,
-    fractionUsed: {
-      steamCycles: frac('steam cycles'),
-      hotWaterCycles: frac('hot-water cycles'),
-      chemicalCycles: frac('chemical cycles'),
-      litres: frac('litres'),
-      steamMinutes: frac('steam minutes'),
-    },
-    recovery: { basis, minPct, points, latestPct, trend, cyclesLeft: flowCyclesLeft },
-    integrity: { tests: tests.length, failures, latestPass },
-    limitingFactor,
-    remainingCycles,
-    remainingLitres,
-    ended,
-    endedBecause,
-    estimatedEndMs,
-    known,
-    missing,
-  };
+  if (!ended) say(missing, () => 'Average care cycles per week and the current date, for a date estimate.');
+  return null;
 }

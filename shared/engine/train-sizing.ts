@@ -590,231 +590,330 @@ export function sizeTrain(input: TrainSizingInput): TrainSizingResult {
   return sizeWithContext(input, ctx);
 }
 
+/**
+ * Sizes a train whose shared figures (flow, viscosity, line losses) are already known: each
+ * stage on its own ({@link sizeStage}), then the inlet pressures from the filler back
+ * ({@link applyInletPressures}), then the train's cost ({@link trainCost}) and totals.
+ */
 function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizingResult {
   const { stages, batchL, wine } = input;
   const { flowLh, viscosityPaS } = ctx;
-  const tempC = wine.tempC;
   const n = stages.length;
   const runHours = batchL / flowLh;
   const hl = batchL / 100;
   const warnings: SizingWarning[] = [];
 
-  if (tempC < SIZING_VALID_TEMP_C.minC || tempC > SIZING_VALID_TEMP_C.maxC) {
-    warnings.push({
-      code: 'temp-outside-valid-range',
-      message: `Wine at ${fmt(tempC, 1)} °C is outside ${String(SIZING_VALID_TEMP_C.minC)}–${String(SIZING_VALID_TEMP_C.maxC)} °C, the range where the viscosity model is checked against measured wines; treat the pressure drops as rough.`,
-    });
-  }
+  const outsideModel = temperatureRangeWarning(wine.tempC);
+  if (outsideModel !== null) warnings.push(outsideModel);
 
   const out: StageSizing[] = new Array<StageSizing>(n);
   let sumClean = 0;
   let sumEnd = 0;
   let holdUpTotal = 0;
-  let seenEarlierStage = false;
   let limitingIndex: number | null = null;
   let limitingCap = Infinity;
-
   for (let i = 0; i < n; i++) {
-    const stage = stages[i];
-    const label = stageLabel(stage, i);
-    const c = stage.cartridgeType;
-    const h = stage.housing;
-    validateCartridge(c, label);
-    validateHousing(h, label);
-    const housingCount = stage.housingCount ?? 1;
-    requirePositiveInteger(`${label} housing count`, housingCount);
-
-    const cartridgeCount = housingCount * h.rounds;
-    const eq = elementEquivalents({ cartridges: cartridgeCount, lengthIn: h.lengthIn });
-    const areaM2 = eq * c.areaM2Per10in;
-    const fluxLhPer10in = flowLh / eq;
-    const resistancePerM = cartridgeResistance(c);
-    const dp = cleanDpBar({ flowLh, areaM2, resistancePerM, viscosityPaS });
-    const endDp = dp > c.terminalDpBar ? dp : c.terminalDpBar;
-    sumClean += dp;
-    sumEnd += endDp;
-
-    let capacityL: number | null = null;
-    let hoursToTerminal: number | null = null;
-    let loads: number | null = null;
-    let interventions: number | null = null;
-    let regenerations: number | null = null;
-    let changes: number | null = null;
-    let kind: InterventionKind | null = null;
-    let setsUsed = 1;
-    const infeasible = dp >= c.terminalDpBar;
-    let capPerM2: number | null = c.capacityLPerM2 ?? null;
-    let capacitySource: StageSizing['capacitySource'] = capPerM2 === null ? null : 'stage';
-    if (capPerM2 === null && c.kind === 'membrane' && wine.vmaxLPerM2 !== undefined && !infeasible) {
-      capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
-      capacitySource = 'vmax';
-    }
-    if (infeasible) {
+    const s = sizeStage(input, ctx, i, runHours, hl);
+    out[i] = s;
+    sumClean += s.cleanDpBar;
+    sumEnd += s.cleanDpBar > s.terminalDpBar ? s.cleanDpBar : s.terminalDpBar;
+    holdUpTotal += s.holdUpL;
+    if (s.infeasible) {
       // No room to foul: the set reaches its terminal ΔP clean, so it holds no wine at all.
-      capacityL = 0;
-      hoursToTerminal = 0;
       limitingCap = 0;
       limitingIndex = i;
-    } else if (capPerM2 !== null) {
-      capacityL = capPerM2 * areaM2;
-      hoursToTerminal = capacityL / flowLh;
-      // Guard against 10000/10000.000000001 style rounding pushing ceil up by one.
-      loads = Math.max(1, Math.ceil(batchL / capacityL - 1e-9));
-      interventions = loads - 1;
-      const perSet = c.regenerable === true ? 1 + (c.maxRegenerationsPerLot ?? Infinity) : 1;
-      setsUsed = perSet === Infinity ? 1 : Math.ceil(loads / perSet);
-      changes = setsUsed - 1;
-      regenerations = loads - setsUsed;
-      kind =
-        interventions === 0 ? 'none' : changes === 0 ? 'regeneration' : regenerations === 0 ? 'change' : 'regeneration-and-change';
-      if (capacityL < limitingCap) {
-        limitingCap = capacityL;
-        limitingIndex = i;
-      }
+    } else if (s.capacityL !== null && s.capacityL < limitingCap) {
+      limitingCap = s.capacityL;
+      limitingIndex = i;
     }
-
-    const holdUpL = housingCount * h.holdUpL;
-    holdUpTotal += holdUpL;
-
-    let costPerSet: number | null = null;
-    let costTotal: number | null = null;
-    let costPerHl: number | null = null;
-    let costBasis: StageSizing['costBasis'] = null;
-    if (c.pricePer10in !== undefined) {
-      costPerSet = eq * c.pricePer10in;
-      if (c.regenerable === true && c.serviceLifeLoads !== undefined) {
-        // A regenerable set serves serviceLifeLoads loads in its life; this lot uses `loads` of them.
-        costBasis = 'service-life';
-        costTotal = (costPerSet * (loads ?? 1)) / c.serviceLifeLoads;
-      } else {
-        costBasis = c.regenerable === true ? 'whole-set' : 'single-use';
-        costTotal = costPerSet * setsUsed;
-      }
-      costPerHl = costTotal / hl;
-    }
-
-    const sw: SizingWarning[] = [];
-    if (fluxLhPer10in > c.designFluxLhPer10in) {
-      sw.push({
-        code: 'flux-above-design',
-        stageIndex: i,
-        message: `${label}: ${fmt(fluxLhPer10in, 0)} L/h per 10-inch module is above the design ${fmt(c.designFluxLhPer10in, 0)} L/h; add element equivalents.`,
-      });
-    }
-    if (dp > c.terminalDpBar * CLEAN_DP_MAX_FRACTION_OF_TERMINAL) {
-      sw.push({
-        code: 'clean-dp-above-third-of-terminal',
-        stageIndex: i,
-        message: `${label}: clean ΔP ${fmt(dp, 3)} bar is above a third of the terminal ${fmt(c.terminalDpBar, 2)} bar, leaving little room to foul (common practice).`,
-      });
-    }
-    if (infeasible) {
-      sw.push({
-        code: 'stage-infeasible',
-        stageIndex: i,
-        message: `${label}: clean ΔP ${fmt(dp, 2)} bar already reaches the terminal ${fmt(c.terminalDpBar, 2)} bar with this wine at ${fmt(tempC, 1)} °C, so the stage cannot filter it; warm the wine, add housings or choose a more open cartridge.`,
-      });
-    }
-    if (stage.housingId !== undefined) {
-      for (let j = 0; j < i; j++) {
-        if (stages[j].housingId === stage.housingId) {
-          sw.push({
-            code: 'housing-in-two-stages',
-            stageIndex: i,
-            message: `${label}: uses the same housing as ${stageLabel(stages[j], j)}; one housing can hold only one stage.`,
-          });
-          break;
-        }
-      }
-    }
-    if (c.kind === 'membrane' && !seenEarlierStage) {
-      sw.push({
-        code: 'membrane-without-prefilter',
-        stageIndex: i,
-        message: `${label}: membrane stage with no prefilter before it; it will blind early.`,
-      });
-    }
-    // Any stage before a membrane protects it (a 0.65 µm membrane before a 0.45 µm one counts).
-    seenEarlierStage = true;
-    if (c.maxTempC !== undefined && tempC > c.maxTempC) {
-      sw.push({
-        code: 'temp-above-cartridge-max',
-        stageIndex: i,
-        message: `${label}: wine at ${fmt(tempC, 1)} °C is above the cartridge's ${fmt(c.maxTempC, 1)} °C maximum.`,
-      });
-    }
-    if (input.sanitation !== undefined) {
-      const sanC = input.sanitation.tempC ?? SANITATION_TEMP_C[input.sanitation.kind];
-      const what = input.sanitation.kind === 'steam' ? 'Steam' : 'Hot water';
-      if (c.maxTempC !== undefined && sanC > c.maxTempC) {
-        sw.push({
-          code: 'sanitation-above-cartridge-max',
-          stageIndex: i,
-          message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the cartridges' ${fmt(c.maxTempC, 0)} °C rating; sanitise another way or choose cartridges rated for it.`,
-        });
-      }
-      if (h.maxTempC !== undefined && sanC > h.maxTempC) {
-        sw.push({
-          code: 'sanitation-above-housing-max',
-          stageIndex: i,
-          message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the housing's ${fmt(h.maxTempC, 0)} °C rating.`,
-        });
-      }
-    }
-    if (h.maxTempC !== undefined && tempC > h.maxTempC) {
-      sw.push({
-        code: 'temp-above-housing-max',
-        stageIndex: i,
-        message: `${label}: wine at ${fmt(tempC, 1)} °C is above the housing's ${fmt(h.maxTempC, 1)} °C maximum.`,
-      });
-    }
-
-    out[i] = {
-      index: i,
-      name: label,
-      kind: c.kind,
-      ratingUm: c.ratingUm,
-      elementEquivalents: eq,
-      cartridgeCount,
-      housingCount,
-      areaM2,
-      fluxLhPer10in,
-      fluxLmh: flowLh / areaM2,
-      designFluxLhPer10in: c.designFluxLhPer10in,
-      resistancePerM,
-      cleanDpBar: dp,
-      terminalDpBar: c.terminalDpBar,
-      cleanDpFractionOfTerminal: dp / c.terminalDpBar,
-      inletPressureCleanBar: 0,
-      inletPressureEndOfRunBar: 0,
-      capacityL,
-      capacityLPerM2: infeasible ? 0 : capPerM2,
-      capacitySource,
-      hoursToTerminal,
-      loadsNeeded: loads,
-      interventions,
-      regenerations,
-      changes,
-      interventionKind: kind,
-      setsUsed,
-      runHours,
-      holdUpL,
-      costPerSet,
-      costTotal,
-      costPerHl,
-      costIsLowerBound: c.pricePer10in !== undefined && capacityL === null,
-      costBasis,
-      infeasible,
-      currency: c.pricePer10in !== undefined ? (c.currency ?? null) : null,
-      warnings: sw,
-    };
   }
 
-  // Inlet pressures, from the filler back to the tank.
   const base = ctx.lineLossBar + ctx.staticHeadBar + ctx.fillerInletBar;
+  applyInletPressures(stages, out, base);
+
+  const cost = trainCost(out);
+  if (cost.mixed) {
+    warnings.push({
+      code: 'mixed-currencies',
+      message: 'Cartridge prices are in more than one currency, so the train cost is not totalled.',
+    });
+  }
+
+  for (let i = 0; i < n; i++) {
+    const sw = out[i].warnings;
+    for (let k = 0; k < sw.length; k++) warnings.push(sw[k]);
+  }
+
+  return {
+    flowLh,
+    batchL,
+    wineViscosityPaS: viscosityPaS,
+    wineDensityKgM3: ctx.densityKgM3,
+    stages: out,
+    totals: {
+      cleanDpBar: sumClean,
+      endOfRunDpBar: sumEnd,
+      lineLossBar: ctx.lineLossBar,
+      staticHeadBar: ctx.staticHeadBar,
+      fillerInletBar: ctx.fillerInletBar,
+      pumpPressureCleanBar: sumClean + base,
+      pumpPressureEndOfRunBar: sumEnd + base,
+      runHours,
+      holdUpL: holdUpTotal,
+      costTotal: cost.costTotal,
+      costPerHl: cost.costTotal === null ? null : cost.costTotal / hl,
+      costIsLowerBound: cost.costTotal !== null && (cost.lowerBound || cost.unpricedStages.length > 0),
+      currency: cost.mixed ? null : cost.currency,
+      unpricedStages: cost.unpricedStages,
+      limitingStageIndex: limitingIndex,
+      limitingCapacityL: limitingIndex === null ? null : limitingCap,
+    },
+    warnings,
+  };
+}
+
+/** The train-level warning for a wine outside the range the viscosity model is checked in, or null. */
+function temperatureRangeWarning(tempC: number): SizingWarning | null {
+  if (!(tempC < SIZING_VALID_TEMP_C.minC || tempC > SIZING_VALID_TEMP_C.maxC)) return null;
+  return {
+    code: 'temp-outside-valid-range',
+    message: `Wine at ${fmt(tempC, 1)} °C is outside ${String(SIZING_VALID_TEMP_C.minC)}–${String(SIZING_VALID_TEMP_C.maxC)} °C, the range where the viscosity model is checked against measured wines; treat the pressure drops as rough.`,
+  };
+}
+
+/**
+ * One stage: its area and flux, clean ΔP (Darcy), capacity and interventions, cost and
+ * warnings. Inlet pressures are filled in afterwards by {@link applyInletPressures}.
+ */
+function sizeStage(input: TrainSizingInput, ctx: TrainContext, i: number, runHours: number, hl: number): StageSizing {
+  const stage = input.stages[i];
+  const label = stageLabel(stage, i);
+  const c = stage.cartridgeType;
+  const h = stage.housing;
+  const { flowLh, viscosityPaS } = ctx;
+  validateCartridge(c, label);
+  validateHousing(h, label);
+  const housingCount = stage.housingCount ?? 1;
+  requirePositiveInteger(`${label} housing count`, housingCount);
+
+  const cartridgeCount = housingCount * h.rounds;
+  const eq = elementEquivalents({ cartridges: cartridgeCount, lengthIn: h.lengthIn });
+  const areaM2 = eq * c.areaM2Per10in;
+  const fluxLhPer10in = flowLh / eq;
+  const resistancePerM = cartridgeResistance(c);
+  const dp = cleanDpBar({ flowLh, areaM2, resistancePerM, viscosityPaS });
+  const cap = stageCapacity(c, input.wine, dp, areaM2, flowLh, input.batchL);
+  const cost = stageCost(c, eq, cap.loads, cap.setsUsed, hl);
+
+  return {
+    index: i,
+    name: label,
+    kind: c.kind,
+    ratingUm: c.ratingUm,
+    elementEquivalents: eq,
+    cartridgeCount,
+    housingCount,
+    areaM2,
+    fluxLhPer10in,
+    fluxLmh: flowLh / areaM2,
+    designFluxLhPer10in: c.designFluxLhPer10in,
+    resistancePerM,
+    cleanDpBar: dp,
+    terminalDpBar: c.terminalDpBar,
+    cleanDpFractionOfTerminal: dp / c.terminalDpBar,
+    inletPressureCleanBar: 0,
+    inletPressureEndOfRunBar: 0,
+    capacityL: cap.capacityL,
+    capacityLPerM2: cap.infeasible ? 0 : cap.capacityLPerM2,
+    capacitySource: cap.capacitySource,
+    hoursToTerminal: cap.hoursToTerminal,
+    loadsNeeded: cap.loads,
+    interventions: cap.interventions,
+    regenerations: cap.regenerations,
+    changes: cap.changes,
+    interventionKind: cap.kind,
+    setsUsed: cap.setsUsed,
+    runHours,
+    holdUpL: housingCount * h.holdUpL,
+    costPerSet: cost.costPerSet,
+    costTotal: cost.costTotal,
+    costPerHl: cost.costPerHl,
+    costIsLowerBound: c.pricePer10in !== undefined && cap.capacityL === null,
+    costBasis: cost.costBasis,
+    infeasible: cap.infeasible,
+    currency: c.pricePer10in !== undefined ? (c.currency ?? null) : null,
+    warnings: stageWarnings(input, i, label, fluxLhPer10in, dp, cap.infeasible),
+  };
+}
+
+interface StageCapacity {
+  /** Clean ΔP already at terminal ΔP: the stage holds no wine. */
+  infeasible: boolean;
+  capacityLPerM2: number | null;
+  capacitySource: StageSizing['capacitySource'];
+  capacityL: number | null;
+  hoursToTerminal: number | null;
+  loads: number | null;
+  interventions: number | null;
+  regenerations: number | null;
+  changes: number | null;
+  kind: InterventionKind | null;
+  setsUsed: number;
+}
+
+/**
+ * Litres one set holds to terminal ΔP (the stage's capacity per m², or for a membrane the
+ * lot's Vmax disc test), the loads the lot needs and how they are served: a regenerable set
+ * serves 1 + maxRegenerationsPerLot loads, any other set one.
+ */
+function stageCapacity(c: SizingCartridgeType, wine: SizingWine, dp: number, areaM2: number, flowLh: number, batchL: number): StageCapacity {
+  const infeasible = dp >= c.terminalDpBar;
+  let capPerM2: number | null = c.capacityLPerM2 ?? null;
+  let capacitySource: StageSizing['capacitySource'] = capPerM2 === null ? null : 'stage';
+  if (capPerM2 === null && c.kind === 'membrane' && wine.vmaxLPerM2 !== undefined && !infeasible) {
+    capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
+    capacitySource = 'vmax';
+  }
+  const unknown = { loads: null, interventions: null, regenerations: null, changes: null, kind: null, setsUsed: 1 };
+  if (infeasible) return { infeasible, capacityLPerM2: capPerM2, capacitySource, capacityL: 0, hoursToTerminal: 0, ...unknown };
+  if (capPerM2 === null) return { infeasible, capacityLPerM2: null, capacitySource, capacityL: null, hoursToTerminal: null, ...unknown };
+
+  const capacityL = capPerM2 * areaM2;
+  // Guard against 10000/10000.000000001 style rounding pushing ceil up by one.
+  const loads = Math.max(1, Math.ceil(batchL / capacityL - 1e-9));
+  const interventions = loads - 1;
+  const perSet = c.regenerable === true ? 1 + (c.maxRegenerationsPerLot ?? Infinity) : 1;
+  const setsUsed = perSet === Infinity ? 1 : Math.ceil(loads / perSet);
+  const changes = setsUsed - 1;
+  const regenerations = loads - setsUsed;
+  const kind: InterventionKind =
+    interventions === 0 ? 'none' : changes === 0 ? 'regeneration' : regenerations === 0 ? 'change' : 'regeneration-and-change';
+  return { infeasible, capacityLPerM2: capPerM2, capacitySource, capacityL, hoursToTerminal: capacityL / flowLh, loads, interventions, regenerations, changes, kind, setsUsed };
+}
+
+/**
+ * What the stage's cartridges cost the lot: single-use sets whole; a regenerable set's price
+ * spread over the loads of its service life when known, else the whole set. Nulls without a price.
+ */
+function stageCost(
+  c: SizingCartridgeType,
+  eq: number,
+  loads: number | null,
+  setsUsed: number,
+  hl: number,
+): Pick<StageSizing, 'costPerSet' | 'costTotal' | 'costPerHl' | 'costBasis'> {
+  if (c.pricePer10in === undefined) return { costPerSet: null, costTotal: null, costPerHl: null, costBasis: null };
+  const costPerSet = eq * c.pricePer10in;
+  let costBasis: StageSizing['costBasis'];
+  let costTotal: number;
+  if (c.regenerable === true && c.serviceLifeLoads !== undefined) {
+    // A regenerable set serves serviceLifeLoads loads in its life; this lot uses `loads` of them.
+    costBasis = 'service-life';
+    costTotal = (costPerSet * (loads ?? 1)) / c.serviceLifeLoads;
+  } else {
+    costBasis = c.regenerable === true ? 'whole-set' : 'single-use';
+    costTotal = costPerSet * setsUsed;
+  }
+  return { costPerSet, costTotal, costPerHl: costTotal / hl, costBasis };
+}
+
+/**
+ * The stage's own warnings, in a fixed order: flux above design, clean ΔP above a third of
+ * terminal, infeasible, housing used twice, membrane first in the train, wine and sanitation
+ * temperatures against the ratings. Pressure warnings come later, from the inlet pressures.
+ */
+function stageWarnings(input: TrainSizingInput, i: number, label: string, fluxLhPer10in: number, dp: number, infeasible: boolean): SizingWarning[] {
+  const { stages } = input;
+  const stage = stages[i];
+  const c = stage.cartridgeType;
+  const h = stage.housing;
+  const tempC = input.wine.tempC;
+  const sw: SizingWarning[] = [];
+  if (fluxLhPer10in > c.designFluxLhPer10in) {
+    sw.push({
+      code: 'flux-above-design',
+      stageIndex: i,
+      message: `${label}: ${fmt(fluxLhPer10in, 0)} L/h per 10-inch module is above the design ${fmt(c.designFluxLhPer10in, 0)} L/h; add element equivalents.`,
+    });
+  }
+  if (dp > c.terminalDpBar * CLEAN_DP_MAX_FRACTION_OF_TERMINAL) {
+    sw.push({
+      code: 'clean-dp-above-third-of-terminal',
+      stageIndex: i,
+      message: `${label}: clean ΔP ${fmt(dp, 3)} bar is above a third of the terminal ${fmt(c.terminalDpBar, 2)} bar, leaving little room to foul (common practice).`,
+    });
+  }
+  if (infeasible) {
+    sw.push({
+      code: 'stage-infeasible',
+      stageIndex: i,
+      message: `${label}: clean ΔP ${fmt(dp, 2)} bar already reaches the terminal ${fmt(c.terminalDpBar, 2)} bar with this wine at ${fmt(tempC, 1)} °C, so the stage cannot filter it; warm the wine, add housings or choose a more open cartridge.`,
+    });
+  }
+  if (stage.housingId !== undefined) {
+    for (let j = 0; j < i; j++) {
+      if (stages[j].housingId === stage.housingId) {
+        sw.push({
+          code: 'housing-in-two-stages',
+          stageIndex: i,
+          message: `${label}: uses the same housing as ${stageLabel(stages[j], j)}; one housing can hold only one stage.`,
+        });
+        break;
+      }
+    }
+  }
+  // Any stage before a membrane protects it (a 0.65 µm membrane before a 0.45 µm one counts).
+  if (c.kind === 'membrane' && i === 0) {
+    sw.push({
+      code: 'membrane-without-prefilter',
+      stageIndex: i,
+      message: `${label}: membrane stage with no prefilter before it; it will blind early.`,
+    });
+  }
+  if (c.maxTempC !== undefined && tempC > c.maxTempC) {
+    sw.push({
+      code: 'temp-above-cartridge-max',
+      stageIndex: i,
+      message: `${label}: wine at ${fmt(tempC, 1)} °C is above the cartridge's ${fmt(c.maxTempC, 1)} °C maximum.`,
+    });
+  }
+  if (input.sanitation !== undefined) {
+    const sanC = input.sanitation.tempC ?? SANITATION_TEMP_C[input.sanitation.kind];
+    const what = input.sanitation.kind === 'steam' ? 'Steam' : 'Hot water';
+    if (c.maxTempC !== undefined && sanC > c.maxTempC) {
+      sw.push({
+        code: 'sanitation-above-cartridge-max',
+        stageIndex: i,
+        message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the cartridges' ${fmt(c.maxTempC, 0)} °C rating; sanitise another way or choose cartridges rated for it.`,
+      });
+    }
+    if (h.maxTempC !== undefined && sanC > h.maxTempC) {
+      sw.push({
+        code: 'sanitation-above-housing-max',
+        stageIndex: i,
+        message: `${label}: ${what.toLowerCase()} sanitation at ${fmt(sanC, 0)} °C is above the housing's ${fmt(h.maxTempC, 0)} °C rating.`,
+      });
+    }
+  }
+  if (h.maxTempC !== undefined && tempC > h.maxTempC) {
+    sw.push({
+      code: 'temp-above-housing-max',
+      stageIndex: i,
+      message: `${label}: wine at ${fmt(tempC, 1)} °C is above the housing's ${fmt(h.maxTempC, 1)} °C maximum.`,
+    });
+  }
+  return sw;
+}
+
+/**
+ * Inlet pressures, from the filler back to the tank: each stage's inlet carries `base` (line
+ * losses, static head, filler inlet) plus its own ΔP and every later stage's, clean and at the
+ * end of the run; warns where that breaks the housing's rating or the cartridge's forward ΔP.
+ */
+function applyInletPressures(stages: SizingStage[], out: StageSizing[], base: number): void {
   let downClean = base;
   let downEnd = base;
-  for (let i = n - 1; i >= 0; i--) {
+  for (let i = out.length - 1; i >= 0; i--) {
     const s = out[i];
     const c = stages[i].cartridgeType;
     const h = stages[i].housing;
@@ -839,15 +938,17 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       });
     }
   }
+}
 
-  // Costs.
+/** The train's cost: the priced stages summed when they share one currency, with what is missing. */
+function trainCost(out: StageSizing[]): { costTotal: number | null; currency: string | null; mixed: boolean; lowerBound: boolean; unpricedStages: number[] } {
   let currency: string | null = null;
   let mixed = false;
   let costSum = 0;
   let priced = 0;
   let lowerBound = false;
   const unpricedStages: number[] = [];
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < out.length; i++) {
     const s = out[i];
     if (s.costTotal === null) {
       unpricedStages.push(i);
@@ -861,45 +962,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       else if (currency !== s.currency) mixed = true;
     }
   }
-  if (mixed) {
-    warnings.push({
-      code: 'mixed-currencies',
-      message: 'Cartridge prices are in more than one currency, so the train cost is not totalled.',
-    });
-  }
-  const costTotal = priced === 0 || mixed ? null : costSum;
-
-  for (let i = 0; i < n; i++) {
-    const sw = out[i].warnings;
-    for (let k = 0; k < sw.length; k++) warnings.push(sw[k]);
-  }
-
-  return {
-    flowLh,
-    batchL,
-    wineViscosityPaS: viscosityPaS,
-    wineDensityKgM3: ctx.densityKgM3,
-    stages: out,
-    totals: {
-      cleanDpBar: sumClean,
-      endOfRunDpBar: sumEnd,
-      lineLossBar: ctx.lineLossBar,
-      staticHeadBar: ctx.staticHeadBar,
-      fillerInletBar: ctx.fillerInletBar,
-      pumpPressureCleanBar: sumClean + base,
-      pumpPressureEndOfRunBar: sumEnd + base,
-      runHours,
-      holdUpL: holdUpTotal,
-      costTotal,
-      costPerHl: costTotal === null ? null : costTotal / hl,
-      costIsLowerBound: costTotal !== null && (lowerBound || unpricedStages.length > 0),
-      currency: mixed ? null : currency,
-      unpricedStages,
-      limitingStageIndex: limitingIndex,
-      limitingCapacityL: limitingIndex === null ? null : limitingCap,
-    },
-    warnings,
-  };
+  return { costTotal: priced === 0 || mixed ? null : costSum, currency, mixed, lowerBound, unpricedStages };
 }
 
 // ---------------------------------------------------------------------------------------

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ALERT_CHANNELS, ALERT_KINDS, isTimeZone } from '../engine/alerts';
+import { ALERT_CHANNELS, ALERT_KINDS, isTimeZone } from '../engine';
 
 /** `GET /api/notifications?unread=true&page=` */
 export const notificationsQuerySchema = z.object({

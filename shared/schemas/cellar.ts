@@ -2,7 +2,7 @@
 // (L, °C, bar, mm); the client converts from the person's units before validating with these.
 import { z } from 'zod';
 import { yearInRange, yearRangeMessage } from './common';
-import { WINE_STYLES, type WineStyle } from '../engine/readiness';
+import { WINE_STYLES, type WineStyle } from '../engine';
 import { listQuerySchema } from './list';
 
 export const TANK_NAME_MAX = 80;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { WINE_STYLES, type WineStyle } from '../engine/readiness';
+import { WINE_STYLES, type WineStyle } from '../engine';
 import { isoDateSchema, serialSchema, batchSchema } from './cartridges';
 import { uuidSchema } from './common';
 import { PAGE_SIZE_DEFAULT, PAGE_SIZE_MAX, SEARCH_MAX } from './list';

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { readinessThresholdsSchema } from '../engine/readiness';
+import { readinessThresholdsSchema } from '../engine';
 import { orderLeadTimeDaysSchema, timeZoneSchema } from './alerts';
 
 /** Gauge resolution limits, bar: a ΔP rise smaller than this is not counted as fouling. */

@@ -1,5 +1,5 @@
 // Alerts, notifications, preferences and undelivered mail (the API's answers).
-import type { AlertChannel, AlertKind, AlertRecordType, AlertSeverity } from '../engine/alerts';
+import type { AlertChannel, AlertKind, AlertRecordType, AlertSeverity } from '../engine';
 
 /** One alert as it reached the signed-in person. */
 export type NotificationDto = {

@@ -53,10 +53,10 @@ export type WinerySettingsDto = {
   wineryId: string;
   name: string;
   /** The thresholds in use (the winery's own, or the defaults). */
-  readinessThresholds: import('../engine/readiness').ReadinessThresholds;
+  readinessThresholds: import('../engine').ReadinessThresholds;
   /** True when the winery uses the defaults. */
   readinessThresholdsAreDefault: boolean;
-  defaultReadinessThresholds: import('../engine/readiness').ReadinessThresholds;
+  defaultReadinessThresholds: import('../engine').ReadinessThresholds;
   /** IANA time zone of the winery: the digest goes at 07:00 there, calendars use it. */
   timeZone: string;
   /** Days an order of cartridges takes to arrive (the stock alert's lead time). */

@@ -1,4 +1,4 @@
-import type { CartridgeLife } from '../engine/cartridge-life';
+import type { CartridgeLife } from '../engine';
 import type { CycleKind, IntegrityTestKind } from '../schemas/care';
 
 /** One logged care cycle or integrity test, with the cartridge it belongs to. */

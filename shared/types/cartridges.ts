@@ -1,4 +1,4 @@
-import type { CartridgeLife } from '../engine/cartridge-life';
+import type { CartridgeLife } from '../engine';
 import type { CartridgeEventKind, CartridgeLengthIn, CartridgeStatus } from '../schemas/cartridges';
 
 /** One physical cartridge, as listed in the inventory. */

@@ -1,6 +1,5 @@
 // Response DTOs of the cellar (metric/SI values; the client converts for display).
-import type { CloggingIndexBand } from '../engine/filterability';
-import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
+import type { CloggingIndexBand, ReadinessVerdict, WineStyle } from '../engine';
 
 export type TankDto = {
   id: string;

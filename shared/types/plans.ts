@@ -1,7 +1,7 @@
 // Response DTOs of bottling-day plans (metric/SI values; the client converts for display).
-import type { DayBlockKind, DayStepsMin, TrainSizingResult } from '../engine';
-import type { WineStyle } from '../engine/readiness';
-import type { PlanSanitationKind, PlanStatus, SizingCatalogueHousing, SizingCatalogueType, TrainHoseInput } from '../schemas/plans';
+import type { DayBlockKind, DayStepsMin, TrainSizingResult, WineStyle } from '../engine';
+import type { SizingCatalogueHousing, SizingCatalogueType } from '../adapters/plans';
+import type { PlanSanitationKind, PlanStatus, TrainHoseInput } from '../schemas/plans';
 
 export type PlanLineDto = { id: string; name: string; bottlesPerHour: number; bottleMl: number };
 

@@ -1,8 +1,7 @@
 // Response DTOs of the bottling filtration record (issue 9, section 4). Metric/SI values; the
 // client converts for display. Everything inside `RecordContent` is hashed for the fingerprint;
 // `fingerprint` and `generatedAt` sit outside it.
-import type { BlockingLaw } from '../engine/blocking';
-import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
+import type { BlockingLaw, ReadinessVerdict, WineStyle } from '../engine';
 import type { CycleKind, IntegrityTestKind } from '../schemas/care';
 
 /** A lab result as it stood when the run started (the latest sampled at or before the start). */

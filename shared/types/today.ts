@@ -1,6 +1,5 @@
 // The "Today" landing page: what needs a look this morning (metric/SI values; the client converts).
-import type { BudgetFactor, LimitingFactor } from '../engine/cartridge-life';
-import type { ReadinessVerdict, WineStyle } from '../engine/readiness';
+import type { BudgetFactor, LimitingFactor, ReadinessVerdict, WineStyle } from '../engine';
 import type { CartridgeStatus } from '../schemas/cartridges';
 import type { PlanStatus } from '../schemas/plans';
 import type { StockFigure } from './cartridges';

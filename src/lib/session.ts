@@ -4,9 +4,10 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { can, type Action } from '@shared/permissions';
 import type { MeDto } from '@shared/types/api';
 import { api, ApiError } from './api-client';
+import { queryRoots } from './query-keys';
 
 export const sessionKeys = {
-  all: ['session'] as const,
+  all: queryRoots.session,
   me: () => [...sessionKeys.all, 'me'] as const,
   appInfo: () => [...sessionKeys.all, 'app-info'] as const,
 };

@@ -1,6 +1,6 @@
 // The signed-in person's unit system, with helpers to show stored (metric) values and to read
 // typed values back. Quantities are stored in SI/trade-metric and converted only for display.
-import { DISPLAY_UNITS, formatQuantity, toMetric, toUserUnits, type QuantityKind, type UnitSystem } from '@shared/engine/units';
+import { DISPLAY_UNITS, formatQuantity, toMetric, toUserUnits, type QuantityKind, type UnitSystem } from '@shared/engine';
 import { useMe } from './session';
 
 export type { QuantityKind, UnitSystem };

@@ -3,7 +3,7 @@
 // edited in place, the line loss and the pump pressure are recomputed live by the engine, and
 // saving the train keeps them.
 import { describe, expect, it } from 'vitest';
-import { formatQuantity } from '../../shared/engine/units';
+import { formatQuantity } from '../../shared/engine';
 import type { PlanDto } from '../../shared/types/plans';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';

@@ -1,6 +1,6 @@
 // @vitest-environment node
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { defaultReadinessThresholds } from '../../shared/engine/readiness';
+import { defaultReadinessThresholds } from '../../shared/engine';
 import { addMember, signUp, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;

@@ -15,7 +15,7 @@ import {
   type AlertChannel,
   type AlertFinding,
   type AlertKind,
-} from '../../../shared/engine/alerts';
+} from '../../../shared/engine';
 import type { AlertPreferencesInput, NotificationsQuery } from '../../../shared/schemas/alerts';
 import type { AlertPreferencesDto, MailFailureDto, NotificationDto, NotificationsDto } from '../../../shared/types/alerts';
 import type { Database, DbOrTx } from '../../db/client';

@@ -1,6 +1,6 @@
 import { and, count, desc, eq, ilike, inArray, isNull, or, sql } from 'drizzle-orm';
 import type { LotSortKey, LotsListQuery } from '../../../shared/schemas/cellar';
-import type { WineStyle } from '../../../shared/engine/readiness';
+import type { WineStyle } from '../../../shared/engine';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, planLotsTable, plansTable, tanksTable } from '../../db/schema';
 

@@ -1,10 +1,5 @@
-import {
-  cartridgeTypeFigures,
-  cartridgeTypeWarnings,
-  housingElementEquivalents,
-  lineFigures,
-  type HousingLengthIn,
-} from '../../../shared/schemas/equipment';
+import { cartridgeTypeFigures, housingElementEquivalents, lineFigures } from '../../../shared/adapters/equipment';
+import { cartridgeTypeWarnings, type HousingLengthIn } from '../../../shared/schemas/equipment';
 import type { CartridgeTypeDto, HousingDto, LineDto } from '../../../shared/types/equipment';
 import type { CartridgeTypeRow, HousingRow, LineRow, TypeCounts } from './equipment.repository';
 

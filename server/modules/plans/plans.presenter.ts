@@ -1,5 +1,6 @@
 import type { DayTimeline } from '../../../shared/engine';
-import { planClock, type SizingCatalogueHousing, type SizingCatalogueType, type TrainSizingOutcome } from '../../../shared/schemas/plans';
+import type { SizingCatalogueHousing, SizingCatalogueType, TrainSizingOutcome } from '../../../shared/adapters/plans';
+import { planClock } from '../../../shared/schemas/plans';
 import type {
   PlanDto,
   PlanListItemDto,

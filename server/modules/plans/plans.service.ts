@@ -1,8 +1,7 @@
 import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, type DayNeedsLot } from '../../../shared/engine';
+import { blockingReasons, sizePlanTrain } from '../../../shared/adapters/plans';
 import {
-  blockingReasons,
   planStartMs,
-  sizePlanTrain,
   type AddPlanLotInput,
   type ApprovePlanInput,
   type PlanListQuery,

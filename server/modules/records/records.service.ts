@@ -1,6 +1,5 @@
-import { fitConstantFlow, formatNumber, volumeAtDp, type ConstantFlowFit } from '../../../shared/engine';
-import { sizePlanTrain } from '../../../shared/schemas/plans';
-import type { TrainSizingResult } from '../../../shared/engine';
+import { fitConstantFlow, formatNumber, volumeAtDp, type ConstantFlowFit, type TrainSizingResult } from '../../../shared/engine';
+import { sizePlanTrain } from '../../../shared/adapters/plans';
 import type { RecordLotsQuery, VerifyRecordInput } from '../../../shared/schemas/records';
 import type {
   FilterRecordDto,

@@ -1,5 +1,4 @@
-import type { CartridgeLifeVerdict } from '../../../shared/engine';
-import type { ReadinessVerdict } from '../../../shared/engine/readiness';
+import type { CartridgeLifeVerdict, ReadinessVerdict } from '../../../shared/engine';
 import type { LotsListQuery } from '../../../shared/schemas/cellar';
 import type { LotListItemDto } from '../../../shared/types/cellar';
 import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shared/types/today';

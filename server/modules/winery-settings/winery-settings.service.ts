@@ -1,5 +1,4 @@
-import { GAUGE_RESOLUTION_BAR_DEFAULT } from '../../../shared/engine';
-import { defaultReadinessThresholds, readinessThresholdsSchema, type ReadinessThresholds } from '../../../shared/engine/readiness';
+import { defaultReadinessThresholds, GAUGE_RESOLUTION_BAR_DEFAULT, readinessThresholdsSchema, type ReadinessThresholds } from '../../../shared/engine';
 import type { UpdateWinerySettingsInput } from '../../../shared/schemas/winery-settings';
 import type { WinerySettingsDto } from '../../../shared/types/api';
 import type { DbOrTx } from '../../db/client';

@@ -4,9 +4,10 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { AttachmentOwner } from '@shared/schemas/attachments';
 import type { AttachmentDto } from '@shared/types/api';
 import { api, ApiError } from '@/lib/api-client';
+import { queryRoots } from '@/lib/query-keys';
 
 export const attachmentKeys = {
-  all: ['attachments'] as const,
+  all: queryRoots.attachments,
   list: (owner: AttachmentOwner) => [...attachmentKeys.all, 'list', owner.ownerKind, owner.ownerId] as const,
 };
 

@@ -1,4 +1,4 @@
-import type { ReadinessVerdict } from '@shared/engine/readiness';
+import type { ReadinessVerdict } from '@shared/engine';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 
 export const readinessWords: Record<ReadinessVerdict, { tone: StatusTone; word: string }> = {

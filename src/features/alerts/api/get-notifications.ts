@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { NotificationsDto } from '@shared/types/alerts';
 import { api } from '@/lib/api-client';
-import { alertsKeys } from './keys';
+import { alertKeys } from './keys';
 
 /** How often the bell asks for new alerts, ms (and whenever the window regains focus). */
 export const UNREAD_POLL_MS = 15_000;
@@ -10,7 +10,7 @@ export const getNotifications = ({ unread, page }: { unread: boolean; page: numb
   api.get<NotificationsDto>(`/notifications?${new URLSearchParams({ ...(unread ? { unread: 'true' } : {}), page: String(page) })}`);
 
 export const getNotificationsQueryOptions = (filter: { unread: boolean; page: number }) =>
-  queryOptions({ queryKey: alertsKeys.notifications(filter), queryFn: () => getNotifications(filter), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: alertKeys.notifications(filter), queryFn: () => getNotifications(filter), placeholderData: keepPreviousData });
 
 export function useNotifications(filter: { unread: boolean; page: number }) {
   return useQuery({ ...getNotificationsQueryOptions(filter), refetchInterval: UNREAD_POLL_MS });
@@ -18,5 +18,5 @@ export function useNotifications(filter: { unread: boolean; page: number }) {
 
 /** The unread count for the bell: the first page of unread alerts, polled. */
 export function useUnreadNotifications() {
-  return useQuery({ queryKey: alertsKeys.unread(), queryFn: () => getNotifications({ unread: true, page: 1 }), refetchInterval: UNREAD_POLL_MS, refetchOnWindowFocus: true });
+  return useQuery({ queryKey: alertKeys.unread(), queryFn: () => getNotifications({ unread: true, page: 1 }), refetchInterval: UNREAD_POLL_MS, refetchOnWindowFocus: true });
 }

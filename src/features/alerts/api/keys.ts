@@ -1,8 +1,10 @@
-export const alertsKeys = {
-  all: ['alerts'] as const,
-  notifications: (filter: { unread: boolean; page: number }) => [...alertsKeys.all, 'notifications', filter] as const,
-  notificationLists: () => [...alertsKeys.all, 'notifications'] as const,
-  unread: () => [...alertsKeys.all, 'unread'] as const,
-  preferences: () => [...alertsKeys.all, 'preferences'] as const,
-  mailFailures: () => [...alertsKeys.all, 'mail-failures'] as const,
+import { queryRoots } from '@/lib/query-keys';
+
+export const alertKeys = {
+  all: queryRoots.alerts,
+  notifications: (filter: { unread: boolean; page: number }) => [...alertKeys.all, 'notifications', filter] as const,
+  notificationLists: () => [...alertKeys.all, 'notifications'] as const,
+  unread: () => [...alertKeys.all, 'unread'] as const,
+  preferences: () => [...alertKeys.all, 'preferences'] as const,
+  mailFailures: () => [...alertKeys.all, 'mail-failures'] as const,
 };

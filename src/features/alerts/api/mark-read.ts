@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { alertsKeys } from './keys';
+import { alertKeys } from './keys';
 
 export const markNotificationRead = (id: string) => api.post<void>(`/notifications/${id}/read`);
 
 export function useMarkNotificationRead() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: markNotificationRead, onSettled: () => qc.invalidateQueries({ queryKey: alertsKeys.all }) });
+  return useMutation({ mutationFn: markNotificationRead, onSettled: () => qc.invalidateQueries({ queryKey: alertKeys.all }) });
 }

@@ -2,11 +2,11 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AlertPreferencesInput } from '@shared/schemas/alerts';
 import type { AlertPreferencesDto } from '@shared/types/alerts';
 import { api } from '@/lib/api-client';
-import { alertsKeys } from './keys';
+import { alertKeys } from './keys';
 
 export const updateAlertPreferences = (input: AlertPreferencesInput) => api.put<AlertPreferencesDto>('/me/alert-preferences', input);
 
 export function useUpdateAlertPreferences() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: updateAlertPreferences, onSuccess: (data) => qc.setQueryData(alertsKeys.preferences(), data) });
+  return useMutation({ mutationFn: updateAlertPreferences, onSuccess: (data) => qc.setQueryData(alertKeys.preferences(), data) });
 }

@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { ALERT_CHANNELS, type AlertChannel, type AlertKind } from '@shared/engine/alerts';
+import { ALERT_CHANNELS, type AlertChannel, type AlertKind } from '@shared/engine';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Select } from '@/components/ui/select';

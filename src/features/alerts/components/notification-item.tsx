@@ -2,7 +2,7 @@ import { format } from 'date-fns';
 import { ArrowRight } from 'lucide-react';
 import { useNavigate } from 'react-router-dom';
 import type { NotificationDto } from '@shared/types/alerts';
-import { alertKindLabels } from '@shared/engine/alerts';
+import { alertKindLabels } from '@shared/engine';
 import { Button } from '@/components/ui/button';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { cn } from '@/utils/cn';

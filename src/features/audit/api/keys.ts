@@ -1,9 +1,10 @@
 import type { AuditListQuery } from '@shared/schemas/audit';
+import { queryRoots } from '@/lib/query-keys';
 
 export type AuditFilters = Partial<AuditListQuery>;
 
 export const auditKeys = {
-  all: ['audit'] as const,
+  all: queryRoots.audit,
   list: (filters: AuditFilters) => [...auditKeys.all, 'list', filters] as const,
   people: () => [...auditKeys.all, 'people'] as const,
 };

@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const invitationKeys = {
-  all: ['invitation'] as const,
+  all: queryRoots.invitation,
   preview: (token: string) => [...invitationKeys.all, 'preview', token] as const,
 };

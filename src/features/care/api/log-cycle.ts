@@ -3,7 +3,8 @@ import type { LogCycleInput } from '@shared/schemas/care';
 import type { CycleResultDto } from '@shared/types/care';
 import { answerOf } from '@/lib/offline/kept';
 import { submit } from '@/lib/offline/outbox-runtime';
-import { careKeys, cartridgesCacheKey, todayCacheKey } from './keys';
+import { queryRoots } from '@/lib/query-keys';
+import { careKeys } from './keys';
 
 /**
  * Kept on the device first and sent with its own Idempotency-Key (so a resend is stored once);
@@ -16,7 +17,7 @@ export const logCycle = async ({ cartridgeId, input, serial }: { cartridgeId: st
       path: `/cartridges/${encodeURIComponent(cartridgeId)}/cycles`,
       body: input as Record<string, unknown>,
       label: `Care cycle${serial ? ` · ${serial}` : ''}`,
-      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...cartridgesCacheKey], [...todayCacheKey]],
+      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...queryRoots.cartridges], [...queryRoots.today]],
     }),
     'the care cycle',
   );
@@ -28,8 +29,8 @@ export function useLogCycle() {
     onSuccess: (_result, { cartridgeId }) => {
       void qc.invalidateQueries({ queryKey: careKeys.recent() });
       void qc.invalidateQueries({ queryKey: careKeys.target(cartridgeId) });
-      void qc.invalidateQueries({ queryKey: cartridgesCacheKey });
-      void qc.invalidateQueries({ queryKey: todayCacheKey });
+      void qc.invalidateQueries({ queryKey: queryRoots.cartridges });
+      void qc.invalidateQueries({ queryKey: queryRoots.today });
     },
   });
 }

@@ -3,7 +3,8 @@ import type { RecordIntegrityInput } from '@shared/schemas/care';
 import type { IntegrityResultDto } from '@shared/types/care';
 import { answerOf } from '@/lib/offline/kept';
 import { submit } from '@/lib/offline/outbox-runtime';
-import { careKeys, cartridgesCacheKey, todayCacheKey } from './keys';
+import { queryRoots } from '@/lib/query-keys';
+import { careKeys } from './keys';
 
 /**
  * Kept on the device first and sent with its own Idempotency-Key (so a resend is stored once);
@@ -16,7 +17,7 @@ export const recordIntegrityTest = async ({ cartridgeId, input, serial }: { cart
       path: `/cartridges/${encodeURIComponent(cartridgeId)}/integrity-tests`,
       body: input as Record<string, unknown>,
       label: `Integrity test${serial ? ` · ${serial}` : ''}`,
-      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...cartridgesCacheKey], [...todayCacheKey]],
+      invalidate: [[...careKeys.recent()], [...careKeys.target(cartridgeId)], [...queryRoots.cartridges], [...queryRoots.today]],
     }),
     'the integrity test',
   );
@@ -28,8 +29,8 @@ export function useRecordIntegrityTest() {
     onSuccess: (_result, { cartridgeId }) => {
       void qc.invalidateQueries({ queryKey: careKeys.recent() });
       void qc.invalidateQueries({ queryKey: careKeys.target(cartridgeId) });
-      void qc.invalidateQueries({ queryKey: cartridgesCacheKey });
-      void qc.invalidateQueries({ queryKey: todayCacheKey });
+      void qc.invalidateQueries({ queryKey: queryRoots.cartridges });
+      void qc.invalidateQueries({ queryKey: queryRoots.today });
     },
   });
 }

@@ -1,4 +1,5 @@
 import type { CartridgeSortKey, CartridgeStatus } from '@shared/schemas/cartridges';
+import { queryRoots } from '@/lib/query-keys';
 
 /** Filters of the inventory list, as sent to GET /api/cartridges. */
 export type CartridgeFilters = {
@@ -17,7 +18,7 @@ export type CartridgeFilters = {
 };
 
 export const cartridgeKeys = {
-  all: ['cartridges'] as const,
+  all: queryRoots.cartridges,
   lists: () => [...cartridgeKeys.all, 'list'] as const,
   list: (filters: CartridgeFilters) => [...cartridgeKeys.lists(), filters] as const,
   summary: () => [...cartridgeKeys.all, 'summary'] as const,

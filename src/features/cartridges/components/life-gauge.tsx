@@ -1,6 +1,6 @@
 import { format } from 'date-fns';
 import { CircleCheck, CircleHelp } from 'lucide-react';
-import type { BudgetUse, CartridgeLife } from '@shared/engine/cartridge-life';
+import type { BudgetUse, CartridgeLife } from '@shared/engine';
 import { Card } from '@/components/ui/card';
 import { formatNumber, Quantity } from '@/components/ui/quantity';
 import { StatusBadge } from '@/components/ui/status-badge';

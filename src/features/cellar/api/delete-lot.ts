@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { cellarKeys } from './keys';
+import { cellarKeys, lotKeys } from './keys';
 
 export const deleteLot = (id: string) => api.delete<void>(`/lots/${id}`);
 
@@ -9,7 +9,7 @@ export function useDeleteLot() {
   return useMutation({
     mutationFn: deleteLot,
     onSuccess: (_data, id) => {
-      qc.removeQueries({ queryKey: cellarKeys.lotDetail(id) });
+      qc.removeQueries({ queryKey: lotKeys.detail(id) });
       return qc.invalidateQueries({ queryKey: cellarKeys.all });
     },
   });

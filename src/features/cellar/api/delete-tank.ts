@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { cellarKeys } from './keys';
+import { tankKeys } from './keys';
 
 export const deleteTank = (id: string) => api.delete<void>(`/tanks/${id}`);
 
 export function useDeleteTank() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: deleteTank, onSuccess: () => qc.invalidateQueries({ queryKey: cellarKeys.tanks() }) });
+  return useMutation({ mutationFn: deleteTank, onSuccess: () => qc.invalidateQueries({ queryKey: tankKeys.all }) });
 }

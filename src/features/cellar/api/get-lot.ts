@@ -1,11 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { LotDto } from '@shared/types/cellar';
 import { api } from '@/lib/api-client';
-import { cellarKeys } from './keys';
+import { lotKeys } from './keys';
 
 export const getLot = (id: string) => api.get<LotDto>(`/lots/${id}`);
 
-export const getLotQueryOptions = (id: string) => queryOptions({ queryKey: cellarKeys.lotDetail(id), queryFn: () => getLot(id) });
+export const getLotQueryOptions = (id: string) => queryOptions({ queryKey: lotKeys.detail(id), queryFn: () => getLot(id) });
 
 export function useLot(id: string) {
   return useQuery(getLotQueryOptions(id));

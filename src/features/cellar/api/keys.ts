@@ -1,16 +1,24 @@
 import type { LotsListQuery, TanksListQuery } from '@shared/schemas/cellar';
+import { queryRoots } from '@/lib/query-keys';
 
 export type LotsFilters = Partial<LotsListQuery>;
 export type TanksFilters = Partial<TanksListQuery>;
 
+/** Tanks and lots together: a lot's tank shows in both lists, so some writes refresh the whole cellar. */
 export const cellarKeys = {
-  all: ['cellar'] as const,
-  tanks: () => [...cellarKeys.all, 'tanks'] as const,
-  tankList: (filters: TanksFilters) => [...cellarKeys.tanks(), 'list', filters] as const,
-  lots: () => [...cellarKeys.all, 'lots'] as const,
-  lotList: (filters: LotsFilters) => [...cellarKeys.lots(), 'list', filters] as const,
-  lotDetail: (id: string) => [...cellarKeys.lots(), 'detail', id] as const,
-  labResults: (lotId: string) => [...cellarKeys.lotDetail(lotId), 'lab-results'] as const,
+  all: queryRoots.cellar,
+};
+
+export const tankKeys = {
+  all: [...cellarKeys.all, 'tanks'] as const,
+  list: (filters: TanksFilters) => [...tankKeys.all, 'list', filters] as const,
+};
+
+export const lotKeys = {
+  all: [...cellarKeys.all, 'lots'] as const,
+  list: (filters: LotsFilters) => [...lotKeys.all, 'list', filters] as const,
+  detail: (id: string) => [...lotKeys.all, 'detail', id] as const,
+  labResults: (lotId: string) => [...lotKeys.detail(lotId), 'lab-results'] as const,
 };
 
 /** `?a=1&b=2` from the set values of a filter object (empty values left out). */

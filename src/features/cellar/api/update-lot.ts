@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LotInput } from '@shared/schemas/cellar';
 import type { LotDto } from '@shared/types/cellar';
 import { api } from '@/lib/api-client';
-import { cellarKeys } from './keys';
+import { cellarKeys, lotKeys } from './keys';
 
 export const updateLot = ({ id, input }: { id: string; input: LotInput }) => api.put<LotDto>(`/lots/${id}`, input);
 
@@ -11,7 +11,7 @@ export function useUpdateLot() {
   return useMutation({
     mutationFn: updateLot,
     onSuccess: (lot) => {
-      qc.setQueryData(cellarKeys.lotDetail(lot.id), lot);
+      qc.setQueryData(lotKeys.detail(lot.id), lot);
       return qc.invalidateQueries({ queryKey: cellarKeys.all });
     },
   });

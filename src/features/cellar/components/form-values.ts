@@ -1,6 +1,6 @@
 // Form text → request values: numbers typed with a decimal point or comma, in the person's units.
 import { z } from 'zod';
-import type { QuantityKind } from '@shared/engine/units';
+import type { QuantityKind } from '@shared/engine';
 import { parseNumberText } from '@/lib/number-input';
 
 /**

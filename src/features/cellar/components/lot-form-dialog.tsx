@@ -3,7 +3,7 @@ import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { z } from 'zod';
-import { WINE_STYLES } from '@shared/engine/readiness';
+import { WINE_STYLES } from '@shared/engine';
 import { lotInputSchema, wineStyleLabels } from '@shared/schemas/cellar';
 import type { LotDto } from '@shared/types/cellar';
 import { Button } from '@/components/ui/button';

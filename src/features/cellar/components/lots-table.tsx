@@ -2,7 +2,7 @@ import type { ColumnDef, SortingState } from '@tanstack/react-table';
 import { Search } from 'lucide-react';
 import { useEffect, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { WINE_STYLES, type WineStyle } from '@shared/engine/readiness';
+import { WINE_STYLES, type WineStyle } from '@shared/engine';
 import { lotSortKeys, wineStyleLabels, type LotSortKey } from '@shared/schemas/cellar';
 import type { LotListItemDto } from '@shared/types/cellar';
 import { DataTable } from '@/components/ui/data-table';

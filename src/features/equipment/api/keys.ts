@@ -1,12 +1,13 @@
 import type { CartridgeTypeListQuery, CartridgeTypeSortKey, HousingSortKey, LineSortKey } from '@shared/schemas/equipment';
 import type { ListQuery } from '@shared/schemas/list';
+import { queryRoots } from '@/lib/query-keys';
 
 export type HousingListParams = ListQuery<HousingSortKey>;
 export type LineListParams = ListQuery<LineSortKey>;
 export type CartridgeTypeListParams = ListQuery<CartridgeTypeSortKey> & Pick<CartridgeTypeListQuery, 'kind'>;
 
 export const equipmentKeys = {
-  all: ['equipment'] as const,
+  all: queryRoots.equipment,
   housings: () => [...equipmentKeys.all, 'housings'] as const,
   housingList: (params: HousingListParams) => [...equipmentKeys.housings(), 'list', params] as const,
   lines: () => [...equipmentKeys.all, 'lines'] as const,

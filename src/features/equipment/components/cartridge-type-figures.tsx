@@ -1,4 +1,4 @@
-import type { CartridgeTypeFigures as Figures } from '@shared/schemas/equipment';
+import type { CartridgeTypeFigures as Figures } from '@shared/adapters/equipment';
 import { useUnits } from '@/lib/units';
 import { DerivedFigure, quantityParts, scientific } from './derived-figure';
 

@@ -1,9 +1,9 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
+import { cartridgeTypeFigures } from '@shared/adapters/equipment';
 import {
   cartridgeKinds,
   cartridgeMedia,
-  cartridgeTypeFigures,
   cartridgeTypeWarnings,
   createCartridgeTypeInputSchema,
   type CartridgeKind,

@@ -1,6 +1,7 @@
 import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { createHousingInputSchema, HOUSING_LENGTHS_IN, housingAreaM2, housingElementEquivalents } from '@shared/schemas/equipment';
+import { housingAreaM2, housingElementEquivalents } from '@shared/adapters/equipment';
+import { createHousingInputSchema, HOUSING_LENGTHS_IN } from '@shared/schemas/equipment';
 import type { HousingDto } from '@shared/types/equipment';
 import { Button } from '@/components/ui/button';
 import { CautionPanel } from '@/components/ui/caution';

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { createLineInputSchema, lineFigures } from '@shared/schemas/equipment';
+import { lineFigures } from '@shared/adapters/equipment';
+import { createLineInputSchema } from '@shared/schemas/equipment';
 import type { LineDto } from '@shared/types/equipment';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { toMetric } from '@shared/engine/units';
+import { toMetric } from '@shared/engine';
 import { parseTyped, typedOptionalQuantity, typedQuantity } from './typed-input';
 
 const usInput = (kind: Parameters<typeof toMetric>[0], typed: number) => toMetric(kind, typed, 'us');

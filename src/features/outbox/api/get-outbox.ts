@@ -1,8 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ListDto, OutboxMessageDto } from '@shared/types/api';
 import { api } from '@/lib/api-client';
-
-export const outboxKeys = { all: ['outbox'] as const, list: (key?: string) => [...outboxKeys.all, 'list', key ?? null] as const };
+import { outboxKeys } from './keys';
 
 /** `key`: the secret `npm start` prints beside the URL; without it only a signed-in owner may read. */
 export const getOutbox = (key?: string) =>

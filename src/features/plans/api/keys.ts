@@ -1,9 +1,10 @@
 import type { PlanListQuery } from '@shared/schemas/plans';
+import { queryRoots } from '@/lib/query-keys';
 
 export type PlanListParams = Partial<PlanListQuery>;
 
 export const planKeys = {
-  all: ['plans'] as const,
+  all: queryRoots.plans,
   lists: () => [...planKeys.all, 'list'] as const,
   list: (params: PlanListParams) => [...planKeys.lists(), params] as const,
   detail: (id: string) => [...planKeys.all, 'detail', id] as const,

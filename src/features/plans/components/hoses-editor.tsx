@@ -1,5 +1,5 @@
 import { Plus, X } from 'lucide-react';
-import { convert } from '@shared/engine/units';
+import { convert } from '@shared/engine';
 import { HOSES_MAX, type TrainHoseInput } from '@shared/schemas/plans';
 import { Button } from '@/components/ui/button';
 import { NumberInput } from '@/components/ui/input';

@@ -1,11 +1,10 @@
 import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
 import { useEffect, useId, useMemo, useState } from 'react';
 import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, COST_VOLUME_BASIS, costPerVolumeBasis, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
+import { buildTrainSizingInput, sizePlanTrain } from '@shared/adapters/plans';
 import {
   BLOCKING_WARNING_CODES,
   STAGES_MAX,
-  buildTrainSizingInput,
-  sizePlanTrain,
   type TrainStageInput,
 } from '@shared/schemas/plans';
 import type { PlanDto, PlanLotDto, PlanTrainDto } from '@shared/types/plans';

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { FilterRecordDto } from '@shared/types/records';
 import { api } from '@/lib/api-client';
-import { recordsKeys } from './keys';
+import { recordKeys } from './keys';
 
 export const getRecord = (lotId: string) => api.get<FilterRecordDto>(`/records/lots/${encodeURIComponent(lotId)}`);
-export const getRecordQueryOptions = (lotId: string) => queryOptions({ queryKey: recordsKeys.detail(lotId), queryFn: () => getRecord(lotId) });
+export const getRecordQueryOptions = (lotId: string) => queryOptions({ queryKey: recordKeys.detail(lotId), queryFn: () => getRecord(lotId) });
 export function useRecord(lotId: string) {
   return useQuery(getRecordQueryOptions(lotId));
 }

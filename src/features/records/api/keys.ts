@@ -1,3 +1,5 @@
+import { queryRoots } from '@/lib/query-keys';
+
 /** Filters of the bottled-lots list, as sent to GET /api/records/lots. */
 export type RecordLotFilters = {
   from?: string;
@@ -9,11 +11,11 @@ export type RecordLotFilters = {
   page?: number;
 };
 
-export const recordsKeys = {
-  all: ['records'] as const,
-  lists: () => [...recordsKeys.all, 'lots'] as const,
-  list: (filters: RecordLotFilters) => [...recordsKeys.lists(), filters] as const,
-  detail: (lotId: string) => [...recordsKeys.all, 'lot', lotId] as const,
+export const recordKeys = {
+  all: queryRoots.records,
+  lists: () => [...recordKeys.all, 'lots'] as const,
+  list: (filters: RecordLotFilters) => [...recordKeys.lists(), filters] as const,
+  detail: (lotId: string) => [...recordKeys.all, 'lot', lotId] as const,
 };
 
 /** The query string of a filter set (empty values left out). */

@@ -1,7 +1,7 @@
 import { FileText, Search, X } from 'lucide-react';
 import { useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { WINE_STYLES } from '@shared/engine/readiness';
+import { WINE_STYLES } from '@shared/engine';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';

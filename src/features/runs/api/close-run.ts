@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CloseRunInput } from '@shared/schemas/runs';
 import type { RunDetailDto } from '@shared/types/runs';
 import { api } from '@/lib/api-client';
-import { cartridgesCacheKey, runsKeys } from './keys';
+import { queryRoots } from '@/lib/query-keys';
+import { runKeys } from './keys';
 
 export const closeRun = ({ runId, input }: { runId: string; input: CloseRunInput }) =>
   api.post<RunDetailDto>(`/runs/${encodeURIComponent(runId)}/close`, input);
@@ -11,10 +12,10 @@ export function useCloseRun() {
   return useMutation({
     mutationFn: closeRun,
     onSuccess: (run) => {
-      qc.setQueryData(runsKeys.detail(run.id), run);
-      void qc.invalidateQueries({ queryKey: runsKeys.list() });
-      void qc.invalidateQueries({ queryKey: runsKeys.startOptions() });
-      void qc.invalidateQueries({ queryKey: cartridgesCacheKey });
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.list() });
+      void qc.invalidateQueries({ queryKey: runKeys.startOptions() });
+      void qc.invalidateQueries({ queryKey: queryRoots.cartridges });
     },
   });
 }

@@ -1,9 +1,12 @@
-export const runsKeys = {
-  all: ['runs'] as const,
-  list: () => [...runsKeys.all, 'list'] as const,
-  startOptions: () => [...runsKeys.all, 'start-options'] as const,
-  detail: (id: string) => [...runsKeys.all, 'detail', id] as const,
-};
+import { queryRoots } from '@/lib/query-keys';
 
-/** The cartridge screens' cache: closing a run adds litres to installed cartridges. */
-export const cartridgesCacheKey = ['cartridges'] as const;
+export const runKeys = {
+  all: queryRoots.runs,
+  list: () => [...runKeys.all, 'list'] as const,
+  startOptions: () => [...runKeys.all, 'start-options'] as const,
+  startCheck: (planLotId: string) => [...runKeys.all, 'start-check', planLotId] as const,
+  detail: (id: string) => [...runKeys.all, 'detail', id] as const,
+  /** Cartridges in stock for a change during a run: under the cartridges root, so anything that
+   * refreshes the cartridge screens refreshes this list too. */
+  stockCartridges: () => [...queryRoots.cartridges, 'run-stock'] as const,
+};

@@ -3,7 +3,7 @@ import type { LogReadingInput } from '@shared/schemas/runs';
 import type { LoggedReadingDto, RunDetailDto } from '@shared/types/runs';
 import { api } from '@/lib/api-client';
 import { onEntryStored, submit, type Outcome } from '@/lib/offline/outbox-runtime';
-import { runsKeys } from './keys';
+import { runKeys } from './keys';
 
 /** The reading carries its own clientKey, so a resend (after a lost answer) is stored once. */
 export const logReading = ({ runId, input }: { runId: string; input: LogReadingInput }) =>
@@ -13,10 +13,10 @@ export const logReading = ({ runId, input }: { runId: string; input: LogReadingI
 export function applyLoggedReading(qc: QueryClient, runId: string, answer: LoggedReadingDto) {
   const { stage, run } = answer;
   if (!stage || !run) {
-    void qc.invalidateQueries({ queryKey: runsKeys.detail(runId) });
+    void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     return;
   }
-  qc.setQueryData<RunDetailDto>(runsKeys.detail(runId), (old) =>
+  qc.setQueryData<RunDetailDto>(runKeys.detail(runId), (old) =>
     old ? { ...old, ...run, stages: old.stages.map((s) => (s.index === stage.index ? stage : s)) } : old,
   );
 }
@@ -26,7 +26,7 @@ onEntryStored('reading', (entry, answer, qc) => {
   if (!entry.runId) return;
   const a = answer as Partial<LoggedReadingDto> | null;
   if (a && 'stage' in a && a.stage) applyLoggedReading(qc, entry.runId, a as LoggedReadingDto);
-  else void qc.invalidateQueries({ queryKey: runsKeys.detail(entry.runId) });
+  else void qc.invalidateQueries({ queryKey: runKeys.detail(entry.runId) });
 });
 
 /**
@@ -41,6 +41,6 @@ export function keepAndSendReading(run: Pick<RunDetailDto, 'id' | 'lotCode'>, in
     path: `/runs/${encodeURIComponent(run.id)}/readings`,
     body: input,
     label: `Reading · ${run.lotCode} · ${label}`,
-    invalidate: [[...runsKeys.list()]],
+    invalidate: [[...runKeys.list()]],
   });
 }

@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CorrectReadingInput, RunChangeInput, VoidReadingInput } from '@shared/schemas/runs';
 import type { RunDetailDto } from '@shared/types/runs';
 import { api } from '@/lib/api-client';
-import { cartridgesCacheKey, runsKeys } from './keys';
+import { queryRoots } from '@/lib/query-keys';
+import { runKeys } from './keys';
 
 export const changeRunCartridges = ({ runId, input }: { runId: string; input: RunChangeInput }) =>
   api.post<RunDetailDto>(`/runs/${encodeURIComponent(runId)}/changes`, input);
@@ -11,8 +12,8 @@ export function useChangeRunCartridges() {
   return useMutation({
     mutationFn: changeRunCartridges,
     onSuccess: (run) => {
-      qc.setQueryData(runsKeys.detail(run.id), run);
-      void qc.invalidateQueries({ queryKey: cartridgesCacheKey });
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: queryRoots.cartridges });
     },
   });
 }
@@ -23,9 +24,9 @@ export const voidReading = ({ runId, readingId, input }: { runId: string; readin
   api.post<RunDetailDto>(`/runs/${encodeURIComponent(runId)}/readings/${encodeURIComponent(readingId)}/void`, input);
 export function useCorrectReading() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: correctReading, onSuccess: (run) => qc.setQueryData(runsKeys.detail(run.id), run) });
+  return useMutation({ mutationFn: correctReading, onSuccess: (run) => qc.setQueryData(runKeys.detail(run.id), run) });
 }
 export function useVoidReading() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: voidReading, onSuccess: (run) => qc.setQueryData(runsKeys.detail(run.id), run) });
+  return useMutation({ mutationFn: voidReading, onSuccess: (run) => qc.setQueryData(runKeys.detail(run.id), run) });
 }

@@ -1,11 +1,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RunStartCheckDto } from '@shared/types/runs';
 import { api } from '@/lib/api-client';
-import { runsKeys } from './keys';
+import { queryRoots } from '@/lib/query-keys';
+import { runKeys } from './keys';
 
 export const getRunStartCheck = (planLotId: string) => api.get<RunStartCheckDto>(`/runs/start-check?planLotId=${encodeURIComponent(planLotId)}`);
 export const runStartCheckQueryOptions = (planLotId: string) =>
-  queryOptions({ queryKey: [...runsKeys.all, 'start-check', planLotId] as const, queryFn: () => getRunStartCheck(planLotId) });
+  queryOptions({ queryKey: runKeys.startCheck(planLotId), queryFn: () => getRunStartCheck(planLotId) });
 export function useRunStartCheck(planLotId: string, enabled = true) {
   return useQuery({ ...runStartCheckQueryOptions(planLotId), enabled });
 }
@@ -18,8 +19,8 @@ export function usePlanWithInstalled() {
     mutationFn: planWithInstalled,
     onSuccess: (check) => {
       qc.setQueryData(runStartCheckQueryOptions(check.planLotId).queryKey, check);
-      void qc.invalidateQueries({ queryKey: runsKeys.startOptions() });
-      void qc.invalidateQueries({ queryKey: ['plans'] });
+      void qc.invalidateQueries({ queryKey: runKeys.startOptions() });
+      void qc.invalidateQueries({ queryKey: queryRoots.plans });
     },
   });
 }

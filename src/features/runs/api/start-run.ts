@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { StartRunInput } from '@shared/schemas/runs';
 import type { RunDetailDto } from '@shared/types/runs';
 import { api } from '@/lib/api-client';
-import { runsKeys } from './keys';
+import { runKeys } from './keys';
 
 export const startRun = (input: StartRunInput) => api.post<RunDetailDto>('/runs', input);
 export function useStartRun() {
@@ -10,9 +10,9 @@ export function useStartRun() {
   return useMutation({
     mutationFn: startRun,
     onSuccess: (run) => {
-      qc.setQueryData(runsKeys.detail(run.id), run);
-      void qc.invalidateQueries({ queryKey: runsKeys.list() });
-      void qc.invalidateQueries({ queryKey: runsKeys.startOptions() });
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.list() });
+      void qc.invalidateQueries({ queryKey: runKeys.startOptions() });
     },
   });
 }

@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const winerySettingsKeys = {
-  all: ['winery-settings'] as const,
+  all: queryRoots.winerySettings,
   detail: () => [...winerySettingsKeys.all, 'detail'] as const,
 };

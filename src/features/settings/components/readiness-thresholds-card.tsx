@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { readinessThresholdsSchema, WINE_STYLES, type ReadinessThresholds } from '@shared/engine/readiness';
+import { readinessThresholdsSchema, WINE_STYLES, type ReadinessThresholds } from '@shared/engine';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { NumberInput } from '@/components/ui/input';

@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const teamKeys = {
-  all: ['team'] as const,
+  all: queryRoots.team,
   detail: () => [...teamKeys.all, 'detail'] as const,
 };

@@ -1,4 +1,6 @@
+import { queryRoots } from '@/lib/query-keys';
+
 export const todayKeys = {
-  all: ['today'] as const,
+  all: queryRoots.today,
   detail: () => [...todayKeys.all, 'detail'] as const,
 };

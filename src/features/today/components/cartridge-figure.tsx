@@ -1,6 +1,6 @@
 import { format } from 'date-fns';
 import type { ReactNode } from 'react';
-import type { BudgetFactor, LimitingFactor } from '@shared/engine/cartridge-life';
+import type { BudgetFactor, LimitingFactor } from '@shared/engine';
 import type { TodayCartridgeFigure } from '@shared/types/today';
 import { formatNumber, Quantity } from '@/components/ui/quantity';
 import type { StatusTone } from '@/components/ui/status-badge';

@@ -1,6 +1,6 @@
 import { CircleCheck } from 'lucide-react';
 import { Link } from 'react-router-dom';
-import type { ReadinessVerdict } from '@shared/engine/readiness';
+import type { ReadinessVerdict } from '@shared/engine';
 import { wineStyleLabels } from '@shared/schemas/cellar-labels';
 import type { TodayDto } from '@shared/types/today';
 import { Card } from '@/components/ui/card';

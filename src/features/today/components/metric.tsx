@@ -1,4 +1,4 @@
-import { DISPLAY_UNITS, formatNumber, toUserUnits, type QuantityKind } from '@shared/engine/units';
+import { DISPLAY_UNITS, formatNumber, toUserUnits, type QuantityKind } from '@shared/engine';
 import { Quantity } from '@/components/ui/quantity';
 import { useUnits } from '@/lib/units';
 
