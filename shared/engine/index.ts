@@ -19,3 +19,4 @@ export * from './train-sizing';
 export * from './day-timeline';
 export * from './alerts';
 export * from './day-needs';
+export * from './past-runs-capacity';

@@ -16,6 +16,7 @@ import { requireFinite, requireNonNegative, requirePositive, requireRange } from
 import { ethanolMassFraction, ethanolWaterDensity, wineViscosity } from './fluids';
 import type { SanitationKind } from './day-timeline';
 import { cleanDpBar, lineLossBar, mediumResistance } from './flow';
+import type { PastRunsCapacity } from './past-runs-capacity';
 
 // ---------------------------------------------------------------------------------------
 // Constants
@@ -178,8 +179,13 @@ export interface SizingCartridgeType {
   terminalDpBar: number;
   /** Design wine flow per 10-inch module, L/h. */
   designFluxLhPer10in: number;
-  /** Expected litres per m² to terminal ΔP for this wine (from a Vmax test or past runs); unknown when absent. */
+  /** Expected litres per m² to terminal ΔP for this wine, typed by the person (overrides every other source); unknown when absent. */
   capacityLPerM2?: number;
+  /**
+   * Capacity learned from the winery's closed runs of similar wines ({@link capacityFromPastRuns});
+   * used when nothing is typed and no Vmax test gives one.
+   */
+  pastRuns?: PastRunsCapacity;
   /** Whether a blocked set can be regenerated during the lot (default false: it is changed). */
   regenerable?: boolean;
   /** Most regenerations one set may take within a lot before it is changed (default unlimited when regenerable). */
@@ -309,8 +315,10 @@ export interface StageSizing {
   capacityL: number | null;
   /** Capacity per m² used, L/m², or null when unknown. */
   capacityLPerM2: number | null;
-  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, or unknown. */
-  capacitySource: 'stage' | 'vmax' | null;
+  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, the winery's past runs of similar wines, or unknown. */
+  capacitySource: 'stage' | 'vmax' | 'past-runs' | null;
+  /** The past runs the capacity came from (runs, range), when capacitySource is 'past-runs'. */
+  capacityPastRuns?: PastRunsCapacity;
   /** Hours of run to terminal ΔP for one set, or null when unknown. */
   hoursToTerminal: number | null;
   /** Fresh or regenerated loads the lot needs, ceil(batch/capacity), or null when capacity is unknown. */
@@ -415,6 +423,7 @@ function validateCartridge(c: SizingCartridgeType, s: string): void {
   if (c.waterSpecTempC !== undefined) requireRange(`${s} clean-water specification temperature`, c.waterSpecTempC, 0, 100, '°C');
   if (c.maxTempC !== undefined) requireFinite(`${s} cartridge maximum temperature (°C)`, c.maxTempC);
   if (c.capacityLPerM2 !== undefined) requirePositive(`${s} capacity to terminal ΔP (L/m²)`, c.capacityLPerM2);
+  if (c.pastRuns !== undefined) requirePositive(`${s} capacity from past runs (L/m²)`, c.pastRuns.lPerM2);
   if (c.maxRegenerationsPerLot !== undefined) {
     requireNonNegative(`${s} maximum regenerations per lot`, c.maxRegenerationsPerLot);
     if (!Number.isInteger(c.maxRegenerationsPerLot)) {
@@ -649,6 +658,10 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
       capacitySource = 'vmax';
     }
+    if (capPerM2 === null && c.pastRuns !== undefined && !infeasible) {
+      capPerM2 = c.pastRuns.lPerM2;
+      capacitySource = 'past-runs';
+    }
     if (infeasible) {
       // No room to foul: the set reaches its terminal ΔP clean, so it holds no wine at all.
       capacityL = 0;
@@ -790,6 +803,7 @@ function sizeWithContext(input: TrainSizingInput, ctx: TrainContext): TrainSizin
       capacityL,
       capacityLPerM2: infeasible ? 0 : capPerM2,
       capacitySource,
+      ...(capacitySource === 'past-runs' ? { capacityPastRuns: c.pastRuns } : {}),
       hoursToTerminal,
       loadsNeeded: loads,
       interventions,
