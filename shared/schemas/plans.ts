@@ -4,11 +4,14 @@
 import { z } from 'zod';
 import {
   DEFAULT_HOSE_ROUGHNESS_MM,
+  capacityFromPastRuns,
   sizeTrain,
+  type PastRunStageOutcome,
   type SizingWarningCode,
   type TrainSizingInput,
   type TrainSizingResult,
 } from '../engine';
+import type { WineStyle } from '../engine/readiness';
 import { listQuerySchema } from './list';
 
 export const PLAN_NAME_MAX = 120;
@@ -221,7 +224,18 @@ export type SizingCatalogueHousing = {
   holdUpL: number;
 };
 
-export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number; vmaxLPerM2?: number | null };
+export type SizingWineSource = {
+  tempC: number;
+  ethanolPctVol: number;
+  sugarGPerL: number;
+  vmaxLPerM2?: number | null;
+  /** The lot's style, latest clogging index (s) and turbidity (NTU): how similar past runs are picked. */
+  style?: WineStyle;
+  cloggingIndexS?: number | null;
+  turbidityNtu?: number | null;
+  /** The winery's closed runs of wines of this style, stage by stage (capacity when nothing is typed and no Vmax test applies). */
+  pastRuns?: readonly PastRunStageOutcome[];
+};
 export type SizingLineSource = { bottlesPerHour: number; bottleMl: number };
 
 /** What a train needs to be sized: the lot's wine and volume, the plan's line, the stages and the catalogue. */
@@ -242,7 +256,8 @@ export type TrainSizingOutcome = { ok: true; input: TrainSizingInput; result: Tr
 /**
  * The engine's input for one train: wine from the lot (°C, % vol, g/L), flow from the line, one
  * engine stage per stored stage from the catalogue rows (a backwashable type counts as
- * regenerable during the lot), capacity per m² from the stage's figure or unknown.
+ * regenerable during the lot), capacity per m² from the stage's typed figure, else (in the
+ * engine) the lot's Vmax test, else the winery's closed runs of similar wines, else unknown.
  */
 export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input: TrainSizingInput } | { ok: false; error: string } {
   if (!src.line) return { ok: false, error: 'Choose a bottling line for the plan first.' };
@@ -260,6 +275,10 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
     const count = s.housingCount ?? 1;
     if (!Number.isInteger(count) || count < 1) return { ok: false, error: `${label}: the number of housings is a whole number, 1 or more.` };
     const regenerable = t.maxDpReverseBar !== null;
+    const pastRuns =
+      src.wine.style && src.wine.pastRuns && src.wine.pastRuns.length > 0
+        ? capacityFromPastRuns(src.wine.pastRuns, { style: src.wine.style, cartridgeTypeId: t.id, cloggingIndexS: src.wine.cloggingIndexS, turbidityNtu: src.wine.turbidityNtu })
+        : null;
     stages.push({
       name: label,
       housingId: h.id,
@@ -276,6 +295,7 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
         terminalDpBar: t.terminalDpBar,
         designFluxLhPer10in: t.designFluxLhPer10in,
         capacityLPerM2: s.capacityLPerM2 ?? undefined,
+        ...(pastRuns ? { pastRuns } : {}),
         regenerable,
         // A regenerable set serves its rated regeneration cycles + 1 loads over its life.
         serviceLifeLoads: regenerable && t.ratedHotWaterCycles ? t.ratedHotWaterCycles + 1 : undefined,
