@@ -22,6 +22,7 @@ import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
 import { parseNumberText } from '@/lib/number-input';
+import { CapacitySource } from './capacity-source';
 import { HosesEditor, toDraftHoses, toHoses, type DraftHose } from './hoses-editor';
 
 /** A stage as typed: text fields stay text until sized or saved. */
@@ -116,7 +117,7 @@ function StageFigures({ s }: { s: StageSizing }) {
         ) : (
           <>
             {u.format('volume', s.capacityL)}
-            <span className="block text-xs font-normal text-ink-600">{s.capacitySource === 'vmax' ? 'from the lot’s Vmax test' : 'from the stage’s capacity'}</span>
+            <CapacitySource s={s} />
           </>
         )}
       </Figure>
