@@ -1,9 +1,18 @@
+import { createHash } from 'node:crypto';
 import { cloggingIndex, elementEquivalents, stageLitresPerM2FromRun, type PastRunStageOutcome } from '../../../shared/engine';
 import type { SizingCatalogueHousing, SizingCatalogueType } from '../../../shared/schemas/plans';
 import type { ClosedRunForCapacity } from './plans.repository';
 
 /** Closed runs read for the capacity learning, at most (the latest first). */
 export const PAST_RUNS_READ_MAX = 60;
+
+/**
+ * What a closed run's stage tells changes only with its readings (a correction) or the catalogue
+ * figures it is read with, so the engine's answer is kept per (run, stage, type, area, terminal,
+ * readings' signature): a plan page does not refit the same runs each time it opens.
+ */
+const learned = new Map<string, ReturnType<typeof stageLitresPerM2FromRun>>();
+const LEARNED_MAX = 5000;
 
 /**
  * What the winery's closed runs tell, stage by stage: the litres per m² each stage's sets took
@@ -36,14 +45,16 @@ export function pastRunOutcomes(
       const points = run.readings
         .filter((r) => r.stageIndex === index)
         .map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar, flowLh: r.flowLh, tempC: r.tempC }));
+      const restartsAtL = run.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL);
+      const key = createHash('sha256').update(JSON.stringify([run.id, index, type.id, areaM2, type.terminalDpBar, restartsAtL, points])).digest('base64');
       try {
-        const learned = stageLitresPerM2FromRun({
-          points,
-          terminalDpBar: type.terminalDpBar,
-          areaM2,
-          restartsAtL: run.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
-        });
-        if (!learned) return;
+        let result = learned.get(key);
+        if (result === undefined) {
+          result = stageLitresPerM2FromRun({ points, terminalDpBar: type.terminalDpBar, areaM2, restartsAtL });
+          if (learned.size >= LEARNED_MAX) learned.clear();
+          learned.set(key, result);
+        }
+        if (!result) return;
         out.push({
           runId: run.id,
           style: run.style,
@@ -51,8 +62,8 @@ export function pastRunOutcomes(
           cloggingIndexS: ci,
           turbidityNtu: run.turbidityNtu,
           closedAt: run.closedAt,
-          lPerM2: learned.lPerM2,
-          basis: learned.basis,
+          lPerM2: result.lPerM2,
+          basis: result.basis,
         });
       } catch (error) {
         if (!(error instanceof RangeError)) throw error;

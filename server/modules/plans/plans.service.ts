@@ -1,4 +1,4 @@
-import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, type DayNeedsLot } from '../../../shared/engine';
+import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, WINE_STYLES, type DayNeedsLot } from '../../../shared/engine';
 import {
   blockingReasons,
   planStartMs,
@@ -25,7 +25,7 @@ import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
 import { PAST_RUNS_READ_MAX, pastRunOutcomes } from './plans.past-runs';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
-import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
+import { createPlansRepository, PLAN_LOT_UNIQUE, type ClosedRunForCapacity, type PlanRow, type PlansRepository } from './plans.repository';
 import { audited, recordChange } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
@@ -70,7 +70,7 @@ async function buildPlan(
   repo: PlansRepository,
   wineryId: string,
   id: string,
-  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue> } = {},
+  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue>; closedRuns?: Promise<ClosedRunForCapacity[]> } = {},
 ): Promise<PlanDto | null> {
   const row = await repo.plan(wineryId, id);
   if (!row) return null;
@@ -96,7 +96,7 @@ async function buildPlan(
       wineryId,
       planLots.map((p) => p.lot.id),
     ),
-    repo.closedRunsForCapacity(wineryId, styles, PAST_RUNS_READ_MAX),
+    opts.closedRuns ?? repo.closedRunsForCapacity(wineryId, styles, PAST_RUNS_READ_MAX),
   ]);
   // What the winery's closed runs of these styles tell about each cartridge type's L/m² (learned by the engine).
   const pastRuns = pastRunOutcomes(closedRuns, types, housings);
@@ -281,7 +281,10 @@ export function createPlansService(db: Database) {
     if (ids.length === 0) return [];
     const catalogue = Promise.all([repo.catalogueTypes(tenant.wineryId), repo.catalogueHousings(tenant.wineryId), repo.stock(tenant.wineryId)] as const);
     catalogue.catch(() => undefined); // awaited by each plan; this only keeps a failure with no plan left from going unhandled
-    const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue })));
+    // The winery's closed runs of every style, read once for all the plans.
+    const closedRuns = repo.closedRunsForCapacity(tenant.wineryId, [...WINE_STYLES], PAST_RUNS_READ_MAX);
+    closedRuns.catch(() => undefined);
+    const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue, closedRuns })));
     return plans.filter((p): p is PlanDto => p !== null);
   }
 
