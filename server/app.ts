@@ -37,6 +37,7 @@ import { cellarRoutes } from './modules/cellar/cellar.routes';
 import { equipmentRoutes } from './modules/equipment/equipment.routes';
 import type { ModuleDeps } from './modules/module-deps';
 import { plansRoutes } from './modules/plans/plans.routes';
+import { hosePresetsRoutes } from './modules/hose-presets/hose-presets.routes';
 import { careRoutes } from './modules/care/care.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
 import { recordsRoutes } from './modules/records/records.routes';
@@ -150,6 +151,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(winerySettingsRoutes(moduleDeps));
   api.use(todayRoutes(moduleDeps));
   api.use(plansRoutes(moduleDeps));
+  api.use(hosePresetsRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
   api.use(recordsRoutes(moduleDeps));

@@ -1,7 +1,15 @@
 // From stored plan rows to the engine's train-sizing input: the one mapping, used by the server
 // for the saved result and by the browser for live what-if, so both size the same train the same
 // way. Values are metric/SI.
-import { DEFAULT_HOSE_ROUGHNESS_MM, sizeTrain, type TrainSizingInput, type TrainSizingResult } from '../engine';
+import {
+  capacityFromPastRuns,
+  DEFAULT_HOSE_ROUGHNESS_MM,
+  sizeTrain,
+  type PastRunStageOutcome,
+  type TrainSizingInput,
+  type TrainSizingResult,
+  type WineStyle,
+} from '../engine';
 import { BLOCKING_WARNING_CODES, type PlanSanitationKind, type TrainHoseInput, type TrainStageInput } from '../schemas/plans';
 
 /** The catalogue fields of a cartridge type the sizing reads. */
@@ -36,7 +44,18 @@ export type SizingCatalogueHousing = {
   holdUpL: number;
 };
 
-export type SizingWineSource = { tempC: number; ethanolPctVol: number; sugarGPerL: number; vmaxLPerM2?: number | null };
+export type SizingWineSource = {
+  tempC: number;
+  ethanolPctVol: number;
+  sugarGPerL: number;
+  vmaxLPerM2?: number | null;
+  /** The lot's style, latest clogging index (s) and turbidity (NTU): how similar past runs are picked. */
+  style?: WineStyle;
+  cloggingIndexS?: number | null;
+  turbidityNtu?: number | null;
+  /** The winery's closed runs of wines of this style, stage by stage (capacity when nothing is typed and no Vmax test applies). */
+  pastRuns?: readonly PastRunStageOutcome[];
+};
 export type SizingLineSource = { bottlesPerHour: number; bottleMl: number };
 
 /** What a train needs to be sized: the lot's wine and volume, the plan's line, the stages and the catalogue. */
@@ -75,6 +94,10 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
     const count = s.housingCount ?? 1;
     if (!Number.isInteger(count) || count < 1) return { ok: false, error: `${label}: the number of housings is a whole number, 1 or more.` };
     const regenerable = t.maxDpReverseBar !== null;
+    const pastRuns =
+      src.wine.style && src.wine.pastRuns && src.wine.pastRuns.length > 0
+        ? capacityFromPastRuns(src.wine.pastRuns, { style: src.wine.style, cartridgeTypeId: t.id, cloggingIndexS: src.wine.cloggingIndexS, turbidityNtu: src.wine.turbidityNtu })
+        : null;
     stages.push({
       name: label,
       housingId: h.id,
@@ -91,6 +114,7 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
         terminalDpBar: t.terminalDpBar,
         designFluxLhPer10in: t.designFluxLhPer10in,
         capacityLPerM2: s.capacityLPerM2 ?? undefined,
+        ...(pastRuns ? { pastRuns } : {}),
         regenerable,
         // A regenerable set serves its rated regeneration cycles + 1 loads over its life.
         serviceLifeLoads: regenerable && t.ratedHotWaterCycles ? t.ratedHotWaterCycles + 1 : undefined,

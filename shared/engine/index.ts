@@ -297,3 +297,14 @@ export {
   type DayNeedsStage,
   type DayNeedsStageUse,
 } from './day-needs';
+export {
+  capacityFromPastRuns,
+  PAST_RUNS_MAX,
+  PAST_RUNS_MIN,
+  type PastRunsCapacity,
+  type PastRunStageOutcome,
+  type PastStageLearning,
+  pastRunsEvidence,
+  stageLitresPerM2FromRun,
+  TERMINAL_REACHED_FRACTION,
+} from './past-runs-capacity';

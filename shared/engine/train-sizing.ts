@@ -16,6 +16,7 @@ import { requireFinite, requireNonNegative, requirePositive, requireRange } from
 import { ethanolMassFraction, ethanolWaterDensity, wineViscosity } from './fluids';
 import type { SanitationKind } from './day-timeline';
 import { cleanDpBar, lineLossBar, mediumResistance } from './flow';
+import type { PastRunsCapacity } from './past-runs-capacity';
 
 // ---------------------------------------------------------------------------------------
 // Constants
@@ -178,8 +179,13 @@ export interface SizingCartridgeType {
   terminalDpBar: number;
   /** Design wine flow per 10-inch module, L/h. */
   designFluxLhPer10in: number;
-  /** Expected litres per m² to terminal ΔP for this wine (from a Vmax test or past runs); unknown when absent. */
+  /** Expected litres per m² to terminal ΔP for this wine, typed by the person (overrides every other source); unknown when absent. */
   capacityLPerM2?: number;
+  /**
+   * Capacity learned from the winery's closed runs of similar wines ({@link capacityFromPastRuns});
+   * used when nothing is typed and no Vmax test gives one.
+   */
+  pastRuns?: PastRunsCapacity;
   /** Whether a blocked set can be regenerated during the lot (default false: it is changed). */
   regenerable?: boolean;
   /** Most regenerations one set may take within a lot before it is changed (default unlimited when regenerable). */
@@ -309,8 +315,10 @@ export interface StageSizing {
   capacityL: number | null;
   /** Capacity per m² used, L/m², or null when unknown. */
   capacityLPerM2: number | null;
-  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, or unknown. */
-  capacitySource: 'stage' | 'vmax' | null;
+  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, the winery's past runs of similar wines, or unknown. */
+  capacitySource: 'stage' | 'vmax' | 'past-runs' | null;
+  /** The past runs the capacity came from (runs, range), when capacitySource is 'past-runs'. */
+  capacityPastRuns?: PastRunsCapacity;
   /** Hours of run to terminal ΔP for one set, or null when unknown. */
   hoursToTerminal: number | null;
   /** Fresh or regenerated loads the lot needs, ceil(batch/capacity), or null when capacity is unknown. */
@@ -415,6 +423,7 @@ function validateCartridge(c: SizingCartridgeType, s: string): void {
   if (c.waterSpecTempC !== undefined) requireRange(`${s} clean-water specification temperature`, c.waterSpecTempC, 0, 100, '°C');
   if (c.maxTempC !== undefined) requireFinite(`${s} cartridge maximum temperature (°C)`, c.maxTempC);
   if (c.capacityLPerM2 !== undefined) requirePositive(`${s} capacity to terminal ΔP (L/m²)`, c.capacityLPerM2);
+  if (c.pastRuns !== undefined) requirePositive(`${s} capacity from past runs (L/m²)`, c.pastRuns.lPerM2);
   if (c.maxRegenerationsPerLot !== undefined) {
     requireNonNegative(`${s} maximum regenerations per lot`, c.maxRegenerationsPerLot);
     if (!Number.isInteger(c.maxRegenerationsPerLot)) {
@@ -726,6 +735,7 @@ function sizeStage(input: TrainSizingInput, ctx: TrainContext, i: number, runHou
     capacityL: cap.capacityL,
     capacityLPerM2: cap.infeasible ? 0 : cap.capacityLPerM2,
     capacitySource: cap.capacitySource,
+    ...(cap.capacitySource === 'past-runs' ? { capacityPastRuns: c.pastRuns } : {}),
     hoursToTerminal: cap.hoursToTerminal,
     loadsNeeded: cap.loads,
     interventions: cap.interventions,
@@ -762,8 +772,8 @@ interface StageCapacity {
 }
 
 /**
- * Litres one set holds to terminal ΔP (the stage's capacity per m², or for a membrane the
- * lot's Vmax disc test), the loads the lot needs and how they are served: a regenerable set
+ * Litres one set holds to terminal ΔP (the stage's capacity per m², for a membrane the lot's
+ * Vmax disc test, else the winery's past runs of similar wines), the loads the lot needs and how they are served: a regenerable set
  * serves 1 + maxRegenerationsPerLot loads, any other set one.
  */
 function stageCapacity(c: SizingCartridgeType, wine: SizingWine, dp: number, areaM2: number, flowLh: number, batchL: number): StageCapacity {
@@ -773,6 +783,10 @@ function stageCapacity(c: SizingCartridgeType, wine: SizingWine, dp: number, are
   if (capPerM2 === null && c.kind === 'membrane' && wine.vmaxLPerM2 !== undefined && !infeasible) {
     capPerM2 = capacityFromVmax({ vmaxLPerM2: wine.vmaxLPerM2, cleanDpBar: dp, terminalDpBar: c.terminalDpBar, safetyFactor: wine.vmaxSafetyFactor });
     capacitySource = 'vmax';
+  }
+  if (capPerM2 === null && c.pastRuns !== undefined && !infeasible) {
+    capPerM2 = c.pastRuns.lPerM2;
+    capacitySource = 'past-runs';
   }
   const unknown = { loads: null, interventions: null, regenerations: null, changes: null, kind: null, setsUsed: 1 };
   if (infeasible) return { infeasible, capacityLPerM2: capPerM2, capacitySource, capacityL: 0, hoursToTerminal: 0, ...unknown };

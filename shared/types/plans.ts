@@ -1,5 +1,5 @@
 // Response DTOs of bottling-day plans (metric/SI values; the client converts for display).
-import type { DayBlockKind, DayStepsMin, TrainSizingResult, WineStyle } from '../engine';
+import type { DayBlockKind, DayStepsMin, PastRunStageOutcome, TrainSizingResult, WineStyle } from '../engine';
 import type { SizingCatalogueHousing, SizingCatalogueType } from '../adapters/plans';
 import type { PlanSanitationKind, PlanStatus, TrainHoseInput } from '../schemas/plans';
 
@@ -65,6 +65,14 @@ export type PlanLotDto = {
     sugarGPerL: number;
     /** v_max of the latest Vmax disc test, L/m², or null; membrane stages without a typed capacity take theirs from it. */
     vmaxLPerM2: number | null;
+    /** Clogging index (s) and turbidity (NTU) of the latest lab result, or null: how similar past runs are picked. */
+    cloggingIndexS: number | null;
+    turbidityNtu: number | null;
+    /**
+     * The winery's closed runs of wines of this style, stage by stage (L/m² each reached): a stage
+     * with nothing typed and no Vmax test takes its capacity from the similar ones.
+     */
+    pastRuns: PastRunStageOutcome[];
   };
   trains: PlanTrainDto[];
 };

@@ -82,3 +82,23 @@ export const planTrainsTable = pgTable(
   },
   (t) => [index('plan_trains_plan_lot_idx').on(t.planLotId, t.createdAt)],
 );
+
+/** A winery's usual hose or line, saved to pick from when entering a train's hoses. */
+export const hosePresetsTable = pgTable(
+  'hose_presets',
+  {
+    ...tenantColumns(),
+    name: text('name').notNull(),
+    /** Inner diameter, mm. */
+    diameterMm: double('diameter_mm').notNull(),
+    /** Length, m. */
+    lengthM: double('length_m').notNull(),
+    /** Absolute roughness, mm; null for the engine's default. */
+    roughnessMm: double('roughness_mm'),
+    /** Sum of the fittings' loss coefficients K; null for none. */
+    sumK: double('sum_k'),
+    createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
+    createdByName: text('created_by_name'),
+  },
+  (t) => [uniqueIndex('hose_presets_winery_name_uq').on(t.wineryId, t.name)],
+);

@@ -5,10 +5,13 @@ import { and, asc, count, eq, inArray } from 'drizzle-orm';
 import type { DbOrTx } from '../client';
 import { cartridgeTypesTable, housingsTable, linesTable, lotsTable, planLotsTable, plansTable, planTrainsTable } from '../schema';
 
+import { seedHosePresets } from './hose-presets';
+
 const DAY_MS = 86_400_000;
 
 /** Demo data for the plans of a winery (idempotent: does nothing when the winery already has a plan). */
 export async function seedPlans(tx: DbOrTx, ctx: { wineryId: string; actorId: string }, now = new Date()) {
+  await seedHosePresets(tx, ctx);
   const [{ n }] = await tx.select({ n: count() }).from(plansTable).where(eq(plansTable.wineryId, ctx.wineryId));
   if (n > 0) return;
   const [line] = await tx.select().from(linesTable).where(eq(linesTable.wineryId, ctx.wineryId)).orderBy(asc(linesTable.name)).limit(1);

@@ -376,6 +376,82 @@ export function createPlansRepository(db: DbOrTx) {
     async deleteTrain(wineryId: string, trainId: string) {
       await db.delete(planTrainsTable).where(and(eq(planTrainsTable.wineryId, wineryId), eq(planTrainsTable.id, trainId)));
     },
+
+    /**
+     * The winery's closed runs of lots of the given styles, the latest first (at most `limit` per style),
+     * each with its train's stages, its readings as corrected (the latest correction of a
+     * reading wins; voided ones left out), its changes and regenerations, and the lot's latest
+     * lab result sampled before the run started — in one query.
+     */
+    async closedRunsForCapacity(wineryId: string, styles: string[], limit: number): Promise<ClosedRunForCapacity[]> {
+      if (styles.length === 0) return [];
+      const result = await db.execute(sql`
+        with picked as (
+          select r.id, r.closed_at, r.started_at, r.winery_id, l.id as lot_id, l.style, t.stages,
+            row_number() over (partition by l.style order by r.closed_at desc nulls last, r.id) as rn
+          from runs r
+          join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
+          join lots l on l.id = pl.lot_id and l.winery_id = r.winery_id
+          join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
+          where r.winery_id = ${wineryId}::uuid and r.status = 'closed'
+            and l.style in (select jsonb_array_elements_text(${JSON.stringify(styles)}::jsonb))
+        )
+        select p.id, p.closed_at, p.started_at, p.style, p.stages,
+          lab.turbidity_ntu, lab.t200_s, lab.t400_s,
+          (select coalesce(json_agg(json_build_object(
+              'stageIndex', rr.stage_index,
+              'volumeL', coalesce(c.volume_l, rr.volume_l),
+              'upstreamBar', coalesce(c.upstream_bar, rr.upstream_bar),
+              'downstreamBar', coalesce(c.downstream_bar, rr.downstream_bar),
+              'flowLh', case when c.id is null then rr.flow_lh else c.flow_lh end,
+              'tempC', case when c.id is null then rr.temp_c else c.temp_c end)), '[]'::json)
+            from run_readings rr
+            left join lateral (
+              select x.id, x.kind, x.volume_l, x.upstream_bar, x.downstream_bar, x.flow_lh, x.temp_c
+              from run_reading_corrections x where x.reading_id = rr.id and x.winery_id = p.winery_id
+              order by x.created_at desc, x.id desc limit 1) c on true
+            where rr.run_id = p.id and rr.winery_id = p.winery_id and (c.kind is null or c.kind <> 'void')) as readings,
+          (select coalesce(json_agg(json_build_object('stageIndex', ch.stage_index, 'atVolumeL', ch.at_volume_l)), '[]'::json)
+            from run_changes ch where ch.run_id = p.id and ch.winery_id = p.winery_id) as changes
+        from picked p
+        left join lateral (
+          select lr.turbidity_ntu, lr.t200_s, lr.t400_s from lab_results lr
+          where lr.lot_id = p.lot_id and lr.winery_id = p.winery_id and lr.sampled_at <= p.started_at
+          order by lr.sampled_at desc, lr.created_at desc limit 1) lab on true
+        where p.rn <= ${limit}::int
+        order by p.closed_at desc nulls last, p.id`);
+      return (result.rows as Record<string, unknown>[]).map((row) => ({
+        id: String(row.id),
+        closedAt: row.closed_at ? new Date(row.closed_at as string).toISOString() : new Date(row.started_at as string).toISOString(),
+        style: row.style as ClosedRunForCapacity['style'],
+        stages: row.stages as PlanTrainStage[],
+        turbidityNtu: row.turbidity_ntu === null ? null : Number(row.turbidity_ntu),
+        t200s: row.t200_s === null ? null : Number(row.t200_s),
+        t400s: row.t400_s === null ? null : Number(row.t400_s),
+        readings: (row.readings as ClosedRunForCapacity['readings']).map((x) => ({
+          stageIndex: Number(x.stageIndex),
+          volumeL: Number(x.volumeL),
+          upstreamBar: Number(x.upstreamBar),
+          downstreamBar: Number(x.downstreamBar),
+          flowLh: x.flowLh === null ? null : Number(x.flowLh),
+          tempC: x.tempC === null ? null : Number(x.tempC),
+        })),
+        changes: (row.changes as ClosedRunForCapacity['changes']).map((x) => ({ stageIndex: Number(x.stageIndex), atVolumeL: Number(x.atVolumeL) })),
+      }));
+    },
   };
 }
 export type PlansRepository = ReturnType<typeof createPlansRepository>;
+
+/** A closed run as the capacity-from-past-runs learning reads it (metric values). */
+export type ClosedRunForCapacity = {
+  id: string;
+  closedAt: string;
+  style: (typeof lotsTable.$inferSelect)['style'];
+  stages: PlanTrainStage[];
+  turbidityNtu: number | null;
+  t200s: number | null;
+  t400s: number | null;
+  readings: { stageIndex: number; volumeL: number; upstreamBar: number; downstreamBar: number; flowLh: number | null; tempC: number | null }[];
+  changes: { stageIndex: number; atVolumeL: number }[];
+};

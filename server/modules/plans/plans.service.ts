@@ -1,4 +1,4 @@
-import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, type DayNeedsLot } from '../../../shared/engine';
+import { buildDayTimeline, cartridgeSpent, dayCartridgeNeeds, requiredFlowLh, WINE_STYLES, type DayNeedsLot } from '../../../shared/engine';
 import { blockingReasons, sizePlanTrain } from '../../../shared/adapters/plans';
 import {
   planStartMs,
@@ -22,8 +22,9 @@ import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../cellar/db-errors';
 import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
+import { PAST_RUNS_READ_MAX, pastRunOutcomes } from './plans.past-runs';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
-import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
+import { createPlansRepository, PLAN_LOT_UNIQUE, type ClosedRunForCapacity, type PlanRow, type PlansRepository } from './plans.repository';
 import { audited, recordChange } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
@@ -68,7 +69,7 @@ async function buildPlan(
   repo: PlansRepository,
   wineryId: string,
   id: string,
-  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue> } = {},
+  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue>; closedRuns?: Promise<ClosedRunForCapacity[]> } = {},
 ): Promise<PlanDto | null> {
   const row = await repo.plan(wineryId, id);
   if (!row) return null;
@@ -84,7 +85,8 @@ async function buildPlan(
     : opts.inTransaction
       ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
       : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
-  const [trains, discTests] = await Promise.all([
+  const styles = [...new Set(planLots.map((p) => p.lot.style))];
+  const [trains, discTests, closedRuns] = await Promise.all([
     repo.trains(
       wineryId,
       planLots.map((p) => p.planLot.id),
@@ -93,12 +95,17 @@ async function buildPlan(
       wineryId,
       planLots.map((p) => p.lot.id),
     ),
+    opts.closedRuns ?? repo.closedRunsForCapacity(wineryId, styles, PAST_RUNS_READ_MAX),
   ]);
+  // What the winery's closed runs of these styles tell about each cartridge type's L/m² (learned by the engine).
+  const pastRuns = pastRunOutcomes(closedRuns, types, housings);
   // Capacity of membrane stages from each lot's latest Vmax disc test (when it has one).
   const vmaxByLot = new Map<string, number>();
+  const labByLot = new Map<string, { cloggingIndexS: number | null; turbidityNtu: number | null }>();
   for (const t of discTests) {
-    const disc = analyseLabResult(t).disc;
-    if (disc?.computable) vmaxByLot.set(t.lotId, disc.vmaxLPerM2);
+    const analysis = analyseLabResult(t);
+    if (analysis.disc?.computable) vmaxByLot.set(t.lotId, analysis.disc.vmaxLPerM2);
+    labByLot.set(t.lotId, { cloggingIndexS: analysis.cloggingIndex, turbidityNtu: t.turbidityNtu });
   }
   const line = row.line;
   const lineSource = line ? { bottlesPerHour: line.bottlesPerHour, bottleMl: line.bottleMl } : null;
@@ -112,7 +119,13 @@ async function buildPlan(
   const stageNames: string[][] = [];
   const lots: PlanLotDto[] = [];
   for (const { planLot, lot: lotRow } of planLots) {
-    const lot = { ...lotRow, vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null };
+    const lot = {
+      ...lotRow,
+      vmaxLPerM2: vmaxByLot.get(lotRow.id) ?? null,
+      cloggingIndexS: labByLot.get(lotRow.id)?.cloggingIndexS ?? null,
+      turbidityNtu: labByLot.get(lotRow.id)?.turbidityNtu ?? null,
+      pastRuns: pastRuns.filter((o) => o.style === lotRow.style),
+    };
     const ownTrains = trains.filter((t) => t.planLotId === planLot.id);
     const dtos = ownTrains.map((t) => {
       const outcome = sizePlanTrain({ wine: lot, volumeL: planLot.volumeL, line: lineSource, stages: t.stages, hoses: t.hoses, types, housings, sanitationKind: row.plan.sanitationKind });
@@ -267,7 +280,10 @@ export function createPlansService(db: Database) {
     if (ids.length === 0) return [];
     const catalogue = Promise.all([repo.catalogueTypes(tenant.wineryId), repo.catalogueHousings(tenant.wineryId), repo.stock(tenant.wineryId)] as const);
     catalogue.catch(() => undefined); // awaited by each plan; this only keeps a failure with no plan left from going unhandled
-    const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue })));
+    // The winery's closed runs of every style, read once for all the plans.
+    const closedRuns = repo.closedRunsForCapacity(tenant.wineryId, [...WINE_STYLES], PAST_RUNS_READ_MAX);
+    closedRuns.catch(() => undefined);
+    const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue, closedRuns })));
     return plans.filter((p): p is PlanDto => p !== null);
   }
 

@@ -1,15 +1,18 @@
-import { Plus, X } from 'lucide-react';
+import { BookmarkPlus, Plus, X } from 'lucide-react';
+import { useState } from 'react';
 import { convert } from '@shared/engine';
 import { HOSES_MAX, type TrainHoseInput } from '@shared/schemas/plans';
 import { Button } from '@/components/ui/button';
 import { NumberInput } from '@/components/ui/input';
 import { parseNumberText } from '@/lib/number-input';
 import type { useUnits } from '@/lib/units';
+import type { HosePresetDto } from '@shared/types/hose-presets';
+import { HosePresetPicker, SaveHosePresetDialog, useCanSavePresets } from './hose-presets';
 
 type Units = ReturnType<typeof useUnits>;
 
 /** A hose as typed: text until sized or saved. */
-export type DraftHose = { diameter: string; length: string; sumK: string };
+export type DraftHose = { diameter: string; length: string; sumK: string; /** Carried from a picked preset (not typed here). */ roughnessMm?: number | null };
 
 const diameterUnit = (u: Units) => (u.system === 'us' ? 'in' : 'mm');
 const diameterText = (mm: number, u: Units) => (u.system === 'us' ? String(Number(convert(mm, 'mm', 'inch').toFixed(4))) : String(mm));
@@ -41,7 +44,7 @@ export const toHoses = (draft: DraftHose[], saved: TrainHoseInput[] | null, u: U
     return [{
       diameterMm: same(d.diameter, shown?.diameter) ? before!.diameterMm : diameterMm(num(d.diameter), u),
       lengthM: same(d.length, shown?.length) ? before!.lengthM : finiteOr(num(d.length), (v) => u.fromInput('length', v)),
-      roughnessMm: before?.roughnessMm ?? null,
+      roughnessMm: d.roughnessMm !== undefined ? d.roughnessMm : (before?.roughnessMm ?? null),
       sumK: d.sumK.trim() === '' ? null : same(d.sumK, shown?.sumK) ? (before!.sumK ?? null) : num(d.sumK),
     }];
   });
@@ -49,6 +52,20 @@ export const toHoses = (draft: DraftHose[], saved: TrainHoseInput[] | null, u: U
 /** The train's hoses and lines (diameter, length, fittings as ΣK), edited in place. */
 export function HosesEditor({ id, draft, setDraft, editable, units: u }: { id: string; draft: DraftHose[]; setDraft: (next: DraftHose[]) => void; editable: boolean; units: Units }) {
   const set = (i: number, patch: Partial<DraftHose>) => setDraft(draft.map((h, k) => (k === i ? { ...h, ...patch } : h)));
+  const canSave = useCanSavePresets();
+  const [saving, setSaving] = useState<TrainHoseInput | null>(null);
+  const [saveNote, setSaveNote] = useState<string | null>(null);
+  /** A preset becomes a new row, shown in the person's units. */
+  const pick = (p: HosePresetDto) => setDraft([...draft, { ...toDraftHoses([p], u)[0], roughnessMm: p.roughnessMm }]);
+  const saveAsPreset = (i: number) => {
+    const hose = toHoses([draft[i]], null, u)[0] as TrainHoseInput | undefined;
+    if (!hose || ![hose.diameterMm, hose.lengthM].every((v) => Number.isFinite(v) && v > 0)) {
+      setSaveNote(`Enter hose ${i + 1}’s diameter and length before saving it as a preset.`);
+      return;
+    }
+    setSaveNote(null);
+    setSaving(hose);
+  };
   return (
     <fieldset className="rounded border border-ink-200 px-2.5 py-2">
       <legend className="px-1 text-sm font-semibold text-ink-800">Hoses and lines</legend>
@@ -69,16 +86,24 @@ export function HosesEditor({ id, draft, setDraft, editable, units: u }: { id: s
               <NumberInput id={`${id}-hk${i}`} placeholder="0" disabled={!editable} value={h.sumK} onChange={(e) => set(i, { sumK: e.target.value })} />
             </label>
             {editable ? (
-              <Button variant="ghost" size="sm" icon={<X />} aria-label={`Remove hose ${i + 1}`} onClick={() => setDraft(draft.filter((_, k) => k !== i))} />
+              <span className="flex">
+                {canSave ? <Button variant="ghost" size="sm" icon={<BookmarkPlus />} aria-label={`Save hose ${i + 1} as a preset`} title="Save as preset" onClick={() => saveAsPreset(i)} /> : null}
+                <Button variant="ghost" size="sm" icon={<X />} aria-label={`Remove hose ${i + 1}`} onClick={() => setDraft(draft.filter((_, k) => k !== i))} />
+              </span>
             ) : null}
           </li>
         ))}
       </ol>
+      {saveNote ? <p role="status" className="mt-1 text-sm text-watch-800">{saveNote}</p> : null}
       {editable && draft.length < HOSES_MAX ? (
-        <Button variant="ghost" size="sm" icon={<Plus />} className="mt-1" onClick={() => setDraft([...draft, { diameter: '', length: '', sumK: '' }])}>
-          Add hose
-        </Button>
+        <div className="mt-1 flex flex-wrap items-end gap-2">
+          <Button variant="ghost" size="sm" icon={<Plus />} onClick={() => setDraft([...draft, { diameter: '', length: '', sumK: '' }])}>
+            Add hose
+          </Button>
+          <HosePresetPicker id={`${id}-preset`} onPick={pick} units={u} />
+        </div>
       ) : null}
+      <SaveHosePresetDialog hose={saving} onClose={() => setSaving(null)} units={u} />
     </fieldset>
   );
 }

@@ -21,6 +21,7 @@ import { useDeleteTrain } from '../api/delete-train';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
 import { useUpdateTrain } from '../api/update-train';
 import { parseNumberText } from '@/lib/number-input';
+import { CapacitySource } from './capacity-source';
 import { HosesEditor, toDraftHoses, toHoses, type DraftHose } from './hoses-editor';
 
 /** A stage as typed: text fields stay text until sized or saved. */
@@ -115,7 +116,7 @@ function StageFigures({ s }: { s: StageSizing }) {
         ) : (
           <>
             {u.format('volume', s.capacityL)}
-            <span className="block text-xs font-normal text-ink-600">{s.capacitySource === 'vmax' ? 'from the lot’s Vmax test' : 'from the stage’s capacity'}</span>
+            <CapacitySource s={s} />
           </>
         )}
       </Figure>
@@ -299,7 +300,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
                     <NumberInput id={`${id}-n${i}`} disabled={!editable} value={d.housingCount} onChange={(e) => setStage(i, { housingCount: e.target.value })} />
                   </FormField>
                   <FormField label="Capacity" htmlFor={`${id}-c${i}`}>
-                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder="unknown" disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
+                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder={s?.capacitySource === 'past-runs' ? 'past runs' : s?.capacitySource === 'vmax' ? 'Vmax test' : 'unknown'} disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
                   </FormField>
                 </div>
               </div>

@@ -1,0 +1,47 @@
+import { and, asc, count, eq } from 'drizzle-orm';
+import type { DbOrTx } from '../../db/client';
+import { hosePresetsTable } from '../../db/schema';
+
+export type HosePresetRow = typeof hosePresetsTable.$inferSelect;
+export const HOSE_PRESET_NAME_UNIQUE = 'hose_presets_winery_name_uq';
+
+type PresetValues = { name: string; diameterMm: number; lengthM: number; roughnessMm: number | null; sumK: number | null };
+
+/** The winery's hose presets; every query filters by winery. */
+export function createHosePresetsRepository(db: DbOrTx) {
+  return {
+    async list(wineryId: string) {
+      return db.select().from(hosePresetsTable).where(eq(hosePresetsTable.wineryId, wineryId)).orderBy(asc(hosePresetsTable.name), asc(hosePresetsTable.id));
+    },
+    async count(wineryId: string) {
+      const [row] = await db.select({ n: count() }).from(hosePresetsTable).where(eq(hosePresetsTable.wineryId, wineryId));
+      return Number(row?.n ?? 0);
+    },
+    async get(wineryId: string, id: string) {
+      const [row] = await db.select().from(hosePresetsTable).where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)));
+      return row ?? null;
+    },
+    async insert(wineryId: string, values: PresetValues, by: { userId: string; userName: string | null }) {
+      const [row] = await db
+        .insert(hosePresetsTable)
+        .values({ wineryId, ...values, createdBy: by.userId, createdByName: by.userName })
+        .returning();
+      return row;
+    },
+    async update(wineryId: string, id: string, changes: Partial<PresetValues>) {
+      const [row] = await db
+        .update(hosePresetsTable)
+        .set({ ...changes, updatedAt: new Date() })
+        .where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)))
+        .returning();
+      return row ?? null;
+    },
+    async remove(wineryId: string, id: string) {
+      const rows = await db
+        .delete(hosePresetsTable)
+        .where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)))
+        .returning({ id: hosePresetsTable.id });
+      return rows.length > 0;
+    },
+  };
+}
