@@ -9,6 +9,7 @@ import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/c
 import { createLifeInputsService, type LifeInput } from '../cartridges/life-inputs.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
+import { createRunsInProgressService } from '../runs/runs-in-progress.service';
 import { presentStockType, presentTodayCartridge, presentTodayLot, presentTodayPlan } from './today.presenter';
 import { createTodayRepository } from './today.repository';
 
@@ -113,6 +114,7 @@ export function createTodayService(db: Database) {
   const cartridges = createCartridgesService(db);
   const plans = createPlansService(db);
   const lifeInputs = createLifeInputsService(db);
+  const runsInProgress = createRunsInProgressService(db);
 
   /**
    * The next bottling days: draft and approved plans dated today (UTC) or later, soonest first.
@@ -153,12 +155,14 @@ export function createTodayService(db: Database) {
 
   return {
     async today(tenant: TenantContext, now = new Date()): Promise<TodayDto> {
-      const [lots, summary, counts, toLookAt, planned] = await Promise.all([
+      const [lots, summary, counts, toLookAt, planned, running] = await Promise.all([
         cellar.listLots(tenant, ALL_LOTS),
         cartridges.summary(tenant),
         repo.counts(tenant.wineryId),
         cartridgesToLookAt(tenant.wineryId, now),
         upcomingPlans(tenant, now),
+        // the runs in progress with their stages' forecasts: one query of their own
+        runsInProgress.inProgress(tenant),
       ]);
 
       const byVerdict: Record<ReadinessVerdict, number> = { ready: 0, borderline: 0, 'not-ready': 0, unknown: 0 };
@@ -187,6 +191,7 @@ export function createTodayService(db: Database) {
         cartridges: toLookAt,
         stock: { types, shortfalls: types.filter((t) => t.shortfall).length },
         upcomingPlans: planned,
+        runsInProgress: running,
       };
     },
   };
