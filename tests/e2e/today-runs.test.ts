@@ -112,6 +112,9 @@ describe('Care: the ΔP of a flow measurement', () => {
     const cartridges = (await owner.client.get(`/api/cartridges?q=${membraneSerial}`)).body.items as { id: string }[];
     const detail = (await owner.client.get(`/api/cartridges/${cartridges[0].id}`)).body;
     expect(detail.life.recovery.latestPct).toBeCloseTo(100, 6);
+    // The cartridge's history keeps the flow with the ΔP it was measured at.
+    await page.goto(`${app.baseUrl}/cartridges/${cartridges[0].id}`);
+    await page.getByText(/^water flow .* at 0\.05\d*\s*bar$/).first().waitFor();
     expect(errors).toEqual([]);
     await context.close();
   });
