@@ -8,7 +8,9 @@ import type { MailMessage, Mailer } from './mail';
 export const MAIL_QUEUE = 'mail';
 export const ALERTS_SWEEP_QUEUE = 'alerts-sweep';
 export const ALERTS_DIGEST_QUEUE = 'alerts-digest';
-export const QUEUES = [MAIL_QUEUE, ALERTS_SWEEP_QUEUE, ALERTS_DIGEST_QUEUE] as const;
+/** The daily stock check of each winery (at its local STOCK_CHECK_HOUR). */
+export const ALERTS_STOCK_QUEUE = 'alerts-stock';
+export const QUEUES = [MAIL_QUEUE, ALERTS_SWEEP_QUEUE, ALERTS_DIGEST_QUEUE, ALERTS_STOCK_QUEUE] as const;
 
 /** A mail job: the message and the winery it belongs to (for the owners' list of failures). */
 export type MailJob = MailMessage & { wineryId?: string | null; failureId?: string };

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   careOverTemperatureAlert,
+  cartridgeDayNeed,
   dayNumber,
   daysBetween,
   defaultAlertChannel,
@@ -136,6 +137,38 @@ describe('end of life', () => {
     expect(endOfLifeAlerts({ cartridgeId: 'c', serial: 'S', budgets: [], estimatedEndMs: day - 1, nextPlannedDate: '2025-06-12' })).toMatchObject([{ threshold: 'forecast-before:2025-06-12' }]);
     expect(endOfLifeAlerts({ cartridgeId: 'c', serial: 'S', budgets: [], estimatedEndMs: day + 1, nextPlannedDate: '2025-06-12' })).toEqual([]);
     expect(endOfLifeAlerts({ cartridgeId: 'c', serial: 'S', budgets: [], estimatedEndMs: null, nextPlannedDate: '2025-06-12' })).toEqual([]);
+  });
+
+  // Common practice, no source: a set is sanitised once before each bottling run, and flow divides
+  // over cartridges in parallel in proportion to their 10-inch equivalents. Check values by hand.
+  it('a cartridge’s share of the next day that uses its housing: litres by 10-inch equivalents, one cycle per plan', () => {
+    const uses = [
+      { planId: 'p0', plannedDate: '2025-06-09', housingId: 'h1', volumeL: 99_000, setEquivalents: 9 }, // before today: ignored
+      { planId: 'p1', plannedDate: '2025-06-12', housingId: 'h2', volumeL: 50_000, setEquivalents: 9 }, // another housing
+      { planId: 'p2', plannedDate: '2025-06-14', housingId: 'h1', volumeL: 9_000, setEquivalents: 9 },
+      { planId: 'p2', plannedDate: '2025-06-14', housingId: 'h1', volumeL: 4_500, setEquivalents: 9 }, // second lot, same plan
+      { planId: 'p3', plannedDate: '2025-06-14', housingId: 'h1', volumeL: 3_000, setEquivalents: 6 }, // second plan that day
+      { planId: 'p4', plannedDate: '2025-06-20', housingId: 'h1', volumeL: 20_000, setEquivalents: 9 }, // after the next day
+    ];
+    // 30-inch cartridge = 3 equivalents: 9000×3/9 + 4500×3/9 + 3000×3/6 = 3000 + 1500 + 1500 = 6000 L; two plans → two cycles.
+    expect(cartridgeDayNeed({ housingId: 'h1', cartridgeEquivalents: 3, today: '2025-06-10', uses })).toEqual({ plannedDate: '2025-06-14', litres: 6000, cycles: 2 });
+    expect(cartridgeDayNeed({ housingId: 'h9', cartridgeEquivalents: 3, today: '2025-06-10', uses })).toBeNull();
+    // A set of unknown size: litres unknown, cycles still counted.
+    expect(cartridgeDayNeed({ housingId: 'h1', cartridgeEquivalents: 3, today: '2025-06-10', uses: [{ ...uses[2], setEquivalents: null }] })).toEqual({ plannedDate: '2025-06-14', litres: null, cycles: 1 });
+  });
+  it('warns when the forecast’s cycles or litres left are fewer than the next day needs; once per cartridge and day', () => {
+    const need = { plannedDate: '2025-06-14', litres: 6000, cycles: 2 };
+    const base = { cartridgeId: 'c', serial: 'S', budgets: [] };
+    expect(endOfLifeAlerts({ ...base, remainingCycles: 1, remainingLitres: 100_000, need })).toMatchObject([
+      { threshold: 'forecast-before:2025-06-14', severity: 'warning', details: { remainingCycles: 1, cyclesNeeded: 2 } },
+    ]);
+    expect(endOfLifeAlerts({ ...base, remainingCycles: 5, remainingLitres: 5999, need })).toMatchObject([{ threshold: 'forecast-before:2025-06-14', details: { litresNeeded: 6000 } }]);
+    // Both short, and the date too: still one alert for the cartridge and that day.
+    expect(endOfLifeAlerts({ ...base, remainingCycles: 0, remainingLitres: 0, need, estimatedEndMs: 0, nextPlannedDate: '2025-06-14' })).toHaveLength(1);
+    expect(endOfLifeAlerts({ ...base, remainingCycles: 2, remainingLitres: 6000, need })).toEqual([]);
+    // The forecast does not know: no alert, never a guess.
+    expect(endOfLifeAlerts({ ...base, remainingCycles: null, remainingLitres: null, need })).toEqual([]);
+    expect(endOfLifeAlerts({ ...base, remainingCycles: null, remainingLitres: 10, need: { ...need, litres: null } })).toEqual([]);
   });
 });
 

@@ -70,9 +70,57 @@ export function integrityAlert(input: { cartridgeId: string; serial: string; lat
 /** One rated budget's use, as the cartridge-life forecast reports it. */
 export type BudgetFraction = { factor: string; fraction: number | null };
 
+/** What the approved plans up to and including the next bottling day that uses a cartridge will ask of it. */
+export type CartridgeDayNeed = {
+  /** the next approved bottling day that uses the cartridge's housing, YYYY-MM-DD */
+  plannedDate: string;
+  /** litres through this one cartridge that day, L (its share of each lot), or null when unknown */
+  litres: number | null;
+  /** care cycles before and during that day (one sanitation per plan that uses the housing) */
+  cycles: number;
+};
+
+/** One planned lot's use of a housing (a stage of its chosen train), for {@link cartridgeDayNeed}. */
+export type PlannedHousingUse = {
+  planId: string;
+  /** YYYY-MM-DD */
+  plannedDate: string;
+  housingId: string;
+  /** litres of the lot through the stage, L */
+  volumeL: number;
+  /** 10-inch equivalents of the whole stage set (all its housings and rounds), or null when unknown */
+  setEquivalents: number | null;
+};
+
+/**
+ * What a cartridge installed in a housing will be asked for by the approved plans up to and
+ * including the next day that uses that housing (from `today` on): its share of each lot's
+ * litres through the stage (flow divides over the set in parallel in proportion to the 10-inch
+ * equivalents) and one sanitation cycle per plan that uses the housing that day (a filter set is
+ * sanitised before each bottling run). Common practice, no source. Null when no plan uses the
+ * housing from today on.
+ */
+export function cartridgeDayNeed(input: { housingId: string; cartridgeEquivalents: number; today: string; uses: PlannedHousingUse[] }): CartridgeDayNeed | null {
+  const own = input.uses.filter((u) => u.housingId === input.housingId && daysBetween(input.today, u.plannedDate) >= 0);
+  if (!own.length) return null;
+  const next = own.map((u) => u.plannedDate).sort()[0];
+  const that = own.filter((u) => u.plannedDate === next);
+  let litres: number | null = 0;
+  for (const u of that) {
+    if (litres === null || u.setEquivalents === null || !(u.setEquivalents > 0) || !(input.cartridgeEquivalents > 0) || !Number.isFinite(u.volumeL)) {
+      litres = null;
+      continue;
+    }
+    litres += (Math.max(0, u.volumeL) * input.cartridgeEquivalents) / u.setEquivalents;
+  }
+  return { plannedDate: next, litres, cycles: new Set(that.map((u) => u.planId)).size };
+}
+
 /**
  * A cartridge near the end of its life: each rated budget used to END_OF_LIFE_FRACTION or more
- * (one alert per budget), and a life forecast that ends before the next planned day needing it.
+ * (one alert per budget), and a life forecast that is spent before the next planned day needing
+ * it: the forecast's end date falls before that day, or its remaining care cycles or litres are
+ * fewer than the approved plans up to and including that day will ask (see {@link cartridgeDayNeed}).
  */
 export function endOfLifeAlerts(input: {
   cartridgeId: string;
@@ -82,6 +130,12 @@ export function endOfLifeAlerts(input: {
   estimatedEndMs?: number | null;
   /** the next approved bottling day that needs this cartridge, YYYY-MM-DD, or null */
   nextPlannedDate?: string | null;
+  /** care cycles left before the first limit (the life forecast's remainingCycles), or null when unknown */
+  remainingCycles?: number | null;
+  /** litres left before the first limit (the life forecast's remainingLitres), or null when unknown */
+  remainingLitres?: number | null;
+  /** what the plans up to and including the next day that uses the cartridge will ask of it */
+  need?: CartridgeDayNeed | null;
 }): AlertFinding[] {
   const out: AlertFinding[] = [];
   for (const b of input.budgets) {
@@ -97,20 +151,43 @@ export function endOfLifeAlerts(input: {
       nextStep: b.fraction >= 1 ? 'Replace the cartridge before the next run; its rated budget is spent.' : 'Order a replacement now and plan to change it at the next convenient changeover.',
     });
   }
+  const forecastAlert = (date: string, why: string, details?: Record<string, number>): AlertFinding => ({
+    kind: 'cartridge-end-of-life',
+    severity: 'warning',
+    recordType: 'cartridge',
+    recordId: input.cartridgeId,
+    threshold: `forecast-before:${date}`,
+    title: `${input.serial} may be spent before ${date}`,
+    message: `The life forecast of cartridge ${input.serial} ends before the bottling day of ${date} that needs it: ${why}`,
+    nextStep: 'Have a replacement on the shelf for that day, or change the cartridge beforehand.',
+    ...(details ? { details } : {}),
+  });
+  const need = input.need;
+  const finite = (v: number | null | undefined): v is number => v !== null && v !== undefined && Number.isFinite(v);
+  if (need) {
+    const { remainingCycles, remainingLitres } = input;
+    if (finite(remainingCycles) && remainingCycles < need.cycles) {
+      out.push(
+        forecastAlert(need.plannedDate, `${fmt(remainingCycles)} care ${remainingCycles === 1 ? 'cycle' : 'cycles'} left, the day needs ${fmt(need.cycles)}.`, {
+          remainingCycles,
+          cyclesNeeded: need.cycles,
+        }),
+      );
+      return out;
+    }
+    if (finite(remainingLitres) && finite(need.litres) && remainingLitres < need.litres) {
+      out.push(
+        forecastAlert(need.plannedDate, `about ${fmt(remainingLitres)} L left, the day puts about ${fmt(need.litres)} L through it.`, {
+          remainingLitres,
+          litresNeeded: need.litres,
+        }),
+      );
+      return out;
+    }
+  }
   if (input.estimatedEndMs != null && input.nextPlannedDate && Number.isFinite(input.estimatedEndMs)) {
     const dayMs = dayNumber(input.nextPlannedDate) * 86_400_000;
-    if (Number.isFinite(dayMs) && input.estimatedEndMs < dayMs) {
-      out.push({
-        kind: 'cartridge-end-of-life',
-        severity: 'warning',
-        recordType: 'cartridge',
-        recordId: input.cartridgeId,
-        threshold: `forecast-before:${input.nextPlannedDate}`,
-        title: `${input.serial} may be spent before ${input.nextPlannedDate}`,
-        message: `The life forecast of cartridge ${input.serial} ends before the bottling day of ${input.nextPlannedDate} that needs it.`,
-        nextStep: 'Have a replacement on the shelf for that day, or change the cartridge beforehand.',
-      });
-    }
+    if (Number.isFinite(dayMs) && input.estimatedEndMs < dayMs) out.push(forecastAlert(input.nextPlannedDate, 'at the present pace of care it runs out first.'));
   }
   return out;
 }

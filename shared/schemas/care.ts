@@ -25,6 +25,8 @@ export const AGENT_MAX = 120;
 export const FLOW_BASES = ['cartridge', 'housing'] as const;
 export type FlowBasis = (typeof FLOW_BASES)[number];
 export const CARE_NOTES_MAX = 2000;
+/** Highest ΔP of a clean-water flow measurement, bar (above a cartridge's forward rating). */
+export const FLOW_DP_MAX_BAR = 10;
 
 /** A number that may be left out; null or absent means "not measured". */
 const optionalNum = (what: string) => z.number({ error: `Enter ${what} as a number, or leave it empty.` });
@@ -49,6 +51,15 @@ export const logCycleInputSchema = z
     waterFlowAfterLh: flow('the water flow after'),
     /** Temperature of the water the flows were measured with, °C (flows are brought to 20 °C). */
     waterTempC: optionalNum('the water temperature').min(0, { error: 'The water temperature is at least 0 °C.' }).max(100, { error: 'The water temperature is at most 100 °C.' }).nullable().optional(),
+    /**
+     * ΔP across the cartridge while the water flows were measured, bar. Left out, the type's
+     * clean-water specification ΔP is assumed; flows are brought to that reference ΔP (Q ∝ ΔP).
+     */
+    flowDpBar: optionalNum('the ΔP of the flow measurement')
+      .positive({ error: 'The ΔP of the flow measurement must be more than 0.' })
+      .max(FLOW_DP_MAX_BAR, { error: `The ΔP of the flow measurement is at most ${FLOW_DP_MAX_BAR} bar.` })
+      .nullable()
+      .optional(),
     /** Whether the flows are this cartridge's alone or the whole housing's. */
     flowBasis: z.enum(FLOW_BASES, { error: 'Choose this cartridge or the whole housing.' }).optional(),
     /** Set when the cycle really ran above the cartridge's or housing's rating: it is recorded and flagged. */

@@ -36,6 +36,8 @@ export type CareTargetDto = {
   bubblePointMinBar: number | null;
   diffusionMaxMlMinPer10in: number | null;
   flowRecoveryMinPct: number;
+  /** The type's clean-water specification ΔP, bar: the reference flows are brought to, and the default ΔP of a flow measurement. */
+  waterDpBar: number;
   /** Clean-water flow to compare against: the as-new flow, else the first flow logged after a cycle. */
   flowBasis: { kind: 'new' | 'spec' | 'first-after'; flowLh: number } | null;
   steamCycles: number;

@@ -163,3 +163,31 @@ export type RunStartOptionDto = {
   trainName: string;
   runningRunId: string | null;
 };
+
+/** One stage of a run in progress, as Today shows it: its latest ΔP, forecast and alarm. */
+export type RunInProgressStageDto = {
+  index: number;
+  name: string;
+  cartridgeTypeName: string;
+  terminalDpBar: number;
+  /** ΔP of the latest counted reading, bar, or null before the first reading. */
+  dpBar: number | null;
+  readingCount: number;
+  /** The forecast's figures Today shows, or null with the reason in `note`. */
+  forecast: Pick<RunForecast, 'volumeLeftL' | 'hoursLeft' | 'timeLeft' | 'reachedTerminal' | 'beyondReadings' | 'volumeSeenL'> | null;
+  alarm: RunAlarm | null;
+  note: string | null;
+  flatWarning: string | null;
+};
+
+/** A run in progress with each stage's forecast and alarm (Today). */
+export type RunInProgressDto = {
+  id: string;
+  startedAt: string;
+  plan: { id: string; name: string; plannedDate: string };
+  lot: { id: string; code: string; name: string };
+  /** Litres of the lot to bottle in this run, and through the train so far, L. */
+  volumeL: number;
+  currentVolumeL: number;
+  stages: RunInProgressStageDto[];
+};

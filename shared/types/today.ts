@@ -3,6 +3,7 @@ import type { BudgetFactor, LimitingFactor, ReadinessVerdict, WineStyle } from '
 import type { CartridgeStatus } from '../schemas/cartridges';
 import type { PlanStatus } from '../schemas/plans';
 import type { StockFigure } from './cartridges';
+import type { RunInProgressDto } from './runs';
 
 /** A lot that is not ready, borderline, or has no verdict yet. */
 export type TodayLotDto = {
@@ -117,4 +118,6 @@ export type TodayDto = {
   };
   /** Draft and approved plans dated today or later, soonest first, at most 5. */
   upcomingPlans: TodayPlanDto[];
+  /** Runs in progress, oldest first, each stage with its forecast and alarm (at most 20). */
+  runsInProgress: RunInProgressDto[];
 };

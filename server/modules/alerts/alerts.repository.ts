@@ -1,13 +1,10 @@
-import { and, asc, count, desc, eq, exists, gte, inArray, isNull, or, sql } from 'drizzle-orm';
+import { and, count, desc, eq, gte, inArray, isNull, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import {
   alertPreferencesTable,
   alertsTable,
   calendarFeedsTable,
-  cartridgeEventsTable,
-  cartridgesTable,
   cartridgeTypesTable,
-  housingsTable,
   mailFailuresTable,
   membershipsTable,
   notificationsTable,
@@ -18,54 +15,8 @@ import {
 
 export type AlertRow = typeof alertsTable.$inferSelect;
 
-/** Event kinds the life forecast reads. */
-const LIFE_EVENT_KINDS = ['registered', 'cycle', 'integrity'] as const;
-/** Event kinds that make an in-stock cartridge worth forecasting (it has been used). */
-const USE_EVENT_KINDS = ['cycle', 'integrity', 'run'] as const;
-
 export function createAlertsRepository(db: DbOrTx) {
-  /** Cartridges whose life the rules judge: installed, regenerating, or in stock after use. */
-  const inUse = (wineryId: string) => {
-    const used = db
-      .select({ one: sql`1` })
-      .from(cartridgeEventsTable)
-      .where(and(eq(cartridgeEventsTable.cartridgeId, cartridgesTable.id), inArray(cartridgeEventsTable.kind, [...USE_EVENT_KINDS])));
-    return and(
-      eq(cartridgesTable.wineryId, wineryId),
-      or(inArray(cartridgesTable.status, ['installed', 'regenerating']), and(eq(cartridgesTable.status, 'in-stock'), exists(used))),
-    );
-  };
   return {
-    /** The cartridges the alert rules judge, with their type and housing name (one query). */
-    async cartridgesInUse(wineryId: string) {
-      return db
-        .select({
-          cartridge: {
-            id: cartridgesTable.id,
-            serial: cartridgesTable.serial,
-            status: cartridgesTable.status,
-            housingId: cartridgesTable.housingId,
-            position: cartridgesTable.position,
-            litresFiltered: cartridgesTable.litresFiltered,
-            lengthIn: cartridgesTable.lengthIn,
-          },
-          housingName: housingsTable.name,
-          type: cartridgeTypesTable,
-        })
-        .from(cartridgesTable)
-        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-        .where(inUse(wineryId))
-        .orderBy(asc(cartridgesTable.serial));
-    },
-    /** The forecast's events of those cartridges, by a join (no list of ids), grouped by the caller. */
-    async lifeEvents(wineryId: string) {
-      return db
-        .select({ cartridgeId: cartridgeEventsTable.cartridgeId, kind: cartridgeEventsTable.kind, at: cartridgeEventsTable.at, details: cartridgeEventsTable.details })
-        .from(cartridgeEventsTable)
-        .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
-        .where(and(inUse(wineryId), eq(cartridgeEventsTable.wineryId, wineryId), inArray(cartridgeEventsTable.kind, [...LIFE_EVENT_KINDS])));
-    },
     /** Serialises evaluations of one winery until the end of the transaction. */
     async lockWinery(wineryId: string) {
       await db.execute(sql`select pg_advisory_xact_lock(hashtext(${'alerts:' + wineryId}))`);

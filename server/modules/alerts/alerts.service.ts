@@ -2,6 +2,7 @@ import {
   ALERT_KINDS,
   alertKindLabels,
   careOverTemperatureAlert,
+  cartridgeDayNeed,
   defaultAlertChannel,
   endOfLifeAlerts,
   flatDpAlert,
@@ -15,6 +16,7 @@ import {
   type AlertChannel,
   type AlertFinding,
   type AlertKind,
+  type PlannedHousingUse,
 } from '../../../shared/engine';
 import type { AlertPreferencesInput, NotificationsQuery } from '../../../shared/schemas/alerts';
 import type { AlertPreferencesDto, MailFailureDto, NotificationDto, NotificationsDto } from '../../../shared/types/alerts';
@@ -23,15 +25,23 @@ import { notFound } from '../../lib/errors';
 import { logger } from '../../lib/logger';
 import type { MailMessage, Mailer } from '../../lib/mail';
 import type { TenantContext } from '../../middleware/authorize';
-import { lifeFromHistory } from '../cartridges/cartridges.service';
+import { lifeVerdictFromHistory } from '../cartridges/cartridges.service';
+import { createLifeInputsService } from '../cartridges/life-inputs.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { createRunsService } from '../runs/runs.service';
 import { alertSettingsOf } from './alert-settings';
 import { createAlertsRepository, type AlertRow } from './alerts.repository';
 
-/** The rules the server evaluates from stored records (the others are decided when their event is recorded). */
-const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'stock-short', 'lot-not-ready', 'run-terminal-dp', 'stage-flat-dp', 'care-over-temperature'];
+/**
+ * The rules evaluated after each change and by the 10-minute sweep. The stock rule is not among
+ * them: it is checked when a plan is approved and then once a day (see {@link STOCK_CHECK_HOUR}).
+ */
+const SWEPT: readonly AlertKind[] = ['integrity-failed', 'cartridge-end-of-life', 'lot-not-ready', 'run-terminal-dp', 'stage-flat-dp', 'care-over-temperature'];
+/** The rules of an evaluation that includes the stock check (approval, the daily check). */
+const WITH_STOCK: readonly AlertKind[] = [...SWEPT, 'stock-short'];
+/** Local hour of the daily stock check in each winery's time zone: an hour before the digest, so a new shortfall is in it. */
+export const STOCK_CHECK_HOUR = 6;
 export const DIGEST_HOUR = 7;
 export const NOTIFICATIONS_PAGE_SIZE = 20;
 
@@ -93,6 +103,7 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
   const plans = createPlansService(db);
   const cellar = createCellarService(db);
   const runs = createRunsService(db);
+  const lifeInputs = createLifeInputsService(db);
 
   /** Running runs: a stage forecast to reach terminal ΔP before the lot is done, or a membrane's ΔP flat while litres rise. */
   async function runFindings(tenant: TenantContext): Promise<AlertFinding[]> {
@@ -121,54 +132,79 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
     return out;
   }
 
-  /** Every condition that holds now in this winery, from stored records (engine rules). */
-  async function findings(wineryId: string, now: Date, settings: Record<string, unknown>): Promise<AlertFinding[]> {
+  /** Every condition that holds now in this winery, from stored records (engine rules); the stock rule only when asked. */
+  async function findings(wineryId: string, now: Date, settings: Record<string, unknown>, opts: { stock: boolean }): Promise<AlertFinding[]> {
     const { timeZone, orderLeadTimeDays } = alertSettingsOf(settings);
     const today = localDate(now.getTime(), timeZone);
     const tenant: TenantContext = { wineryId, role: 'owner', userId: '' };
     const out: AlertFinding[] = [];
-    const [rows, events] = await Promise.all([repo.cartridgesInUse(wineryId), repo.lifeEvents(wineryId)]);
-    const byCartridge = new Map<string, typeof events>();
-    for (const e of events) byCartridge.set(e.cartridgeId, [...(byCartridge.get(e.cartridgeId) ?? []), e]);
-    for (const row of rows) {
-      const history = byCartridge.get(row.cartridge.id) ?? [];
-      const { life } = lifeFromHistory(row.type, row.cartridge, history, now);
+    const planIds = await repo.approvedPlanIds(wineryId, today);
+    const [{ items, housings }, approved] = await Promise.all([lifeInputs.lifeInputs(wineryId, { housings: true }), plans.getMany(tenant, planIds)]);
+    // Each approved day's use of each housing, for the forecast part of the end-of-life rule.
+    const uses: PlannedHousingUse[] = [];
+    for (const plan of approved) {
+      for (const pl of plan.lots) {
+        const train = pl.trains.find((t) => t.id === pl.chosenTrainId);
+        train?.stages.forEach((st, i) => {
+          const eq = train.sizing?.stages[i]?.elementEquivalents;
+          uses.push({ planId: plan.id, plannedDate: plan.plannedDate, housingId: st.housingId, volumeL: pl.volumeL, setEquivalents: eq !== undefined && eq > 0 ? eq : null });
+        });
+      }
+    }
+    for (const row of items) {
+      const { cartridge, type, history } = row;
+      const { life } = lifeVerdictFromHistory(type, cartridge, history, now);
       if (!life) continue;
-      const failed = integrityAlert({ cartridgeId: row.cartridge.id, serial: row.cartridge.serial, latestPass: life.integrity.latestPass });
+      const failed = integrityAlert({ cartridgeId: cartridge.id, serial: cartridge.serial, latestPass: life.integrity.latestPass });
       if (failed) out.push(failed);
-      out.push(...endOfLifeAlerts({ cartridgeId: row.cartridge.id, serial: row.cartridge.serial, budgets: life.budgets }));
-      // A cycle hotter than the type's rating (e.g. a rating corrected downwards since), until a passing integrity test after it.
+      const need =
+        cartridge.status === 'installed' && cartridge.housingId
+          ? cartridgeDayNeed({ housingId: cartridge.housingId, cartridgeEquivalents: cartridge.lengthIn / 10, today, uses })
+          : null;
+      out.push(
+        ...endOfLifeAlerts({
+          cartridgeId: cartridge.id,
+          serial: cartridge.serial,
+          budgets: life.budgets,
+          remainingCycles: life.remainingCycles,
+          remainingLitres: life.remainingLitres,
+          need,
+          estimatedEndMs: life.estimatedEndMs,
+          nextPlannedDate: need?.plannedDate ?? null,
+        }),
+      );
+      // A cycle hotter than the type's or the housing's rating (logged as such, or a rating corrected
+      // downwards since), until a passing integrity test after it.
       for (const e of history) {
         if (e.kind !== 'cycle' || typeof e.details?.tempC !== 'number') continue;
         if (history.some((x) => x.kind === 'integrity' && x.details?.pass === true && x.at > e.at)) continue;
         const hot = careOverTemperatureAlert({
-          cartridgeId: row.cartridge.id,
-          serial: row.cartridge.serial,
+          cartridgeId: cartridge.id,
+          serial: cartridge.serial,
           cycleId: e.at.toISOString(),
           tempC: e.details.tempC,
-          cartridgeMaxC: row.type.maxTempC,
-          housingMaxC: null,
+          cartridgeMaxC: type.maxTempC,
+          housingMaxC: e.housingId ? (housings.get(e.housingId)?.maxTempC ?? null) : null,
         });
         if (hot) out.push(hot);
       }
     }
     out.push(...(await runFindings(tenant)));
-    const planIds = await repo.approvedPlanIds(wineryId, today);
-    if (planIds.length) {
+    if (approved.length) {
       const lots = await cellar.listLots(tenant, { q: undefined, sort: 'code', order: 'asc', page: 1, pageSize: 5000 });
       const readiness = new Map(lots.items.map((l) => [l.id, l.readiness]));
-      for (const id of planIds) {
-        const plan = await plans.get(tenant, id).catch(() => null);
-        if (!plan) continue;
-        const short = stockShortAlert({
-          planId: plan.id,
-          planName: plan.name,
-          plannedDate: plan.plannedDate,
-          today,
-          leadTimeDays: orderLeadTimeDays,
-          shortages: plan.needs.map((n) => ({ typeName: n.typeName, lengthIn: n.lengthIn, short: n.shortfall })),
-        });
-        if (short) out.push(short);
+      for (const plan of approved) {
+        if (opts.stock) {
+          const short = stockShortAlert({
+            planId: plan.id,
+            planName: plan.name,
+            plannedDate: plan.plannedDate,
+            today,
+            leadTimeDays: orderLeadTimeDays,
+            shortages: plan.needs.map((n) => ({ typeName: n.typeName, lengthIn: n.lengthIn, short: n.shortfall })),
+          });
+          if (short) out.push(short);
+        }
         for (const pl of plan.lots) {
           const r = readiness.get(pl.lot.id);
           const finding = lotNotReadyAlert({
@@ -241,26 +277,34 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
     return { opened, cleared: stale.length };
   }
 
-  async function evaluate(wineryId: string, now = new Date()) {
+  /**
+   * Evaluates the winery's rules and opens or clears their alerts. The stock rule is part of it
+   * only with `stock: true` (a plan approved, the daily check); otherwise its alerts are left as they are.
+   */
+  async function evaluate(wineryId: string, now = new Date(), opts: { stock?: boolean } = {}) {
     const winery = await repo.winery(wineryId);
     if (!winery) return { opened: 0, cleared: 0 };
-    const found = await findings(wineryId, now, winery.settings);
-    return db.transaction((tx) => openAndClear(tx, wineryId, found, now, { clearKinds: SWEPT }));
+    const stock = opts.stock === true;
+    const found = await findings(wineryId, now, winery.settings, { stock });
+    return db.transaction((tx) => openAndClear(tx, wineryId, found, now, { clearKinds: stock ? WITH_STOCK : SWEPT }));
   }
 
-  // Evaluations after requests: one at a time per winery; a request during one asks for another.
+  // Evaluations after requests: one at a time per winery; a request during one asks for another
+  // (with the stock check when any of the requests asked for it).
   const running = new Map<string, Promise<void>>();
-  const again = new Set<string>();
-  function evaluateSoon(wineryId: string) {
+  const again = new Map<string, boolean>();
+  function evaluateSoon(wineryId: string, opts: { stock?: boolean } = {}) {
     if (running.has(wineryId)) {
-      again.add(wineryId);
+      again.set(wineryId, (again.get(wineryId) ?? false) || opts.stock === true);
       return;
     }
+    again.set(wineryId, opts.stock === true);
     const run = (async () => {
       do {
+        const stock = again.get(wineryId) ?? false;
         again.delete(wineryId);
         try {
-          await evaluate(wineryId);
+          await evaluate(wineryId, new Date(), { stock });
         } catch (error) {
           logger.error({ err: error, wineryId }, 'alert evaluation failed');
         }
@@ -276,9 +320,24 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
     async idle() {
       while (running.size) await Promise.allSettled([...running.values()]);
     },
-    /** The scheduled sweep: every winery, one after the other. */
+    /** The scheduled sweep: every winery, one after the other (all rules but the stock check). */
     async sweep(now = new Date()) {
       for (const w of await repo.allWineries()) await evaluate(w.id, now);
+    },
+    /**
+     * The daily stock check: each winery whose local hour is STOCK_CHECK_HOUR (or only the given
+     * winery) is evaluated with the stock rule, which raises a shortfall again if it is still there
+     * and clears it when it is resolved. Answers the wineries checked.
+     */
+    async stockCheck(nowMs: number, onlyWineryId?: string) {
+      let checked = 0;
+      for (const w of await repo.allWineries()) {
+        if (onlyWineryId && w.id !== onlyWineryId) continue;
+        if (!isLocalHour(nowMs, alertSettingsOf(w.settings).timeZone, STOCK_CHECK_HOUR)) continue;
+        await evaluate(w.id, new Date(nowMs), { stock: true });
+        checked += 1;
+      }
+      return checked;
     },
 
     /** The digest at DIGEST_HOUR in each winery's time zone: one mail per person with what they chose to get that way. */

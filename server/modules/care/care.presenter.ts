@@ -37,6 +37,7 @@ export const presentCareTarget = (
   bubblePointMinBar: t.bubblePointMinBar,
   diffusionMaxMlMinPer10in: t.diffusionMaxMlMinPer10in,
   flowRecoveryMinPct: t.flowRecoveryMinPct,
+  waterDpBar: t.waterDpBar,
   flowBasis,
   steamCycles: c.steamCycles,
   hotWaterCycles: c.hotWaterCycles,

@@ -99,6 +99,7 @@ export function createCareService(db: Database) {
         }
         const housingEq = input.flowBasis === 'housing' && housing ? await housingEquivalents(txRepo, tenant.wineryId, housing.id) : undefined;
         const installed = c.status === 'installed';
+        const hasFlow = (input.waterFlowBeforeLh ?? null) !== null || (input.waterFlowAfterLh ?? null) !== null;
         const newId = await txRepo.insertEvent({
           wineryId: tenant.wineryId,
           cartridgeId: c.id,
@@ -116,6 +117,8 @@ export function createCareService(db: Database) {
             waterFlowBeforeLh: input.waterFlowBeforeLh,
             waterFlowAfterLh: input.waterFlowAfterLh,
             waterTempC: input.waterTempC,
+            // the ΔP the flows were measured at: as given, else the type's specification ΔP (kept with the record)
+            flowDpBar: hasFlow ? (input.flowDpBar ?? type.waterDpBar) : undefined,
             flowBasis: input.flowBasis,
             housingEquivalents: housingEq,
             ...(aboveRating ? { aboveRating: true, ratedMaxC: aboveRating.ratedMaxC } : {}),

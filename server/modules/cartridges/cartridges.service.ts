@@ -49,7 +49,7 @@ const CYCLE_KINDS: readonly CareCycleKind[] = ['steam', 'hot-water', 'chemical',
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : undefined);
 
 /** The type's ratings the life forecast reads. */
-type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct' | 'waterFlowLhPer10in'>;
+type LifeRatings = Pick<CartridgeTypeRow, 'ratedSteamCycles' | 'ratedHotWaterCycles' | 'ratedChemicalCycles' | 'flowRecoveryMinPct' | 'waterFlowLhPer10in' | 'waterDpBar'>;
 
 const duplicateSerial = (serial: string) => conflict(`Serial ${serial} is already registered in this winery.`, 'duplicate_serial');
 
@@ -91,7 +91,9 @@ function forecastFromHistory<T>(
   for (const e of oldestFirst) {
     const d = e.details ?? {};
     if (e.kind === 'cycle' && CYCLE_KINDS.includes(d.kind as CareCycleKind)) {
-      // flows to one cartridge at 20 °C (Darcy with IAPWS viscosity), whatever they were measured as
+      // flows to one cartridge at 20 °C and the type's specification ΔP (Darcy: Q ∝ ΔP/μ), whatever they were measured as
+      const dpBar = num(d.flowDpBar);
+      const atRefDp = dpBar !== undefined && dpBar > 0 && type.waterDpBar > 0 ? { dpBar, refDpBar: type.waterDpBar } : {};
       const norm = (v: number | undefined) => {
         if (v === undefined || !(v > 0)) return v;
         const housingEq = num(d.housingEquivalents);
@@ -104,6 +106,7 @@ function forecastFromHistory<T>(
             cartridgeEquivalents: own,
             housingEquivalents: housingEq,
             waterTempC: num(d.waterTempC),
+            ...atRefDp,
           });
         } catch {
           return v;

@@ -68,7 +68,7 @@ function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: nu
   return out;
 }
 
-function stageFigures(p: {
+export function stageFigures(p: {
   readings: EffectiveReading[];
   terminalDpBar: number;
   lineFlowLh: number | null;

@@ -2,7 +2,7 @@ import type { CartridgeStockRowDto } from '../../../shared/types/cartridges';
 import type { LotListItemDto } from '../../../shared/types/cellar';
 import type { PlanDto } from '../../../shared/types/plans';
 import type { TodayCartridgeDto, TodayCartridgeFigure, TodayLotDto, TodayPlanDto, TodayStockTypeDto } from '../../../shared/types/today';
-import type { TodayCartridgeRow } from './today.repository';
+import type { LifeInput } from '../cartridges/life-inputs.service';
 
 export const presentTodayLot = (lot: LotListItemDto, reason: string): TodayLotDto => ({
   id: lot.id,
@@ -16,7 +16,7 @@ export const presentTodayLot = (lot: LotListItemDto, reason: string): TodayLotDt
 });
 
 export const presentTodayCartridge = (
-  row: TodayCartridgeRow,
+  row: Pick<LifeInput, 'cartridge' | 'housingName'>,
   typeName: string,
   attention: { reason: string; figure: TodayCartridgeFigure; alsoNoted: string[] },
 ): TodayCartridgeDto => ({

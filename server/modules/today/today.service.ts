@@ -5,10 +5,12 @@ import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shar
 import type { Database } from '../../db/client';
 import type { TenantContext } from '../../middleware/authorize';
 import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/cartridges.service';
+import { createLifeInputsService, type LifeInput } from '../cartridges/life-inputs.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
+import { createRunsInProgressService } from '../runs/runs-in-progress.service';
 import { presentStockType, presentTodayCartridge, presentTodayLot, presentTodayPlan } from './today.presenter';
-import { createTodayRepository, type TodayCartridgeRow, type TodayLifeType } from './today.repository';
+import { createTodayRepository } from './today.repository';
 
 /** Lots shown on the page; the total is given beside them. */
 export const TODAY_LOTS_MAX = 8;
@@ -110,6 +112,8 @@ export function createTodayService(db: Database) {
   const cellar = createCellarService(db);
   const cartridges = createCartridgesService(db);
   const plans = createPlansService(db);
+  const lifeInputs = createLifeInputsService(db);
+  const runsInProgress = createRunsInProgressService(db);
 
   /**
    * The next bottling days: draft and approved plans dated today (UTC) or later, soonest first.
@@ -125,18 +129,14 @@ export function createTodayService(db: Database) {
 
   /** Cartridges to look at, most urgent first: two queries whatever their number (the types, then the cartridges with their events). */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
-    const [types, rows] = await Promise.all([repo.lifeTypes(wineryId), repo.cartridgesInUse(wineryId)]);
-    const typeById = new Map(types.map((t) => [t.id, t]));
-    const flagged: { row: TodayCartridgeRow; type: TodayLifeType; findings: Finding[] }[] = [];
-    for (const row of rows) {
-      const type = typeById.get(row.cartridge.typeId);
-      if (!type) continue;
-      const history = (row.events ?? []).map(([kind, atMs, details]) => ({ kind, at: new Date(atMs), details: details ?? {} }));
-      const { life } = lifeVerdictFromHistory(type, row.cartridge, history, now);
+    const { items } = await lifeInputs.lifeInputs(wineryId);
+    const flagged: { row: LifeInput; findings: Finding[] }[] = [];
+    for (const row of items) {
+      const { life } = lifeVerdictFromHistory(row.type, row.cartridge, row.history, now);
       if (!life) continue;
-      const integrityAt = history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
+      const integrityAt = row.history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
       const findings = findingsOf(life, integrityAt);
-      if (findings.length) flagged.push({ row, type, findings });
+      if (findings.length) flagged.push({ row, findings });
     }
     flagged.sort(
       (a, b) =>
@@ -145,8 +145,8 @@ export function createTodayService(db: Database) {
         a.row.cartridge.serial.localeCompare(b.row.cartridge.serial),
     );
     return {
-      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, type, findings: [lead, ...rest] }) =>
-        presentTodayCartridge(row, type.name, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
+      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, findings: [lead, ...rest] }) =>
+        presentTodayCartridge(row, row.type.name, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
       ),
       attentionTotal: flagged.length,
     };
@@ -154,12 +154,14 @@ export function createTodayService(db: Database) {
 
   return {
     async today(tenant: TenantContext, now = new Date()): Promise<TodayDto> {
-      const [lots, summary, counts, toLookAt, planned] = await Promise.all([
+      const [lots, summary, counts, toLookAt, planned, running] = await Promise.all([
         cellar.listLots(tenant, ALL_LOTS),
         cartridges.summary(tenant),
         repo.counts(tenant.wineryId),
         cartridgesToLookAt(tenant.wineryId, now),
         upcomingPlans(tenant, now),
+        // the runs in progress with their stages' forecasts: one query of their own
+        runsInProgress.inProgress(tenant),
       ]);
 
       const byVerdict: Record<ReadinessVerdict, number> = { ready: 0, borderline: 0, 'not-ready': 0, unknown: 0 };
@@ -188,6 +190,7 @@ export function createTodayService(db: Database) {
         cartridges: toLookAt,
         stock: { types, shortfalls: types.filter((t) => t.shortfall).length },
         upcomingPlans: planned,
+        runsInProgress: running,
       };
     },
   };

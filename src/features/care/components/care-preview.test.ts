@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { CareTargetDto } from '@shared/types/care';
-import { integrityPreview } from './care-preview';
+import { integrityPreview, recoveryPreview } from './care-preview';
 
 const target = (over: Partial<CareTargetDto> = {}): CareTargetDto => ({
   id: 'c1',
@@ -19,6 +19,7 @@ const target = (over: Partial<CareTargetDto> = {}): CareTargetDto => ({
   bubblePointMinBar: 2.5,
   diffusionMaxMlMinPer10in: 12,
   flowRecoveryMinPct: 70,
+  waterDpBar: 0.1,
   flowBasis: null,
   steamCycles: 0,
   hotWaterCycles: 0,
@@ -45,5 +46,18 @@ describe('integrity preview in the browser (PDA Technical Report No. 26; Young�
     expect(low && 'verdict' in low ? low.verdict : null).toMatchObject({ pass: false, retest: true });
     const noStrength = integrityPreview(target(), 'bubble-point', { bubblePointBar: 1.4, wettingFluid: 'wine' }, 'metric');
     expect(noStrength && 'missing' in noStrength ? noStrength.missing : '').toMatch(/strength/);
+  });
+});
+
+// Darcy's law for laminar flow through a porous medium: at one temperature Q ∝ ΔP, so 1,800 L/h
+// measured at 0.05 bar is 3,600 L/h at the 0.1 bar the type's clean-water flow is given at.
+describe('recovery preview at the ΔP of the measurement (Darcy: flow ∝ ΔP)', () => {
+  const spec = target({ waterDpBar: 0.1, flowBasis: { kind: 'spec', flowLh: 3600 } });
+  it('brings a flow measured at half the specification ΔP to it: 100 %', () => {
+    expect(recoveryPreview(spec, 'hot-water', undefined, 1800, { flowDpBar: 0.05 })?.pct).toBeCloseTo(100, 6);
+  });
+  it('at the specification ΔP, or with none given, the flow is taken as it is: 50 %', () => {
+    expect(recoveryPreview(spec, 'hot-water', undefined, 1800, { flowDpBar: 0.1 })?.pct).toBeCloseTo(50, 6);
+    expect(recoveryPreview(spec, 'hot-water', undefined, 1800)?.pct).toBeCloseTo(50, 6);
   });
 });

@@ -18,14 +18,14 @@ export type RecoveryPreview = { basis: 'new' | 'spec' | 'first-after' | 'before'
 
 /**
  * Water flow after the cycle as a % of the as-new (or spec, or first) flow, else of the flow before;
- * flows first brought to one cartridge at 20 °C. `suspect` above 105 %: a housing's flow entered as one cartridge's?
+ * flows first brought to one cartridge at 20 °C and the type's specification ΔP (Darcy: Q ∝ ΔP/μ). `suspect` above 105 %: a housing's flow entered as one cartridge's?
  */
 export function recoveryPreview(
   target: CareTargetDto,
   kind: CycleKind,
   beforeLh: number | undefined,
   afterLh: number | undefined,
-  opts: { waterTempC?: number; flowBasis?: FlowBasis } = {},
+  opts: { waterTempC?: number; flowBasis?: FlowBasis; /** ΔP of the flow measurement, bar (default the type's specification ΔP) */ flowDpBar?: number } = {},
 ): RecoveryPreview | null {
   if (afterLh === undefined || !(afterLh > 0)) return null;
   try {
@@ -39,6 +39,7 @@ export function recoveryPreview(
             cartridgeEquivalents: target.elementEquivalents,
             housingEquivalents: target.housingElementEquivalents ?? undefined,
             waterTempC: opts.waterTempC,
+            ...(opts.flowDpBar !== undefined && opts.flowDpBar > 0 && target.waterDpBar > 0 ? { dpBar: opts.flowDpBar, refDpBar: target.waterDpBar } : {}),
           });
     const after = norm(afterLh) as number;
     const before = norm(beforeLh);

@@ -13,13 +13,14 @@ import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { KeptOnDevice } from '@/lib/offline/kept';
 import { applyServerErrors } from '@/lib/form-errors';
+import { getDecimalMark } from '@/lib/number-input';
 import { useUnits } from '@/lib/units';
 import { useLogCycle } from '../api/log-cycle';
 import { ChemicalCaution, HeatCaution } from './care-cautions';
 import { recoveryPreview } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
 
-const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowBasis', 'aboveRatingConfirmed', 'at'] as const;
+const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowDpBar', 'flowBasis', 'aboveRatingConfirmed', 'at'] as const;
 
 /** Logs a regeneration, sanitation or sterilisation cycle of one cartridge. */
 export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: CycleResultDto) => void }) {
@@ -40,6 +41,7 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           waterFlowBeforeLh: decimalText,
           waterFlowAfterLh: decimalText,
           waterTempC: decimalText,
+          flowDpBar: decimalText,
           flowBasis: z.string(),
           aboveRatingConfirmed: z.boolean(),
           at: z.string(),
@@ -53,6 +55,8 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
           waterFlowBeforeLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowBeforeLh),
           waterFlowAfterLh: toMetricOrKeep(units.fromInput, 'flow', v.waterFlowAfterLh),
           waterTempC: toMetricOrKeep(units.fromInput, 'temperature', v.waterTempC),
+          // only with a flow: the ΔP it was measured at (left empty, the type's specification ΔP)
+          flowDpBar: v.waterFlowBeforeLh === null && v.waterFlowAfterLh === null ? undefined : toMetricOrKeep(units.fromInput, 'dp', v.flowDpBar),
           flowBasis: v.flowBasis || undefined,
           aboveRatingConfirmed: v.aboveRatingConfirmed || undefined,
           at: isoOrNow(v.at),
@@ -63,10 +67,24 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
 
   const form = useForm({
     resolver: zodResolver(schema),
-    defaultValues: { kind: 'hot-water', tempC: '', durationMin: '', agent: '', concentrationPct: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', waterTempC: '', flowBasis: 'cartridge', aboveRatingConfirmed: false, at: localDateTime(new Date()) },
+    defaultValues: {
+      kind: 'hot-water',
+      tempC: '',
+      durationMin: '',
+      agent: '',
+      concentrationPct: '',
+      waterFlowBeforeLh: '',
+      waterFlowAfterLh: '',
+      waterTempC: '',
+      // the type's specification ΔP, in the person's unit and decimal mark
+      flowDpBar: units.toInput('dp', target.waterDpBar).replace('.', getDecimalMark()),
+      flowBasis: 'cartridge',
+      aboveRatingConfirmed: false,
+      at: localDateTime(new Date()),
+    },
   });
   const { errors } = form.formState;
-  const [kind, before, after, waterTemp, basisText, cycleTemp] = form.watch(['kind', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowBasis', 'tempC']);
+  const [kind, before, after, waterTemp, basisText, cycleTemp, flowDpText] = form.watch(['kind', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowBasis', 'tempC', 'flowDpBar']);
   const cycleKind = (CYCLE_KINDS as readonly string[]).includes(kind) ? (kind as CycleKind) : 'hot-water';
 
   const toFlow = (s: string) => {
@@ -74,8 +92,10 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
     return v === undefined ? undefined : units.fromInput('flow', v);
   };
   const waterTempTyped = finite(parseTyped(waterTemp));
+  const flowDpTyped = finite(parseTyped(flowDpText));
   const recovery = recoveryPreview(target, cycleKind, toFlow(before), toFlow(after), {
     waterTempC: waterTempTyped === undefined ? undefined : units.fromInput('temperature', waterTempTyped),
+    flowDpBar: flowDpTyped === undefined ? undefined : units.fromInput('dp', flowDpTyped),
     flowBasis: basisText === 'housing' ? 'housing' : 'cartridge',
   });
   // hints never suggest more than the rating (the lower of the cartridge's and, when installed, the housing's)
@@ -156,11 +176,19 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
         <FormField label="Clean-water flow before" htmlFor="cycle-before" error={errors.waterFlowBeforeLh?.message}>
           <NumberInput id="cycle-before" unit={units.symbol('flow')} {...form.register('waterFlowBeforeLh')} />
         </FormField>
-        <FormField label="Clean-water flow after" htmlFor="cycle-after" error={errors.waterFlowAfterLh?.message} hint="At the same pressure as before.">
+        <FormField label="Clean-water flow after" htmlFor="cycle-after" error={errors.waterFlowAfterLh?.message} hint="At the same ΔP as before.">
           <NumberInput id="cycle-after" unit={units.symbol('flow')} {...form.register('waterFlowAfterLh')} />
         </FormField>
         <FormField label="Water temperature" htmlFor="cycle-water-temp" error={errors.waterTempC?.message} hint="Flows are brought to 20 °C water (colder water flows less).">
           <NumberInput id="cycle-water-temp" unit={units.symbol('temperature')} {...form.register('waterTempC')} />
+        </FormField>
+        <FormField
+          label="ΔP during the flow measurement"
+          htmlFor="cycle-flow-dp"
+          error={errors.flowDpBar?.message}
+          hint={`The type’s clean-water flow is given at ${units.format('dp', target.waterDpBar)}; flows are brought to that ΔP (flow rises in step with ΔP).`}
+        >
+          <NumberInput id="cycle-flow-dp" unit={units.symbol('dp')} {...form.register('flowDpBar')} />
         </FormField>
         {target.housingElementEquivalents !== null ? (
           <FormField label="Flows measured for" htmlFor="cycle-flow-basis" error={errors.flowBasis?.message}>

@@ -53,6 +53,12 @@ function describe(e: CartridgeEventDto): { icon: LucideIcon; title: ReactNode; b
             {after !== null ? (
               <span>
                 water flow {before !== null ? <Measure kind="flow" value={before} /> : '—'} → <Measure kind="flow" value={after} />
+                {n(d.flowDpBar) !== null ? (
+                  <>
+                    {' '}
+                    at <Measure kind="dp" value={n(d.flowDpBar)} />
+                  </>
+                ) : null}
               </span>
             ) : null}
           </span>

@@ -1,5 +1,5 @@
 import { format } from 'date-fns';
-import { Activity, Cylinder, Filter, Wine } from 'lucide-react';
+import { Cylinder, Filter, Wine } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { TodayDto } from '@shared/types/today';
@@ -15,6 +15,7 @@ import { useToday } from '../api/get-today';
 import { CartridgesToLookAt } from './cartridges-to-look-at';
 import { LotsToLookAt } from './lots-to-look-at';
 import { NextBottlingDays } from './next-bottling-days';
+import { RunsInProgress } from './runs-in-progress';
 import { StockCard } from './stock-card';
 
 function Figure({ to, value, label, detail }: { to: string; value: number; label: string; detail?: ReactNode }) {
@@ -103,19 +104,12 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
               />
             </div>
           )}
+          {/* A run in progress is the most pressing thing of the day: first when there is one. */}
+          {(today.data.runsInProgress ?? []).length > 0 ? <RunsInProgress runs={today.data.runsInProgress} /> : null}
           {/* A new winery starts with its cellar and equipment; a plan needs both. */}
           {!isNewWinery(today.data.counts) || today.data.upcomingPlans.length > 0 ? <NextBottlingDays plans={today.data.upcomingPlans} /> : null}
           {alerts}
-          <p className="flex items-start gap-2 text-sm text-ink-600">
-            <Activity aria-hidden="true" className="mt-0.5 size-4 shrink-0" />
-            <span>
-              Runs in progress, with their readings and forecasts, are on the{' '}
-              <Link to={paths.runs} className="inline-flex min-h-11 items-center text-primary-700 underline-offset-2 hover:underline">
-                Runs
-              </Link>{' '}
-              page.
-            </span>
-          </p>
+          {(today.data.runsInProgress ?? []).length === 0 ? <RunsInProgress runs={[]} /> : null}
           {isNewWinery(today.data.counts) ? null : (
             <div className="grid items-start gap-6 lg:grid-cols-2">
               <LotsToLookAt lots={today.data.lots} lotCount={today.data.counts.lots} />
