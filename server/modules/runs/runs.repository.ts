@@ -57,6 +57,8 @@ function readingFromRaw(r: Record<string, unknown>): RunReadingRow {
   };
 }
 type ReadingInsert = typeof runReadingsTable.$inferInsert;
+/** A reading row to insert (winery, run, values, key, who). */
+export type NewReadingRow = ReadingInsert;
 type EventInsert = typeof cartridgeEventsTable.$inferInsert;
 export type RunStageCartridgeRow = typeof runStageCartridgesTable.$inferSelect;
 type StageCartridgeInsert = typeof runStageCartridgesTable.$inferInsert;
