@@ -177,8 +177,8 @@ function toNew(input: LogReadingInput): NewReading {
   };
 }
 
-/** Rows one INSERT … ON CONFLICT DO NOTHING carries (13 parameters each, under PostgreSQL's 65,535). */
-export const READINGS_INSERT_CHUNK = 4000;
+/** Rows one INSERT … ON CONFLICT DO NOTHING carries (a logger file goes in as several). */
+export const READINGS_INSERT_CHUNK = 5000;
 
 /**
  * Stores checked readings of a run in bulk, inside the caller's transaction (which holds the
