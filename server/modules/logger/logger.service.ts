@@ -202,7 +202,8 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
             storageKey,
             uploadedBy: t.userId,
           });
-          const key = `logger:${fingerprint.slice(0, 32)}:${String(fields.stageIndex)}:`;
+          // Short keys keep the unique index small; 64 bits of the file's hash are unique enough within a run.
+          const key = `lg:${fingerprint.slice(0, 16)}:${String(fields.stageIndex)}:`;
           const imported = await storeReadings(
             tx,
             read.rows.map((r) => ({
