@@ -166,6 +166,16 @@ describe('logger files', () => {
     expect((await storedReadings(run.id)).n).toBe(0);
   });
 
+  it('a Windows-1252 file (as older loggers write) is read with its accented headers', async () => {
+    const run = await startedRun();
+    const latin1 = Uint8Array.from([...europeanCsv].map((c) => c.charCodeAt(0)));
+    expect(latin1.includes(0xe4)).toBe(true); // ä as one byte
+    const res = await importFile(members.technician, run.id, { name: 'alt.csv', text: latin1 }, { stageIndex: 0, mapping: europeanMapping }, true);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ rowCount: 4, errorCount: 0 });
+    expect(res.body.headers).toContain('Zähler hL');
+  });
+
   it('a mapping without litres or flow, or without pressures, is a 400 with field messages', async () => {
     const run = await startedRun();
     const file = { name: 'a.csv', text: europeanCsv };

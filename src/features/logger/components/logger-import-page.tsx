@@ -31,7 +31,7 @@ import { useUnits } from '@/lib/units';
 import { useImportLoggerFile, usePreviewLoggerFile } from '../api/import-logger-file';
 import { useLoggerProfiles } from '../api/get-logger-profiles';
 import { useCreateLoggerProfile } from '../api/save-logger-profile';
-import { draftFieldOf, draftToMapping, guessDraft, mappingToDraft, sampleFile, type FileSample, type MappingDraft } from './mapping-draft';
+import { decodeSample, draftFieldOf, draftToMapping, guessDraft, mappingToDraft, sampleFile, type FileSample, type MappingDraft } from './mapping-draft';
 
 const LoggerChart = lazy(() => import('./logger-chart').then((m) => ({ default: m.LoggerChart })));
 
@@ -141,7 +141,7 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
       setProblem(`${f.name} is larger than ${String(LOGGER_FILE_MAX_BYTES / 1024 / 1024)} MB. Split it and import the parts one after the other.`);
       return;
     }
-    const text = await f.slice(0, 64 * 1024).text();
+    const text = decodeSample(new Uint8Array(await f.slice(0, 64 * 1024).arrayBuffer()));
     const s = sampleFile(text);
     setFile(f);
     setSample(s);

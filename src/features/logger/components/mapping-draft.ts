@@ -28,6 +28,20 @@ export type MappingDraft = {
 /** What the browser read of the file: its header row and the rows under it. */
 export type FileSample = { headers: string[]; rows: string[][]; delimiter: ',' | ';' | '\t'; decimal: '.' | ',' };
 
+/**
+ * The first bytes of a file as text, decoded as the server decodes the whole file: UTF-8, else
+ * Windows-1252 (older loggers), cut at the last line end so no character is split.
+ */
+export function decodeSample(bytes: Uint8Array): string {
+  const end = bytes.lastIndexOf(0x0a);
+  const part = end > 0 && bytes.length >= 64 * 1024 ? bytes.subarray(0, end + 1) : bytes;
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(part);
+  } catch {
+    return new TextDecoder('windows-1252').decode(part);
+  }
+}
+
 /** Reads the first lines of a file for the mapping form: the separator, the decimal mark and the header row. */
 export function sampleFile(text: string): FileSample {
   const head = text.replace(/^\uFEFF/, '').slice(0, 64 * 1024);
