@@ -58,6 +58,8 @@ export function loggerRoutes({ db, storage }: ModuleDeps) {
   // Multipart: file, stageIndex, and profileId or mapping (JSON). `?dryRun=true` previews.
   router.post('/runs/:id/readings/import', ...log, upload, async (req, res) => {
     const runId = idParam(req, 'id', 'Run');
+    // Another winery's run or a missing one is a 404 whatever the form holds.
+    await service.requireRun(tenantOf(res), runId);
     const query = parseOrThrow(loggerImportQuerySchema, req.query ?? {});
     const fields = parseOrThrow(loggerImportFieldsSchema, req.body ?? {});
     if (!req.file) throw badRequest('Choose the logger file.', { file: 'Choose the logger file (CSV or TSV).' });

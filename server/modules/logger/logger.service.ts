@@ -90,6 +90,11 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
   }
 
   return {
+    /** 404 unless the run is this winery's. */
+    async requireRun(t: TenantContext, runId: string): Promise<void> {
+      if (!(await createRunsRepository(db).run(t.wineryId, runId))) throw notFound('Run');
+    },
+
     async listProfiles(t: TenantContext): Promise<{ items: LoggerProfileDto[] }> {
       return { items: (await repo.profiles(t.wineryId)).map(presentProfile) };
     },
