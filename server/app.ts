@@ -40,6 +40,7 @@ import { plansRoutes } from './modules/plans/plans.routes';
 import { hosePresetsRoutes } from './modules/hose-presets/hose-presets.routes';
 import { careRoutes } from './modules/care/care.routes';
 import { runsRoutes } from './modules/runs/runs.routes';
+import { loggerRoutes } from './modules/logger/logger.routes';
 import { recordsRoutes } from './modules/records/records.routes';
 import { archiveRoutes } from './modules/archive/archive.routes';
 import { todayRoutes } from './modules/today/today.routes';
@@ -154,6 +155,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(hosePresetsRoutes(moduleDeps));
   api.use(careRoutes(moduleDeps));
   api.use(runsRoutes(moduleDeps));
+  api.use(loggerRoutes(moduleDeps));
   api.use(recordsRoutes(moduleDeps));
   api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
   api.use(auditRoutes(moduleDeps));

@@ -34,6 +34,7 @@ export function createRouter() {
         { path: '/plans/:planId', lazy: lazyPage(() => import('./routes/app/plan')) },
         { path: paths.runs, lazy: lazyPage(() => import('./routes/app/runs')) },
         { path: '/runs/:runId', lazy: lazyPage(() => import('./routes/app/run')) },
+        { path: '/runs/:runId/import', lazy: lazyPage(() => import('./routes/app/run-import')) },
         { path: paths.care, lazy: lazyPage(() => import('./routes/app/care')) },
         { path: paths.records, lazy: lazyPage(() => import('./routes/app/records')) },
         { path: '/records/lots/:lotId', lazy: lazyPage(() => import('./routes/app/record')) },

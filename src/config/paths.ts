@@ -18,6 +18,8 @@ export const paths = {
   plan: (id: string) => `/plans/${id}`,
   runs: '/runs',
   run: (id: string) => `/runs/${id}`,
+  /** Import a logger file into a run's stage. */
+  runImport: (id: string, stageIndex?: number) => `/runs/${id}/import${stageIndex === undefined ? '' : `?stage=${String(stageIndex)}`}`,
   care: '/care',
   records: '/records',
   record: (lotId: string) => `/records/lots/${lotId}`,

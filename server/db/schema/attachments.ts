@@ -2,7 +2,7 @@ import { index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-c
 import { usersTable } from './auth';
 import { wineriesTable } from './wineries';
 
-export const attachmentOwnerKinds = ['lot', 'lab-result', 'cartridge-type', 'cartridge', 'housing'] as const;
+export const attachmentOwnerKinds = ['lot', 'lab-result', 'cartridge-type', 'cartridge', 'housing', 'run'] as const;
 
 export const attachmentsTable = pgTable(
   'attachments',

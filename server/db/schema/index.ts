@@ -9,3 +9,4 @@ export * from './plans';
 export * from './runs';
 export * from './alerts';
 export * from './audit';
+export * from './logger';

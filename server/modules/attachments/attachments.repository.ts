@@ -8,6 +8,7 @@ import {
   housingsTable,
   labResultsTable,
   lotsTable,
+  runsTable,
   usersTable,
 } from '../../db/schema';
 
@@ -17,6 +18,7 @@ const ownerTables = {
   'cartridge-type': cartridgeTypesTable,
   cartridge: cartridgesTable,
   housing: housingsTable,
+  run: runsTable,
 } satisfies Record<AttachmentOwnerKind, unknown>;
 
 const columns = {

@@ -10,6 +10,8 @@ import {
   housingsTable,
   labResultsTable,
   linesTable,
+  loggerImportsTable,
+  loggerProfilesTable,
   lotsTable,
   membershipsTable,
   planLotsTable,
@@ -47,6 +49,8 @@ export const exportTables: ExportTable[] = [
   { file: 'plan-trains.csv', table: planTrainsTable },
   { file: 'runs.csv', table: runsTable },
   { file: 'readings.csv', table: runReadingsTable },
+  { file: 'logger-imports.csv', table: loggerImportsTable },
+  { file: 'logger-profiles.csv', table: loggerProfilesTable },
   { file: 'attachments.csv', table: attachmentsTable },
   { file: 'audit-events.csv', table: auditEventsTable },
 ];

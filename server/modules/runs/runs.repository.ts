@@ -57,6 +57,8 @@ function readingFromRaw(r: Record<string, unknown>): RunReadingRow {
   };
 }
 type ReadingInsert = typeof runReadingsTable.$inferInsert;
+/** A reading row to insert (winery, run, values, key, who). */
+export type NewReadingRow = ReadingInsert;
 type EventInsert = typeof cartridgeEventsTable.$inferInsert;
 export type RunStageCartridgeRow = typeof runStageCartridgesTable.$inferSelect;
 type StageCartridgeInsert = typeof runStageCartridgesTable.$inferInsert;
@@ -283,15 +285,24 @@ export function createRunsRepository(db: DbOrTx) {
       };
     },
 
-    /** Bulk insert; a key already stored (a concurrent resend) is skipped. Returns how many were stored. */
+    /**
+     * Bulk insert in one statement (twelve array parameters unnested, so its size does not grow
+     * with the number of parameters); a key already stored (a concurrent resend) is skipped.
+     * Returns how many were stored.
+     */
     async insertReadings(values: ReadingInsert[]) {
       if (values.length === 0) return 0;
-      const rows = await db
-        .insert(runReadingsTable)
-        .values(values)
-        .onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] })
-        .returning({ id: runReadingsTable.id });
-      return rows.length;
+      const col = <T>(pick: (v: ReadingInsert) => T) => sql.param(values.map(pick));
+      const result = await db.execute(sql`
+        insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
+        select * from unnest(
+          ${col((v) => v.wineryId)}::uuid[], ${col((v) => v.runId)}::uuid[], ${col((v) => v.stageIndex)}::int[],
+          ${col((v) => (v.at instanceof Date ? v.at.toISOString() : (v.at ?? new Date().toISOString())))}::timestamptz[],
+          ${col((v) => v.volumeL)}::float8[], ${col((v) => v.upstreamBar)}::float8[], ${col((v) => v.downstreamBar)}::float8[],
+          ${col((v) => v.flowLh ?? null)}::float8[], ${col((v) => v.tempC ?? null)}::float8[], ${col((v) => v.clientKey)}::text[],
+          ${col((v) => v.createdBy ?? null)}::text[], ${col((v) => v.createdByName ?? null)}::text[])
+        on conflict (run_id, client_key) do nothing`);
+      return result.rowCount ?? 0;
     },
 
     async readingByKey(wineryId: string, runId: string, clientKey: string): Promise<RunReadingRow | null> {

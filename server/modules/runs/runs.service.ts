@@ -27,7 +27,7 @@ import type {
   RunStartOptionDto,
   RunSummaryDto,
 } from '../../../shared/types/runs';
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
@@ -35,7 +35,7 @@ import { createCartridgesRepository } from '../cartridges/cartridges.repository'
 import { installCartridge, removeCartridge } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
-import { createRunsRepository, type NewReading, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
+import { createRunsRepository, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 
@@ -175,6 +175,22 @@ function toNew(input: LogReadingInput): NewReading {
     at: input.at ? new Date(input.at) : null,
     clientKey: input.clientKey,
   };
+}
+
+/** Rows one INSERT … ON CONFLICT DO NOTHING carries (a logger file goes in as several). */
+export const READINGS_INSERT_CHUNK = 5000;
+
+/**
+ * Stores checked readings of a run in bulk, inside the caller's transaction (which holds the
+ * run row share-locked): chunked multi-row inserts on conflict (run, clientKey) do nothing.
+ * The one path for many new readings (the phone's batches and logger files), so anything kept
+ * per run about its readings is updated here. Returns how many were stored.
+ */
+export async function storeReadings(tx: DbOrTx, values: NewReadingRow[]): Promise<number> {
+  const r = createRunsRepository(tx);
+  let stored = 0;
+  for (let i = 0; i < values.length; i += READINGS_INSERT_CHUNK) stored += await r.insertReadings(values.slice(i, i + READINGS_INSERT_CHUNK));
+  return stored;
 }
 
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
@@ -599,7 +615,8 @@ export function createRunsService(db: Database) {
         const bad = Object.keys(fields).length;
         if (bad > 0) throw badRequest(`Check the readings: ${String(bad)} ${bad === 1 ? 'is' : 'are'} not right, so none was stored.`, fields);
         const now = new Date();
-        const stored = await r.insertReadings(
+        const stored = await storeReadings(
+          tx,
           fresh.map(({ x }) => ({ ...toNew(x), at: x.at ? new Date(x.at) : now, wineryId: t.wineryId, runId, createdBy: t.userId, createdByName: t.userName ?? null })),
         );
         return { stored, duplicates: input.readings.length - stored };

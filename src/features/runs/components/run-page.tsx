@@ -1,4 +1,4 @@
-import { AlertTriangle, CircleCheck, Eye } from 'lucide-react';
+import { AlertTriangle, CircleCheck, Eye, FileUp } from 'lucide-react';
 import { lazy, Suspense, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LogReadingInput } from '@shared/schemas/runs';
@@ -46,7 +46,7 @@ function AlarmBadge({ stage }: { stage: RunStageDto }) {
   );
 }
 
-function StageCard({ stage, kept, rowActions }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode }) {
+function StageCard({ stage, kept, rowActions, importTo }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode; importTo?: string }) {
   const units = useUnits();
   const f = stage.forecast;
   const view = forecastView(f, stage.note, (litres) => units.format('volume', litres));
@@ -92,6 +92,11 @@ function StageCard({ stage, kept, rowActions }: { stage: RunStageDto; kept: Outb
           {kept.length > 0 ? <> · {kept.length} waiting to send</> : null}
         </p>
         <ReadingsTable stage={stage} kept={kept} rowActions={rowActions} />
+        {importTo ? (
+          <Link to={importTo} className="inline-flex min-h-11 items-center gap-2 self-start font-semibold text-primary-700 hover:underline">
+            <FileUp aria-hidden="true" className="size-5" /> Import logger file
+          </Link>
+        ) : null}
       </div>
     </Card>
   );
@@ -152,7 +157,13 @@ export function RunPage({ runId, readingActions }: RunPageProps) {
         Never open a housing under pressure and keep within its pressure and temperature ratings. Forecasts are planning estimates from the readings so far.
       </CautionPanel>
       {r.stages.map((s) => (
-        <StageCard key={s.index} stage={s} kept={keptOf(s.index)} rowActions={readingActions ? (reading) => readingActions(reading, s) : undefined} />
+        <StageCard
+          key={s.index}
+          stage={s}
+          kept={keptOf(s.index)}
+          rowActions={readingActions ? (reading) => readingActions(reading, s) : undefined}
+          importTo={running && mayLog ? paths.runImport(r.id, s.index) : undefined}
+        />
       ))}
       <RunCartridges run={r} />
       <ReadingCorrections run={r} />
