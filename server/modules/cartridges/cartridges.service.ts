@@ -27,6 +27,7 @@ import type {
   StockFigure,
 } from '../../../shared/types/cartridges';
 import type { Database } from '../../db/client';
+import { isUniqueViolation } from '../../db/errors';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
 import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
@@ -35,7 +36,6 @@ import { checkDeliveryRows, parseDeliveryCsv } from './cartridges.import';
 import { elementEquivalents, presentCartridge, presentEvent, presentSlotCartridge } from './cartridges.presenter';
 import {
   createCartridgesRepository,
-  isUniqueViolation,
   SERIAL_CONSTRAINT,
   type CartridgeEventRow,
   type CartridgeRow,

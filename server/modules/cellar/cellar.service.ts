@@ -8,7 +8,7 @@ import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { readinessThresholdsFor } from '../winery-settings/winery-settings.service';
-import { isUniqueViolation } from './db-errors';
+import { isUniqueViolation } from '../../db/errors';
 import { analyseLabResult, readinessOf, thresholdsUsed } from './lab-analysis';
 import { createLabResultsRepository, type LabResultRow, type LabResultValues } from './lab-results.repository';
 import { createLotsRepository, LOT_CODE_UNIQUE, type LotValues } from './lots.repository';

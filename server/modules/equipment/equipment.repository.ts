@@ -13,12 +13,6 @@ export type LineInsert = Omit<typeof linesTable.$inferInsert, 'id' | 'createdAt'
 export type CartridgeTypeInsert = Omit<typeof cartridgeTypesTable.$inferInsert, 'id' | 'createdAt' | 'updatedAt'>;
 export type TypeCounts = { total: number; inStock: number; installed: number; regenerating: number; retired: number };
 
-/** A unique-index violation (name already used in this winery). */
-export function isUniqueViolation(error: unknown): boolean {
-  const e = error as { code?: string; cause?: { code?: string } } | null;
-  return e?.code === '23505' || e?.cause?.code === '23505';
-}
-
 const emptyCounts: TypeCounts = { total: 0, inStock: 0, installed: 0, regenerating: 0, retired: 0 };
 
 export function createEquipmentRepository(db: DbOrTx) {

@@ -16,13 +16,14 @@ import type { ListQuery } from '../../../shared/schemas/list';
 import type { ListDto } from '../../../shared/types/api';
 import type { CartridgeTypeDto, HousingDto, LineDto } from '../../../shared/types/equipment';
 import type { Database } from '../../db/client';
+import { isUniqueViolation } from '../../db/errors';
 import { badRequest, conflict, HttpError, inRecord, notFound } from '../../lib/errors';
 import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { parseOrThrow } from '../../middleware/validate';
 import { presentCartridgeType, presentHousing, presentLine } from './equipment.presenter';
-import { createEquipmentRepository, isUniqueViolation, type CartridgeTypeRow, type HousingRow, type LineRow } from './equipment.repository';
+import { createEquipmentRepository, type CartridgeTypeRow, type HousingRow, type LineRow } from './equipment.repository';
 import { audited } from '../audit/audit.service';
 
 const nameTaken = (what: string, name: string) => {

@@ -20,7 +20,7 @@ import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
 import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
-import { isUniqueViolation } from '../cellar/db-errors';
+import { isUniqueViolation } from '../../db/errors';
 import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
