@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;

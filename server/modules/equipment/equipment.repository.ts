@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
