@@ -4,7 +4,6 @@ import type { ListDto } from '../../../shared/types/api';
 import type { LabResultDto, LotDto, LotListItemDto, TankDto } from '../../../shared/types/cellar';
 import type { Database, DbOrTx } from '../../db/client';
 import { badRequest, conflict, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { readinessThresholdsFor } from '../winery-settings/winery-settings.service';
@@ -192,7 +191,7 @@ export function createCellarService(db: Database) {
       await db.transaction(async (tx) => {
         const lots = createLotsRepository(tx);
         if (!(await lots.exists(tenant.wineryId, id))) throw notFound('Lot');
-        await refuseIfInRecord(createArchiveRepository(tx), 'lots', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'lots', tenant.wineryId, id);
         const files = await lots.attachmentCount(tenant.wineryId, id);
         if (files > 0) {
           throw conflict(`This lot has ${files} attached file${files === 1 ? '' : 's'}. Remove them first, so no report is left without its lot.`, 'lot_has_attachments');

@@ -18,8 +18,7 @@ import type { CartridgeTypeDto, HousingDto, LineDto } from '../../../shared/type
 import type { Database } from '../../db/client';
 import { isUniqueViolation } from '../../db/errors';
 import { badRequest, conflict, HttpError, inRecord, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
-import { refuseIfInRecord } from '../archive/archive.service';
+import { recordHolder, refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { parseOrThrow } from '../../middleware/validate';
 import { presentCartridgeType, presentHousing, presentLine } from './equipment.presenter';
@@ -142,7 +141,7 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockHousing(tenant.wineryId, id))) throw notFound('Housing');
-        await refuseIfInRecord(createArchiveRepository(tx), 'housings', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'housings', tenant.wineryId, id);
         const inside = await txRepo.cartridgesInHousing(tenant.wineryId, id);
         if (inside > 0) {
           throw conflict(
@@ -217,8 +216,8 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockCartridgeType(tenant.wineryId, id))) throw notFound('Cartridge type');
-        const holder = await createArchiveRepository(tx).holder('cartridge-types', tenant.wineryId, id);
-        if (holder?.kind === 'run') await refuseIfInRecord(createArchiveRepository(tx), 'cartridge-types', tenant.wineryId, id);
+        const holder = await recordHolder(tx, 'cartridge-types', tenant.wineryId, id);
+        if (holder?.kind === 'run') await refuseIfInRecord(tx, 'cartridge-types', tenant.wineryId, id);
         const n = await txRepo.cartridgesOfType(tenant.wineryId, id);
         if (n > 0 && holder) {
           throw inRecord(
