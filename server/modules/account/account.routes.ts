@@ -10,11 +10,14 @@ export function accountRoutes({ service }: { service: AccountService }) {
   router.get('/', async (_req, res) => {
     res.json(await service.me(authOf(res).user));
   });
-  router.put('/', withBody(updateMeInputSchema, async (_req, res, body) => {
-    res.json(await service.update(authOf(res).user, body));
-  }));
-  router.put('/active-winery', withBody(setActiveWineryInputSchema, async (_req, res, body) => {
-    res.json(await service.setActiveWinery(authOf(res).user, body.wineryId));
-  }));
+  // PATCH is the verb; PUT stays as an alias for one release (deprecated). Both take any subset.
+  for (const method of ['patch', 'put'] as const) {
+    router[method]('/', withBody(updateMeInputSchema, async (_req, res, body) => {
+      res.json(await service.update(authOf(res).user, body));
+    }));
+    router[method]('/active-winery', withBody(setActiveWineryInputSchema, async (_req, res, body) => {
+      res.json(await service.setActiveWinery(authOf(res).user, body.wineryId));
+    }));
+  }
   return router;
 }

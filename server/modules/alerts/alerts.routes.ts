@@ -34,6 +34,13 @@ export function alertsRoutes({ db, service, calendar }: Deps) {
   router.put('/me/alert-preferences', ...own, withBody(alertPreferencesInputSchema, async (_req, res, body) => {
     res.json(await service.setPreferences(tenantOf(res), body));
   }));
+  // PATCH changes only the kinds sent; the others keep their channel (PUT replaces the whole set).
+  router.patch('/me/alert-preferences', ...own, withBody(alertPreferencesInputSchema, async (_req, res, body) => {
+    const sent = new Map(body.items.map((i) => [i.kind, i.channel]));
+    const current = await service.preferences(tenantOf(res));
+    const items = current.items.map((i) => ({ kind: i.kind, channel: sent.get(i.kind) ?? i.channel }));
+    res.json(await service.setPreferences(tenantOf(res), { items }));
+  }));
   router.get('/settings/mail-failures', ...owner, async (_req, res) => {
     res.json(await service.mailFailures(tenantOf(res)));
   });

@@ -1,5 +1,14 @@
 import { Router } from 'express';
-import { labResultInputSchema, lotInputSchema, lotsListQuerySchema, tankInputSchema, tanksListQuerySchema } from '../../../shared/schemas/cellar';
+import {
+  labResultInputSchema,
+  labResultPatchSchema,
+  lotInputSchema,
+  lotPatchSchema,
+  lotsListQuerySchema,
+  tankInputSchema,
+  tankPatchSchema,
+  tanksListQuerySchema,
+} from '../../../shared/schemas/cellar';
 import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
@@ -31,6 +40,10 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.get('/tanks/:id', ...read, async (req, res) => {
     res.json(await service.getTank(tenantOf(res), tankId(req)));
   });
+  router.patch('/tanks/:id', ...edit, withBody(tankPatchSchema, async (req, res, body) => {
+    res.json(await service.patchTank(tenantOf(res), tankId(req), body));
+  }));
+  // PUT with the whole tank: kept for one release beside PATCH (deprecated).
   router.put('/tanks/:id', ...edit, withBody(tankInputSchema, async (req, res, body) => {
     res.json(await service.updateTank(tenantOf(res), tankId(req), body));
   }));
@@ -49,6 +62,10 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.get('/lots/:id', ...read, async (req, res) => {
     res.json(await service.getLot(tenantOf(res), lotId(req)));
   });
+  router.patch('/lots/:id', ...edit, withBody(lotPatchSchema, async (req, res, body) => {
+    res.json(await service.patchLot(tenantOf(res), lotId(req), body));
+  }));
+  // PUT with the whole lot: kept for one release beside PATCH (deprecated).
   router.put('/lots/:id', ...edit, withBody(lotInputSchema, async (req, res, body) => {
     res.json(await service.updateLot(tenantOf(res), lotId(req), body));
   }));
@@ -67,6 +84,10 @@ export function cellarRoutes({ db }: ModuleDeps) {
   router.get('/lots/:id/lab-results/:resultId', ...read, async (req, res) => {
     res.json(await service.getLabResult(tenantOf(res), lotId(req), resultId(req)));
   });
+  router.patch('/lots/:id/lab-results/:resultId', ...editLab, withBody(labResultPatchSchema, async (req, res, body) => {
+    res.json(await service.patchLabResult(tenantOf(res), lotId(req), resultId(req), body));
+  }));
+  // PUT with the whole lab result: kept for one release beside PATCH (deprecated).
   router.put('/lots/:id/lab-results/:resultId', ...editLab, withBody(labResultInputSchema, async (req, res, body) => {
     res.json(await service.updateLabResult(tenantOf(res), lotId(req), resultId(req), body));
   }));
