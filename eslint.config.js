@@ -9,6 +9,28 @@ const features = readdirSync(new URL('./src/features', import.meta.url), { withF
   .filter((d) => d.isDirectory())
   .map((d) => d.name);
 
+const drizzleOnlyInRepositories = {
+  group: ['drizzle-orm', 'drizzle-orm/*', 'pg'],
+  message: 'Only repositories (*.repository.ts) and server/db/ use Drizzle: go through a repository.',
+};
+const schemaOnlyInRepositories = {
+  group: ['**/db/schema', '**/db/schema/*'],
+  allowTypeImports: true,
+  message: 'Only repositories (*.repository.ts), seeds and server/db/ use the tables: go through a repository.',
+};
+const otherModulesRepository = {
+  group: ['../*/*.repository', '../../modules/*/*.repository'],
+  allowTypeImports: true,
+  message: "A module uses another module through its service, never through that module's repository.",
+};
+// Handlers get their input from withBody/withQuery (server/middleware/validate.ts), typed by the schema.
+const typedInputOnly = [
+  {
+    selector: "MemberExpression[object.type='MemberExpression'][object.property.name='locals'][property.name=/^(body|query)$/]",
+    message: 'Take the parsed input from withBody(schema, (req, res, body) => …) or withQuery: res.locals is untyped.',
+  },
+];
+
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', '.data/**', 'test-output/**', 'drizzle/**'] },
   js.configs.recommended,
@@ -19,6 +41,7 @@ export default tseslint.config(
     plugins: { import: importPlugin },
     settings: {
       'import/resolver': { typescript: { project: './tsconfig.json' }, node: true },
+      'import/parsers': { '@typescript-eslint/parser': ['.ts', '.tsx'] },
     },
     rules: {
       '@typescript-eslint/no-explicit-any': 'off',
@@ -47,6 +70,33 @@ export default tseslint.config(
         },
       ],
     },
+  },
+  {
+    // No import cycles anywhere (layers and modules stay a tree).
+    // Table files may reference each other (users ↔ wineries): Drizzle's references are lazy callbacks.
+    files: ['**/*.{ts,tsx}'],
+    ignores: ['server/db/schema/**'],
+    rules: { 'import/no-cycle': ['error', { ignoreExternal: true }] },
+  },
+  {
+    // Server layering: Drizzle and the tables only in repositories and server/db/ (client, schema,
+    // seeds, list and error helpers); a module uses another module through its service. Types of
+    // the stored JSON shapes and rows may be imported (no runtime coupling).
+    files: ['server/**/*.ts'],
+    ignores: ['server/**/*.repository.ts', 'server/db/**', 'server/**/*.test.ts', 'server/lib/auth.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [drizzleOnlyInRepositories, schemaOnlyInRepositories, otherModulesRepository] }],
+      'no-restricted-syntax': ['error', ...typedInputOnly],
+    },
+  },
+  {
+    // Lucia's Drizzle adapter and the one-query session read are set up with the tables here.
+    files: ['server/lib/auth.ts'],
+    rules: { 'no-restricted-imports': ['error', { patterns: [otherModulesRepository] }] },
+  },
+  {
+    files: ['server/**/*.repository.ts', 'server/**/*.test.ts'],
+    rules: { 'no-restricted-imports': ['error', { patterns: [otherModulesRepository] }] },
   },
   {
     files: ['shared/engine/**/*.ts'],

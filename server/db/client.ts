@@ -22,26 +22,3 @@ export function createDatabase(url: string, opts: { max?: number } = {}) {
   const db = drizzle(pool, { schema });
   return { db, pool };
 }
-
-const UNAVAILABLE_CODES = new Set([
-  'ECONNREFUSED', 'ECONNRESET', 'EPIPE', 'ETIMEDOUT', 'ENOTFOUND', 'EHOSTUNREACH', 'ENETUNREACH', 'EAI_AGAIN',
-  '57P01', // admin_shutdown
-  '57P02', // crash_shutdown
-  '57P03', // cannot_connect_now (starting up or shutting down)
-  '53300', // too_many_connections
-]);
-const UNAVAILABLE_MESSAGES = /Connection terminated|connection error|timeout exceeded when trying to connect|the database system is (starting up|shutting down)|Client was closed|not queryable/i;
-
-/** True when an error (or its cause chain) says the database cannot be reached right now. */
-export function isDatabaseUnavailable(error: unknown): boolean {
-  let e: unknown = error;
-  for (let depth = 0; e && typeof e === 'object' && depth < 5; depth += 1) {
-    const { code, message } = e as { code?: unknown; message?: unknown };
-    if (typeof code === 'string' && (UNAVAILABLE_CODES.has(code) || code.startsWith('08'))) return true;
-    if (typeof message === 'string' && UNAVAILABLE_MESSAGES.test(message)) return true;
-    const errors = (e as { errors?: unknown }).errors; // AggregateError from a dual-stack connect
-    if (Array.isArray(errors) && errors.some((x) => isDatabaseUnavailable(x))) return true;
-    e = (e as { cause?: unknown }).cause;
-  }
-  return false;
-}

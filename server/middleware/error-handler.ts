@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { HttpError } from '../lib/errors';
-import { isDatabaseUnavailable } from '../db/client';
+import { isDatabaseUnavailable } from '../db/errors';
 import { logger } from '../lib/logger';
 import { zodFieldMessages } from './validate';
 

@@ -1,9 +1,8 @@
 import { createHash } from 'node:crypto';
-import { and, eq } from 'drizzle-orm';
 import type { RequestHandler } from 'express';
 import type { Database } from '../db/client';
-import { idempotencyKeysTable } from '../db/schema';
 import { HttpError } from '../lib/errors';
+import { createIdempotencyRepository } from './idempotency.repository';
 
 const KEY_PATTERN = /^[A-Za-z0-9_.:-]{8,100}$/;
 /** Status stored while the first request with a key is still being carried out. */
@@ -17,6 +16,7 @@ const PENDING = 0;
  * header the request runs as usual.
  */
 export function idempotent(db: Database): RequestHandler {
+  const keys = createIdempotencyRepository(db);
   return async (req, res, next) => {
     const key = req.get('idempotency-key');
     const user = (res.locals.auth as { user?: { id: string; activeWineryId: string | null } } | undefined)?.user;
@@ -26,16 +26,11 @@ export function idempotent(db: Database): RequestHandler {
     }
     const bodyHash = createHash('sha256').update(JSON.stringify(req.body ?? null)).digest('hex');
     const route = `${req.method} ${req.baseUrl}${req.path} winery=${user.activeWineryId ?? '-'} body=${bodyHash}`;
-    const where = and(eq(idempotencyKeysTable.userId, user.id), eq(idempotencyKeysTable.key, key));
 
     // Claim the key first, so two copies of the same request cannot both run.
-    const claimed = await db
-      .insert(idempotencyKeysTable)
-      .values({ userId: user.id, key, route, status: PENDING, body: null })
-      .onConflictDoNothing()
-      .returning({ key: idempotencyKeysTable.key });
-    if (claimed.length === 0) {
-      const [seen] = await db.select().from(idempotencyKeysTable).where(where);
+    const claimed = await keys.claim(user.id, key, route, PENDING);
+    if (!claimed) {
+      const seen = await keys.find(user.id, key);
       if (!seen || seen.route !== route) {
         return next(new HttpError(422, 'idempotency_key_reused', 'This Idempotency-Key was used for a different request.'));
       }
@@ -52,9 +47,8 @@ export function idempotent(db: Database): RequestHandler {
     res.json = (body: unknown) => {
       if (res.statusCode < 200 || res.statusCode >= 300) return json(body);
       stored = true;
-      db.update(idempotencyKeysTable)
-        .set({ status: res.statusCode, body: body as object })
-        .where(where)
+      keys
+        .storeAnswer(user.id, key, res.statusCode, body as object)
         .then(
           () => json(body),
           () => json(body),
@@ -63,7 +57,7 @@ export function idempotent(db: Database): RequestHandler {
     };
     // Anything else (an error, a refusal) frees the key, so the request may be sent again.
     res.on('finish', () => {
-      if (!stored) void db.delete(idempotencyKeysTable).where(where).catch(() => undefined);
+      if (!stored) void keys.release(user.id, key).catch(() => undefined);
     });
     next();
   };

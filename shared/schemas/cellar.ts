@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { yearInRange, yearRangeMessage } from './common';
 import { WINE_STYLES, type WineStyle } from '../engine';
 import { listQuerySchema } from './list';
+import { patchSchemaOf } from './patch';
 
 export const TANK_NAME_MAX = 80;
 export const LOT_CODE_MAX = 40;
@@ -55,6 +56,9 @@ export const tankInputSchema = z.object({
   notes: notesSchema,
 });
 export type TankInput = z.infer<typeof tankInputSchema>;
+/** PATCH /api/tanks/:id: any subset of the fields; the merged tank is checked as a whole. */
+export const tankPatchSchema = patchSchemaOf(tankInputSchema);
+export type TankPatch = z.output<typeof tankPatchSchema>;
 
 export const tankSortKeys = ['name', 'capacityL', 'lotCount'] as const;
 export const tanksListQuerySchema = listQuerySchema(tankSortKeys, 'name');
@@ -100,6 +104,9 @@ export const lotInputSchema = z.object({
   notes: notesSchema,
 });
 export type LotInput = z.infer<typeof lotInputSchema>;
+/** PATCH /api/lots/:id: any subset of the fields; the merged lot is checked as a whole. */
+export const lotPatchSchema = patchSchemaOf(lotInputSchema);
+export type LotPatch = z.output<typeof lotPatchSchema>;
 
 export const lotSortKeys = ['code', 'name', 'style', 'vintage', 'volumeL', 'tank', 'sampledAt', 'turbidityNtu'] as const;
 export type LotSortKey = (typeof lotSortKeys)[number];
@@ -179,3 +186,6 @@ export const labResultInputSchema = z
     }
   });
 export type LabResultInput = z.infer<typeof labResultInputSchema>;
+/** PATCH of a lab result: any subset of the fields; the merged result is checked as a whole (both clogging times, disc diameter…). */
+export const labResultPatchSchema = patchSchemaOf(labResultInputSchema);
+export type LabResultPatch = z.output<typeof labResultPatchSchema>;

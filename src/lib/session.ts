@@ -61,7 +61,7 @@ export function useSignOut() {
 export function useSetActiveWinery() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (wineryId: string) => api.put<MeDto>('/me/active-winery', { wineryId }),
+    mutationFn: (wineryId: string) => api.patch<MeDto>('/me/active-winery', { wineryId }),
     onSuccess: (me) => {
       qc.removeQueries({ predicate: (q) => q.queryKey[0] !== sessionKeys.all[0] });
       qc.setQueryData(sessionKeys.me(), me);

@@ -3,7 +3,7 @@ import { alertPreferencesInputSchema, notificationsQuerySchema } from '../../../
 import { idParam } from '../../lib/params';
 import { authOf, requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
-import { validateBody, validateQuery } from '../../middleware/validate';
+import { withBody, withQuery } from '../../middleware/validate';
 import type { AlertsService } from './alerts.service';
 import type { createCalendarService } from './calendar.service';
 
@@ -18,9 +18,9 @@ export function alertsRoutes({ db, service, calendar }: Deps) {
   const own = [requireSignedIn, authorize(db, 'notifications:read')];
   const owner = [requireSignedIn, authorize(db, 'mail-failures:manage')];
 
-  router.get('/notifications', ...own, validateQuery(notificationsQuerySchema), async (_req, res) => {
-    res.json(await service.notifications(tenantOf(res), res.locals.query));
-  });
+  router.get('/notifications', ...own, withQuery(notificationsQuerySchema, async (_req, res, query) => {
+    res.json(await service.notifications(tenantOf(res), query));
+  }));
   router.post('/notifications/read-all', ...own, async (_req, res) => {
     res.json(await service.markAllRead(tenantOf(res)));
   });
@@ -31,9 +31,16 @@ export function alertsRoutes({ db, service, calendar }: Deps) {
   router.get('/me/alert-preferences', ...own, async (_req, res) => {
     res.json(await service.preferences(tenantOf(res)));
   });
-  router.put('/me/alert-preferences', ...own, validateBody(alertPreferencesInputSchema), async (_req, res) => {
-    res.json(await service.setPreferences(tenantOf(res), res.locals.body));
-  });
+  router.put('/me/alert-preferences', ...own, withBody(alertPreferencesInputSchema, async (_req, res, body) => {
+    res.json(await service.setPreferences(tenantOf(res), body));
+  }));
+  // PATCH changes only the kinds sent; the others keep their channel (PUT replaces the whole set).
+  router.patch('/me/alert-preferences', ...own, withBody(alertPreferencesInputSchema, async (_req, res, body) => {
+    const sent = new Map(body.items.map((i) => [i.kind, i.channel]));
+    const current = await service.preferences(tenantOf(res));
+    const items = current.items.map((i) => ({ kind: i.kind, channel: sent.get(i.kind) ?? i.channel }));
+    res.json(await service.setPreferences(tenantOf(res), { items }));
+  }));
   router.get('/settings/mail-failures', ...owner, async (_req, res) => {
     res.json(await service.mailFailures(tenantOf(res)));
   });

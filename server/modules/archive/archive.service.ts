@@ -1,9 +1,9 @@
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
 import { inRecord, notFound } from '../../lib/errors';
 import type { AuditKind } from '../../../shared/schemas/audit';
 import type { TenantContext } from '../../middleware/authorize';
 import { audited } from '../audit/audit.service';
-import { createArchiveRepository, type ArchivableKind, type ArchiveRepository } from './archive.repository';
+import { createArchiveRepository, type ArchivableKind } from './archive.repository';
 
 const names: Record<ArchivableKind | 'plan-lots', string> = {
   lots: 'lot',
@@ -30,13 +30,23 @@ const notFoundNames: Record<ArchivableKind, string> = {
 
 /**
  * Throws 409 in_record when a run or care history holds the row, naming the record and
- * offering to archive instead. Call it inside the delete's transaction, before deleting.
+ * offering to archive instead. Call it inside the delete's transaction (`tx`), before deleting.
  */
-export async function refuseIfInRecord(repo: ArchiveRepository, kind: ArchivableKind | 'plan-lots', wineryId: string, id: string) {
-  const holder = await repo.holder(kind, wineryId, id);
+export async function refuseIfInRecord(tx: DbOrTx, kind: ArchivableKind | 'plan-lots', wineryId: string, id: string) {
+  const holder = await createArchiveRepository(tx).holder(kind, wineryId, id);
   if (!holder) return;
   const archive = kind === 'plan-lots' ? '' : ' Archive it instead: it leaves the lists and stays in every record.';
   throw inRecord(`This ${names[kind]} is part of ${holder.label}, so it cannot be deleted.${archive}`, holder);
+}
+
+/** The record that holds the row (a run, a care history…), or null: for a delete that decides by the kind of holder. */
+export function recordHolder(tx: DbOrTx, kind: ArchivableKind | 'plan-lots', wineryId: string, id: string) {
+  return createArchiveRepository(tx).holder(kind, wineryId, id);
+}
+
+/** Deletes a cartridge no record holds, inside the caller's transaction (after `refuseIfInRecord`). */
+export function deleteBareCartridge(tx: DbOrTx, wineryId: string, id: string) {
+  return createArchiveRepository(tx).deleteBareCartridge(wineryId, id);
 }
 
 /** Archive and unarchive: hidden from lists by default, still in every record. */

@@ -17,7 +17,7 @@ import type { ListDto } from '../../../shared/types/api';
 import type { AuditEventDto, AuditPersonDto } from '../../../shared/types/audit';
 import type { Database, DbOrTx } from '../../db/client';
 import { csvStream } from '../../lib/csv';
-import { pageWindow } from '../../lib/list';
+import { pageWindow } from '../../db/list';
 import { fieldChanges } from './audit-diff';
 import { createAuditRepository, inTransaction, type AuditEventRow, type AuditSnapshot } from './audit.repository';
 

@@ -1,6 +1,6 @@
 import { generateIdFromEntropySize } from 'lucia';
 import type { PasswordResetConfirmInput, SignInInput, SignUpInput } from '../../../shared/schemas/auth';
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
 import type { Auth } from '../../lib/auth';
 import { conflict, gone, HttpError } from '../../lib/errors';
 import type { Mailer } from '../../lib/mail';
@@ -12,6 +12,20 @@ export const RESET_TOKEN_MINUTES = 60;
 export const SIGN_UP_TOKEN_HOURS = 24;
 
 type Deps = { db: Database; auth: Auth; mailer: Mailer; appUrl: string };
+
+/**
+ * People's accounts as other modules may use them (team invitations), on `db` or inside the
+ * caller's transaction: they go through here, never through the auth repository.
+ */
+export function accountsIn(db: DbOrTx) {
+  const repo = createAuthRepository(db);
+  return {
+    findByEmail: (email: string) => repo.findUserByEmail(email),
+    /** Creates the account; null when the address is already taken. */
+    create: (user: { id: string; email: string; name: string; passwordHash: string; activeWineryId?: string | null }) => repo.insertUser(user),
+    setActiveWinery: (userId: string, wineryId: string | null) => repo.setActiveWinery(userId, wineryId),
+  };
+}
 
 export function createAuthService({ db, auth, mailer, appUrl }: Deps) {
   const repo = createAuthRepository(db);

@@ -4,7 +4,7 @@ import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
 import { idempotent } from '../../middleware/idempotency';
-import { validateBody } from '../../middleware/validate';
+import { withBody } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createCareService } from './care.service';
 
@@ -27,13 +27,13 @@ export function careRoutes({ db }: ModuleDeps) {
     res.json(await service.target(tenantOf(res), idParam(req, 'id', 'Cartridge')));
   });
 
-  router.post('/cartridges/:id/cycles', ...log, idempotent(db), validateBody(logCycleInputSchema), async (req, res) => {
-    res.status(201).json(await service.logCycle(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
-  });
+  router.post('/cartridges/:id/cycles', ...log, idempotent(db), withBody(logCycleInputSchema, async (req, res, body) => {
+    res.status(201).json(await service.logCycle(tenantOf(res), idParam(req, 'id', 'Cartridge'), body));
+  }));
 
-  router.post('/cartridges/:id/integrity-tests', ...log, idempotent(db), validateBody(recordIntegrityInputSchema), async (req, res) => {
-    res.status(201).json(await service.recordIntegrity(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
-  });
+  router.post('/cartridges/:id/integrity-tests', ...log, idempotent(db), withBody(recordIntegrityInputSchema, async (req, res, body) => {
+    res.status(201).json(await service.recordIntegrity(tenantOf(res), idParam(req, 'id', 'Cartridge'), body));
+  }));
 
   return router;
 }

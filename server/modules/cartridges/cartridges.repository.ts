@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;
@@ -48,13 +48,6 @@ const sortColumns: Record<CartridgeSortKey, AnyColumn | SQL> = {
   createdAt: sql`${cartridgesTable.createdAt}`,
 };
 
-/** True when `error` (or its cause, as drizzle wraps driver errors) is PostgreSQL's unique violation on `constraint`. */
-export function isUniqueViolation(error: unknown, constraint: string): boolean {
-  for (let e: any = error, depth = 0; e && depth < 4; e = e.cause, depth++) {
-    if (e.code === '23505' && (!constraint || e.constraint === constraint)) return true;
-  }
-  return false;
-}
 export const SERIAL_CONSTRAINT = 'cartridges_winery_serial_uq';
 
 export function createCartridgesRepository(db: DbOrTx) {

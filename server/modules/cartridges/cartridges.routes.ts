@@ -14,7 +14,7 @@ import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
 import { idempotent } from '../../middleware/idempotency';
-import { parseOrThrow, validateBody } from '../../middleware/validate';
+import { parseOrThrow, withBody, withQuery } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createCartridgesService } from './cartridges.service';
 
@@ -71,10 +71,9 @@ export function cartridgesRoutes({ db }: ModuleDeps) {
   const register = [requireSignedIn, authorize(db, 'cartridges:register')];
   const moveGuard = [requireSignedIn, authorize(db, 'cartridges:move')];
 
-  router.get('/cartridges', ...read, async (req, res) => {
-    const query = parseOrThrow(cartridgeListQuerySchema, req.query);
+  router.get('/cartridges', ...read, withQuery(cartridgeListQuerySchema, async (_req, res, query) => {
     res.json(await service.list(tenantOf(res), query));
-  });
+  }));
 
   router.get('/cartridges/summary', ...read, async (_req, res) => {
     res.json(await service.summary(tenantOf(res)));
@@ -97,29 +96,29 @@ export function cartridgesRoutes({ db }: ModuleDeps) {
     else res.status(201).json(await service.importDelivery(tenant, csv));
   });
 
-  router.post('/cartridges', ...register, idempotent(db), validateBody(createCartridgeInputSchema), async (_req, res) => {
-    res.status(201).json(await service.register(tenantOf(res), res.locals.body));
-  });
+  router.post('/cartridges', ...register, idempotent(db), withBody(createCartridgeInputSchema, async (_req, res, body) => {
+    res.status(201).json(await service.register(tenantOf(res), body));
+  }));
 
   router.get('/cartridges/:id', ...read, async (req, res) => {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Cartridge')));
   });
 
-  router.patch('/cartridges/:id', ...register, validateBody(updateCartridgeInputSchema), async (req, res) => {
-    res.json(await service.update(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
-  });
+  router.patch('/cartridges/:id', ...register, withBody(updateCartridgeInputSchema, async (req, res, body) => {
+    res.json(await service.update(tenantOf(res), idParam(req, 'id', 'Cartridge'), body));
+  }));
 
-  router.post('/cartridges/:id/install', ...moveGuard, validateBody(installCartridgeInputSchema), async (req, res) => {
-    res.json(await service.install(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
-  });
+  router.post('/cartridges/:id/install', ...moveGuard, withBody(installCartridgeInputSchema, async (req, res, body) => {
+    res.json(await service.install(tenantOf(res), idParam(req, 'id', 'Cartridge'), body));
+  }));
 
   router.post('/cartridges/:id/remove', ...moveGuard, async (req, res) => {
     res.json(await service.remove(tenantOf(res), idParam(req, 'id', 'Cartridge')));
   });
 
-  router.post('/cartridges/:id/retire', ...register, validateBody(retireCartridgeInputSchema), async (req, res) => {
-    res.json(await service.retire(tenantOf(res), idParam(req, 'id', 'Cartridge'), res.locals.body));
-  });
+  router.post('/cartridges/:id/retire', ...register, withBody(retireCartridgeInputSchema, async (req, res, body) => {
+    res.json(await service.retire(tenantOf(res), idParam(req, 'id', 'Cartridge'), body));
+  }));
   // Only a cartridge registered by mistake goes: one with a run or care history is 409 in_record (archive it instead).
   router.delete('/cartridges/:id', requireSignedIn, authorize(db, 'records:delete'), async (req, res) => {
     await service.deleteUnused(tenantOf(res), idParam(req, 'id', 'Cartridge'));

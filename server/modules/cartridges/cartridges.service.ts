@@ -26,16 +26,15 @@ import type {
   ImportResultDto,
   StockFigure,
 } from '../../../shared/types/cartridges';
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
+import { isUniqueViolation } from '../../db/errors';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
-import { refuseIfInRecord } from '../archive/archive.service';
+import { deleteBareCartridge, refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { checkDeliveryRows, parseDeliveryCsv } from './cartridges.import';
 import { elementEquivalents, presentCartridge, presentEvent, presentSlotCartridge } from './cartridges.presenter';
 import {
   createCartridgesRepository,
-  isUniqueViolation,
   SERIAL_CONSTRAINT,
   type CartridgeEventRow,
   type CartridgeRow,
@@ -315,10 +314,9 @@ export function createCartridgesService(db: Database) {
         const txRepo = createCartridgesRepository(tx);
         const c = await txRepo.byId(tenant.wineryId, id, { lock: true });
         if (!c) throw notFound('Cartridge');
-        const archive = createArchiveRepository(tx);
-        await refuseIfInRecord(archive, 'cartridges', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'cartridges', tenant.wineryId, id);
         if (c.status === 'installed') throw conflict(`${c.serial} is installed. Take it out before deleting it.`, 'cartridge_installed');
-        await archive.deleteBareCartridge(tenant.wineryId, id);
+        await deleteBareCartridge(tx, tenant.wineryId, id);
       });
     },
 
@@ -438,6 +436,19 @@ export async function installCartridge(txRepo: CartridgesRepository, tenant: Ten
       // One millisecond later, so the timeline orders the pair of a move.
       { wineryId: tenant.wineryId, cartridgeId: c.id, kind: 'installed', housingId: housing.id, position, actorId: tenant.userId, actorName: tenant.userName ?? null, at: new Date(now.getTime() + 1), details: { from: c.status } },
     ]);
+}
+
+/**
+ * Cartridge moves for another module's write (a change during a run), inside its transaction:
+ * `lock` reads and locks a cartridge of the winery; `install` and `remove` write its history.
+ */
+export function cartridgeMovesIn(tx: DbOrTx, tenant: TenantContext) {
+  const repo = createCartridgesRepository(tx);
+  return {
+    lock: (id: string) => repo.byId(tenant.wineryId, id, { lock: true }),
+    install: (c: CartridgeRow, input: InstallCartridgeInput) => installCartridge(repo, tenant, c, input),
+    remove: (c: CartridgeRow) => removeCartridge(repo, tenant, c),
+  };
 }
 
 /** Takes a locked cartridge out of its housing (or back from regeneration) into stock, inside the caller's transaction. */

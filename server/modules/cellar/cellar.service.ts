@@ -1,19 +1,20 @@
 import { defaultReadinessThresholds, type ReadinessThresholds } from '../../../shared/engine';
-import type { LabResultInput, LotInput, LotsListQuery, TankInput, TanksListQuery } from '../../../shared/schemas/cellar';
+import { labResultInputSchema, lotInputSchema, tankInputSchema, type LabResultInput, type LabResultPatch, type LotInput, type LotPatch, type LotsListQuery, type TankInput, type TankPatch, type TanksListQuery } from '../../../shared/schemas/cellar';
+import { sentFields } from '../../../shared/schemas/patch';
 import type { ListDto } from '../../../shared/types/api';
 import type { LabResultDto, LotDto, LotListItemDto, TankDto } from '../../../shared/types/cellar';
 import type { Database, DbOrTx } from '../../db/client';
 import { badRequest, conflict, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { readinessThresholdsFor } from '../winery-settings/winery-settings.service';
-import { isUniqueViolation } from './db-errors';
+import { isUniqueViolation } from '../../db/errors';
+import { parseOrThrow } from '../../middleware/validate';
 import { analyseLabResult, readinessOf, thresholdsUsed } from './lab-analysis';
 import { createLabResultsRepository, type LabResultRow, type LabResultValues } from './lab-results.repository';
-import { createLotsRepository, LOT_CODE_UNIQUE, type LotValues } from './lots.repository';
+import { createLotsRepository, LOT_CODE_UNIQUE, type LotRow, type LotValues } from './lots.repository';
 import { presentLabResult, presentLot, presentLotListItem, presentTank } from './cellar.presenter';
-import { createTanksRepository, TANK_NAME_UNIQUE, type TankValues } from './tanks.repository';
+import { createTanksRepository, TANK_NAME_UNIQUE, type TankRow, type TankValues } from './tanks.repository';
 import { audited } from '../audit/audit.service';
 
 const repos = (db: DbOrTx) => ({
@@ -51,6 +52,32 @@ const labResultValues = (input: LabResultInput): LabResultValues => {
     notes: input.notes,
   };
 };
+
+// PATCH: the stored record as an input, the sent fields over it, and the whole checked again.
+const tankInputOf = (row: TankRow) => ({ name: row.name, capacityL: row.capacityL, notes: row.notes });
+const lotInputOf = (row: LotRow) => ({
+  code: row.code,
+  name: row.name,
+  style: row.style,
+  vintage: row.vintage,
+  volumeL: row.volumeL,
+  tankId: row.tankId,
+  ethanolPctVol: row.ethanolPctVol,
+  sugarGPerL: row.sugarGPerL,
+  tempC: row.tempC,
+  notes: row.notes,
+});
+const labResultInputOf = (row: LabResultRow) => ({
+  sampledAt: row.sampledAt.toISOString(),
+  turbidityNtu: row.turbidityNtu,
+  t200s: row.t200s,
+  t400s: row.t400s,
+  discPoints: row.discPoints,
+  discDiameterMm: row.discDiameterMm,
+  discPressureBar: row.discPressureBar,
+  freeSo2MgL: row.freeSo2MgL,
+  notes: row.notes,
+});
 
 const duplicateTank = (name: string) => conflict(`There is already a tank called "${name}". Choose another name.`, 'duplicate_tank');
 const duplicateLot = (code: string) => conflict(`Lot code ${code} is already used in this winery. Choose another code.`, 'duplicate_lot_code');
@@ -99,7 +126,7 @@ export function createCellarService(db: Database) {
     return presentResult(row, thresholds);
   }
 
-  return {
+  const service = {
     // ----- tanks -----
     async listTanks(tenant: TenantContext, query: TanksListQuery): Promise<ListDto<TankDto>> {
       const { rows, total } = await r.tanks.list(tenant.wineryId, query);
@@ -192,7 +219,7 @@ export function createCellarService(db: Database) {
       await db.transaction(async (tx) => {
         const lots = createLotsRepository(tx);
         if (!(await lots.exists(tenant.wineryId, id))) throw notFound('Lot');
-        await refuseIfInRecord(createArchiveRepository(tx), 'lots', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'lots', tenant.wineryId, id);
         const files = await lots.attachmentCount(tenant.wineryId, id);
         if (files > 0) {
           throw conflict(`This lot has ${files} attached file${files === 1 ? '' : 's'}. Remove them first, so no report is left without its lot.`, 'lot_has_attachments');
@@ -227,6 +254,26 @@ export function createCellarService(db: Database) {
         }
         await audited(tx, tenant, { action: 'delete', kind: 'lab-result', id }, () => results.delete(tenant.wineryId, lotId, id));
       });
+    },
+  };
+
+  // PATCH: a field left out stays as stored. Like the full update it replaced, the last write wins.
+  return {
+    ...service,
+    async patchTank(tenant: TenantContext, id: string, patch: TankPatch, now = new Date()) {
+      const current = await r.tanks.find(tenant.wineryId, id);
+      if (!current) throw notFound('Tank');
+      return service.updateTank(tenant, id, parseOrThrow(tankInputSchema, { ...tankInputOf(current), ...sentFields(patch) }), now);
+    },
+    async patchLot(tenant: TenantContext, id: string, patch: LotPatch, now = new Date()) {
+      const current = await r.lots.find(tenant.wineryId, id);
+      if (!current) throw notFound('Lot');
+      return service.updateLot(tenant, id, parseOrThrow(lotInputSchema, { ...lotInputOf(current), ...sentFields(patch) }), now);
+    },
+    async patchLabResult(tenant: TenantContext, lotId: string, id: string, patch: LabResultPatch, now = new Date()) {
+      const current = await r.labResults.find(tenant.wineryId, lotId, id);
+      if (!current) throw notFound('Lab result');
+      return service.updateLabResult(tenant, lotId, id, parseOrThrow(labResultInputSchema, { ...labResultInputOf(current), ...sentFields(patch) }), now);
     },
   };
 }

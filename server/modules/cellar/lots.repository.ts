@@ -4,7 +4,7 @@ import type { WineStyle } from '../../../shared/engine';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, planLotsTable, plansTable, tanksTable } from '../../db/schema';
 
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 /** A lot's tank, and only within the same winery (a second guard beside the write-time check). */
 const sameWineryTank = and(eq(tanksTable.id, lotsTable.tankId), eq(tanksTable.wineryId, lotsTable.wineryId));

@@ -2,7 +2,7 @@ import { and, count, eq, ilike, or, sql } from 'drizzle-orm';
 import type { TanksListQuery } from '../../../shared/schemas/cellar';
 import type { DbOrTx } from '../../db/client';
 import { lotsTable, tanksTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type TankRow = typeof tanksTable.$inferSelect & { lotCount: number; lotVolumeL: number };
 export type TankValues = { name: string; capacityL: number; notes: string };

@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
@@ -12,12 +12,6 @@ export type HousingInsert = Omit<typeof housingsTable.$inferInsert, 'id' | 'crea
 export type LineInsert = Omit<typeof linesTable.$inferInsert, 'id' | 'createdAt' | 'updatedAt'>;
 export type CartridgeTypeInsert = Omit<typeof cartridgeTypesTable.$inferInsert, 'id' | 'createdAt' | 'updatedAt'>;
 export type TypeCounts = { total: number; inStock: number; installed: number; regenerating: number; retired: number };
-
-/** A unique-index violation (name already used in this winery). */
-export function isUniqueViolation(error: unknown): boolean {
-  const e = error as { code?: string; cause?: { code?: string } } | null;
-  return e?.code === '23505' || e?.cause?.code === '23505';
-}
 
 const emptyCounts: TypeCounts = { total: 0, inStock: 0, installed: 0, regenerating: 0, retired: 0 };
 

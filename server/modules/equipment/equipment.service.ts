@@ -16,13 +16,13 @@ import type { ListQuery } from '../../../shared/schemas/list';
 import type { ListDto } from '../../../shared/types/api';
 import type { CartridgeTypeDto, HousingDto, LineDto } from '../../../shared/types/equipment';
 import type { Database } from '../../db/client';
+import { isUniqueViolation } from '../../db/errors';
 import { badRequest, conflict, HttpError, inRecord, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
-import { refuseIfInRecord } from '../archive/archive.service';
+import { recordHolder, refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
 import { parseOrThrow } from '../../middleware/validate';
 import { presentCartridgeType, presentHousing, presentLine } from './equipment.presenter';
-import { createEquipmentRepository, isUniqueViolation, type CartridgeTypeRow, type HousingRow, type LineRow } from './equipment.repository';
+import { createEquipmentRepository, type CartridgeTypeRow, type HousingRow, type LineRow } from './equipment.repository';
 import { audited } from '../audit/audit.service';
 
 const nameTaken = (what: string, name: string) => {
@@ -141,7 +141,7 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockHousing(tenant.wineryId, id))) throw notFound('Housing');
-        await refuseIfInRecord(createArchiveRepository(tx), 'housings', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'housings', tenant.wineryId, id);
         const inside = await txRepo.cartridgesInHousing(tenant.wineryId, id);
         if (inside > 0) {
           throw conflict(
@@ -216,8 +216,8 @@ export function createEquipmentService(db: Database) {
       await db.transaction(async (tx) => {
         const txRepo = createEquipmentRepository(tx);
         if (!(await txRepo.lockCartridgeType(tenant.wineryId, id))) throw notFound('Cartridge type');
-        const holder = await createArchiveRepository(tx).holder('cartridge-types', tenant.wineryId, id);
-        if (holder?.kind === 'run') await refuseIfInRecord(createArchiveRepository(tx), 'cartridge-types', tenant.wineryId, id);
+        const holder = await recordHolder(tx, 'cartridge-types', tenant.wineryId, id);
+        if (holder?.kind === 'run') await refuseIfInRecord(tx, 'cartridge-types', tenant.wineryId, id);
         const n = await txRepo.cartridgesOfType(tenant.wineryId, id);
         if (n > 0 && holder) {
           throw inRecord(

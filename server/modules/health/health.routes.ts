@@ -1,11 +1,12 @@
-import { sql } from 'drizzle-orm';
 import { Router } from 'express';
 import type { Database } from '../../db/client';
+import { createHealthRepository } from './health.repository';
 
 export function healthRoutes({ db }: { db: Database }) {
   const router = Router();
+  const health = createHealthRepository(db);
   router.get('/', async (_req, res) => {
-    const dbOk = await db.execute(sql`select 1`).then(() => true, () => false);
+    const dbOk = await health.ping();
     res.status(dbOk ? 200 : 503).json({ ok: dbOk, db: dbOk });
   });
   return router;

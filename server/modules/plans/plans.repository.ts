@@ -16,7 +16,7 @@ import {
   type PlanTrainHose,
   type PlanTrainStage,
 } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../lib/list';
+import { likePattern, orderBy, pageWindow } from '../../db/list';
 
 export type PlanRow = typeof plansTable.$inferSelect;
 export type PlanLotRow = typeof planLotsTable.$inferSelect;

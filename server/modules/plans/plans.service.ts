@@ -16,10 +16,9 @@ import type { PlanDto, PlanListItemDto, PlanLotDto, PlanNeedDto, PlanTimelineDto
 import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainHose, PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
-import { createArchiveRepository } from '../archive/archive.repository';
 import { refuseIfInRecord } from '../archive/archive.service';
 import type { TenantContext } from '../../middleware/authorize';
-import { isUniqueViolation } from '../cellar/db-errors';
+import { isUniqueViolation } from '../../db/errors';
 import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
 import { PAST_RUNS_READ_MAX, pastRunOutcomes } from './plans.past-runs';
@@ -361,7 +360,7 @@ export function createPlansService(db: Database) {
         const r = createPlansRepository(tx);
         const plan = await r.lockPlan(tenant.wineryId, id);
         if (!plan) throw notFound('Plan');
-        await refuseIfInRecord(createArchiveRepository(tx), 'plans', tenant.wineryId, id);
+        await refuseIfInRecord(tx, 'plans', tenant.wineryId, id);
         if (plan.status !== 'draft') {
           throw conflict('Only draft plans can be deleted. Reopen an approved plan first; a done plan stays for the records.', 'plan_not_draft');
         }
@@ -410,7 +409,7 @@ export function createPlansService(db: Database) {
     async removeLot(tenant: TenantContext, planId: string, planLotId: string): Promise<PlanDto> {
       return editDraft(tenant, planId, async (r, _plan, tx) => {
         await requirePlanLot(r, tenant.wineryId, planId, planLotId);
-        await refuseIfInRecord(createArchiveRepository(tx), 'plan-lots', tenant.wineryId, planLotId);
+        await refuseIfInRecord(tx, 'plan-lots', tenant.wineryId, planLotId);
         await r.deletePlanLot(tenant.wineryId, planLotId);
         await renumber(r, tenant.wineryId, await r.orderedPlanLotIds(tenant.wineryId, planId));
       });
@@ -561,4 +560,10 @@ export function createPlansService(db: Database) {
   };
 }
 export type PlansService = ReturnType<typeof createPlansService>;
+
+/** The winery's cartridge types and housings as plans size them (the records module reads them too). */
+export function planCatalogue(db: DbOrTx) {
+  const repo = createPlansRepository(db);
+  return { types: (wineryId: string) => repo.catalogueTypes(wineryId), housings: (wineryId: string) => repo.catalogueHousings(wineryId) };
+}
 

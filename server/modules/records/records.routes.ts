@@ -3,7 +3,7 @@ import { recordLotsQuerySchema, recordPdfQuerySchema, verifyRecordInputSchema } 
 import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
-import { validateBody, validateQuery } from '../../middleware/validate';
+import { withBody, withQuery } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { recordCsv } from './records.csv';
 import { renderRecordPdf } from './records.pdf';
@@ -23,20 +23,20 @@ export function recordsRoutes({ db }: ModuleDeps) {
   const read = [requireSignedIn, authorize(db, 'records:read')];
   const exportable = [requireSignedIn, authorize(db, 'records:export')];
 
-  router.get('/records/lots', ...read, validateQuery(recordLotsQuerySchema), async (_req, res) => {
-    res.json(await service.list(tenantOf(res), res.locals.query));
-  });
+  router.get('/records/lots', ...read, withQuery(recordLotsQuerySchema, async (_req, res, query) => {
+    res.json(await service.list(tenantOf(res), query));
+  }));
   router.get('/records/lots/:lotId', ...read, async (req, res) => {
     res.json(await service.record(tenantOf(res), idParam(req, 'lotId', 'Lot')));
   });
-  router.get('/records/lots/:lotId/pdf', ...exportable, validateQuery(recordPdfQuerySchema), async (req, res) => {
+  router.get('/records/lots/:lotId/pdf', ...exportable, withQuery(recordPdfQuerySchema, async (req, res, query) => {
     const record = await service.record(tenantOf(res), idParam(req, 'lotId', 'Lot'));
-    const pdf = await renderRecordPdf(record, res.locals.query.paper);
+    const pdf = await renderRecordPdf(record, query.paper);
     res.set('Content-Type', 'application/pdf');
     res.set('Content-Disposition', `attachment; filename="${fileName(record.lot.code, 'pdf')}"`);
     res.set('X-Record-Fingerprint', record.fingerprint);
     res.send(pdf);
-  });
+  }));
   router.get('/records/lots/:lotId/csv', ...exportable, async (req, res) => {
     const record = await service.record(tenantOf(res), idParam(req, 'lotId', 'Lot'));
     res.set('Content-Type', 'text/csv; charset=utf-8');
@@ -44,9 +44,9 @@ export function recordsRoutes({ db }: ModuleDeps) {
     res.set('X-Record-Fingerprint', record.fingerprint);
     res.send(recordCsv(record));
   });
-  router.post('/records/verify', ...read, validateBody(verifyRecordInputSchema), async (_req, res) => {
-    res.json(await service.verify(tenantOf(res), res.locals.body));
-  });
+  router.post('/records/verify', ...read, withBody(verifyRecordInputSchema, async (_req, res, body) => {
+    res.json(await service.verify(tenantOf(res), body));
+  }));
 
   return router;
 }

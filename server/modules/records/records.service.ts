@@ -19,7 +19,7 @@ import { sha256OfCanonical } from '../../lib/canonical-json';
 import { notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { analyseLabResult, readinessOf } from '../cellar/lab-analysis';
-import { createPlansRepository } from '../plans/plans.repository';
+import { planCatalogue } from '../plans/plans.service';
 import { readinessThresholdsFor } from '../winery-settings/winery-settings.service';
 import { presentCartridge, presentChange, presentIntegrityTest, presentLotListItem, presentReading, presentSanitation } from './records.presenter';
 import { createRecordsRepository, type RecordEventRow, type RecordRunRow, type StageCartridgeRow } from './records.repository';
@@ -125,12 +125,12 @@ function atStart(c: StageCartridgeRow, history: RecordEventRow[], startedAt: Dat
 /** The bottling filtration record of each lot: everything an auditor asks, with its fingerprint. */
 export function createRecordsService(db: Database) {
   const repo = createRecordsRepository(db);
-  const plansRepo = createPlansRepository(db);
+  const plansRepo = planCatalogue(db);
 
   async function runRecord(wineryId: string, lot: NonNullable<Awaited<ReturnType<typeof repo.lot>>>, row: RecordRunRow, ctx: {
     labs: Awaited<ReturnType<typeof repo.labResults>>;
     thresholds: Awaited<ReturnType<typeof readinessThresholdsFor>>;
-    catalogue: { types: Awaited<ReturnType<typeof plansRepo.catalogueTypes>>; housings: Awaited<ReturnType<typeof plansRepo.catalogueHousings>> };
+    catalogue: { types: Awaited<ReturnType<typeof plansRepo.types>>; housings: Awaited<ReturnType<typeof plansRepo.housings>> };
   }): Promise<RecordRunDto> {
     const { run, plan, train, line, planLot } = row;
     const stages = train?.stages ?? [];
@@ -308,8 +308,8 @@ export function createRecordsService(db: Database) {
     const [labs, thresholds, types, housings] = await Promise.all([
       repo.labResults(wineryId, lotId),
       readinessThresholdsFor(db, wineryId),
-      plansRepo.catalogueTypes(wineryId),
-      plansRepo.catalogueHousings(wineryId),
+      plansRepo.types(wineryId),
+      plansRepo.housings(wineryId),
     ]);
     const runDtos: RecordRunDto[] = [];
     for (const row of runs) runDtos.push(await runRecord(wineryId, lot, row, { labs, thresholds, catalogue: { types, housings } }));

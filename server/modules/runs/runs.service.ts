@@ -31,8 +31,7 @@ import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
-import { createCartridgesRepository } from '../cartridges/cartridges.repository';
-import { installCartridge, removeCartridge } from '../cartridges/cartridges.service';
+import { cartridgeMovesIn } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
 import { createRunsRepository, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
@@ -420,7 +419,7 @@ export function createRunsService(db: Database) {
     async change(t: TenantContext, runId: string, input: RunChangeInput): Promise<RunDetailDto> {
       await db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
-        const cartridges = createCartridgesRepository(tx);
+        const cartridges = cartridgeMovesIn(tx, t);
         const run = await r.lockRun(t.wineryId, runId);
         if (!run) throw notFound('Run');
         if (run.status !== 'running') throw conflict('This run is closed; cartridges are changed during a run.', 'run_closed');
@@ -457,13 +456,13 @@ export function createRunsService(db: Database) {
         }
         if (input.kind === 'change') {
           for (const id of input.removedCartridgeIds) {
-            const c = await cartridges.byId(t.wineryId, id, { lock: true });
-            if (c && c.status !== 'in-stock' && c.status !== 'retired') await removeCartridge(cartridges, t, c);
+            const c = await cartridges.lock(id);
+            if (c && c.status !== 'in-stock' && c.status !== 'retired') await cartridges.remove(c);
           }
           for (const id of input.installedCartridgeIds) {
-            const c = await cartridges.byId(t.wineryId, id, { lock: true });
+            const c = await cartridges.lock(id);
             if (!c) throw badRequest('Check the highlighted fields.', { installedCartridgeIds: 'Choose cartridges from this winery’s inventory.' });
-            await installCartridge(cartridges, t, c, { housingId: stage.housingId });
+            await cartridges.install(c, { housingId: stage.housingId });
           }
         } else {
           const counter = CYCLE_COUNTERS[input.cycleKind];

@@ -12,7 +12,7 @@ import type { Auth } from '../../lib/auth';
 import { notFound } from '../../lib/errors';
 import { authOf, requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
-import { validateBody } from '../../middleware/validate';
+import { withBody } from '../../middleware/validate';
 import type { TeamService } from './team.service';
 
 /** Member ids are Lucia ids (lowercase base32); anything else cannot name a member. */
@@ -37,19 +37,19 @@ export function teamRoutes({ db, service }: { db: Database; service: TeamService
     res.json(await service.team(tenant, { includeInvitations: can(tenant.role, 'team:invite') }));
   });
 
-  router.post('/invitations', authorize(db, 'team:invite'), validateBody(createInvitationInputSchema), async (_req, res) => {
-    res.status(201).json(await service.invite(tenantOf(res), authOf(res).user, res.locals.body));
-  });
+  router.post('/invitations', authorize(db, 'team:invite'), withBody(createInvitationInputSchema, async (_req, res, body) => {
+    res.status(201).json(await service.invite(tenantOf(res), authOf(res).user, body));
+  }));
 
   router.delete('/invitations/:id', authorize(db, 'team:invite'), async (req, res) => {
     await service.revokeInvitation(tenantOf(res), invitationIdParam(req.params.id));
     res.status(204).end();
   });
 
-  router.patch('/:userId', authorize(db, 'team:change-role'), validateBody(changeRoleInputSchema), async (req, res) => {
-    await service.changeRole(tenantOf(res), memberIdParam(req.params.userId), res.locals.body.role);
+  router.patch('/:userId', authorize(db, 'team:change-role'), withBody(changeRoleInputSchema, async (req, res, body) => {
+    await service.changeRole(tenantOf(res), memberIdParam(req.params.userId), body.role);
     res.json(await service.team(tenantOf(res), { includeInvitations: true }));
-  });
+  }));
 
   router.delete('/:userId', authorize(db, 'team:remove'), async (req, res) => {
     await service.removeMember(tenantOf(res), memberIdParam(req.params.userId));
@@ -61,14 +61,14 @@ export function teamRoutes({ db, service }: { db: Database; service: TeamService
 
 export function invitationRoutes({ auth, service }: { auth: Auth; service: TeamService }) {
   const router = Router();
-  router.post('/preview', validateBody(invitationTokenInputSchema), async (_req, res) => {
-    res.json(await service.preview(res.locals.body.token));
-  });
-  router.post('/accept', validateBody(acceptInvitationInputSchema), async (_req, res) => {
+  router.post('/preview', withBody(invitationTokenInputSchema, async (_req, res, body) => {
+    res.json(await service.preview(body.token));
+  }));
+  router.post('/accept', withBody(acceptInvitationInputSchema, async (_req, res, body) => {
     const signedIn = res.locals.auth ? authOf(res).user : null;
-    const result = await service.accept(res.locals.body, signedIn);
+    const result = await service.accept(body, signedIn);
     if (result.sessionId) res.append('Set-Cookie', auth.createSessionCookie(result.sessionId).serialize());
     res.json({ wineryId: result.wineryId });
-  });
+  }));
   return router;
 }

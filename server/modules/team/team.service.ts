@@ -9,7 +9,7 @@ import type { Mailer } from '../../lib/mail';
 import { hashPassword } from '../../lib/passwords';
 import { createToken, hashToken } from '../../lib/tokens';
 import type { TenantContext } from '../../middleware/authorize';
-import { createAuthRepository } from '../auth/auth.repository';
+import { accountsIn } from '../auth/auth.service';
 import { presentInvitation, presentMember } from './team.presenter';
 import { createTeamRepository } from './team.repository';
 import { audited, recordChange } from '../audit/audit.service';
@@ -104,7 +104,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
       const { invitation, wineryName } = await findInvitation(token);
       if (invitation.acceptedAt) throw gone('This invitation has already been used.');
       if (invitation.expiresAt <= now) throw gone('This invitation has expired. Ask the owner to invite you again.');
-      const accountExists = Boolean(await createAuthRepository(db).findUserByEmail(invitation.email));
+      const accountExists = Boolean(await accountsIn(db).findByEmail(invitation.email));
       return { wineryName, role: invitation.role, email: invitation.email, accountExists, expiresAt: invitation.expiresAt.toISOString() };
     },
 
@@ -129,14 +129,13 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
           // Claim the invitation first: a revoke or a second accept in between wins no race.
           if (!(await createTeamRepository(tx).markAccepted(invitation.id, signedIn.id, now))) throw gone('This invitation can no longer be used.');
           await createTeamRepository(tx).addMember(invitation.wineryId, signedIn.id, invitation.role);
-          await createAuthRepository(tx).setActiveWinery(signedIn.id, invitation.wineryId);
+          await accountsIn(tx).setActiveWinery(signedIn.id, invitation.wineryId);
           await recordChange(tx, { wineryId: invitation.wineryId, userId: signedIn.id }, { action: 'join', kind: 'member', id: signedIn.id });
         });
         return { wineryId: invitation.wineryId, sessionId: null };
       }
 
-      const authRepo = createAuthRepository(db);
-      if (await authRepo.findUserByEmail(invitation.email)) {
+      if (await accountsIn(db).findByEmail(invitation.email)) {
         throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
       }
       const fields: Record<string, string> = {};
@@ -146,8 +145,7 @@ export function createTeamService({ db, auth, mailer, appUrl }: Deps) {
       const passwordHash = await hashPassword(input.password!);
       const userId = generateIdFromEntropySize(10);
       await db.transaction(async (tx) => {
-        const txAuth = createAuthRepository(tx);
-        const user = await txAuth.insertUser({ id: userId, email: invitation.email, name: input.name!, passwordHash, activeWineryId: invitation.wineryId });
+        const user = await accountsIn(tx).create({ id: userId, email: invitation.email, name: input.name!, passwordHash, activeWineryId: invitation.wineryId });
         if (!user) throw conflict('You already have a Porewise account. Sign in, then open the invitation link again.', 'sign_in_required');
         if (!(await createTeamRepository(tx).markAccepted(invitation.id, userId, now))) throw gone('This invitation can no longer be used.');
         await createTeamRepository(tx).addMember(invitation.wineryId, userId, invitation.role);

@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { updateWinerySettingsInputSchema } from '../../../shared/schemas/winery-settings';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
-import { validateBody } from '../../middleware/validate';
+import { withBody } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createWinerySettingsService } from './winery-settings.service';
 
@@ -13,8 +13,11 @@ export function winerySettingsRoutes({ db }: ModuleDeps) {
   router.get('/settings/winery', requireSignedIn, authorize(db, 'settings:read'), async (_req, res) => {
     res.json(await service.get(tenantOf(res).wineryId));
   });
-  router.put('/settings/winery', requireSignedIn, authorize(db, 'settings:edit'), validateBody(updateWinerySettingsInputSchema), async (_req, res) => {
-    res.json(await service.update(tenantOf(res).wineryId, res.locals.body, tenantOf(res).userId));
-  });
+  // PATCH is the verb; PUT stays as an alias for one release (deprecated). Both take any subset.
+  for (const method of ['patch', 'put'] as const) {
+    router[method]('/settings/winery', requireSignedIn, authorize(db, 'settings:edit'), withBody(updateWinerySettingsInputSchema, async (_req, res, body) => {
+      res.json(await service.update(tenantOf(res).wineryId, body, tenantOf(res).userId));
+    }));
+  }
   return router;
 }

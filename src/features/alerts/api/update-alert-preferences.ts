@@ -4,7 +4,7 @@ import type { AlertPreferencesDto } from '@shared/types/alerts';
 import { api } from '@/lib/api-client';
 import { alertKeys } from './keys';
 
-export const updateAlertPreferences = (input: AlertPreferencesInput) => api.put<AlertPreferencesDto>('/me/alert-preferences', input);
+export const updateAlertPreferences = (input: AlertPreferencesInput) => api.patch<AlertPreferencesDto>('/me/alert-preferences', input);
 
 export function useUpdateAlertPreferences() {
   const qc = useQueryClient();

@@ -5,7 +5,7 @@ import { api } from '@/lib/api-client';
 import { lotKeys } from './keys';
 
 export const updateLabResult = ({ lotId, id, input }: { lotId: string; id: string; input: LabResultInput }) =>
-  api.put<LabResultDto>(`/lots/${lotId}/lab-results/${id}`, input);
+  api.patch<LabResultDto>(`/lots/${lotId}/lab-results/${id}`, input);
 
 export function useUpdateLabResult() {
   const qc = useQueryClient();

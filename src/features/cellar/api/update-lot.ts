@@ -4,7 +4,7 @@ import type { LotDto } from '@shared/types/cellar';
 import { api } from '@/lib/api-client';
 import { cellarKeys, lotKeys } from './keys';
 
-export const updateLot = ({ id, input }: { id: string; input: LotInput }) => api.put<LotDto>(`/lots/${id}`, input);
+export const updateLot = ({ id, input }: { id: string; input: LotInput }) => api.patch<LotDto>(`/lots/${id}`, input);
 
 export function useUpdateLot() {
   const qc = useQueryClient();

@@ -4,7 +4,7 @@ import type { TankDto } from '@shared/types/cellar';
 import { api } from '@/lib/api-client';
 import { cellarKeys } from './keys';
 
-export const updateTank = ({ id, input }: { id: string; input: TankInput }) => api.put<TankDto>(`/tanks/${id}`, input);
+export const updateTank = ({ id, input }: { id: string; input: TankInput }) => api.patch<TankDto>(`/tanks/${id}`, input);
 
 export function useUpdateTank() {
   const qc = useQueryClient();

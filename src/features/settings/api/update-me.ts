@@ -4,7 +4,7 @@ import type { MeDto } from '@shared/types/api';
 import { api } from '@/lib/api-client';
 import { sessionKeys } from '@/lib/session';
 
-export const updateMe = (input: UpdateMeInput) => api.put<MeDto>('/me', input);
+export const updateMe = (input: UpdateMeInput) => api.patch<MeDto>('/me', input);
 
 export function useUpdateMe() {
   const qc = useQueryClient();

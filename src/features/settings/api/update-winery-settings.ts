@@ -5,7 +5,7 @@ import { api } from '@/lib/api-client';
 import { sessionKeys } from '@/lib/session';
 import { winerySettingsKeys } from './keys';
 
-export const updateWinerySettings = (input: UpdateWinerySettingsInput) => api.put<WinerySettingsDto>('/settings/winery', input);
+export const updateWinerySettings = (input: UpdateWinerySettingsInput) => api.patch<WinerySettingsDto>('/settings/winery', input);
 
 export function useUpdateWinerySettings() {
   const qc = useQueryClient();

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { likePattern, pageWindow } from './list';
-import { createToken, hashToken } from './tokens';
+import { createToken, hashToken } from '../lib/tokens';
 
 describe('list helpers', () => {
   it.each([
