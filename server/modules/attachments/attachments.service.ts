@@ -1,12 +1,17 @@
 import { randomUUID } from 'node:crypto';
 import type { AttachmentOwner } from '../../../shared/schemas/attachments';
 import type { AttachmentDto } from '../../../shared/types/api';
-import type { Database } from '../../db/client';
+import type { Database, DbOrTx } from '../../db/client';
 import { can } from '../../../shared/permissions';
 import { badRequest, forbidden, notFound } from '../../lib/errors';
 import type { Storage } from '../../lib/storage';
 import type { TenantContext } from '../../middleware/authorize';
 import { createAttachmentsRepository, type AttachmentRow } from './attachments.repository';
+
+/** Records a file already put in storage as an attachment, inside the caller's transaction (a logger file kept with its run). */
+export function insertAttachmentIn(tx: DbOrTx, values: Parameters<ReturnType<typeof createAttachmentsRepository>['insert']>[0]) {
+  return createAttachmentsRepository(tx).insert(values);
+}
 import { safeFileName, sniffFileType } from './file-type';
 import { audited } from '../audit/audit.service';
 

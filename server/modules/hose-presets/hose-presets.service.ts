@@ -3,7 +3,7 @@ import type { HosePresetDto } from '../../../shared/types/hose-presets';
 import type { Database } from '../../db/client';
 import { conflict, HttpError, notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
-import { isUniqueViolation } from '../cellar/db-errors';
+import { isUniqueViolation } from '../../db/errors';
 import { presentHosePreset } from './hose-presets.presenter';
 import { createHosePresetsRepository, HOSE_PRESET_NAME_UNIQUE } from './hose-presets.repository';
 

@@ -12,7 +12,7 @@ import { idParam } from '../../lib/params';
 import { requireSignedIn } from '../../middleware/authenticate';
 import { authorize, tenantOf } from '../../middleware/authorize';
 import { idempotent } from '../../middleware/idempotency';
-import { parseOrThrow, validateBody } from '../../middleware/validate';
+import { parseOrThrow, withBody } from '../../middleware/validate';
 import type { ModuleDeps } from '../module-deps';
 import { createLoggerService } from './logger.service';
 
@@ -44,12 +44,12 @@ export function loggerRoutes({ db, storage }: ModuleDeps) {
   router.get('/logger-profiles', ...read, async (_req, res) => {
     res.json(await service.listProfiles(tenantOf(res)));
   });
-  router.post('/logger-profiles', ...log, idempotent(db), validateBody(loggerProfileInputSchema), async (_req, res) => {
-    res.status(201).json(await service.createProfile(tenantOf(res), res.locals.body));
-  });
-  router.patch('/logger-profiles/:id', ...log, validateBody(loggerProfilePatchSchema), async (req, res) => {
-    res.json(await service.updateProfile(tenantOf(res), idParam(req, 'id', 'Logger profile'), res.locals.body));
-  });
+  router.post('/logger-profiles', ...log, idempotent(db), withBody(loggerProfileInputSchema, async (_req, res, body) => {
+    res.status(201).json(await service.createProfile(tenantOf(res), body));
+  }));
+  router.patch('/logger-profiles/:id', ...log, withBody(loggerProfilePatchSchema, async (req, res, body) => {
+    res.json(await service.updateProfile(tenantOf(res), idParam(req, 'id', 'Logger profile'), body));
+  }));
   router.delete('/logger-profiles/:id', ...log, async (req, res) => {
     await service.removeProfile(tenantOf(res), idParam(req, 'id', 'Logger profile'));
     res.status(204).end();

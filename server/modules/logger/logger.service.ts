@@ -7,11 +7,10 @@ import type { Database } from '../../db/client';
 import { badRequest, conflict, HttpError, notFound } from '../../lib/errors';
 import type { Storage } from '../../lib/storage';
 import type { TenantContext } from '../../middleware/authorize';
-import { createAttachmentsRepository } from '../attachments/attachments.repository';
+import { insertAttachmentIn } from '../attachments/attachments.service';
 import { safeFileName } from '../attachments/file-type';
 import { recordChange } from '../audit/audit.service';
-import { createRunsRepository } from '../runs/runs.repository';
-import { storeReadings } from '../runs/runs.service';
+import { runForBulkReadings, storeReadings } from '../runs/runs.service';
 import { createLoggerRepository, type LoggerProfileRow } from './logger.repository';
 
 /** Rows shown in a preview, and errors listed. */
@@ -92,7 +91,7 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
   return {
     /** 404 unless the run is this winery's. */
     async requireRun(t: TenantContext, runId: string): Promise<void> {
-      if (!(await createRunsRepository(db).run(t.wineryId, runId))) throw notFound('Run');
+      if (!(await runForBulkReadings(db, t.wineryId, runId))) throw notFound('Run');
     },
 
     async listProfiles(t: TenantContext): Promise<{ items: LoggerProfileDto[] }> {
@@ -133,8 +132,7 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
       fields: LoggerImportFields,
       opts: { dryRun: boolean },
     ): Promise<LoggerPreviewDto | LoggerImportResultDto> {
-      const runs = createRunsRepository(db);
-      const run = await runs.batchContext(t.wineryId, runId, []);
+      const run = await runForBulkReadings(db, t.wineryId, runId);
       if (!run) throw notFound('Run');
       const { mapping, profileId } = await mappingOf(t.wineryId, fields);
       if (fields.stageIndex >= run.stageCount) throw badRequest('Check the highlighted fields.', { stageIndex: 'Choose a stage of this run’s train.' });
@@ -179,7 +177,7 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
       try {
         const result = await db.transaction(async (tx) => {
           // The run row share-locked until commit: readings share it, a close waits.
-          const ctx = await createRunsRepository(tx).batchContext(t.wineryId, runId, []);
+          const ctx = await runForBulkReadings(tx, t.wineryId, runId);
           if (!ctx) throw notFound('Run');
           if (ctx.status !== 'running') throw conflict('This run is closed; it takes no more readings.', 'run_closed');
           const logger = createLoggerRepository(tx);
@@ -197,7 +195,7 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
             createdByName: t.userName ?? null,
           });
           if (!claim) return { imported: 0, skipped: read.rowCount, attachmentId: null };
-          const attachmentId = await createAttachmentsRepository(tx).insert({
+          const attachmentId = await insertAttachmentIn(tx, {
             wineryId: t.wineryId,
             ownerKind: 'run',
             ownerId: runId,

@@ -192,6 +192,14 @@ export async function storeReadings(tx: DbOrTx, values: NewReadingRow[]): Promis
   return stored;
 }
 
+/**
+ * What a bulk write needs to know of a run (status, stage count), read in the caller's
+ * transaction with the run row share-locked until commit; null when the run is not the winery's.
+ */
+export function runForBulkReadings(tx: DbOrTx, wineryId: string, runId: string) {
+  return createRunsRepository(tx).batchContext(wineryId, runId, []);
+}
+
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
