@@ -98,24 +98,9 @@ export function createRunsRepository(db: DbOrTx) {
       .$dynamic();
   }
 
-  /**
-   * Each run's reading count and latest volume, in one grouped query over the given runs'
-   * readings (an index range per run; no correlated subquery per listed row).
-   */
-  async function withReadingStats(rows: Omit<RunSummaryRow, 'currentVolumeL' | 'readingCount'>[]): Promise<RunSummaryRow[]> {
-    if (rows.length === 0) return [];
-    const ids = rows.map((r) => r.run.id);
-    const stats = await db
-      .select({
-        runId: runReadingsTable.runId,
-        count: sql<number>`count(*)`.mapWith(Number),
-        maxVolume: sql<number>`coalesce(max(${runReadingsTable.volumeL}), 0)`.mapWith(Number),
-      })
-      .from(runReadingsTable)
-      .where(sql`${runReadingsTable.runId} = any(${sql.param(ids)}::uuid[])`)
-      .groupBy(runReadingsTable.runId);
-    const byRun = new Map(stats.map((s) => [s.runId, s]));
-    return rows.map((r) => ({ ...r, currentVolumeL: byRun.get(r.run.id)?.maxVolume ?? 0, readingCount: byRun.get(r.run.id)?.count ?? 0 }));
+  /** The stored counters on the run row are the summary's count and litres. */
+  function withReadingStats(rows: Omit<RunSummaryRow, 'currentVolumeL' | 'readingCount'>[]): RunSummaryRow[] {
+    return rows.map((r) => ({ ...r, currentVolumeL: r.run.currentVolumeL, readingCount: r.run.readingCount }));
   }
 
   return {
@@ -192,7 +177,7 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     async summary(wineryId: string, id: string) {
-      const [row] = await withReadingStats(await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id))));
+      const [row] = withReadingStats(await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id))));
       return row ?? null;
     },
 
@@ -223,9 +208,10 @@ export function createRunsRepository(db: DbOrTx) {
 
     /**
      * Stores one reading in a single statement, only while the run is running and has the stage
-     * and the litres do not go down. The run row is share-locked for this statement alone, so
-     * readings never wait for each other, and a close (which takes the row for update) either
-     * comes first, and then this stores nothing, or waits for it. Null when nothing was stored:
+     * and the litres do not go down, and counts it on the run (reading_count, current_volume_l).
+     * The run row is locked for this statement alone (readings of one run take turns for the
+     * length of one insert), and a close (which takes the row for update) either comes first,
+     * and then this stores nothing, or waits for it. Null when nothing was stored:
      * a resend of a stored key, or a check failed (the caller finds out which).
      */
     async insertReadingIfOpen(wineryId: string, runId: string, userId: string, r: NewReading): Promise<RunReadingRow | null> {
@@ -243,9 +229,12 @@ export function createRunsRepository(db: DbOrTx) {
             and jsonb_array_length(t.stages) > ${r.stageIndex}::int
             and ${r.volumeL}::double precision >= coalesce(
               (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = ${r.stageIndex}::int), 0)
-          for share of r
+          for no key update of r
           on conflict (run_id, client_key) do nothing
           returning *
+        ), bump as (
+          update runs set reading_count = runs.reading_count + 1, current_volume_l = greatest(runs.current_volume_l, ins.volume_l)
+          from ins where runs.id = ins.run_id
         )
         select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`);
       const row = result.rows[0] as Record<string, unknown> | undefined;
@@ -253,8 +242,8 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     /**
-     * What a batch needs to be checked, read with the run row share-locked until the
-     * transaction ends (readings share it; a close waits): the run, its stage count, the keys
+     * What a batch needs to be checked, read with the run row locked until the transaction
+     * ends (other readings of this run and a close wait; the batch then bumps the run's counters): the run, its stage count, the keys
      * of the batch already stored and the highest litres per stage.
      */
     async batchContext(wineryId: string, runId: string, clientKeys: string[]) {
@@ -264,7 +253,7 @@ export function createRunsRepository(db: DbOrTx) {
         join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
         left join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
         where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid
-        for share of r`);
+        for no key update of r`);
       const run = runRes.rows[0] as { status: string; stage_count: number | string } | undefined;
       if (!run) return null;
       // One statement, one snapshot: the stored keys and the litres agree with each other.
@@ -283,15 +272,52 @@ export function createRunsRepository(db: DbOrTx) {
       };
     },
 
-    /** Bulk insert; a key already stored (a concurrent resend) is skipped. Returns how many were stored. */
+    /**
+     * Bulk insert; a key already stored (a concurrent resend) is skipped. Each run's stored
+     * counters (reading_count, current_volume_l) go up by what was stored, in the same
+     * transaction (a savepoint when the caller already holds one). Every path that stores
+     * readings in bulk goes through here. Returns how many were stored.
+     */
     async insertReadings(values: ReadingInsert[]) {
       if (values.length === 0) return 0;
-      const rows = await db
-        .insert(runReadingsTable)
-        .values(values)
-        .onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] })
-        .returning({ id: runReadingsTable.id });
-      return rows.length;
+      return db.transaction(async (tx) => {
+        const rows = await tx
+          .insert(runReadingsTable)
+          .values(values)
+          .onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] })
+          .returning({ runId: runReadingsTable.runId, volumeL: runReadingsTable.volumeL });
+        const perRun = new Map<string, { n: number; v: number }>();
+        for (const r of rows) {
+          const p = perRun.get(r.runId) ?? { n: 0, v: 0 };
+          perRun.set(r.runId, { n: p.n + 1, v: Math.max(p.v, r.volumeL) });
+        }
+        for (const [runId, { n, v }] of perRun) {
+          await tx
+            .update(runsTable)
+            .set({ readingCount: sql`${runsTable.readingCount} + ${n}`, currentVolumeL: sql`greatest(${runsTable.currentVolumeL}, ${v}::double precision)` })
+            .where(eq(runsTable.id, runId));
+        }
+        return rows.length;
+      });
+    },
+
+    /**
+     * Counts the run's readings again from the record, after a correction or a void: readings
+     * whose latest correction is not a void, and the highest (corrected) volume among them.
+     */
+    async recountRun(wineryId: string, runId: string) {
+      await db.execute(sql`
+        update runs r set reading_count = s.n, current_volume_l = s.v
+        from (
+          select count(*) filter (where not e.voided)::int as n, coalesce(max(e.vol) filter (where not e.voided), 0) as v
+          from (
+            select
+              coalesce((select c.kind = 'void' from run_reading_corrections c where c.reading_id = x.id order by c.created_at desc, c.id desc limit 1), false) as voided,
+              coalesce((select c.volume_l from run_reading_corrections c where c.reading_id = x.id and c.kind = 'correct' and c.volume_l is not null order by c.created_at desc, c.id desc limit 1), x.volume_l) as vol
+            from run_readings x where x.run_id = ${runId}::uuid
+          ) e
+        ) s
+        where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid`);
     },
 
     async readingByKey(wineryId: string, runId: string, clientKey: string): Promise<RunReadingRow | null> {
@@ -320,19 +346,6 @@ export function createRunsRepository(db: DbOrTx) {
         .orderBy(desc(runReadingsTable.volumeL))
         .limit(1);
       return row ?? null;
-    },
-
-    /** Inserts the reading unless the run already has one with this client key. */
-    async insertReading(values: ReadingInsert) {
-      await db.insert(runReadingsTable).values(values).onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] });
-    },
-
-    async maxVolume(wineryId: string, runId: string) {
-      const [row] = await db
-        .select({ v: sql<number | null>`max(${runReadingsTable.volumeL})`.mapWith(Number) })
-        .from(runReadingsTable)
-        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)));
-      return row?.v ?? 0;
     },
 
     async closeRun(wineryId: string, id: string, closedBy: string, closedByName: string | null, notes: string | undefined) {

@@ -520,6 +520,7 @@ export function createRunsService(db: Database) {
           createdBy: t.userId,
           createdByName: t.userName ?? null,
         });
+        await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);
@@ -534,6 +535,7 @@ export function createRunsService(db: Database) {
         const reading = await r.reading(t.wineryId, runId, readingId);
         if (!reading) throw notFound('Reading');
         await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
+        await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);
