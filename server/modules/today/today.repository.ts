@@ -1,6 +1,6 @@
-import { and, asc, count, eq, exists, gte, inArray, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
+import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, cartridgeTypesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
 
 /** One event as the aggregate gives it: kind, time (ms since the Unix epoch), details. */
 type LifeEventTuple = [kind: (typeof LIFE_EVENT_KINDS)[number], atMs: number, details: Record<string, unknown> | null];
@@ -9,6 +9,18 @@ type LifeEventTuple = [kind: (typeof LIFE_EVENT_KINDS)[number], atMs: number, de
 const LIFE_EVENT_KINDS = ['registered', 'cycle', 'integrity'] as const;
 /** Event kinds that make an in-stock cartridge worth forecasting (it has been used). */
 const USE_EVENT_KINDS = ['cycle', 'integrity', 'run'] as const;
+
+/** A cartridge whose stored life check must be worked out again. */
+export type StaleLifeRow = { id: string; typeId: string; litresFiltered: number; lengthIn: number; version: number; events: LifeEventTuple[] };
+
+/** Cartridges whose life is worth forecasting: installed or regenerating, or in stock after use. */
+const inUse = or(
+  inArray(cartridgesTable.status, ['installed', 'regenerating']),
+  and(
+    eq(cartridgesTable.status, 'in-stock'),
+    sql`exists (select 1 from ${cartridgeEventsTable} u where u.cartridge_id = ${cartridgesTable.id} and u.kind = any(${sql.param([...USE_EVENT_KINDS])}::text[]))`,
+  ),
+)!;
 
 export function createTodayRepository(db: DbOrTx) {
   return {
@@ -60,29 +72,54 @@ export function createTodayRepository(db: DbOrTx) {
     },
 
     /**
-     * The cartridges whose life is worth forecasting: installed or regenerating ones, and
-     * in-stock ones that have been used. Each with its housing name and the events the
-     * forecast reads, aggregated per cartridge in the same query (no list of ids sent back).
-     * An event is [kind, time in ms since the epoch, details].
+     * The cartridges whose life is worth forecasting (installed or regenerating ones, and
+     * in-stock ones that have been used) and whose stored life check is missing or stale
+     * (cartridge_life_flags.version moved on since it was checked). Each with the events the
+     * forecast reads, aggregated per cartridge in the same query, and the version it is read at
+     * (0 when it has no row yet). An event is [kind, time in ms since the epoch, details].
      */
-    async cartridgesInUse(wineryId: string) {
-      const used = db
-        .select({ one: sql`1` })
-        .from(cartridgeEventsTable)
-        .where(and(eq(cartridgeEventsTable.cartridgeId, cartridgesTable.id), inArray(cartridgeEventsTable.kind, [...USE_EVENT_KINDS])));
-      const lifeEvents = db
-        .select({
-          cartridgeId: cartridgeEventsTable.cartridgeId,
-          events:
-            sql<LifeEventTuple[]>`json_agg(json_build_array(${cartridgeEventsTable.kind}, extract(epoch from ${cartridgeEventsTable.at}) * 1000, ${cartridgeEventsTable.details}))`.as(
-              'events',
-            ),
-        })
-        .from(cartridgeEventsTable)
-        .where(and(eq(cartridgeEventsTable.wineryId, wineryId), inArray(cartridgeEventsTable.kind, [...LIFE_EVENT_KINDS])))
-        .groupBy(cartridgeEventsTable.cartridgeId)
-        .as('life_events');
-      return db
+    async staleLifeChecks(wineryId: string): Promise<StaleLifeRow[]> {
+      const res = await db.execute(sql`
+        select cartridges.id, cartridges.type_id, cartridges.litres_filtered, cartridges.length_in, coalesce(f.version, 0) as version,
+               (select json_agg(json_build_array(e.kind, extract(epoch from e.at) * 1000, e.details))
+                  from ${cartridgeEventsTable} e
+                 where e.cartridge_id = cartridges.id and e.kind = any(${sql.param([...LIFE_EVENT_KINDS])}::text[])) as events
+        from ${cartridgesTable}
+        left join ${cartridgeLifeFlagsTable} f on f.cartridge_id = cartridges.id
+        where cartridges.winery_id = ${wineryId}::uuid and ${inUse}
+          and (f.cartridge_id is null or f.checked_version is distinct from f.version)`);
+      return (res.rows as Record<string, unknown>[]).map((r) => ({
+        id: String(r.id),
+        typeId: String(r.type_id),
+        litresFiltered: Number(r.litres_filtered),
+        lengthIn: Number(r.length_in),
+        version: Number(r.version),
+        events: (r.events as LifeEventTuple[] | null) ?? [],
+      }));
+    },
+
+    /**
+     * Stores life checks, each only if the cartridge's version is still the one it was read at
+     * (a write in between leaves it stale, to be checked again on the next visit).
+     */
+    async storeLifeChecks(checks: { id: string; version: number; rank: number | null; closeness: number | null; attention: object | null }[]) {
+      if (checks.length === 0) return;
+      await db.execute(sql`
+        insert into ${cartridgeLifeFlagsTable} (cartridge_id, version, checked_version, rank, closeness, attention)
+        select x.id, x.version, x.version, x.rank, x.closeness, x.attention
+        from jsonb_to_recordset(${JSON.stringify(checks)}::jsonb) as x(id uuid, version int, rank int, closeness double precision, attention jsonb)
+        order by x.id
+        on conflict (cartridge_id) do update
+          set checked_version = excluded.checked_version, rank = excluded.rank, closeness = excluded.closeness, attention = excluded.attention
+          where ${cartridgeLifeFlagsTable}.version = excluded.version`);
+    },
+
+    /**
+     * The cartridges worth forecasting whose stored check found something, most urgent first
+     * (rank, then closeness, then serial), at most `limit`, with how many there are in all.
+     */
+    async flaggedCartridges(wineryId: string, limit: number) {
+      const rows = await db
         .select({
           cartridge: {
             id: cartridgesTable.id,
@@ -91,25 +128,23 @@ export function createTodayRepository(db: DbOrTx) {
             typeId: cartridgesTable.typeId,
             housingId: cartridgesTable.housingId,
             position: cartridgesTable.position,
-            litresFiltered: cartridgesTable.litresFiltered,
-            lengthIn: cartridgesTable.lengthIn,
           },
           housingName: housingsTable.name,
-          events: lifeEvents.events,
+          rank: sql<number>`${cartridgeLifeFlagsTable.rank}`.mapWith(Number),
+          closeness: sql<number>`${cartridgeLifeFlagsTable.closeness}`.mapWith(Number),
+          attention: cartridgeLifeFlagsTable.attention,
+          total: sql<number>`count(*) over ()`.mapWith(Number),
         })
         .from(cartridgesTable)
+        .innerJoin(cartridgeLifeFlagsTable, eq(cartridgeLifeFlagsTable.cartridgeId, cartridgesTable.id))
         .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-        .leftJoin(lifeEvents, eq(lifeEvents.cartridgeId, cartridgesTable.id))
-        .where(
-          and(
-            eq(cartridgesTable.wineryId, wineryId),
-            or(inArray(cartridgesTable.status, ['installed', 'regenerating']), and(eq(cartridgesTable.status, 'in-stock'), exists(used))),
-          ),
-        )
-        .orderBy(asc(cartridgesTable.serial));
+        .where(and(eq(cartridgesTable.wineryId, wineryId), inUse, isNotNull(cartridgeLifeFlagsTable.rank)))
+        .orderBy(asc(cartridgeLifeFlagsTable.rank), desc(cartridgeLifeFlagsTable.closeness), asc(cartridgesTable.serial))
+        .limit(limit);
+      return { rows, total: rows[0]?.total ?? 0 };
     },
   };
 }
 export type TodayRepository = ReturnType<typeof createTodayRepository>;
-export type TodayCartridgeRow = Awaited<ReturnType<TodayRepository['cartridgesInUse']>>[number];
+export type TodayCartridgeRow = Awaited<ReturnType<TodayRepository['flaggedCartridges']>>['rows'][number];
 export type TodayLifeType = Awaited<ReturnType<TodayRepository['lifeTypes']>>[number];
