@@ -77,6 +77,8 @@ export type AppDeps = {
   outboxKey?: string;
   /** The alerts service shared with the workers (made here when absent). */
   alerts?: AlertsService;
+  /** Set `draining` when shutting down: /api/health/ready then answers 503. */
+  lifecycle?: { draining: boolean };
 };
 
 export const JSON_BODY_LIMIT = '1mb';
@@ -129,7 +131,7 @@ export function createApp(deps: AppDeps): Express {
     next();
   });
   // Before authenticate: health answers {db:false} even with a session cookie while the database is away.
-  api.use('/health', healthRoutes({ db }));
+  api.use('/health', healthRoutes({ db, lifecycle: deps.lifecycle }));
   api.use(authenticate(auth));
 
   const alerts = deps.alerts ?? createAlertsService({ db, mailer, appUrl: config.appUrl });

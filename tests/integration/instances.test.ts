@@ -41,7 +41,7 @@ async function freePort(): Promise<number> {
 }
 
 /** `server/index.ts` in its own process, as production runs it (rate limits at scale 1, no namespace). */
-async function startServerProcess(): Promise<string> {
+async function startServerProcess(extraEnv: NodeJS.ProcessEnv = {}): Promise<{ url: string; child: ChildProcess }> {
   const port = await freePort();
   const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-instance-'));
   const schema = `pgboss_inst_${randomBytes(5).toString('hex')}`;
@@ -59,6 +59,7 @@ async function startServerProcess(): Promise<string> {
       RATE_LIMIT_SCALE: '1',
       FAKE_SERVICES_DIR: dir,
       CLIENT_DIR: join(dir, 'no-client'),
+      ...extraEnv,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
@@ -70,7 +71,7 @@ async function startServerProcess(): Promise<string> {
   const deadline = Date.now() + 90_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
-    if (await fetch(`${url}/api/health`).then((r) => r.ok, () => false)) return url;
+    if (await fetch(`${url}/api/health`).then((r) => r.ok, () => false)) return { url, child };
     if (Date.now() > deadline) throw new Error(`server did not start: ${output}`);
     await new Promise((r) => setTimeout(r, 200));
   }
@@ -125,7 +126,8 @@ describe('two server instances on one database', () => {
 
 describe('two server processes on one database', () => {
   it('the sign-in limit counts across both: 10 failures shared between them, then 429 on either', async () => {
-    const [one, two] = await Promise.all([startServerProcess(), startServerProcess()]);
+    const [first, second] = await Promise.all([startServerProcess(), startServerProcess({ SHUTDOWN_DRAIN_MS: '1500' })]);
+    const [one, two] = [first.url, second.url];
     // The account is made through an in-process test app on the same database.
     const { email } = await signUp(a.baseUrl);
     const statuses: number[] = [];
@@ -147,5 +149,22 @@ describe('two server processes on one database', () => {
     const there = new Client(two);
     for (const [k, v] of signedIn.cookies) there.cookies.set(k, v);
     expect((await there.get('/api/me')).status).toBe(200);
+
+    // Graceful shutdown behind a load balancer: on SIGTERM, readiness turns 503 at once while
+    // the instance still answers (the drain time); then it exits cleanly. The other serves on.
+    expect((await fetch(`${two}/api/health/ready`)).status).toBe(200);
+    const exit = new Promise<number | null>((r) => second.child.once('exit', (code) => r(code)));
+    second.child.kill('SIGTERM');
+    let ready = await fetch(`${two}/api/health/ready`);
+    for (let i = 0; i < 20 && ready.status === 200; i += 1) {
+      await new Promise((r) => setTimeout(r, 25));
+      ready = await fetch(`${two}/api/health/ready`);
+    }
+    expect(ready.status).toBe(503);
+    expect(await ready.json()).toEqual({ ready: false, draining: true, db: null });
+    expect((await there.get('/api/me')).status).toBe(200);
+    expect(await exit).toBe(0);
+    expect((await signedIn.get('/api/me')).status).toBe(200);
+    expect((await fetch(`${one}/api/health/ready`)).status).toBe(200);
   }, 180_000);
 });
