@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
 import type { DbOrTx } from '../../db/client';
 import {
   usersTable,
@@ -176,9 +177,34 @@ export function createRunsRepository(db: DbOrTx) {
       return withReadingStats(await summaries(wineryId).orderBy(desc(runsTable.startedAt), desc(runsTable.id)).limit(limit));
     },
 
-    async summary(wineryId: string, id: string) {
-      const [row] = withReadingStats(await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id))));
-      return row ?? null;
+    /**
+     * The run's summary and its plan lot's context (plan, lot, chosen train, line) in one
+     * round trip, as `summary` and `planLot` give them; null when not this winery's.
+     */
+    async summaryWithPlanLot(wineryId: string, id: string) {
+      const runPlan = alias(plansTable, 'run_plan');
+      const [row] = await db
+        .select({ run: runsTable, planName: runPlan.name, planLot: planLotsTable, plan: plansTable, lot: lotsTable, train: planTrainsTable, line: linesTable })
+        .from(runsTable)
+        .innerJoin(runPlan, eq(runPlan.id, runsTable.planId))
+        .innerJoin(planLotsTable, and(eq(planLotsTable.id, runsTable.planLotId), eq(planLotsTable.wineryId, wineryId)))
+        .innerJoin(plansTable, eq(plansTable.id, planLotsTable.planId))
+        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+        .leftJoin(planTrainsTable, and(eq(planTrainsTable.id, planLotsTable.chosenTrainId), eq(planTrainsTable.wineryId, wineryId)))
+        .leftJoin(linesTable, and(eq(linesTable.id, plansTable.lineId), eq(linesTable.wineryId, wineryId)))
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
+      if (!row) return null;
+      const summary: RunSummaryRow = {
+        run: row.run,
+        planName: row.planName,
+        lotId: row.lot.id,
+        lotCode: row.lot.code,
+        lotName: row.lot.name,
+        volumeL: row.planLot.volumeL,
+        currentVolumeL: row.run.currentVolumeL,
+        readingCount: row.run.readingCount,
+      };
+      return { summary, ctx: { planLot: row.planLot, plan: row.plan, lot: row.lot, train: row.train, line: row.line } };
     },
 
     async lockRun(wineryId: string, id: string) {
