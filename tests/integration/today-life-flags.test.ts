@@ -56,7 +56,8 @@ describe('Today’s stored life checks', () => {
     // used and back on the shelf, nothing to look at yet
     await app.db.insert(cartridgeEventsTable).values([...steam(a, 5), ...steam(b, 5)]);
     expect((await checkedBothWays(client, ids)).attentionTotal).toBe(0);
-    expect(await app.db.select().from(cartridgeLifeFlagsTable).where(inArray(cartridgeLifeFlagsTable.cartridgeId, ids))).toHaveLength(2);
+    // every cartridge not retired has its check stored (c too: unused, on the shelf, not shown)
+    expect(await app.db.select().from(cartridgeLifeFlagsTable).where(inArray(cartridgeLifeFlagsTable.cartridgeId, ids))).toHaveLength(3);
 
     // more cycles logged: a is near the end of its steam budget
     await app.db.insert(cartridgeEventsTable).values(steam(a, 12, 10));

@@ -72,9 +72,10 @@ export function createTodayRepository(db: DbOrTx) {
     },
 
     /**
-     * The cartridges whose life is worth forecasting (installed or regenerating ones, and
-     * in-stock ones that have been used) and whose stored life check is missing or stale
-     * (cartridge_life_flags.version moved on since it was checked). Each with the events the
+     * The cartridges not retired whose stored life check is missing or stale
+     * (cartridge_life_flags.version moved on since it was checked). The check does not depend on
+     * the status, so it is kept for every such cartridge and `flaggedCartridges` picks the ones
+     * in use when reading; this query then needs no look at the events of unused ones. Each with the events the
      * forecast reads, aggregated per cartridge in the same query, and the version it is read at
      * (0 when it has no row yet). An event is [kind, time in ms since the epoch, details].
      */
@@ -86,7 +87,7 @@ export function createTodayRepository(db: DbOrTx) {
                  where e.cartridge_id = cartridges.id and e.kind = any(${sql.param([...LIFE_EVENT_KINDS])}::text[])) as events
         from ${cartridgesTable}
         left join ${cartridgeLifeFlagsTable} f on f.cartridge_id = cartridges.id
-        where cartridges.winery_id = ${wineryId}::uuid and ${inUse}
+        where cartridges.winery_id = ${wineryId}::uuid and cartridges.status <> 'retired'
           and (f.cartridge_id is null or f.checked_version is distinct from f.version)`);
       return (res.rows as Record<string, unknown>[]).map((r) => ({
         id: String(r.id),
