@@ -128,10 +128,15 @@ export function createTodayService(db: Database) {
    * Cartridges to look at, most urgent first. Each cartridge's life check is stored
    * (cartridge_life_flags) and worked out again only when something it reads has changed since:
    * the cartridges left stale are forecast here and stored, then the flagged ones are read,
-   * the first TODAY_CARTRIDGES_MAX of them with the total. Three queries when nothing changed.
+   * the first TODAY_CARTRIDGES_MAX of them with the total. Three queries at once when nothing changed.
    */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
-    const [types, stale] = await Promise.all([repo.lifeTypes(wineryId), repo.staleLifeChecks(wineryId)]);
+    // The flagged ones are read alongside; read again only when some checks had to be stored.
+    const [types, stale, flaggedBefore] = await Promise.all([
+      repo.lifeTypes(wineryId),
+      repo.staleLifeChecks(wineryId),
+      repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX),
+    ]);
     const typeById = new Map(types.map((t) => [t.id, t]));
     if (stale.length > 0) {
       await repo.storeLifeChecks(
@@ -149,7 +154,7 @@ export function createTodayService(db: Database) {
         }),
       );
     }
-    const { rows, total } = await repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX);
+    const { rows, total } = stale.length > 0 ? await repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX) : flaggedBefore;
     // the same order as the database's, with the serials compared as people read them
     rows.sort((a, b) => a.rank - b.rank || b.closeness - a.closeness || a.cartridge.serial.localeCompare(b.cartridge.serial));
     return {
