@@ -24,6 +24,7 @@ import { createCalendarService } from './modules/alerts/calendar.service';
 import { createAccountService } from './modules/account/account.service';
 import { authRoutes } from './modules/auth/auth.routes';
 import { createAuthService } from './modules/auth/auth.service';
+import { createRateLimitRepository } from './modules/auth/rate-limit.repository';
 import { calcRoutes } from './modules/calc/calc.routes';
 import { appInfoRoutes } from './modules/health/app-info.routes';
 import { healthRoutes } from './modules/health/health.routes';
@@ -55,6 +56,11 @@ export type AppConfig = {
   secureCookies: boolean;
   /** Multiplies the auth rate limits (1 in production). */
   rateLimitScale: number;
+  /**
+   * Prefix of this app's rate-limit counters in the shared table ('' in production, where every
+   * instance counts together); test apps on one database take their own unless they share on purpose.
+   */
+  rateLimitNamespace?: string;
   /** Express "trust proxy" (behind a reverse proxy the client address comes from X-Forwarded-For). */
   trustProxy?: string;
   /** Folder with the built client to serve, if any. */
@@ -73,6 +79,8 @@ export type AppDeps = {
   outboxKey?: string;
   /** The alerts service shared with the workers (made here when absent). */
   alerts?: AlertsService;
+  /** Set `draining` when shutting down: /api/health/ready then answers 503. */
+  lifecycle?: { draining: boolean };
 };
 
 export const JSON_BODY_LIMIT = '1mb';
@@ -125,14 +133,14 @@ export function createApp(deps: AppDeps): Express {
     next();
   });
   // Before authenticate: health answers {db:false} even with a session cookie while the database is away.
-  api.use('/health', healthRoutes({ db }));
+  api.use('/health', healthRoutes({ db, lifecycle: deps.lifecycle }));
   api.use(authenticate(auth));
 
   const alerts = deps.alerts ?? createAlertsService({ db, mailer, appUrl: config.appUrl });
   app.locals.alerts = alerts;
   api.use(evaluateAlertsAfterWrites(alerts));
 
-  const limits = createAuthRateLimits(config.rateLimitScale);
+  const limits = createAuthRateLimits(createRateLimitRepository(db), config.rateLimitScale, config.rateLimitNamespace);
   const authService = createAuthService({ db, auth, mailer, appUrl: config.appUrl });
   const teamService = createTeamService({ db, auth, mailer, appUrl: config.appUrl });
 

@@ -40,6 +40,15 @@ const envSchema = z.object({
   MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(6),
   QUEUE_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+  /** Connections this process's app pool may open (the job queue keeps 4 more of its own). */
+  DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(500).default(10),
+  /**
+   * On SIGTERM, how long /api/health/ready answers 503 while the server still serves, so a load
+   * balancer stops sending new requests before the listener closes (0 locally).
+   */
+  SHUTDOWN_DRAIN_MS: z.coerce.number().int().min(0).max(300_000).default(0),
+  /** Then how long requests in flight get to finish before their connections are cut. */
+  SHUTDOWN_GRACE_MS: z.coerce.number().int().min(0).max(300_000).default(10_000),
 });
 
 export type Env = z.infer<typeof envSchema> & { appUrl: string; secureCookies: boolean; allowedOrigins: string[]; loopbackOnly: boolean };

@@ -18,7 +18,9 @@ import { createS3Storage } from './lib/storage';
  * unset), then listens. Returns the URL and a close() for graceful shutdown.
  */
 export async function startServer(env: Env) {
-  const { db, pool } = createDatabase(env.DATABASE_URL);
+  const { db, pool } = createDatabase(env.DATABASE_URL, { max: env.DATABASE_POOL_MAX });
+  // Set when shutting down: readiness answers 503 so a load balancer drains this instance.
+  const lifecycle = { draining: false };
   let fakeSmtp: FakeSmtp | undefined;
   let fakeS3: FakeS3 | undefined;
 
@@ -68,6 +70,7 @@ export async function startServer(env: Env) {
     outbox: fakeSmtp,
     outboxKey,
     alerts,
+    lifecycle,
     config: {
       appUrl: env.appUrl,
       allowedOrigins: env.allowedOrigins,
@@ -87,10 +90,22 @@ export async function startServer(env: Env) {
   const { port } = server.address() as AddressInfo;
   const url = `http://${env.HOST}:${port}`;
 
+  /**
+   * Graceful shutdown: readiness turns 503 at once and the server keeps serving for
+   * SHUTDOWN_DRAIN_MS (the load balancer's time to notice); then the listener closes, idle
+   * keep-alive connections are dropped, requests in flight get SHUTDOWN_GRACE_MS to finish,
+   * and whatever is left is cut. Then the workers, the queue and the pool stop.
+   */
   async function close() {
+    lifecycle.draining = true;
+    if (env.SHUTDOWN_DRAIN_MS > 0) await new Promise((r) => setTimeout(r, env.SHUTDOWN_DRAIN_MS));
     await new Promise<void>((r) => {
-      server.close(() => r());
-      server.closeAllConnections();
+      const cut = setTimeout(() => server.closeAllConnections(), env.SHUTDOWN_GRACE_MS);
+      server.close(() => {
+        clearTimeout(cut);
+        r();
+      });
+      server.closeIdleConnections();
     });
     await alerts.idle();
     await queue.stop();

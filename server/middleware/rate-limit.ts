@@ -1,5 +1,8 @@
 import type { Request, RequestHandler } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import { logger } from '../lib/logger';
+import type { RateLimitRepository } from '../modules/auth/rate-limit.repository';
+import { PostgresRateLimitStore } from './rate-limit-store';
 
 const FIFTEEN_MINUTES = 15 * 60 * 1000;
 
@@ -31,29 +34,16 @@ export function accountDelayMs(failures: number, scale = 1): number {
 /**
  * Per account alone, failed sign-ins only slow answers down (a growing delay, at most 5 s), so
  * someone guessing from many addresses is slowed while the person with the right password is
- * never locked out by someone else's failures. Counts live in memory for 15 minutes.
+ * never locked out by someone else's failures. Counts live in PostgreSQL for 15 minutes from
+ * the first failure, shared by every server instance.
  */
-function accountSlowdown(scale: number): RequestHandler {
-  const failures = new Map<string, { count: number; since: number }>();
-  const MAX_ENTRIES = 100_000;
+function accountSlowdown(repo: RateLimitRepository, scale: number, namespace: string): RequestHandler {
   return async (req, res, next) => {
-    const key = emailOf(req);
-    const now = Date.now();
-    let entry = failures.get(key);
-    if (entry && now - entry.since > FIFTEEN_MINUTES) {
-      failures.delete(key);
-      entry = undefined;
-    }
-    const delay = accountDelayMs(entry?.count ?? 0, scale);
+    const key = `${namespace}signin-account-failures:${emailOf(req)}`;
+    const delay = accountDelayMs((await repo.get(key))?.hits ?? 0, scale);
     res.on('finish', () => {
-      if (res.statusCode === 401) {
-        const current = failures.get(key);
-        if (current) current.count += 1;
-        else {
-          if (failures.size >= MAX_ENTRIES) failures.delete(failures.keys().next().value!);
-          failures.set(key, { count: 1, since: Date.now() });
-        }
-      } else if (res.statusCode < 300) failures.delete(key);
+      const write = res.statusCode === 401 ? repo.increment(key, FIFTEEN_MINUTES) : res.statusCode < 300 ? repo.reset(key) : null;
+      void write?.catch((e: unknown) => logger.warn({ message: (e as Error).message }, 'sign-in failure count not stored'));
     });
     if (delay) await new Promise((r) => setTimeout(r, delay));
     next();
@@ -64,32 +54,35 @@ function accountSlowdown(scale: number): RequestHandler {
  * Limits on the endpoints that guess or send: failed sign-ins per address and per (account,
  * address) answer 429; per account alone only a growing delay (see accountSlowdown). Sign-ups
  * per address, reset requests per address and per account. `scale` multiplies every limit (test
- * servers that sign up hundreds of people use a large scale).
+ * servers that sign up hundreds of people use a large scale). Every counter lives in PostgreSQL
+ * (`rate_limit_hits`), so the limits hold across any number of server instances.
  */
-export function createAuthRateLimits(scale = 1) {
+export function createAuthRateLimits(repo: RateLimitRepository, scale = 1, namespace = '') {
+  const store = (prefix: string) => ({ store: new PostgresRateLimitStore(repo, namespace + prefix) });
   const common = { windowMs: FIFTEEN_MINUTES, standardHeaders: 'draft-7' as const, legacyHeaders: false };
   const failedMessage = 'Too many failed sign-ins. Wait 15 minutes, or reset your password.';
   return {
     signIn: [
-      rateLimit({ ...common, limit: 30 * scale, skipSuccessfulRequests: true, keyGenerator: ipOf, handler: tooMany(failedMessage) }),
+      rateLimit({ ...common, ...store('signin-ip:'), limit: 30 * scale, skipSuccessfulRequests: true, keyGenerator: ipOf, handler: tooMany(failedMessage) }),
       rateLimit({
         ...common,
+        ...store('signin-account-ip:'),
         limit: 10 * scale,
         skipSuccessfulRequests: true,
         keyGenerator: (req) => `account:${emailOf(req)}|${ipOf(req)}`,
         handler: tooMany(failedMessage),
       }),
-      accountSlowdown(scale),
+      accountSlowdown(repo, scale, namespace),
     ],
     signUp: [
-      rateLimit({ ...common, windowMs: 60 * 60 * 1000, limit: 20 * scale, keyGenerator: ipOf, handler: tooMany('Too many sign-ups from this address. Try again in an hour.') }),
+      rateLimit({ ...common, ...store('signup-ip:'), windowMs: 60 * 60 * 1000, limit: 20 * scale, keyGenerator: ipOf, handler: tooMany('Too many sign-ups from this address. Try again in an hour.') }),
     ],
     passwordResetConfirm: [
-      rateLimit({ ...common, limit: 10 * scale, keyGenerator: ipOf, handler: tooMany('Too many attempts. Try again in 15 minutes.') }),
+      rateLimit({ ...common, ...store('reset-confirm-ip:'), limit: 10 * scale, keyGenerator: ipOf, handler: tooMany('Too many attempts. Try again in 15 minutes.') }),
     ],
     passwordReset: [
-      rateLimit({ ...common, limit: 10 * scale, keyGenerator: ipOf, handler: tooMany('Too many reset requests. Try again in 15 minutes.') }),
-      rateLimit({ ...common, limit: 5 * scale, keyGenerator: (req) => `account:${emailOf(req)}`, handler: tooMany('Too many reset requests for this account. Try again in 15 minutes.') }),
+      rateLimit({ ...common, ...store('reset-ip:'), limit: 10 * scale, keyGenerator: ipOf, handler: tooMany('Too many reset requests. Try again in 15 minutes.') }),
+      rateLimit({ ...common, ...store('reset-account:'), limit: 5 * scale, keyGenerator: (req) => `account:${emailOf(req)}`, handler: tooMany('Too many reset requests for this account. Try again in 15 minutes.') }),
     ],
   };
 }

@@ -1,9 +1,16 @@
 // @vitest-environment node
 // Porewise as several identical server instances on one database (behind any load balancer):
 // nothing that must be shared lives in a process's memory. Two apps, each with its own
-// connection pool, on the one test database.
+// connection pool, on the one test database; and two real server processes for the limits.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer, type AddressInfo } from 'node:net';
+import { join } from 'node:path';
+import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { databaseUrl } from '../../scripts/lib/postgres';
+import { addMember, Client, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 
 let a: TestApp;
 let b: TestApp;
@@ -13,6 +20,62 @@ beforeAll(async () => {
 afterAll(async () => {
   await Promise.all([a.close(), b.close()]);
 });
+
+const processes: ChildProcess[] = [];
+const dirs: string[] = [];
+const queueSchemas: string[] = [];
+afterAll(async () => {
+  for (const c of processes) if (c.exitCode === null) c.kill('SIGKILL');
+  const pool = new pg.Pool({ connectionString: databaseUrl('porewise_test'), max: 1 });
+  for (const s of queueSchemas) await pool.query(`drop schema if exists ${s} cascade`).catch(() => {});
+  await pool.end();
+  for (const d of dirs) rmSync(d, { recursive: true, force: true });
+});
+
+async function freePort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+  const { port } = server.address() as AddressInfo;
+  await new Promise<void>((r) => server.close(() => r()));
+  return port;
+}
+
+/** `server/index.ts` in its own process, as production runs it (rate limits at scale 1, no namespace). */
+async function startServerProcess(extraEnv: NodeJS.ProcessEnv = {}): Promise<{ url: string; child: ChildProcess }> {
+  const port = await freePort();
+  const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-instance-'));
+  const schema = `pgboss_inst_${randomBytes(5).toString('hex')}`;
+  dirs.push(dir);
+  queueSchemas.push(schema);
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    env: {
+      ...process.env,
+      NODE_ENV: 'test',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DATABASE_URL: databaseUrl('porewise_test'),
+      QUEUE_SCHEMA: schema,
+      QUEUE_POLL_SECONDS: '0.5',
+      RATE_LIMIT_SCALE: '1',
+      FAKE_SERVICES_DIR: dir,
+      CLIENT_DIR: join(dir, 'no-client'),
+      ...extraEnv,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  processes.push(child);
+  let output = '';
+  child.stdout!.on('data', (d) => (output += d));
+  child.stderr!.on('data', (d) => (output += d));
+  const url = `http://127.0.0.1:${String(port)}`;
+  const deadline = Date.now() + 90_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
+    if (await fetch(`${url}/api/health`).then((r) => r.ok, () => false)) return { url, child };
+    if (Date.now() > deadline) throw new Error(`server did not start: ${output}`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
 
 /** The same browser, its requests now reaching the other instance. */
 function onOther(client: Client, other: TestApp): Client {
@@ -59,4 +122,49 @@ describe('two server instances on one database', () => {
     expect((await owner.delete(`/api/team/${member.userId}`)).status).toBe(204);
     expect((await there.get('/api/tanks')).status).toBe(403);
   });
+});
+
+describe('two server processes on one database', () => {
+  it('the sign-in limit counts across both: 10 failures shared between them, then 429 on either', async () => {
+    const [first, second] = await Promise.all([startServerProcess(), startServerProcess({ SHUTDOWN_DRAIN_MS: '1500' })]);
+    const [one, two] = [first.url, second.url];
+    // The account is made through an in-process test app on the same database.
+    const { email } = await signUp(a.baseUrl);
+    const statuses: number[] = [];
+    for (let i = 0; i < 10; i += 1) {
+      statuses.push((await new Client(i % 2 ? two : one).post('/api/auth/sign-in', { email, password: `wrong-${String(i)}` })).status);
+    }
+    // five failures on each process: neither alone reached its limit of ten
+    expect(statuses).toEqual(Array(10).fill(401));
+    for (const url of [one, two]) {
+      const blocked = await new Client(url).post('/api/auth/sign-in', { email, password: TEST_PASSWORD });
+      expect(blocked.status).toBe(429);
+      expect(blocked.body.error.code).toBe('rate_limited');
+      expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0);
+    }
+    // a session made on one process works on the other
+    const other = await signUp(a.baseUrl);
+    const signedIn = new Client(one);
+    expect((await signedIn.post('/api/auth/sign-in', { email: other.email, password: TEST_PASSWORD })).status).toBe(200);
+    const there = new Client(two);
+    for (const [k, v] of signedIn.cookies) there.cookies.set(k, v);
+    expect((await there.get('/api/me')).status).toBe(200);
+
+    // Graceful shutdown behind a load balancer: on SIGTERM, readiness turns 503 at once while
+    // the instance still answers (the drain time); then it exits cleanly. The other serves on.
+    expect((await fetch(`${two}/api/health/ready`)).status).toBe(200);
+    const exit = new Promise<number | null>((r) => second.child.once('exit', (code) => r(code)));
+    second.child.kill('SIGTERM');
+    let ready = await fetch(`${two}/api/health/ready`);
+    for (let i = 0; i < 20 && ready.status === 200; i += 1) {
+      await new Promise((r) => setTimeout(r, 25));
+      ready = await fetch(`${two}/api/health/ready`);
+    }
+    expect(ready.status).toBe(503);
+    expect(await ready.json()).toEqual({ ready: false, draining: true, db: null });
+    expect((await there.get('/api/me')).status).toBe(200);
+    expect(await exit).toBe(0);
+    expect((await signedIn.get('/api/me')).status).toBe(200);
+    expect((await fetch(`${one}/api/health/ready`)).status).toBe(200);
+  }, 180_000);
 });

@@ -83,6 +83,8 @@ export async function startTestApp(
         allowedOrigins: [],
         secureCookies: false,
         rateLimitScale: 100,
+        // the rate-limit counters live in the one test database: each test app counts its own
+        rateLimitNamespace: `t-${randomBytes(6).toString('hex')}:`,
         logRequests: false,
         ...opts.config,
       },

@@ -1,4 +1,4 @@
-import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { wineriesTable } from './wineries';
 
 export const usersTable = pgTable('users', {
@@ -55,4 +55,18 @@ export const signUpRequestsTable = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('sign_up_requests_email_idx').on(t.email)],
+);
+
+/**
+ * Rate-limit counters shared by every server instance: one row per limiter and key (e.g.
+ * `signin-ip:203.0.113.7`) with its hits in the current window and when the window ends.
+ */
+export const rateLimitHitsTable = pgTable(
+  'rate_limit_hits',
+  {
+    key: text('key').primaryKey(),
+    hits: integer('hits').notNull().default(0),
+    resetAt: timestamp('reset_at', { withTimezone: true, mode: 'date' }).notNull(),
+  },
+  (t) => [index('rate_limit_hits_reset_idx').on(t.resetAt)],
 );

@@ -72,3 +72,23 @@ export const cartridgeEventsTable = pgTable(
     index('cartridge_events_cartridge_kind_idx').on(t.cartridgeId, t.kind),
   ],
 );
+
+/**
+ * Today's life check of each cartridge, kept so Today forecasts only what changed. `version`
+ * goes up (by triggers, migration 0017) whenever something the forecast reads changes: an
+ * event of the cartridge written, changed or removed; its litres, length or type; its type's
+ * ratings. Today recomputes a cartridge whose `checked_version` is not `version` and stores the
+ * lead finding (`rank`, `closeness`, `attention`; null when nothing needs a look). A cache:
+ * nothing is lost if a row goes, it is worked out again.
+ */
+export const cartridgeLifeFlagsTable = pgTable('cartridge_life_flags', {
+  cartridgeId: uuid('cartridge_id')
+    .primaryKey()
+    .references(() => cartridgesTable.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull().default(1),
+  checkedVersion: integer('checked_version'),
+  rank: integer('rank'),
+  closeness: double('closeness'),
+  /** The lead reason, its figure and the other findings in words, as Today shows them. */
+  attention: jsonb('attention').$type<{ reason: string; figure: unknown; alsoNoted: string[] }>(),
+});

@@ -33,6 +33,10 @@ export const runsTable = pgTable(
     overrideByName: text('override_by_name'),
     /** The overridden checks, as `{ stageIndex, code, message }`. */
     overriddenChecks: jsonb('overridden_checks').$type<{ stageIndex: number; code: string; message: string }[]>(),
+    /** Readings that count (not voided), kept in the same statement or transaction as every reading write. */
+    readingCount: integer('reading_count').notNull().default(0),
+    /** Litres through the train: the highest counted reading's (corrected) volume, 0 before any; kept like readingCount. */
+    currentVolumeL: double('current_volume_l').notNull().default(0),
   },
   (t) => [index('runs_winery_started_idx').on(t.wineryId, t.startedAt), index('runs_plan_lot_idx').on(t.planLotId, t.status)],
 );

@@ -2,6 +2,7 @@
 // full records — the cartridges in each stage, readings, a passing integrity test before and
 // after on each membrane, a hot-water sanitation before the day, one reading corrected, and
 // in the second run a change of the prefilters at terminal ΔP. Invented figures; demo data.
+import { createRunsRepository } from '../../modules/runs/runs.repository';
 import { and, asc, count, eq, inArray, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../client';
 import {
@@ -191,6 +192,8 @@ export async function seedRuns(tx: DbOrTx, ctx: { wineryId: string; actorId: str
         createdAt: at(r.endH + 0.5),
       });
     }
+    // The run's stored counters, as the app keeps them when readings are logged and corrected.
+    await createRunsRepository(tx).recountRun(w, run.id);
 
     // The prefilter change at terminal ΔP: the old ones out to stock, the spares in.
     let changeId: string | null = null;

@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
 import type { DbOrTx } from '../../db/client';
 import {
   usersTable,
@@ -100,24 +101,9 @@ export function createRunsRepository(db: DbOrTx) {
       .$dynamic();
   }
 
-  /**
-   * Each run's reading count and latest volume, in one grouped query over the given runs'
-   * readings (an index range per run; no correlated subquery per listed row).
-   */
-  async function withReadingStats(rows: Omit<RunSummaryRow, 'currentVolumeL' | 'readingCount'>[]): Promise<RunSummaryRow[]> {
-    if (rows.length === 0) return [];
-    const ids = rows.map((r) => r.run.id);
-    const stats = await db
-      .select({
-        runId: runReadingsTable.runId,
-        count: sql<number>`count(*)`.mapWith(Number),
-        maxVolume: sql<number>`coalesce(max(${runReadingsTable.volumeL}), 0)`.mapWith(Number),
-      })
-      .from(runReadingsTable)
-      .where(sql`${runReadingsTable.runId} = any(${sql.param(ids)}::uuid[])`)
-      .groupBy(runReadingsTable.runId);
-    const byRun = new Map(stats.map((s) => [s.runId, s]));
-    return rows.map((r) => ({ ...r, currentVolumeL: byRun.get(r.run.id)?.maxVolume ?? 0, readingCount: byRun.get(r.run.id)?.count ?? 0 }));
+  /** The stored counters on the run row are the summary's count and litres. */
+  function withReadingStats(rows: Omit<RunSummaryRow, 'currentVolumeL' | 'readingCount'>[]): RunSummaryRow[] {
+    return rows.map((r) => ({ ...r, currentVolumeL: r.run.currentVolumeL, readingCount: r.run.readingCount }));
   }
 
   return {
@@ -193,9 +179,34 @@ export function createRunsRepository(db: DbOrTx) {
       return withReadingStats(await summaries(wineryId).orderBy(desc(runsTable.startedAt), desc(runsTable.id)).limit(limit));
     },
 
-    async summary(wineryId: string, id: string) {
-      const [row] = await withReadingStats(await summaries(wineryId).where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id))));
-      return row ?? null;
+    /**
+     * The run's summary and its plan lot's context (plan, lot, chosen train, line) in one
+     * round trip, as `summary` and `planLot` give them; null when not this winery's.
+     */
+    async summaryWithPlanLot(wineryId: string, id: string) {
+      const runPlan = alias(plansTable, 'run_plan');
+      const [row] = await db
+        .select({ run: runsTable, planName: runPlan.name, planLot: planLotsTable, plan: plansTable, lot: lotsTable, train: planTrainsTable, line: linesTable })
+        .from(runsTable)
+        .innerJoin(runPlan, eq(runPlan.id, runsTable.planId))
+        .innerJoin(planLotsTable, and(eq(planLotsTable.id, runsTable.planLotId), eq(planLotsTable.wineryId, wineryId)))
+        .innerJoin(plansTable, eq(plansTable.id, planLotsTable.planId))
+        .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
+        .leftJoin(planTrainsTable, and(eq(planTrainsTable.id, planLotsTable.chosenTrainId), eq(planTrainsTable.wineryId, wineryId)))
+        .leftJoin(linesTable, and(eq(linesTable.id, plansTable.lineId), eq(linesTable.wineryId, wineryId)))
+        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
+      if (!row) return null;
+      const summary: RunSummaryRow = {
+        run: row.run,
+        planName: row.planName,
+        lotId: row.lot.id,
+        lotCode: row.lot.code,
+        lotName: row.lot.name,
+        volumeL: row.planLot.volumeL,
+        currentVolumeL: row.run.currentVolumeL,
+        readingCount: row.run.readingCount,
+      };
+      return { summary, ctx: { planLot: row.planLot, plan: row.plan, lot: row.lot, train: row.train, line: row.line } };
     },
 
     async lockRun(wineryId: string, id: string) {
@@ -225,9 +236,10 @@ export function createRunsRepository(db: DbOrTx) {
 
     /**
      * Stores one reading in a single statement, only while the run is running and has the stage
-     * and the litres do not go down. The run row is share-locked for this statement alone, so
-     * readings never wait for each other, and a close (which takes the row for update) either
-     * comes first, and then this stores nothing, or waits for it. Null when nothing was stored:
+     * and the litres do not go down, and counts it on the run (reading_count, current_volume_l).
+     * The run row is locked for this statement alone (readings of one run take turns for the
+     * length of one insert), and a close (which takes the row for update) either comes first,
+     * and then this stores nothing, or waits for it. Null when nothing was stored:
      * a resend of a stored key, or a check failed (the caller finds out which).
      */
     async insertReadingIfOpen(wineryId: string, runId: string, userId: string, r: NewReading): Promise<RunReadingRow | null> {
@@ -245,9 +257,12 @@ export function createRunsRepository(db: DbOrTx) {
             and jsonb_array_length(t.stages) > ${r.stageIndex}::int
             and ${r.volumeL}::double precision >= coalesce(
               (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = ${r.stageIndex}::int), 0)
-          for share of r
+          for no key update of r
           on conflict (run_id, client_key) do nothing
           returning *
+        ), bump as (
+          update runs set reading_count = runs.reading_count + 1, current_volume_l = greatest(runs.current_volume_l, ins.volume_l)
+          from ins where runs.id = ins.run_id
         )
         select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`);
       const row = result.rows[0] as Record<string, unknown> | undefined;
@@ -255,8 +270,8 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     /**
-     * What a batch needs to be checked, read with the run row share-locked until the
-     * transaction ends (readings share it; a close waits): the run, its stage count, the keys
+     * What a batch needs to be checked, read with the run row locked until the transaction
+     * ends (other readings of this run and a close wait; the batch then bumps the run's counters): the run, its stage count, the keys
      * of the batch already stored and the highest litres per stage.
      */
     async batchContext(wineryId: string, runId: string, clientKeys: string[]) {
@@ -266,7 +281,7 @@ export function createRunsRepository(db: DbOrTx) {
         join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
         left join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
         where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid
-        for share of r`);
+        for no key update of r`);
       const run = runRes.rows[0] as { status: string; stage_count: number | string } | undefined;
       if (!run) return null;
       // One statement, one snapshot: the stored keys and the litres agree with each other.
@@ -287,22 +302,53 @@ export function createRunsRepository(db: DbOrTx) {
 
     /**
      * Bulk insert in one statement (twelve array parameters unnested, so its size does not grow
-     * with the number of parameters); a key already stored (a concurrent resend) is skipped.
-     * Returns how many were stored.
+     * with the number of parameters); a key already stored (a concurrent resend) is skipped. Each
+     * run's stored counters (reading_count, current_volume_l) go up by what was stored, in the
+     * same statement. Every path that stores readings in bulk goes through here. Returns how
+     * many were stored.
      */
     async insertReadings(values: ReadingInsert[]) {
       if (values.length === 0) return 0;
       const col = <T>(pick: (v: ReadingInsert) => T) => sql.param(values.map(pick));
-      const result = await db.execute(sql`
-        insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
-        select * from unnest(
-          ${col((v) => v.wineryId)}::uuid[], ${col((v) => v.runId)}::uuid[], ${col((v) => v.stageIndex)}::int[],
-          ${col((v) => (v.at instanceof Date ? v.at.toISOString() : (v.at ?? new Date().toISOString())))}::timestamptz[],
-          ${col((v) => v.volumeL)}::float8[], ${col((v) => v.upstreamBar)}::float8[], ${col((v) => v.downstreamBar)}::float8[],
-          ${col((v) => v.flowLh ?? null)}::float8[], ${col((v) => v.tempC ?? null)}::float8[], ${col((v) => v.clientKey)}::text[],
-          ${col((v) => v.createdBy ?? null)}::text[], ${col((v) => v.createdByName ?? null)}::text[])
-        on conflict (run_id, client_key) do nothing`);
-      return result.rowCount ?? 0;
+      const result = await db.execute<{ stored: number }>(sql`
+        with ins as (
+          insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
+          select * from unnest(
+            ${col((v) => v.wineryId)}::uuid[], ${col((v) => v.runId)}::uuid[], ${col((v) => v.stageIndex)}::int[],
+            ${col((v) => (v.at instanceof Date ? v.at.toISOString() : (v.at ?? new Date().toISOString())))}::timestamptz[],
+            ${col((v) => v.volumeL)}::float8[], ${col((v) => v.upstreamBar)}::float8[], ${col((v) => v.downstreamBar)}::float8[],
+            ${col((v) => v.flowLh ?? null)}::float8[], ${col((v) => v.tempC ?? null)}::float8[], ${col((v) => v.clientKey)}::text[],
+            ${col((v) => v.createdBy ?? null)}::text[], ${col((v) => v.createdByName ?? null)}::text[])
+          on conflict (run_id, client_key) do nothing
+          returning run_id, volume_l
+        ), per_run as (
+          select run_id, count(*)::int as n, max(volume_l) as v from ins group by run_id
+        ), counted as (
+          update runs r set reading_count = r.reading_count + p.n, current_volume_l = greatest(r.current_volume_l, p.v)
+          from per_run p where r.id = p.run_id
+          returning r.id
+        )
+        select coalesce(sum(n), 0)::int as stored from per_run`);
+      return Number(result.rows[0]?.stored ?? 0);
+    },
+
+    /**
+     * Counts the run's readings again from the record, after a correction or a void: readings
+     * whose latest correction is not a void, and the highest (corrected) volume among them.
+     */
+    async recountRun(wineryId: string, runId: string) {
+      await db.execute(sql`
+        update runs r set reading_count = s.n, current_volume_l = s.v
+        from (
+          select count(*) filter (where not e.voided)::int as n, coalesce(max(e.vol) filter (where not e.voided), 0) as v
+          from (
+            select
+              coalesce((select c.kind = 'void' from run_reading_corrections c where c.reading_id = x.id order by c.created_at desc, c.id desc limit 1), false) as voided,
+              coalesce((select c.volume_l from run_reading_corrections c where c.reading_id = x.id and c.kind = 'correct' and c.volume_l is not null order by c.created_at desc, c.id desc limit 1), x.volume_l) as vol
+            from run_readings x where x.run_id = ${runId}::uuid
+          ) e
+        ) s
+        where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid`);
     },
 
     async readingByKey(wineryId: string, runId: string, clientKey: string): Promise<RunReadingRow | null> {
@@ -331,19 +377,6 @@ export function createRunsRepository(db: DbOrTx) {
         .orderBy(desc(runReadingsTable.volumeL))
         .limit(1);
       return row ?? null;
-    },
-
-    /** Inserts the reading unless the run already has one with this client key. */
-    async insertReading(values: ReadingInsert) {
-      await db.insert(runReadingsTable).values(values).onConflictDoNothing({ target: [runReadingsTable.runId, runReadingsTable.clientKey] });
-    },
-
-    async maxVolume(wineryId: string, runId: string) {
-      const [row] = await db
-        .select({ v: sql<number | null>`max(${runReadingsTable.volumeL})`.mapWith(Number) })
-        .from(runReadingsTable)
-        .where(and(eq(runReadingsTable.wineryId, wineryId), eq(runReadingsTable.runId, runId)));
-      return row?.v ?? 0;
     },
 
     async closeRun(wineryId: string, id: string, closedBy: string, closedByName: string | null, notes: string | undefined) {

@@ -206,10 +206,9 @@ export function createRunsService(db: Database) {
 
   /** The run's summary, plan context and the figures of its stages (all, or just one). */
   async function build(wineryId: string, id: string, onlyStage?: number) {
-    const summary = await repo.summary(wineryId, id);
-    if (!summary) throw notFound('Run');
-    const ctx = await repo.planLot(wineryId, summary.run.planLotId);
-    if (!ctx) throw notFound('Run');
+    const found = await repo.summaryWithPlanLot(wineryId, id);
+    if (!found) throw notFound('Run');
+    const { summary, ctx } = found;
     const all = ctx.train?.stages ?? [];
     const wanted = onlyStage === undefined ? all.map((_s, index) => index) : [onlyStage].filter((i) => i < all.length);
     const stages = wanted.map((index) => ({ index, s: all[index] }));
@@ -543,6 +542,7 @@ export function createRunsService(db: Database) {
           createdBy: t.userId,
           createdByName: t.userName ?? null,
         });
+        await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);
@@ -557,6 +557,7 @@ export function createRunsService(db: Database) {
         const reading = await r.reading(t.wineryId, runId, readingId);
         if (!reading) throw notFound('Reading');
         await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
+        await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
       });
       return detail(t.wineryId, runId);

@@ -5,7 +5,6 @@ import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shar
 import type { Database } from '../../db/client';
 import type { TenantContext } from '../../middleware/authorize';
 import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/cartridges.service';
-import { createLifeInputsService, type LifeInput } from '../cartridges/life-inputs.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { createRunsInProgressService } from '../runs/runs-in-progress.service';
@@ -112,7 +111,6 @@ export function createTodayService(db: Database) {
   const cellar = createCellarService(db);
   const cartridges = createCartridgesService(db);
   const plans = createPlansService(db);
-  const lifeInputs = createLifeInputsService(db);
   const runsInProgress = createRunsInProgressService(db);
 
   /**
@@ -127,28 +125,44 @@ export function createTodayService(db: Database) {
     return details.flatMap((p) => (p.status !== 'done' ? [presentTodayPlan({ ...p, status: p.status })] : []));
   }
 
-  /** Cartridges to look at, most urgent first: two queries whatever their number (the types, then the cartridges with their events). */
+  /**
+   * Cartridges to look at, most urgent first. Each cartridge's life check is stored
+   * (cartridge_life_flags) and worked out again only when something it reads has changed since:
+   * the cartridges left stale are forecast here and stored, then the flagged ones are read,
+   * the first TODAY_CARTRIDGES_MAX of them with the total. Three queries at once when nothing changed.
+   */
   async function cartridgesToLookAt(wineryId: string, now: Date) {
-    const { items } = await lifeInputs.lifeInputs(wineryId);
-    const flagged: { row: LifeInput; findings: Finding[] }[] = [];
-    for (const row of items) {
-      const { life } = lifeVerdictFromHistory(row.type, row.cartridge, row.history, now);
-      if (!life) continue;
-      const integrityAt = row.history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
-      const findings = findingsOf(life, integrityAt);
-      if (findings.length) flagged.push({ row, findings });
+    // The flagged ones are read alongside; read again only when some checks had to be stored.
+    const [types, stale, flaggedBefore] = await Promise.all([
+      repo.lifeTypes(wineryId),
+      repo.staleLifeChecks(wineryId),
+      repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX),
+    ]);
+    const typeById = new Map(types.map((t) => [t.id, t]));
+    if (stale.length > 0) {
+      await repo.storeLifeChecks(
+        stale.map((row) => {
+          const type = typeById.get(row.typeId);
+          const none = { id: row.id, version: row.version, rank: null, closeness: null, attention: null };
+          if (!type) return none;
+          const history = row.events.map(([kind, atMs, details]) => ({ kind, at: new Date(atMs), details: details ?? {} }));
+          const { life } = lifeVerdictFromHistory(type, row, history, now);
+          if (!life) return none;
+          const integrityAt = history.filter((e) => e.kind === 'integrity').reduce<Date | null>((latest, e) => (!latest || e.at > latest ? e.at : latest), null);
+          const [lead, ...rest] = findingsOf(life, integrityAt);
+          if (!lead) return none;
+          return { ...none, rank: lead.rank, closeness: Number.isFinite(lead.closeness) ? lead.closeness : 0, attention: { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) } };
+        }),
+      );
     }
-    flagged.sort(
-      (a, b) =>
-        a.findings[0].rank - b.findings[0].rank ||
-        b.findings[0].closeness - a.findings[0].closeness ||
-        a.row.cartridge.serial.localeCompare(b.row.cartridge.serial),
-    );
+    const { rows, total } = stale.length > 0 ? await repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX) : flaggedBefore;
+    // the same order as the database's, with the serials compared as people read them
+    rows.sort((a, b) => a.rank - b.rank || b.closeness - a.closeness || a.cartridge.serial.localeCompare(b.cartridge.serial));
     return {
-      attention: flagged.slice(0, TODAY_CARTRIDGES_MAX).map(({ row, findings: [lead, ...rest] }) =>
-        presentTodayCartridge(row, row.type.name, { reason: lead.reason, figure: lead.figure, alsoNoted: rest.map((f) => noteOf(f.figure)) }),
+      attention: rows.flatMap((row) =>
+        row.attention ? [presentTodayCartridge(row, typeById.get(row.cartridge.typeId)?.name ?? 'Unknown type', row.attention as { reason: string; figure: TodayCartridgeFigure; alsoNoted: string[] })] : [],
       ),
-      attentionTotal: flagged.length,
+      attentionTotal: total,
     };
   }
 
