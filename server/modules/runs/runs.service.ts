@@ -23,6 +23,7 @@ import type {
   ReadingsBatchResultDto,
   RunDetailDto,
   RunStageDto,
+  RunStageFinalDto,
   RunStartCheckDto,
   RunStartOptionDto,
   RunSummaryDto,
@@ -132,6 +133,27 @@ function stageFigures(p: {
   }
 }
 
+/**
+ * A closed run's stage as it ended: litres through it and its last set, the changes and
+ * regenerations, the last and highest ΔP of the last set, and whether it reached terminal ΔP.
+ */
+function finalFigures(p: { readings: EffectiveReading[]; changes: { kind: 'change' | 'regeneration'; atVolumeL: number }[]; volumeL: number; terminalDpBar: number }): RunStageFinalDto {
+  const restartL = Math.max(0, ...p.changes.map((c) => c.atVolumeL));
+  const dp = (r: EffectiveReading) => r.upstreamBar - r.downstreamBar;
+  const lastSet = p.readings.filter((r) => r.volumeL >= restartL);
+  const last = p.readings.at(-1);
+  const maxDpBar = lastSet.length > 0 ? Math.max(...lastSet.map(dp)) : null;
+  return {
+    litresL: p.volumeL,
+    litresLastSetL: Math.max(0, p.volumeL - restartL),
+    changes: p.changes.filter((c) => c.kind === 'change').length,
+    regenerations: p.changes.filter((c) => c.kind === 'regeneration').length,
+    lastDpBar: last ? dp(last) : null,
+    maxDpBar,
+    terminalReached: maxDpBar !== null && p.terminalDpBar > 0 && maxDpBar >= p.terminalDpBar,
+  };
+}
+
 /** What is in the stages' housings and why a run could not start on it. */
 async function inspect(r: RunsRepository, wineryId: string, stages: PlanTrainStage[], opts: { lock?: boolean } = {}) {
   const housingIds = [...new Set(stages.map((s) => s.housingId))];
@@ -222,6 +244,8 @@ export function createRunsService(db: Database) {
               resolutionBar,
             })
           : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+      // A closed run is a record: its final figures, never a forecast or an alarm.
+      const final = summary.run.status === 'closed' ? finalFigures({ readings: counted, changes: changes.filter((c) => c.stageIndex === index), volumeL: summary.currentVolumeL, terminalDpBar }) : null;
       return {
         index,
         name: s.name ?? `Stage ${String(index + 1)}`,
@@ -232,6 +256,8 @@ export function createRunsService(db: Database) {
         terminalDpBar,
         readings: own.map(presentReading),
         ...figures,
+        ...(final ? { forecast: null, alarm: null, note: null } : {}),
+        final,
         cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
       };
     });
