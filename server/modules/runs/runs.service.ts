@@ -256,7 +256,8 @@ export function createRunsService(db: Database) {
         terminalDpBar,
         readings: own.map(presentReading),
         ...figures,
-        ...(final ? { forecast: null, alarm: null, note: null } : {}),
+        // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
+        ...(final ? { forecast: null, alarm: null, note: null, curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
         final,
         cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
       };
