@@ -32,8 +32,11 @@ describe('a closed run’s stages', () => {
     for (const s of closed!.stages) {
       expect(s.forecast).toBeNull();
       expect(s.alarm).toBeNull();
-      expect(s.note).toBeNull();
     }
+    // Why a stage has no curve is said in words of the past, never "log more readings".
+    expect(mem.note).toBeNull();
+    expect(pre.fit).toBeNull();
+    expect(pre.note).toMatch(/last set only, after a change or regeneration/);
     const lastPre = R.prefilterAfter.at(-1)!;
     expect(pre.terminalDpBar).toBe(1.5);
     expect(pre.final).toEqual({

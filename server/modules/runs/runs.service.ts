@@ -154,6 +154,14 @@ function finalFigures(p: { readings: EffectiveReading[]; changes: { kind: 'chang
   };
 }
 
+/** Why a closed run's stage has no fitted curve, in words of the past; null when it has one. */
+function closedNote(f: { fit: unknown; forecast: unknown; note: string | null }): string | null {
+  if (f.fit !== null) return null;
+  if (f.forecast !== null) return 'No curve drawn: the stage was fitted on its last set only, after a change or regeneration.';
+  if (f.note?.startsWith('Log ')) return `No fitted curve: fewer than ${String(MIN_READINGS_FOR_FIT)} readings on the stage's last set.`;
+  return f.note;
+}
+
 /** What is in the stages' housings and why a run could not start on it. */
 async function inspect(r: RunsRepository, wineryId: string, stages: PlanTrainStage[], opts: { lock?: boolean } = {}) {
   const housingIds = [...new Set(stages.map((s) => s.housingId))];
@@ -257,7 +265,7 @@ export function createRunsService(db: Database) {
         readings: own.map(presentReading),
         ...figures,
         // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
-        ...(final ? { forecast: null, alarm: null, note: null, curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
+        ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
         final,
         cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
       };

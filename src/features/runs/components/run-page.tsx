@@ -97,6 +97,7 @@ function StageCard({ stage, kept, rowActions }: { stage: RunStageDto; kept: Outb
     <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
       <div className="flex flex-col gap-4">
         {stage.final ? <FinalFigures stage={stage} final={stage.final} /> : null}
+        {stage.final && stage.note ? <p className="text-sm text-ink-700">{stage.note}</p> : null}
         {stage.flatWarning && stage.final ? (
           <p className="text-sm text-ink-700" data-testid={`flat-${String(stage.index)}`}>
             {stage.flatWarning} Worth checking the housing’s bypass and drain valves and the gauge before the next run.
