@@ -102,7 +102,8 @@ function buildRows(options: ComparedOption[], u: Units): Row[] {
       better: 'lower',
       cells: per((r) => ({
         text: r.totals.costPerHl === null ? 'no price' : `${r.totals.costIsLowerBound ? 'at least ' : ''}${money(costPerVolumeBasis(r.totals.costPerHl, u.system).value, r.totals.currency)}`,
-        key: r.totals.costPerHl,
+        // A lower bound ("at least") is not ranked against a full cost.
+        key: r.totals.costIsLowerBound ? null : r.totals.costPerHl,
       })),
     },
     { label: 'Run time', better: 'lower', cells: per((r) => ({ text: formatDurationWords(r.totals.runHours), key: r.totals.runHours })) },
