@@ -7,6 +7,7 @@ import {
   formatDate,
   formatDateTime,
   formatDateTimeSeconds,
+  formatDateTimeUtc,
   formatDay,
   formatDayLong,
   formatDayMonth,
@@ -70,6 +71,13 @@ describe('one date format in the person’s locale', () => {
     expect(formatDayMonth(at)).toBe('12 juin');
     expect(formatTime(at)).toBe('14:05');
   });
+  it('a record’s moment on the UTC clock, in the person’s format', async () => {
+    await setDateLocale('en-GB');
+    expect(formatDateTimeUtc('2025-06-12T12:05:00.000Z')).toBe('12 Jun 2025, 12:05 UTC');
+    await setDateLocale('en-US');
+    expect(formatDateTimeUtc('2025-06-12T23:30:00.000Z')).toBe('Jun 12, 2025, 11:30 PM UTC');
+    expect(formatDateTimeUtc(null)).toBe('—');
+  });
   it('reads a plain day at local midnight and says "—" for a date it cannot read', async () => {
     await setDateLocale('en-GB');
     expect(formatDate('2025-06-12')).toBe('12 Jun 2025');
@@ -96,6 +104,7 @@ describe('no date formatting outside src/lib/dates.ts', () => {
     ['toLocaleTimeString', /\.toLocaleTimeString\(/],
     ['a date’s toLocaleString', /toLocaleString\([^)]*(weekday|month|hour|dateStyle|timeStyle)/],
     ['toISOString().slice', /toISOString\(\)\.slice/],
+    ['an ISO string cut into a date', /\b(iso|\w+At)\.slice\(/],
     ['date-fns format imported directly', /import\s*\{[^}]*\bformat(Distance\w*)?\b[^}]*\}\s*from\s*'date-fns'/],
   ])('%s', (_what, pattern) => {
     const offenders = files.filter((f) => !f.endsWith(join('lib', 'dates.ts')) && pattern.test(readFileSync(f, 'utf8'))).map((f) => relative(src, f));

@@ -116,6 +116,18 @@ export const formatDate = (d: DateInput) => fmt(d, 'PP');
 /** A date and time: "12 Jun 2025, 14:05" (en-GB), "Jun 12, 2025, 2:05 PM" (en-US). */
 export const formatDateTime = (d: DateInput) => fmt(d, 'PPp');
 
+/**
+ * A moment on the UTC clock, for records that must read the same in every time zone (they
+ * match the printed record): "12 Jun 2025, 12:05 UTC" (en-GB), "Jun 12, 2025, 12:05 PM UTC" (en-US).
+ */
+export const formatDateTimeUtc = (d: DateInput | null) => {
+  if (d === null) return '—';
+  const t = toDate(d);
+  if (!valid(t)) return '—';
+  const wall = new Date(t.getUTCFullYear(), t.getUTCMonth(), t.getUTCDate(), t.getUTCHours(), t.getUTCMinutes(), t.getUTCSeconds());
+  return `${fmt(wall, 'PPp')} UTC`;
+};
+
 /** A date and time to the second, for the change log: "12 Jun 2025, 14:05:33". */
 export const formatDateTimeSeconds = (d: DateInput) => fmt(d, 'PPpp');
 
