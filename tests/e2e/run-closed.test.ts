@@ -2,6 +2,8 @@
 // A closed run shows its final figures, not a live alarm (issue: plans you can approve with
 // confidence): per stage the litres, the last ΔP and whether terminal ΔP was reached; no
 // "left", no alarm, no watch.
+import { format } from 'date-fns';
+import { fr as frLocale } from 'date-fns/locale/fr';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatQuantity } from '../../shared/engine/units';
@@ -65,5 +67,17 @@ describe('a closed run’s page', () => {
       expect(errors).toEqual([]);
       await ctx.close();
     }
+
+    // Dates follow the person's language: a French browser loads the French date locale.
+    const french = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'fr-FR' });
+    await french.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
+    const page = await french.newPage();
+    const errors = watchPageErrors(page);
+    await page.goto(`${app.baseUrl}/runs/${runId}`);
+    const closedLine = page.getByText(/^Closed .* by /);
+    const month = format(new Date(), 'MMM', { locale: frLocale }); // date-fns' French month, e.g. "déc."
+    await expect.poll(async () => (await closedLine.textContent()) ?? '').toContain(month);
+    expect(errors).toEqual([]);
+    await french.close();
   });
 });
