@@ -109,4 +109,32 @@ export default tseslint.config(
       'no-restricted-globals': ['error', { name: 'Date', message: 'No clock inside calculations: take the time as an argument.' }],
     },
   },
+  {
+    // One date format in the client: every date is shown through src/lib/dates.ts.
+    files: ['src/**/*.{ts,tsx}'],
+    ignores: ['src/lib/dates.ts', 'src/**/*.test.{ts,tsx}'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        { selector: "CallExpression[callee.property.name=/^toLocale(Date|Time)String$/]", message: 'Show dates with src/lib/dates.ts (date-fns in the person’s locale).' },
+        {
+          selector: "CallExpression[callee.property.name='toLocaleString'] > ObjectExpression > Property[key.name=/^(weekday|day|month|year|hour|minute|second|dateStyle|timeStyle)$/]",
+          message: 'Show dates with src/lib/dates.ts (date-fns in the person’s locale).',
+        },
+        { selector: "CallExpression[callee.property.name='slice'][callee.object.callee.property.name='toISOString']", message: 'Use toDayInput() from src/lib/dates.ts: toISOString is the UTC day, not the person’s.' },
+      ],
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [
+            {
+              name: 'date-fns',
+              importNames: ['format', 'formatDistance', 'formatDistanceStrict', 'formatDistanceToNow', 'formatDistanceToNowStrict', 'formatRelative', 'intlFormat', 'lightFormat'],
+              message: 'Show dates with src/lib/dates.ts (date-fns in the person’s locale).',
+            },
+          ],
+        },
+      ],
+    },
+  },
 );

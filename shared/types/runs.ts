@@ -119,6 +119,24 @@ export type RunStageDto = {
   cartridges: RunStageCartridgeDto[];
   /** "ΔP not rising: possible bypass or gauge fault." when litres rise over 5+ readings and ΔP does not; else null */
   flatWarning: string | null;
+  /** A closed run's final figures for the stage (then `forecast` and `alarm` are null); null while running. */
+  final: RunStageFinalDto | null;
+};
+
+/** What a stage did in a closed run: its record, not a forecast. */
+export type RunStageFinalDto = {
+  /** Litres through the stage in the run, L. */
+  litresL: number;
+  /** Litres through the stage's last set (since its last change or regeneration), L. */
+  litresLastSetL: number;
+  changes: number;
+  regenerations: number;
+  /** ΔP of the last counted reading, bar; null without readings. */
+  lastDpBar: number | null;
+  /** Highest ΔP the last set reached, bar; null without readings on it. */
+  maxDpBar: number | null;
+  /** True when the last set's ΔP reached the stage's terminal ΔP. */
+  terminalReached: boolean;
 };
 
 export type RunDetailDto = RunSummaryDto & {

@@ -2,6 +2,7 @@ import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client
 import { Component, useEffect, useState, type ErrorInfo, type ReactNode } from 'react';
 import { ErrorState } from '@/components/ui/states';
 import { ToastProvider } from '@/components/ui/toast';
+import { setDateLocale, useDateLocale } from '@/lib/dates';
 import { startOutbox } from '@/lib/offline/outbox-runtime';
 import { CACHE_MAX_AGE_MS, createCachePersister } from '@/lib/offline/query-persister';
 import { createQueryClient } from '@/lib/query-client';
@@ -45,6 +46,10 @@ export function AppProvider({ children }: { children: ReactNode }) {
   // The cache is kept in IndexedDB, so pages opened before show their last data offline.
   const [persister] = useState(createCachePersister);
   useEffect(() => startOutbox(queryClient), [queryClient]);
+  // Dates in the person's language: English is there at once; another language loads, then the
+  // screens are drawn again once (keyed below) so every date reads the same way.
+  const dateTag = useDateLocale();
+  useEffect(() => void setDateLocale(), []);
   return (
     <ErrorBoundary>
       <PersistQueryClientProvider
@@ -54,7 +59,7 @@ export function AppProvider({ children }: { children: ReactNode }) {
         // opening or reloading the page always brings fresh figures and who is signed in.
         onSuccess={() => void queryClient.invalidateQueries()}
       >
-        <ToastProvider>{children}</ToastProvider>
+        <ToastProvider key={dateTag}>{children}</ToastProvider>
       </PersistQueryClientProvider>
     </ErrorBoundary>
   );

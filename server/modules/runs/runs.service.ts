@@ -23,6 +23,7 @@ import type {
   ReadingsBatchResultDto,
   RunDetailDto,
   RunStageDto,
+  RunStageFinalDto,
   RunStartCheckDto,
   RunStartOptionDto,
   RunSummaryDto,
@@ -129,6 +130,35 @@ export function stageFigures(p: {
     if (e instanceof RangeError) return { ...none, note: e.message };
     throw e;
   }
+}
+
+/**
+ * A closed run's stage as it ended: litres through it and its last set, the changes and
+ * regenerations, the last and highest ΔP of the last set, and whether it reached terminal ΔP.
+ */
+function finalFigures(p: { readings: EffectiveReading[]; changes: { kind: 'change' | 'regeneration'; atVolumeL: number }[]; volumeL: number; terminalDpBar: number }): RunStageFinalDto {
+  const restartL = Math.max(0, ...p.changes.map((c) => c.atVolumeL));
+  const dp = (r: EffectiveReading) => r.upstreamBar - r.downstreamBar;
+  const lastSet = p.readings.filter((r) => r.volumeL >= restartL);
+  const last = p.readings.at(-1);
+  const maxDpBar = lastSet.length > 0 ? Math.max(...lastSet.map(dp)) : null;
+  return {
+    litresL: p.volumeL,
+    litresLastSetL: Math.max(0, p.volumeL - restartL),
+    changes: p.changes.filter((c) => c.kind === 'change').length,
+    regenerations: p.changes.filter((c) => c.kind === 'regeneration').length,
+    lastDpBar: last ? dp(last) : null,
+    maxDpBar,
+    terminalReached: maxDpBar !== null && p.terminalDpBar > 0 && maxDpBar >= p.terminalDpBar,
+  };
+}
+
+/** Why a closed run's stage has no fitted curve, in words of the past; null when it has one. */
+function closedNote(f: { fit: unknown; forecast: unknown; note: string | null }): string | null {
+  if (f.fit !== null) return null;
+  if (f.forecast !== null) return 'No curve drawn: the stage was fitted on its last set only, after a change or regeneration.';
+  if (f.note?.startsWith('Log ')) return `No fitted curve: fewer than ${String(MIN_READINGS_FOR_FIT)} readings on the stage's last set.`;
+  return f.note;
 }
 
 /** What is in the stages' housings and why a run could not start on it. */
@@ -244,6 +274,8 @@ export function createRunsService(db: Database) {
               resolutionBar,
             })
           : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+      // A closed run is a record: its final figures, never a forecast or an alarm.
+      const final = summary.run.status === 'closed' ? finalFigures({ readings: counted, changes: changes.filter((c) => c.stageIndex === index), volumeL: summary.currentVolumeL, terminalDpBar }) : null;
       return {
         index,
         name: s.name ?? `Stage ${String(index + 1)}`,
@@ -254,6 +286,9 @@ export function createRunsService(db: Database) {
         terminalDpBar,
         readings: own.map(presentReading),
         ...figures,
+        // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
+        ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
+        final,
         cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
       };
     });

@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { FileText, Paperclip, Trash2 } from 'lucide-react';
 import { useRef } from 'react';
 import type { AttachmentOwnerKind } from '@shared/schemas/attachments';
@@ -8,6 +7,7 @@ import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
 import { useCan, useMe } from '@/lib/session';
 import { useAttachments, useDeleteAttachment, useUploadAttachment } from './use-attachments';
+import { formatDate } from '@/lib/dates';
 
 function sizeLabel(bytes: number) {
   if (bytes < 1024) return `${bytes} B`;
@@ -68,7 +68,7 @@ export function AttachmentPanel({ ownerKind, ownerId, title = 'Attachments' }: {
                 {a.fileName}
               </a>
               <span className="hidden text-sm text-ink-600 sm:inline">
-                {sizeLabel(a.sizeBytes)} · {a.uploadedBy ?? 'unknown'} · {format(new Date(a.createdAt), 'd MMM yyyy')}
+                {sizeLabel(a.sizeBytes)} · {a.uploadedBy ?? 'unknown'} · {formatDate(a.createdAt)}
               </span>
               {mayDeleteAny || (mayUpload && a.uploadedById === me?.user.id) ? (
                 <Button variant="ghost" size="sm" aria-label={`Delete ${a.fileName}`} icon={<Trash2 aria-hidden="true" className="size-4" />} onClick={() => remove.mutate(a.id)} />

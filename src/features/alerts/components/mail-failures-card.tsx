@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -6,6 +5,7 @@ import { useToast } from '@/components/ui/toast';
 import { errorMessage } from '@/lib/api-client';
 import { useMailFailures } from '../api/get-mail-failures';
 import { useResendMail } from '../api/resend-mail';
+import { formatDayMonthTime } from '@/lib/dates';
 
 /** Owners: mail that could not be delivered after every retry, with a resend. */
 export function MailFailuresCard() {
@@ -27,10 +27,10 @@ export function MailFailuresCard() {
               <div className="min-w-0">
                 <p className="truncate font-semibold text-ink-900">{m.subject}</p>
                 <p className="text-sm text-ink-700">
-                  To {m.to} · {m.attempts} attempts · last {format(new Date(m.failedAt), 'd MMM HH:mm')}
+                  To {m.to} · {m.attempts} attempts · last {formatDayMonthTime(m.failedAt)}
                 </p>
                 <p className="text-xs text-ink-600">{m.error}</p>
-                {m.resentAt ? <p className="text-xs text-ok-700">Sent again {format(new Date(m.resentAt), 'd MMM HH:mm')}</p> : null}
+                {m.resentAt ? <p className="text-xs text-ok-700">Sent again {formatDayMonthTime(m.resentAt)}</p> : null}
               </div>
               <Button
                 size="sm"

@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { ArrowRight } from 'lucide-react';
 import { useNavigate } from 'react-router-dom';
 import type { NotificationDto } from '@shared/types/alerts';
@@ -7,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { cn } from '@/utils/cn';
 import { useMarkNotificationRead } from '../api/mark-read';
+import { formatDayMonthTime } from '@/lib/dates';
 
 const severityTone: Record<NotificationDto['severity'], StatusTone> = { critical: 'stop', warning: 'watch', info: 'info' };
 const severityWord: Record<NotificationDto['severity'], string> = { critical: 'Urgent', warning: 'Warning', info: 'Note' };
@@ -29,7 +29,7 @@ export function NotificationItem({ item, compact = false }: { item: Notification
           </StatusBadge>
           <span className="text-xs text-ink-600">{alertKindLabels[item.kind]}</span>
           <time className="text-xs text-ink-500" dateTime={item.openedAt}>
-            {format(new Date(item.openedAt), 'd MMM HH:mm')}
+            {formatDayMonthTime(item.openedAt)}
           </time>
           {unread ? <span className="text-xs font-semibold text-primary-800">Unread</span> : null}
         </div>
@@ -39,7 +39,7 @@ export function NotificationItem({ item, compact = false }: { item: Notification
           <span className="font-semibold">Next step: </span>
           {item.nextStep}
         </p>
-        {item.clearedAt ? <p className="text-xs text-ink-600">The condition cleared on {format(new Date(item.clearedAt), 'd MMM HH:mm')}.</p> : null}
+        {item.clearedAt ? <p className="text-xs text-ink-600">The condition cleared on {formatDayMonthTime(item.clearedAt)}.</p> : null}
       </div>
       <div className="flex shrink-0 flex-wrap gap-2">
         <Button size="sm" variant="secondary" onClick={open} icon={<ArrowRight aria-hidden="true" className="size-4" />}>

@@ -1,5 +1,4 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { format } from 'date-fns';
 import { Download } from 'lucide-react';
 import { useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
@@ -17,10 +16,11 @@ import { useAuditEvents } from '../api/get-audit-events';
 import { useAuditPeople } from '../api/get-audit-people';
 import { auditCsvUrl, type AuditFilters } from '../api/keys';
 import { EventChanges } from './event-changes';
+import { formatDateTimeSeconds } from '@/lib/dates';
 
 export const CHANGE_LOG_PAGE_SIZE = 25;
 
-const when = (iso: string) => format(new Date(iso), 'd MMM yyyy, HH:mm:ss');
+const when = (iso: string) => formatDateTimeSeconds(iso);
 
 const columns: ColumnDef<AuditEventDto>[] = [
   { id: 'at', header: 'When', cell: ({ row }) => <time dateTime={row.original.at} className="num whitespace-nowrap">{when(row.original.at)}</time> },

@@ -1,5 +1,5 @@
-import { format } from 'date-fns';
 import type { AuditEventDto } from '@shared/types/audit';
+import { formatDateTime } from '@/lib/dates';
 
 const ISO_DATE_TIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/;
 const MAX_VALUE_CHARS = 120;
@@ -53,7 +53,7 @@ export function valueText(value: unknown): string {
   if (typeof value === 'string') {
     if (ISO_DATE_TIME.test(value)) {
       const d = new Date(value);
-      if (!Number.isNaN(d.getTime())) return format(d, 'd MMM yyyy, HH:mm');
+      if (!Number.isNaN(d.getTime())) return formatDateTime(d);
     }
     return value.length > MAX_VALUE_CHARS ? `${value.slice(0, MAX_VALUE_CHARS)}…` : value;
   }

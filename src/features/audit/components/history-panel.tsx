@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { auditActionLabels, auditKindLabels, type AuditKind } from '@shared/schemas/audit';
@@ -9,6 +8,7 @@ import { paths } from '@/config/paths';
 import { useCan } from '@/lib/session';
 import { useAuditEvents } from '../api/get-audit-events';
 import { EventChanges } from './event-changes';
+import { formatDateTime } from '@/lib/dates';
 
 const HISTORY_PAGE_SIZE = 8;
 
@@ -46,7 +46,7 @@ export function HistoryPanel({ kind, recordId }: { kind: AuditKind; recordId: st
               <li key={e.id} className="flex flex-col gap-1 py-2">
                 <p className="text-sm text-ink-600">
                   <time dateTime={e.at} className="num">
-                    {format(new Date(e.at), 'd MMM yyyy, HH:mm')}
+                    {formatDateTime(e.at)}
                   </time>{' '}
                   · {e.userName || '—'}
                 </p>

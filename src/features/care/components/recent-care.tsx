@@ -10,8 +10,9 @@ import { errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
 import { FetchedAt } from '@/components/offline/fetched-at';
 import { useCareRecent } from '../api/get-care-recent';
+import { formatDayMonthTime } from '@/lib/dates';
 
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+const when = (iso: string) => formatDayMonthTime(iso);
 const n = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
 function What({ e }: { e: CareEventDto }) {

@@ -1,5 +1,4 @@
 import type { ColumnDef, SortingState } from '@tanstack/react-table';
-import { format } from 'date-fns';
 import { Search } from 'lucide-react';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
@@ -18,6 +17,7 @@ import { useCartridges } from '../api/get-cartridges';
 import type { CartridgeFilters } from '../api/keys';
 import { CartridgeStatusBadge, statusWord } from '@/components/status/cartridge-status-badge';
 import { Measure } from './measure';
+import { formatDate } from '@/lib/dates';
 
 const PAGE_SIZE = 25;
 
@@ -117,7 +117,7 @@ export function CartridgeInventory({
         id: 'receivedAt',
         accessorKey: 'receivedAt',
         header: 'Received',
-        cell: ({ row }) => <span className="num whitespace-nowrap">{row.original.receivedAt ? format(new Date(`${row.original.receivedAt}T00:00:00`), 'd MMM yyyy') : '—'}</span>,
+        cell: ({ row }) => <span className="num whitespace-nowrap">{row.original.receivedAt ? formatDate(row.original.receivedAt) : '—'}</span>,
       },
       {
         id: 'litresFiltered',

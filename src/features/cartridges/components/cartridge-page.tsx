@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { Archive, ArrowLeft, LogIn, LogOut, Pencil } from 'lucide-react';
 import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
@@ -25,6 +24,7 @@ import { Measure } from './measure';
 import { EditDetailsDialog } from './edit-details-dialog';
 import { FilteredLots } from './filtered-lots';
 import { RetireDialog } from './retire-dialog';
+import { formatDate } from '@/lib/dates';
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -52,7 +52,7 @@ function Facts({ c }: { c: CartridgeDetailDto }) {
           <CartridgeStatusBadge status={c.status} size="md" />
         </Fact>
         <Fact label="Housing · round">{c.housingName ? `${c.housingName} · ${c.position ?? '—'}` : '—'}</Fact>
-        <Fact label="Received">{c.receivedAt ? format(new Date(`${c.receivedAt}T00:00:00`), 'd MMM yyyy') : '—'}</Fact>
+        <Fact label="Received">{c.receivedAt ? formatDate(c.receivedAt) : '—'}</Fact>
         <Fact label="Volume filtered">
           <Measure kind="volume" value={c.litresFiltered} />
         </Fact>

@@ -5,6 +5,7 @@ import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
 import { useCartridgeLots } from '../api/get-cartridge-lots';
+import { formatDate } from '@/lib/dates';
 
 /** The bottled lots this cartridge filtered, each opening its filtration record. */
 export function FilteredLots({ id, serial }: { id: string; serial: string }) {
@@ -27,7 +28,7 @@ export function FilteredLots({ id, serial }: { id: string; serial: string }) {
                   <span className="num">{l.code}</span> · {l.name}
                 </span>
                 <span className="num text-sm text-ink-700">
-                  {units.format('volume', l.volumeFilteredL)} · bottled {l.lastBottledAt.slice(0, 10)}
+                  {units.format('volume', l.volumeFilteredL)} · bottled {formatDate(l.lastBottledAt)}
                 </span>
               </Link>
             </li>

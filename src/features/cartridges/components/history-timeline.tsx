@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { Archive, Droplets, Flame, FlaskConical, LogIn, LogOut, PackagePlus, ShieldCheck, ShieldX, StickyNote, Thermometer, Wine, type LucideIcon } from 'lucide-react';
 import type { ReactNode } from 'react';
 import type { CartridgeEventDto } from '@shared/types/cartridges';
@@ -6,6 +5,7 @@ import { Card } from '@/components/ui/card';
 import { Quantity } from '@/components/ui/quantity';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { Measure } from './measure';
+import { formatDateTime } from '@/lib/dates';
 
 const cycleWords: Record<string, { word: string; icon: LucideIcon }> = {
   steam: { word: 'Steam sterilisation', icon: Flame },
@@ -105,7 +105,7 @@ export function HistoryTimeline({ events }: { events: CartridgeEventDto[] }) {
                 <p className="text-base font-semibold text-ink-900">{title}</p>
                 {body ? <div className="text-sm text-ink-700">{body}</div> : null}
                 <p className="text-sm text-ink-600">
-                  <time dateTime={e.at}>{format(new Date(e.at), 'd MMM yyyy, HH:mm')}</time> · {e.actorName ?? 'former member'}
+                  <time dateTime={e.at}>{formatDateTime(e.at)}</time> · {e.actorName ?? 'former member'}
                 </p>
               </li>
             );

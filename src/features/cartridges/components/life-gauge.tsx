@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { CircleCheck, CircleHelp } from 'lucide-react';
 import type { BudgetUse, CartridgeLife } from '@shared/engine';
 import { Card } from '@/components/ui/card';
@@ -6,6 +5,7 @@ import { formatNumber, Quantity } from '@/components/ui/quantity';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { cn } from '@/utils/cn';
 import { Measure } from './measure';
+import { formatDate } from '@/lib/dates';
 
 const budgetLabel: Record<BudgetUse['factor'], string> = {
   'steam cycles': 'Steam cycles',
@@ -103,7 +103,7 @@ export function LifeGauge({ life, lifeError }: { life: CartridgeLife | null; lif
           </div>
           <div>
             <dt className="text-sm text-ink-600">Estimated end</dt>
-            <dd className="text-lg font-semibold text-ink-950">{life.estimatedEndMs ? format(new Date(life.estimatedEndMs), 'd MMM yyyy') : '—'}</dd>
+            <dd className="text-lg font-semibold text-ink-950">{life.estimatedEndMs ? formatDate(life.estimatedEndMs) : '—'}</dd>
           </div>
         </dl>
         {rated.length ? (

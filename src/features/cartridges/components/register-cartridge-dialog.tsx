@@ -13,6 +13,7 @@ import { FormMessage } from '@/components/ui/form-message';
 import { paths } from '@/config/paths';
 import { applyServerErrors } from '@/lib/form-errors';
 import { useRegisterCartridge } from '../api/register-cartridge';
+import { toDayInput } from '@/lib/dates';
 
 const FIELDS = ['serial', 'batch', 'typeId', 'lengthIn', 'receivedAt', 'notes'] as const;
 
@@ -24,7 +25,7 @@ export function RegisterCartridgeDialog({ open, onClose, types }: { open: boolea
   const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(createCartridgeInputSchema),
-    defaultValues: { serial: '', batch: '', typeId: '', lengthIn: 30, receivedAt: new Date().toISOString().slice(0, 10), notes: '' },
+    defaultValues: { serial: '', batch: '', typeId: '', lengthIn: 30, receivedAt: toDayInput(), notes: '' },
   });
   const { errors } = form.formState;
 

@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { format } from 'date-fns';
 import { Plus, Trash2 } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
@@ -18,9 +17,10 @@ import { useUnits } from '@/lib/units';
 import { useCreateLabResult } from '../api/create-lab-result';
 import { useUpdateLabResult } from '../api/update-lab-result';
 import { decimalText, numberText, requestSchema, toMetricOrKeep } from './form-values';
+import { formatDateTime, toDateTimeInput } from '@/lib/dates';
 
 const fields = ['sampledAt', 'turbidityNtu', 't200s', 't400s', 'freeSo2MgL', 'discDiameterMm', 'discPressureBar', 'discPoints', 'notes'] as const;
-const localDateTime = (d: Date) => format(d, "yyyy-MM-dd'T'HH:mm");
+const localDateTime = (d: Date) => toDateTimeInput(d);
 
 /** Parses typed text the way the form does, for the live preview. */
 const typed = (s: string) => decimalText.parse(s ?? '');
@@ -129,7 +129,7 @@ export function LabResultFormDialog({
     try {
       const saved = result ? await update.mutateAsync({ lotId, id: result.id, input }) : await create.mutateAsync({ lotId, input });
       const disc = saved.disc && !saved.disc.computable ? ` Vmax not computable: ${saved.disc.reason}` : '';
-      toast.success(result ? 'Lab result saved' : 'Lab result added', `Sampled ${format(new Date(saved.sampledAt), 'd MMM yyyy, HH:mm')}.${disc}`);
+      toast.success(result ? 'Lab result saved' : 'Lab result added', `Sampled ${formatDateTime(saved.sampledAt)}.${disc}`);
       close();
     } catch (error) {
       setAlert(applyServerErrors(error, form.setError, fields));

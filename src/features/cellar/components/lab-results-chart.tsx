@@ -1,6 +1,6 @@
-import { format } from 'date-fns';
 import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { LabResultDto, ReadinessThresholdsUsedDto } from '@shared/types/cellar';
+import { formatDateTime, formatDayMonth } from '@/lib/dates';
 
 const TURBIDITY = '#1f6f78';
 const CLOGGING = '#8a3b4a';
@@ -27,14 +27,14 @@ export function LabResultsChart({ results, thresholds }: { results: LabResultDto
               type="number"
               scale="time"
               domain={['dataMin', 'dataMax']}
-              tickFormatter={(t: number) => format(new Date(t), 'd MMM')}
+              tickFormatter={(t: number) => formatDayMonth(t)}
               tick={{ fontSize: 12 }}
               padding={{ left: 16, right: 16 }}
             />
             <YAxis yAxisId="ntu" tick={{ fontSize: 12 }} width={48} label={{ value: 'NTU', angle: -90, position: 'insideLeft', offset: 16, fontSize: 12 }} />
             <YAxis yAxisId="s" orientation="right" tick={{ fontSize: 12 }} width={44} label={{ value: 's', angle: 0, position: 'insideTopRight', fontSize: 12 }} />
             <Tooltip
-              labelFormatter={(t) => format(new Date(Number(t)), 'd MMM yyyy, HH:mm')}
+              labelFormatter={(t) => formatDateTime(Number(t))}
               formatter={(value, name) => [name === 'Turbidity' ? `${String(value)} NTU` : `${String(value)} s`, name]}
             />
             <Legend wrapperStyle={{ fontSize: 13 }} />

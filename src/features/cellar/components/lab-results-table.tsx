@@ -1,5 +1,4 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { format } from 'date-fns';
 import { Paperclip } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import type { LabResultDto } from '@shared/types/cellar';
@@ -10,6 +9,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { Quantity } from '@/components/ui/quantity';
 import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
+import { formatDate, formatDateTime } from '@/lib/dates';
 
 // The badge says what the lot's readiness says: the verdict against the winery's limits (engine).
 const verdictTone: Record<'ready' | 'borderline' | 'not-ready', StatusTone> = { ready: 'ok', borderline: 'watch', 'not-ready': 'stop' };
@@ -50,7 +50,7 @@ export function LabResultsTable({
   const [filesFor, setFilesFor] = useState<LabResultDto | null>(null);
   const columns = useMemo<ColumnDef<LabResultDto>[]>(
     () => [
-      { header: 'Sampled', accessorKey: 'sampledAt', cell: ({ row }) => <span className="num whitespace-nowrap">{format(new Date(row.original.sampledAt), 'd MMM yyyy, HH:mm')}</span> },
+      { header: 'Sampled', accessorKey: 'sampledAt', cell: ({ row }) => <span className="num whitespace-nowrap">{formatDateTime(row.original.sampledAt)}</span> },
       { header: 'Turbidity', accessorKey: 'turbidityNtu', meta: { numeric: true }, cell: ({ row }) => <FixedQuantity value={row.original.turbidityNtu} unit="NTU" digits={1} /> },
       {
         header: 'T200 / T400',
@@ -89,7 +89,7 @@ export function LabResultsTable({
           <Button
             variant="ghost"
             size="sm"
-            aria-label={`Files of the sample of ${format(new Date(row.original.sampledAt), 'd MMM yyyy')}`}
+            aria-label={`Files of the sample of ${formatDate(row.original.sampledAt)}`}
             icon={<Paperclip aria-hidden="true" className="size-4" />}
             onClick={() => setFilesFor(row.original)}
           >
@@ -126,7 +126,7 @@ export function LabResultsTable({
       <Dialog
         open={filesFor !== null}
         onClose={() => setFilesFor(null)}
-        title={filesFor ? `Lab report of ${format(new Date(filesFor.sampledAt), 'd MMM yyyy')}` : 'Lab report'}
+        title={filesFor ? `Lab report of ${formatDate(filesFor.sampledAt)}` : 'Lab report'}
         description="The laboratory's report and any other files for this sample."
         size="lg"
       >

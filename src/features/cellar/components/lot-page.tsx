@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { ArrowLeft, FlaskConical, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useCallback, useState, type ReactNode } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
@@ -27,6 +26,7 @@ import { LotFormDialog } from './lot-form-dialog';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
 import { ReadinessBadge } from '@/components/status/readiness-badge';
 import { ReadinessPanel } from './readiness-panel';
+import { formatDate, formatDateTime } from '@/lib/dates';
 
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
@@ -58,7 +58,7 @@ function LotFacts({ lot }: { lot: LotDto }) {
           <MetricQuantity kind="temperature" value={lot.tempC} />
         </Fact>
         <Fact label="Latest sample">
-          {lot.latestLabResult ? <span className="num">{format(new Date(lot.latestLabResult.sampledAt), 'd MMM yyyy')}</span> : <span className="font-normal text-ink-500">none yet</span>}
+          {lot.latestLabResult ? <span className="num">{formatDate(lot.latestLabResult.sampledAt)}</span> : <span className="font-normal text-ink-500">none yet</span>}
         </Fact>
       </dl>
       {lot.notes ? <p className="mt-3 text-sm whitespace-pre-line text-ink-700">{lot.notes}</p> : null}
@@ -236,7 +236,7 @@ export function LotPage({ lotId }: { lotId: string }) {
         onClose={() => setDeletingResult(null)}
         size="sm"
         title="Delete this lab result?"
-        description={deletingResult ? `Sampled ${format(new Date(deletingResult.sampledAt), 'd MMM yyyy, HH:mm')}. The readiness is judged again on the latest remaining result.` : undefined}
+        description={deletingResult ? `Sampled ${formatDateTime(deletingResult.sampledAt)}. The readiness is judged again on the latest remaining result.` : undefined}
         footer={
           <>
             <Button variant="secondary" onClick={() => setDeletingResult(null)}>

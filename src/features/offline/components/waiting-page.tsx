@@ -11,6 +11,7 @@ import { Select } from '@/components/ui/select';
 import { discard, flushOutbox, resend, useOutbox, type OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useOnline } from '@/lib/offline/use-online';
 import { useOpenRuns } from '../api/get-open-runs';
+import { formatDayMonthTime } from '@/lib/dates';
 
 /** Plain names for the figures an entry may carry (as stored: metric). */
 const FIELD_LABELS: Record<string, string> = {
@@ -127,7 +128,7 @@ function EntryCard({ entry }: { entry: OutboxEntry }) {
         <div className="min-w-0 flex-1">
           <p className="num font-semibold text-ink-900">{entry.label}</p>
           <p className="text-sm text-ink-700">
-            Made {new Date(entry.createdAt).toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })} · {refused ? 'refused by the server' : 'waiting to send'}
+            Made {formatDayMonthTime(entry.createdAt)} · {refused ? 'refused by the server' : 'waiting to send'}
           </p>
           {refused && entry.refusal ? (
             <div className="mt-1 text-base text-stop-800">

@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { Fragment } from 'react';
 import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -6,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-client';
 import { useOutbox } from '../api/get-outbox';
+import { formatDateTime } from '@/lib/dates';
 
 /** Renders mail text with its links clickable (same-app links only). */
 function MailText({ text }: { text: string }) {
@@ -52,7 +52,7 @@ export function OutboxPage({ outboxKey }: { outboxKey?: string }) {
         <ul className="flex flex-col gap-4">
           {outbox.data.items.map((m) => (
             <li key={m.id}>
-              <Card title={m.subject} description={`To ${m.to.join(', ')} · ${format(new Date(m.receivedAt), 'd MMM yyyy, HH:mm')}`}>
+              <Card title={m.subject} description={`To ${m.to.join(', ')} · ${formatDateTime(m.receivedAt)}`}>
                 <MailText text={m.text} />
               </Card>
             </li>

@@ -1,6 +1,7 @@
 import { ArrowDown, ArrowUp, Plus, Trash2 } from 'lucide-react';
-import { useEffect, useId, useState } from 'react';
+import { useCallback, useEffect, useId, useState } from 'react';
 import type { TrainStageInput } from '@shared/schemas/plans';
+import type { TrainSizingOutcome } from '@shared/adapters/plans';
 import type { PlanDto, PlanLotDto } from '@shared/types/plans';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
@@ -12,6 +13,7 @@ import { useUnits } from '@/lib/units';
 import { useCreateTrain } from '../api/create-train';
 import { useRemovePlanLot } from '../api/remove-plan-lot';
 import { useUpdatePlanLot } from '../api/update-plan-lot';
+import { OptionComparison, OptionSwitcher, type ComparedOption } from './option-comparison';
 import { TrainCard } from './train-card';
 import { parseNumberText } from '@/lib/number-input';
 
@@ -69,6 +71,23 @@ export function PlanLotSection({ plan, planLot, editable, isFirst, isLast }: { p
   };
   const l = planLot.lot;
 
+  // Each option's live sizing (reported by its card while edited), for the comparison.
+  const [live, setLive] = useState<Record<string, { name: string; outcome: TrainSizingOutcome; dirty: boolean }>>({});
+  const onSized = useCallback((trainId: string, v: { name: string; outcome: TrainSizingOutcome; dirty: boolean }) => setLive((m) => ({ ...m, [trainId]: v })), []);
+  // On a phone one option is shown at a time: the one picked, else the chosen one, else the first.
+  const [picked, setPicked] = useState<string | null>(null);
+  const shown = planLot.trains.find((t) => t.id === picked)?.id ?? planLot.chosenTrainId ?? planLot.trains[0]?.id ?? '';
+  const compared: ComparedOption[] = planLot.trains.map((t) => {
+    const v = live[t.id];
+    return {
+      train: t,
+      name: v?.name ?? t.name,
+      outcome: v?.outcome ?? (t.sizing ? null : { ok: false, error: t.sizingError ?? 'Not sized.' }),
+      dirty: v?.dirty ?? false,
+      chosen: planLot.chosenTrainId === t.id,
+    };
+  });
+
   return (
     <Card
       level={3}
@@ -119,10 +138,19 @@ export function PlanLotSection({ plan, planLot, editable, isFirst, isLast }: { p
           </FormField>
           {!planLot.chosenTrainId ? <p className="text-sm text-watch-800 sm:pb-3">No train chosen yet.</p> : null}
         </div>
-        {planLot.trains.length > 1 ? <p className="text-sm text-ink-600">{planLot.trains.length} trains side by side: compare, then choose one.</p> : null}
+        {planLot.trains.length > 1 ? (
+          <>
+            <p className="text-sm text-ink-600">
+              <span className="max-sm:hidden">{planLot.trains.length} trains side by side: compare, then choose one.</span>
+              <span className="sm:hidden">{planLot.trains.length} trains: one is shown at a time; tap another to see it.</span>
+            </p>
+            <OptionComparison options={compared} lotCode={l.code} />
+            <OptionSwitcher options={compared} active={shown} onChoose={setPicked} lotCode={l.code} />
+          </>
+        ) : null}
         <div className="-mx-1 flex snap-x gap-3 overflow-x-auto px-1 pb-2" role="group" aria-label={`Trains for ${l.code}`}>
           {planLot.trains.map((t) => (
-            <TrainCard key={t.id} plan={plan} planLot={planLot} train={t} editable={editable} />
+            <TrainCard key={t.id} plan={plan} planLot={planLot} train={t} editable={editable} onSized={onSized} className={t.id === shown ? undefined : 'max-sm:hidden'} />
           ))}
           {planLot.trains.length === 0 ? (
             <p className="text-sm text-ink-600">{editable ? 'No train yet: add one and pick its stages.' : 'No train yet.'}</p>

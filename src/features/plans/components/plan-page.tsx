@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { ArrowLeft, CalendarPlus, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
@@ -32,6 +31,7 @@ import { PlanFormDialog } from './plan-form-dialog';
 import { PlanLotSection } from './plan-lot-section';
 import { PlanStatusBadge } from './plan-status-badge';
 import { dayLabel } from './plans-page';
+import { formatDateTime } from '@/lib/dates';
 
 function Facts({ plan }: { plan: PlanDto }) {
   const u = useUnits();
@@ -41,7 +41,7 @@ function Facts({ plan }: { plan: PlanDto }) {
     ['Flow the filters carry', plan.requiredFlowLh === null ? '—' : `${u.format('flow', plan.requiredFlowLh)} (line + ${DEFAULT_FLOW_MARGIN_PCT} %)`],
     ['Start', `${plan.startTime} · ${sanitationKindLabels[plan.sanitationKind].toLowerCase()} sanitation`],
   ];
-  if (plan.approvedAt) items.push(['Approved', `${format(new Date(plan.approvedAt), 'd MMM yyyy HH:mm')}${plan.approvedBy ? ` by ${plan.approvedBy}` : ''}`]);
+  if (plan.approvedAt) items.push(['Approved', `${formatDateTime(plan.approvedAt)}${plan.approvedBy ? ` by ${plan.approvedBy}` : ''}`]);
   return (
     <dl className="grid gap-x-6 gap-y-1 sm:grid-cols-2">
       {items.map(([k, v]) => (

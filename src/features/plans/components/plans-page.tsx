@@ -1,6 +1,5 @@
 import type { ColumnDef, SortingState } from '@tanstack/react-table';
 import { ShowArchivedToggle } from '@/components/records/archive-offer';
-import { format } from 'date-fns';
 import { ClipboardList, Plus } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
@@ -20,9 +19,10 @@ import { useUnits } from '@/lib/units';
 import { usePlans } from '../api/get-plans';
 import { PlanFormDialog } from './plan-form-dialog';
 import { PlanStatusBadge } from './plan-status-badge';
+import { formatDay } from '@/lib/dates';
 
 const PAGE_SIZE = 25;
-export const dayLabel = (date: string) => format(new Date(`${date}T12:00:00`), 'EEE d MMM yyyy');
+export const dayLabel = (date: string) => formatDay(date);
 
 /** Every bottling day of the winery, newest plans easy to find. */
 export function PlansPage() {

@@ -1,7 +1,7 @@
 import { CircleCheck, OctagonX, Plus, Save, Sparkles, Trash2, TriangleExclamationPoint, X } from 'lucide-react';
 import { useEffect, useId, useMemo, useState } from 'react';
 import { CLEAN_DP_MAX_FRACTION_OF_TERMINAL, COST_VOLUME_BASIS, costPerVolumeBasis, suggestTrain, type SizingHousing, type SizingWarning, type StageSizing, type TrainSizingResult } from '@shared/engine';
-import { buildTrainSizingInput, sizePlanTrain } from '@shared/adapters/plans';
+import { buildTrainSizingInput, sizePlanTrain, type TrainSizingOutcome } from '@shared/adapters/plans';
 import {
   BLOCKING_WARNING_CODES,
   STAGES_MAX,
@@ -75,9 +75,9 @@ const costPer = (v: number | null, u: Units) => (v === null ? null : costPerVolu
 
 function Figure({ label, children, tone, testId }: { label: string; children: React.ReactNode; tone?: 'ok' | 'over'; testId?: string }) {
   return (
-    <div className="flex items-baseline justify-between gap-2 border-b border-ink-100 py-1 last:border-0" data-testid={testId}>
-      <dt className="text-sm text-ink-600">{label}</dt>
-      <dd className={cn('num text-right text-sm font-semibold', tone === 'over' ? 'text-stop-700' : 'text-ink-900')}>
+    <div className="flex items-baseline justify-between gap-2 border-b border-ink-100 py-1 last:border-0 max-sm:flex-col max-sm:items-start max-sm:gap-0 max-sm:border-0" data-testid={testId}>
+      <dt className="text-sm text-ink-600 max-sm:text-xs">{label}</dt>
+      <dd className={cn('num text-right text-sm font-semibold max-sm:text-left', tone === 'over' ? 'text-stop-700' : 'text-ink-900')}>
         {tone === 'over' ? <OctagonX aria-hidden="true" className="mr-1 inline size-3.5 align-[-2px]" /> : null}
         {children}
       </dd>
@@ -93,43 +93,61 @@ function StageFigures({ s }: { s: StageSizing }) {
   const u = useUnits();
   const third = s.terminalDpBar * CLEAN_DP_MAX_FRACTION_OF_TERMINAL;
   const dpShare = Math.min(1, s.cleanDpBar / s.terminalDpBar);
+  // On a phone the stage's limits stand in one line; every figure opens on a tap.
+  const [open, setOpen] = useState(false);
+  const over = s.fluxLhPer10in > s.designFluxLhPer10in || s.cleanDpBar > third || s.infeasible;
   return (
-    <dl className="mt-2 rounded border border-ink-200 bg-ink-50 px-2.5 py-1.5">
-      <Figure label="10-inch equivalents" testId="stage-equivalents">
-        {s.elementEquivalents} <span className="font-normal text-ink-600">({s.cartridgeCount} cartridges)</span>
-      </Figure>
-      <Figure label="Flux per 10-inch" tone={s.fluxLhPer10in > s.designFluxLhPer10in ? 'over' : 'ok'} testId="stage-flux">
-        {u.format('flow', s.fluxLhPer10in)} <span className="font-normal text-ink-600">of {u.format('flow', s.designFluxLhPer10in)}</span>
-      </Figure>
-      <Figure label="Clean ΔP" tone={s.cleanDpBar > third ? 'over' : 'ok'} testId="stage-dp">
-        {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)} ({fractionWords} terminal)</span>
-      </Figure>
-      <div aria-hidden="true" className="relative my-1 h-1.5 rounded-full bg-ink-200">
-        <div className={cn('h-1.5 rounded-full', s.cleanDpBar > third ? 'bg-stop-600' : 'bg-primary-600')} style={{ width: `${Math.max(2, dpShare * 100)}%` }} />
-        <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: `${CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100}%` }} />
-      </div>
-      <Figure label="To terminal ΔP" testId="stage-capacity">
-        {s.infeasible ? (
-          <span className="text-stop-700">none: clean ΔP already at terminal</span>
-        ) : s.capacityL === null ? (
-          <span className="font-normal text-ink-600">unknown</span>
-        ) : (
-          <>
-            {u.format('volume', s.capacityL)}
-            <CapacitySource s={s} />
-          </>
-        )}
-      </Figure>
-      <Figure label="Regenerations or changes" testId="stage-interventions">
-        <span className="font-normal">{interventionWords(s)}</span>
-      </Figure>
-      <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}`} testId="stage-cost">
-        {s.costIsLowerBound ? 'at least ' : ''}
-        {money(costPer(s.costPerHl, u), s.currency)}
-        {s.costBasis === 'service-life' ? <span className="font-normal text-ink-600"> (set spread over its life)</span> : null}
-        {s.costBasis === 'whole-set' ? <span className="font-normal text-ink-600"> (whole set: no rated cycles)</span> : null}
-      </Figure>
-    </dl>
+    <>
+      <button
+        type="button"
+        aria-expanded={open}
+        onClick={() => setOpen((o) => !o)}
+        className={cn('num mt-2 flex min-h-11 w-full items-center justify-between gap-2 rounded border border-ink-200 bg-ink-50 px-2.5 text-left text-sm sm:hidden', over ? 'text-stop-700' : 'text-ink-800')}
+      >
+        <span>
+          {over ? <OctagonX aria-hidden="true" className="mr-1 inline size-3.5 align-[-2px]" /> : null}
+          {u.format('flow', s.fluxLhPer10in)} of {u.format('flow', s.designFluxLhPer10in)} · ΔP {u.format('dp', s.cleanDpBar)} of {u.format('dp', third)}
+          {s.capacityL !== null && !s.infeasible ? ` · ${u.format('volume', s.capacityL)}` : ''}
+        </span>
+        <span className="shrink-0 text-xs font-semibold text-primary-700">{open ? 'Fewer' : 'All figures'}</span>
+      </button>
+      <dl className={cn('mt-2 rounded border border-ink-200 bg-ink-50 px-2.5 py-1.5 max-sm:grid max-sm:grid-cols-2 max-sm:gap-x-3', !open && 'max-sm:hidden')}>
+        <Figure label="10-inch equivalents" testId="stage-equivalents">
+          {s.elementEquivalents} <span className="font-normal text-ink-600">({s.cartridgeCount} cartridges)</span>
+        </Figure>
+        <Figure label="Flux per 10-inch" tone={s.fluxLhPer10in > s.designFluxLhPer10in ? 'over' : 'ok'} testId="stage-flux">
+          {u.format('flow', s.fluxLhPer10in)} <span className="font-normal text-ink-600">of {u.format('flow', s.designFluxLhPer10in)}</span>
+        </Figure>
+        <Figure label="Clean ΔP" tone={s.cleanDpBar > third ? 'over' : 'ok'} testId="stage-dp">
+          {u.format('dp', s.cleanDpBar)} <span className="font-normal text-ink-600">of {u.format('dp', third)}<span className="max-sm:hidden"> ({fractionWords} terminal)</span></span>
+        </Figure>
+        <div aria-hidden="true" className="relative my-1 h-1.5 rounded-full bg-ink-200 max-sm:hidden">
+          <div className={cn('h-1.5 rounded-full', s.cleanDpBar > third ? 'bg-stop-600' : 'bg-primary-600')} style={{ width: `${Math.max(2, dpShare * 100)}%` }} />
+          <div className="absolute inset-y-[-2px] w-px bg-ink-700" style={{ left: `${CLEAN_DP_MAX_FRACTION_OF_TERMINAL * 100}%` }} />
+        </div>
+        <Figure label="To terminal ΔP" testId="stage-capacity">
+          {s.infeasible ? (
+            <span className="text-stop-700">none: clean ΔP already at terminal</span>
+          ) : s.capacityL === null ? (
+            <span className="font-normal text-ink-600">unknown</span>
+          ) : (
+            <>
+              {u.format('volume', s.capacityL)}
+              <CapacitySource s={s} />
+            </>
+          )}
+        </Figure>
+        <Figure label="Regenerations or changes" testId="stage-interventions">
+          <span className="font-normal">{interventionWords(s)}</span>
+        </Figure>
+        <Figure label={`Cost per ${COST_VOLUME_BASIS[u.system].per}`} testId="stage-cost">
+          {s.costIsLowerBound ? 'at least ' : ''}
+          {money(costPer(s.costPerHl, u), s.currency)}
+          {s.costBasis === 'service-life' ? <span className="font-normal text-ink-600 max-sm:hidden"> (set spread over its life)</span> : null}
+          {s.costBasis === 'whole-set' ? <span className="font-normal text-ink-600 max-sm:hidden"> (whole set: no rated cycles)</span> : null}
+        </Figure>
+      </dl>
+    </>
   );
 }
 
@@ -164,7 +182,7 @@ function Totals({ r }: { r: TrainSizingResult }) {
   const u = useUnits();
   const minutes = Math.round(r.totals.runHours * 60);
   return (
-    <dl className="rounded border border-ink-200 px-2.5 py-1.5" data-testid="train-totals">
+    <dl className="rounded border border-ink-200 px-2.5 py-1.5 max-sm:grid max-sm:grid-cols-2 max-sm:gap-x-3" data-testid="train-totals">
       <Figure label="Flow">{u.format('flow', r.flowLh)}</Figure>
       <Figure label="Run time">{`${Math.floor(minutes / 60)} h ${String(minutes % 60).padStart(2, '0')} min`}</Figure>
       <Figure label="Pump pressure, clean → end">
@@ -188,13 +206,17 @@ export interface TrainCardProps {
   planLot: PlanLotDto;
   train: PlanTrainDto;
   editable: boolean;
+  /** Hears the live sizing and whether there are unsaved edits, so the lot can compare its options. */
+  onSized?: (trainId: string, live: { name: string; outcome: TrainSizingOutcome; dirty: boolean }) => void;
+  /** Extra classes for the card (e.g. hidden on a phone when another option is shown). */
+  className?: string;
 }
 
 /**
  * One train option: stages picked from the catalogue, sized live in the browser by the engine as
  * the person edits (no request per keystroke), saved with "Save train".
  */
-export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
+export function TrainCard({ plan, planLot, train, editable, onSized, className }: TrainCardProps) {
   const id = useId();
   const toast = useToast();
   const save = useUpdateTrain();
@@ -222,6 +244,8 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
     () => sizePlanTrain(source),
     [stages, planLot.volumeL, planLot.lot, plan.line, cartridgeTypes, housings, hoses, plan.sanitationKind],
   );
+
+  useEffect(() => onSized?.(train.id, { name, outcome: sized, dirty }), [sized, dirty, name]);
 
   const setStage = (i: number, patch: Partial<DraftStage>) => setDraft((d) => d.map((s, k) => (k === i ? { ...s, ...patch } : s)));
 
@@ -257,7 +281,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
   return (
     <article
       aria-label={`${planLot.lot.code}: ${train.name}`}
-      className={cn('flex w-[min(24rem,calc(100vw-3rem))] shrink-0 snap-start flex-col gap-3 rounded border bg-white p-3', chosen ? 'border-primary-600 ring-1 ring-primary-600' : 'border-ink-200')}
+      className={cn('flex w-[min(24rem,calc(100vw-3rem))] shrink-0 snap-start flex-col gap-3 rounded border bg-white p-3 max-sm:w-full', chosen ? 'border-primary-600 ring-1 ring-primary-600' : 'border-ink-200', className)}
     >
       <div className="flex items-start justify-between gap-2">
         {editable ? (
@@ -276,7 +300,7 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
         {draft.map((d, i) => {
           const s = sized.ok ? sized.result.stages[i] : null;
           return (
-            <li key={i} className="rounded border border-ink-200 p-2.5" aria-label={`Stage ${i + 1}`}>
+            <li key={i} className="rounded border border-ink-200 p-2.5 max-sm:p-2" aria-label={`Stage ${i + 1}`}>
               <div className="mb-2 flex items-center justify-between gap-2">
                 <span className="text-sm font-semibold text-ink-800">
                   Stage {i + 1}
@@ -288,7 +312,13 @@ export function TrainCard({ plan, planLot, train, editable }: TrainCardProps) {
                   </Button>
                 ) : null}
               </div>
-              <div className="grid grid-cols-1 gap-2">
+              {!editable ? (
+                <p className="text-sm text-ink-800 sm:hidden" data-testid="stage-read-only">
+                  {typeOptions.find((o) => o.value === d.cartridgeTypeId)?.label ?? 'No type'} · {d.housingCount} × {housingOptions.find((o) => o.value === d.housingId)?.label ?? 'no housing'}
+                  {d.capacity ? ` · ${d.capacity} ${u.symbol('loading')}` : ''}
+                </p>
+              ) : null}
+              <div className={cn('grid grid-cols-1 gap-2', !editable && 'max-sm:hidden')}>
                 <FormField label="Cartridge type" htmlFor={`${id}-t${i}`}>
                   <Select id={`${id}-t${i}`} disabled={!editable} value={d.cartridgeTypeId} placeholder="Choose a type" options={typeOptions} onChange={(e) => setStage(i, { cartridgeTypeId: e.target.value })} />
                 </FormField>

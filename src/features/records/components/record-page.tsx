@@ -12,13 +12,14 @@ import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { paths } from '@/config/paths';
 import { ApiError, errorMessage } from '@/lib/api-client';
+import { formatDate, formatDateTimeUtc } from '@/lib/dates';
 import { useUnits } from '@/lib/units';
 import { recordCsvUrl, recordPdfUrl, useRecord } from '../api/get-record';
 import { useVerifyRecord } from '../api/verify-record';
 import { RecordChart } from './record-chart';
 import './record-print.css';
 
-const when = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : '—');
+const when = (iso: string | null) => formatDateTimeUtc(iso);
 const lawNames: Record<string, string> = { complete: 'complete blocking', standard: 'standard blocking', intermediate: 'intermediate blocking', cake: 'cake filtration' };
 const verdictTone = { ready: 'ok', borderline: 'watch', 'not-ready': 'stop', unknown: 'neutral' } as const;
 
@@ -216,7 +217,7 @@ function Run({ run, index, count }: { run: RecordRunDto; index: number; count: n
           <h3 className="text-lg font-semibold text-ink-950">Plan and approval</h3>
           <Facts
             rows={[
-              ['Plan', `${run.plan.name} (${run.plan.plannedDate})`],
+              ['Plan', `${run.plan.name} (${formatDate(run.plan.plannedDate)})`],
               ['Train', run.plan.trainName || '—'],
               ['Line', run.plan.lineName ?? '—'],
               ['Approved', run.plan.approvedAt ? `${when(run.plan.approvedAt)} by ${run.plan.approvedByName ?? 'unknown'}` : 'Not approved'],

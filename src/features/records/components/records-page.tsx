@@ -15,6 +15,7 @@ import { ApiError, errorMessage } from '@/lib/api-client';
 import { useUnits } from '@/lib/units';
 import { useRecordLots } from '../api/get-record-lots';
 import type { RecordLotFilters } from '../api/keys';
+import { formatDate } from '@/lib/dates';
 
 const FIELDS = ['from', 'to', 'q', 'style', 'serial', 'batch'] as const;
 type Field = (typeof FIELDS)[number];
@@ -125,7 +126,7 @@ export function RecordsPage() {
                     <span className="flex shrink-0 flex-col text-base text-ink-700 sm:items-end">
                       <span className="num">{units.format('volume', l.volumeFilteredL)} filtered</span>
                       <span className="text-sm text-ink-600">
-                        bottled {l.lastBottledAt.slice(0, 10)}
+                        bottled {formatDate(l.lastBottledAt)}
                         {l.runCount > 1 ? ` · ${l.runCount} runs` : ''}
                       </span>
                     </span>

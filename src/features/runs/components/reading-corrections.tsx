@@ -12,6 +12,7 @@ import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useCorrectReading, useVoidReading } from '../api/run-changes';
+import { formatDateTime } from '@/lib/dates';
 
 const parse = (s: string): number | null => {
   const t = s.trim().replace(',', '.');
@@ -20,7 +21,7 @@ const parse = (s: string): number | null => {
   return Number.isFinite(n) ? n : null;
 };
 
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+const when = (iso: string) => formatDateTime(iso);
 
 /** Correct a reading's values or void it, always with a reason; the original is kept. */
 function CorrectDialog({ runId, reading, mode, onClose }: { runId: string; reading: RunReadingDto; mode: 'correct' | 'void'; onClose: () => void }) {

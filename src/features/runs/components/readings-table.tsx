@@ -5,6 +5,7 @@ import type { RunReadingDto, RunStageDto } from '@shared/types/runs';
 import { Button } from '@/components/ui/button';
 import type { OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useUnits } from '@/lib/units';
+import { formatDayMonthTime } from '@/lib/dates';
 
 const PAGE = 10;
 
@@ -25,8 +26,7 @@ export interface ReadingsTableProps {
 }
 
 function when(iso: string) {
-  const d = new Date(iso);
-  return d.toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+  return formatDayMonthTime(iso);
 }
 
 function KeptBadge({ entry }: { entry: OutboxEntry }) {

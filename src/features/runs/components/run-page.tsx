@@ -2,7 +2,7 @@ import { AlertTriangle, CircleCheck, Eye, FileUp } from 'lucide-react';
 import { lazy, Suspense, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LogReadingInput } from '@shared/schemas/runs';
-import type { RunReadingDto, RunStageDto } from '@shared/types/runs';
+import type { RunReadingDto, RunStageDto, RunStageFinalDto } from '@shared/types/runs';
 import { FetchedAt } from '@/components/offline/fetched-at';
 import { CautionPanel } from '@/components/ui/caution';
 import { Card } from '@/components/ui/card';
@@ -21,6 +21,7 @@ import { ReadingCorrections } from './reading-corrections';
 import { ReadingForm } from './reading-form';
 import { ReadingsTable } from './readings-table';
 import { RunCartridges } from './run-cartridges';
+import { formatDateTime } from '@/lib/dates';
 
 // The chart library is large: it loads after the page (and its reading form) has painted.
 const StageChart = lazy(() => import('./stage-chart').then((m) => ({ default: m.StageChart })));
@@ -46,6 +47,44 @@ function AlarmBadge({ stage }: { stage: RunStageDto }) {
   );
 }
 
+/** A closed run's stage: what it did, in words and figures; no forecast and no alarm. */
+function FinalFigures({ stage, final }: { stage: RunStageDto; final: RunStageFinalDto }) {
+  const units = useUnits();
+  const swaps = [final.changes ? `${String(final.changes)} change${final.changes === 1 ? '' : 's'}` : '', final.regenerations ? `${String(final.regenerations)} regeneration${final.regenerations === 1 ? '' : 's'}` : ''].filter(Boolean).join(' and ');
+  return (
+    <div className="flex flex-col gap-2" data-testid={`final-${String(stage.index)}`}>
+      <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Final figures</p>
+      <dl className="grid grid-cols-1 gap-x-6 gap-y-1 sm:grid-cols-2">
+        <div className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
+          <dt className="text-sm text-ink-600">Litres through the stage</dt>
+          <dd className="num text-right text-base font-semibold text-ink-900">{units.format('volume', final.litresL)}</dd>
+        </div>
+        <div className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
+          <dt className="text-sm text-ink-600">Through the last set</dt>
+          <dd className="num text-right text-base font-semibold text-ink-900">
+            {units.format('volume', final.litresLastSetL)}
+            <span className="block text-xs font-normal text-ink-600">{swaps ? `after ${swaps}` : 'one set for the whole run'}</span>
+          </dd>
+        </div>
+        <div className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
+          <dt className="text-sm text-ink-600">Final ΔP</dt>
+          <dd className="num text-right text-base font-semibold text-ink-900">
+            {final.lastDpBar === null ? 'no reading' : units.format('dp', final.lastDpBar)}
+            <span className="font-normal text-ink-600"> of {units.format('dp', stage.terminalDpBar)} terminal</span>
+          </dd>
+        </div>
+        <div className="flex items-baseline justify-between gap-3 border-b border-ink-100 py-1">
+          <dt className="text-sm text-ink-600">Terminal ΔP</dt>
+          <dd className="text-right text-base font-semibold text-ink-900">
+            {final.terminalReached ? 'reached by the last set' : final.maxDpBar === null ? 'unknown: no reading on the last set' : 'not reached'}
+            {final.maxDpBar !== null ? <span className="num block text-xs font-normal text-ink-600">highest {units.format('dp', final.maxDpBar)}</span> : null}
+          </dd>
+        </div>
+      </dl>
+    </div>
+  );
+}
+
 function StageCard({ stage, kept, rowActions, importTo }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode; importTo?: string }) {
   const units = useUnits();
   const f = stage.forecast;
@@ -57,13 +96,20 @@ function StageCard({ stage, kept, rowActions, importTo }: { stage: RunStageDto; 
   return (
     <Card title={`${String(stage.index + 1)}. ${stage.name}`} description={`${stage.cartridgeTypeName} in ${stage.housingName} · terminal ΔP ${units.format('dp', stage.terminalDpBar)}`}>
       <div className="flex flex-col gap-4">
-        {stage.flatWarning ? (
+        {stage.final ? <FinalFigures stage={stage} final={stage.final} /> : null}
+        {stage.final && stage.note ? <p className="text-sm text-ink-700">{stage.note}</p> : null}
+        {stage.flatWarning && stage.final ? (
+          <p className="text-sm text-ink-700" data-testid={`flat-${String(stage.index)}`}>
+            {stage.flatWarning} Worth checking the housing’s bypass and drain valves and the gauge before the next run.
+          </p>
+        ) : null}
+        {stage.flatWarning && !stage.final ? (
           <div role="alert" className="flex items-start gap-2 rounded border border-watch-200 bg-watch-50 px-4 py-3 text-base text-ink-900" data-testid={`flat-${String(stage.index)}`}>
             <AlertTriangle aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-watch-700" />
             <span>{stage.flatWarning} Check the housing’s bypass and drain valves and the gauge before trusting any forecast.</span>
           </div>
         ) : null}
-        {f && view.kind !== 'none' ? (
+        {stage.final ? null : f && view.kind !== 'none' ? (
           <div className="flex flex-col gap-2" data-testid={`forecast-${String(stage.index)}`}>
             <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Left before terminal ΔP</p>
             <p className="num text-2xl font-semibold text-ink-900">{view.headline}</p>
@@ -141,16 +187,16 @@ export function RunPage({ runId, readingActions }: RunPageProps) {
           <ReadingForm run={r} />
         </Card>
       ) : null}
-      <section aria-label="Run so far" className="grid grid-cols-1 gap-3 sm:grid-cols-2">
+      <section aria-label={running ? 'Run so far' : 'The run as closed'} className="grid grid-cols-1 gap-3 sm:grid-cols-2">
         <div className="rounded-lg border border-ink-200 p-4">
           <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Filtered</p>
           <p className="num text-2xl font-semibold text-ink-900">{units.format('volume', r.currentVolumeL)}</p>
           <p className="num text-base text-ink-700">of {units.format('volume', r.volumeL)}</p>
         </div>
         <div className="rounded-lg border border-ink-200 p-4">
-          <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">Still to bottle</p>
+          <p className="text-sm font-semibold uppercase tracking-wide text-ink-600">{running ? 'Still to bottle' : 'Left unfiltered'}</p>
           <p className="num text-2xl font-semibold text-ink-900">{units.format('volume', r.volumeToBottleL)}</p>
-          <p className="text-base text-ink-700">{running ? 'Running' : 'Closed'}</p>
+          <p className="text-base text-ink-700">{running ? 'Running' : `Closed${r.closedAt ? ` ${formatDateTime(r.closedAt)}` : ''}${r.closedByName ? ` by ${r.closedByName}` : ''}`}</p>
         </div>
       </section>
       <CautionPanel title="Under pressure">

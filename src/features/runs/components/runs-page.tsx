@@ -16,6 +16,7 @@ import { useRunStartOptions } from '../api/get-run-start-options';
 import { useRuns } from '../api/get-runs';
 import { useStartRun } from '../api/start-run';
 import { StartBlockedDialog, type BlockReason } from './start-blocked-dialog';
+import { formatDate } from '@/lib/dates';
 
 function StartOptions() {
   const units = useUnits();
@@ -41,7 +42,7 @@ function StartOptions() {
                   <span className="num">{o.lotCode}</span> · {o.lotName}
                 </p>
                 <p className="text-base text-ink-700">
-                  {o.planName} · {o.plannedDate} · {units.format('volume', o.volumeL)} · {o.trainName}
+                  {o.planName} · {formatDate(o.plannedDate)} · {units.format('volume', o.volumeL)} · {o.trainName}
                 </p>
               </div>
               {o.runningRunId ? (

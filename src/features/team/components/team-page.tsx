@@ -1,5 +1,4 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { format, formatDistanceToNowStrict } from 'date-fns';
 import { UserPlus } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import { roleDescriptions, roleLabels, roles, type Role } from '@shared/permissions';
@@ -19,6 +18,7 @@ import { useTeam } from '../api/get-team';
 import { useRemoveMember } from '../api/remove-member';
 import { useRevokeInvitation } from '../api/revoke-invitation';
 import { InviteDialog } from './invite-dialog';
+import { formatDate, formatAgo } from '@/lib/dates';
 
 
 export function TeamPage({ me }: { me: MeDto }) {
@@ -75,7 +75,7 @@ export function TeamPage({ me }: { me: MeDto }) {
             roleLabels[row.original.role]
           ),
       },
-      { header: 'Joined', accessorKey: 'joinedAt', cell: ({ getValue }) => <span className="num whitespace-nowrap">{format(new Date(getValue<string>()), 'd MMM yyyy')}</span> },
+      { header: 'Joined', accessorKey: 'joinedAt', cell: ({ getValue }) => <span className="num whitespace-nowrap">{formatDate(getValue<string>())}</span> },
       ...(mayRemove
         ? [
             {
@@ -101,7 +101,7 @@ export function TeamPage({ me }: { me: MeDto }) {
       {
         header: 'Link expires',
         accessorKey: 'expiresAt',
-        cell: ({ getValue }) => <span className="whitespace-nowrap">in {formatDistanceToNowStrict(new Date(getValue<string>()))}</span>,
+        cell: ({ getValue }) => <span className="whitespace-nowrap">{formatAgo(getValue<string>())}</span>,
       },
       {
         id: 'actions',

@@ -1,10 +1,10 @@
-import { format } from 'date-fns';
 import type { ReactNode } from 'react';
 import type { BudgetFactor, LimitingFactor } from '@shared/engine';
 import type { TodayCartridgeFigure } from '@shared/types/today';
 import { formatNumber, Quantity } from '@/components/ui/quantity';
 import type { StatusTone } from '@/components/ui/status-badge';
 import { Metric } from './metric';
+import { formatDayMonth } from '@/lib/dates';
 
 const cycleWords: Partial<Record<LimitingFactor, [string, string]>> = {
   'steam cycles': ['steam cycle', 'steam cycles'],
@@ -45,7 +45,7 @@ export function CartridgeFigure({ figure }: { figure: TodayCartridgeFigure }) {
     case 'integrity-failed':
       return (
         <>
-          Integrity test failed on <time dateTime={figure.at} className="num">{format(new Date(figure.at), 'd MMM')}</time>
+          Integrity test failed on <time dateTime={figure.at} className="num">{formatDayMonth(figure.at)}</time>
         </>
       );
     case 'life-ended':

@@ -1,4 +1,4 @@
-import { differenceInCalendarDays, format, parseISO } from 'date-fns';
+import { differenceInCalendarDays, parseISO } from 'date-fns';
 import { CalendarDays, CircleCheck, FilePen, Lock, OctagonX, TriangleExclamationPoint } from 'lucide-react';
 import { Link } from 'react-router-dom';
 import type { TodayPlanDto } from '@shared/types/today';
@@ -8,6 +8,7 @@ import { StatusBadge, type StatusTone } from '@/components/ui/status-badge';
 import { paths } from '@/config/paths';
 import { useCan } from '@/lib/session';
 import { Metric } from './metric';
+import { formatDayLong } from '@/lib/dates';
 
 const statusWords: Record<TodayPlanDto['status'], { tone: StatusTone; icon: typeof FilePen }> = {
   draft: { tone: 'neutral', icon: FilePen },
@@ -35,12 +36,11 @@ function fromNow(date: Date): string | null {
 
 function PlanDate({ plannedDate }: { plannedDate: string }) {
   const date = parseISO(plannedDate);
-  const sameYear = date.getFullYear() === new Date().getFullYear();
   const relative = fromNow(date);
   return (
     <span className="text-sm text-ink-700">
       <time dateTime={plannedDate} className="font-semibold text-ink-900">
-        {format(date, sameYear ? 'EEEE d MMMM' : 'EEEE d MMMM yyyy')}
+        {formatDayLong(date)}
       </time>
       {relative ? <span className="text-ink-600"> · {relative}</span> : null}
     </span>

@@ -1,10 +1,11 @@
-import { format, parseISO } from 'date-fns';
+import { parseISO } from 'date-fns';
 import { Activity, AlertTriangle, ChevronRight, CircleCheck, Eye } from 'lucide-react';
 import { Link } from 'react-router-dom';
 import { MAX_DURATION_HOURS } from '@shared/engine';
 import type { RunInProgressDto, RunInProgressStageDto } from '@shared/types/runs';
 import { Card } from '@/components/ui/card';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { formatDay } from '@/lib/dates';
 import { paths } from '@/config/paths';
 import { useUnits } from '@/lib/units';
 import { formatDuration } from '@/utils/duration';
@@ -85,7 +86,7 @@ function RunItem({ run }: { run: RunInProgressDto }) {
           </span>
           <span className="block text-sm text-ink-600">
             {run.plan.name} ·{' '}
-            <time dateTime={run.plan.plannedDate}>{format(date, date.getFullYear() === new Date().getFullYear() ? 'd MMMM' : 'd MMMM yyyy')}</time>
+            <time dateTime={run.plan.plannedDate}>{formatDay(date)}</time>
             {' · '}
             <span className="num">
               {units.format('volume', run.currentVolumeL)} of {units.format('volume', run.volumeL)}

@@ -1,4 +1,3 @@
-import { format } from 'date-fns';
 import { Cylinder, Filter, Wine } from 'lucide-react';
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
@@ -17,6 +16,7 @@ import { LotsToLookAt } from './lots-to-look-at';
 import { NextBottlingDays } from './next-bottling-days';
 import { RunsInProgress } from './runs-in-progress';
 import { StockCard } from './stock-card';
+import { formatDayLong, toDayInput } from '@/lib/dates';
 
 function Figure({ to, value, label, detail }: { to: string; value: number; label: string; detail?: ReactNode }) {
   return (
@@ -65,7 +65,7 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
   const me = useMe();
   const today = useToday();
   const wineryName = activeMembership(me.data)?.wineryName;
-  const date = format(new Date(), 'EEEE d MMMM');
+  const date = formatDayLong(new Date());
 
   return (
     <div className="flex flex-col gap-6">
@@ -75,7 +75,7 @@ export function TodayPage({ alerts }: { alerts?: ReactNode } = {}) {
           <>
             {wineryName ? <span className="font-semibold text-ink-800">{wineryName}</span> : null}
             {wineryName ? ' · ' : null}
-            <time dateTime={format(new Date(), 'yyyy-MM-dd')}>{date}</time>
+            <time dateTime={toDayInput()}>{date}</time>
           </>
         }
       />
