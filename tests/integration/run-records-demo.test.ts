@@ -48,4 +48,32 @@ describe('demo runs', () => {
     const runEvents = (cart.events as { kind: string; details: { litres: number } }[]).filter((e) => e.kind === 'run');
     expect(cart.litresFiltered).toBeCloseTo(runEvents.reduce((sum, e) => sum + e.details.litres, 0), 6);
   });
+
+  it('the draft plan of the demo matches the installed cartridges: it is approved (with a reason for its cautions) and started', async () => {
+    const master = new Client(app.baseUrl);
+    expect((await master.post('/api/auth/sign-in', { email: 'cellar@quillwater.test', password: DEMO_PASSWORD })).status).toBe(200);
+    const plans = (await master.get('/api/plans')).body.items as { id: string; status: string; name: string }[];
+    const draft = plans.find((p) => p.status === 'draft' && p.name === 'Whites bottling, week ahead')!;
+    expect(draft).toBeTruthy();
+    let approved = await master.post(`/api/plans/${draft.id}/approve`);
+    if (approved.status === 409 && approved.body.error.code === 'plan_needs_reason') {
+      approved = await master.post(`/api/plans/${draft.id}/approve`, { reason: 'Demo: the borderline Chardonnay is re-tested on the morning.' });
+    }
+    expect(approved.status, JSON.stringify(approved.body)).toBe(200);
+    expect(approved.body.status).toBe('approved');
+    const options = (await master.get('/api/runs/start-options')).body.items as { planLotId: string; planId: string }[];
+    const mine = options.filter((o) => o.planId === draft.id);
+    expect(mine.length).toBe(2);
+    // every chosen train passes the start checks with nothing to override
+    for (const o of mine) {
+      const check = await master.get(`/api/runs/start-check?planLotId=${o.planLotId}`);
+      expect(check.status).toBe(200);
+      expect(check.body.reasons).toEqual([]);
+    }
+    const started = await master.post('/api/runs', { planLotId: mine[0].planLotId });
+    expect(started.status).toBe(201);
+    expect(started.body.status).toBe('running');
+    expect(started.body.override).toBeNull();
+    for (const s of started.body.stages as { cartridges: unknown[] }[]) expect(s.cartridges.length).toBeGreaterThan(0);
+  });
 });
