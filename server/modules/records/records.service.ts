@@ -112,7 +112,7 @@ function integrityOf(p: {
 function atStart(c: StageCartridgeRow, history: RecordEventRow[], startedAt: Date) {
   const since = history.filter((e) => e.cartridgeId === c.cartridgeId && e.at.getTime() >= startedAt.getTime());
   const count = (kind: string) => since.filter((e) => e.kind === 'cycle' && e.details.kind === kind).length;
-  const litresSince = since.filter((e) => e.kind === 'run').reduce((sum, e) => sum + (typeof e.details.litres === 'number' ? e.details.litres : 0), 0);
+  const litresSince = since.filter((e) => e.kind === 'run' || e.kind === 'run-correction').reduce((sum, e) => sum + (typeof e.details.litres === 'number' ? e.details.litres : 0), 0);
   return {
     litresAtStart: c.snapshotLitresAtStart ?? Math.max(0, c.litresNow - litresSince),
     cyclesAtStart: {

@@ -38,6 +38,7 @@ import { effectiveReadings, presentChange, presentReading, presentRunSummary, pr
 import { createRunsRepository, type NewReading, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
+import { reallocateClosedRun } from './runs.reallocate';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
 const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
@@ -521,6 +522,7 @@ export function createRunsService(db: Database) {
           createdByName: t.userName ?? null,
         });
         await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
+        await reallocateClosedRun(tx, t, run, { readingId, kind: 'correct', reason: input.reason });
       });
       return detail(t.wineryId, runId);
     },
@@ -535,6 +537,7 @@ export function createRunsService(db: Database) {
         if (!reading) throw notFound('Reading');
         await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
         await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
+        await reallocateClosedRun(tx, t, run, { readingId, kind: 'void', reason: input.reason });
       });
       return detail(t.wineryId, runId);
     },
