@@ -1,4 +1,5 @@
 import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import type { RunReadinessAtStart } from '../../../shared/types/records';
 import { usersTable } from './auth';
 import { double, tenantColumns } from './columns';
 import { cartridgesTable } from './cartridges';
@@ -33,6 +34,8 @@ export const runsTable = pgTable(
     overrideByName: text('override_by_name'),
     /** The overridden checks, as `{ stageIndex, code, message }`. */
     overriddenChecks: jsonb('overridden_checks').$type<{ stageIndex: number; code: string; message: string }[]>(),
+    /** The lot's readiness as judged when the run started (verdict, reasons, thresholds, analyses); null for runs started before it was kept. */
+    readinessAtStart: jsonb('readiness_at_start').$type<RunReadinessAtStart>(),
   },
   (t) => [index('runs_winery_started_idx').on(t.wineryId, t.startedAt), index('runs_plan_lot_idx').on(t.planLotId, t.status)],
 );

@@ -39,6 +39,7 @@ import { createRunsRepository, type NewReading, type RunsRepository, type RunSta
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 import { reallocateClosedRun } from './runs.reallocate';
+import { readinessAtStart } from '../records/readiness-at-start';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
 const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
@@ -324,8 +325,12 @@ export function createRunsService(db: Database) {
           if (!(OVERRIDE_ROLES as readonly string[]).includes(t.role)) throw forbidden('Only a cellar master or the owner may start a run despite the start checks.');
         }
         const overridden = reasons.length > 0 && input.override;
+        const startedAt = new Date();
         const run = await r.insertRun({
           wineryId: t.wineryId,
+          startedAt,
+          // the lot's readiness as judged now, kept so a later threshold change never rewrites the record
+          readinessAtStart: await readinessAtStart(tx, t.wineryId, ctx.lot, startedAt),
           planId: ctx.plan.id,
           planLotId: input.planLotId,
           startedBy: t.userId,
