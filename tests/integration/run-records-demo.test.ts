@@ -1,16 +1,21 @@
 // @vitest-environment node
 // The demo data's runs are full records: cartridges per stage, a mid-run change, a correction.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runMigrations } from '../../server/db/migrate';
 import { DEMO_PASSWORD, seedDemo } from '../../server/db/seed';
+import { databaseUrl, ensureDatabase } from '../../scripts/lib/postgres';
 import { Client, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
 
 beforeAll(async () => {
-  app = await startTestApp();
+  // A database of its own, made afresh: the demo has fixed ids, and this file starts a run on it.
+  ensureDatabase('porewise_demo_test', { fresh: true });
+  await runMigrations(databaseUrl('porewise_demo_test'));
+  app = await startTestApp({ databaseUrl: databaseUrl('porewise_demo_test') });
   await seedDemo(app.db);
   await seedDemo(app.db); // idempotent
-});
+}, 180_000);
 afterAll(async () => {
   await app?.close();
 });
