@@ -26,8 +26,13 @@ describe('demo runs', () => {
   it('two closed runs with full records: one with a prefilter change, one with a corrected reading', async () => {
     const auditor = new Client(app.baseUrl);
     expect((await auditor.post('/api/auth/sign-in', { email: 'auditor@quillwater.test', password: DEMO_PASSWORD })).status).toBe(200);
-    const runs = (await auditor.get('/api/runs')).body.items as { id: string; status: string; lotCode: string }[];
+    const runs = (await auditor.get('/api/runs')).body.items as { id: string; status: string; lotCode: string; lotId: string }[];
     expect(runs.map((r) => r.lotCode).sort()).toEqual(['QW-23-PN04', 'QW-24-RS03']);
+    // their records read the readiness kept at the start, as a run started in the app does
+    for (const r of runs) {
+      const record = (await auditor.get(`/api/records/lots/${r.lotId}`)).body as { runs: { readiness: { source: string; note: string | null } }[] };
+      expect(record.runs[0].readiness).toMatchObject({ source: 'frozen-at-start', note: null });
+    }
     expect(runs.every((r) => r.status === 'closed')).toBe(true);
     const details = await Promise.all(runs.map(async (r) => (await auditor.get(`/api/runs/${r.id}`)).body));
     const changed = details.find((d) => d.changes.length > 0);
