@@ -6,7 +6,7 @@ export const CARTRIDGE_LENGTHS_IN = [10, 20, 30, 40] as const;
 export type CartridgeLengthIn = (typeof CARTRIDGE_LENGTHS_IN)[number];
 export const cartridgeStatusValues = ['in-stock', 'installed', 'regenerating', 'retired'] as const;
 export type CartridgeStatus = (typeof cartridgeStatusValues)[number];
-export const cartridgeEventKindValues = ['registered', 'installed', 'removed', 'retired', 'run', 'cycle', 'integrity', 'note'] as const;
+export const cartridgeEventKindValues = ['registered', 'installed', 'removed', 'retired', 'run', 'cycle', 'integrity', 'note', 'run-correction'] as const;
 export type CartridgeEventKind = (typeof cartridgeEventKindValues)[number];
 
 export const SERIAL_MAX = 60;

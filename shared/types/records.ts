@@ -14,7 +14,40 @@ export type RecordAnalysesDto = {
   vmaxLPerM2: number | null;
 };
 
-export type RecordReadinessDto = { verdict: ReadinessVerdict; reasons: string[] };
+/** The readiness thresholds a verdict was judged against, for the lot's style (as the lot page shows them). */
+export type RecordReadinessThresholdsDto = {
+  /** The engine's defaults (true) or the winery's own. */
+  isDefault: boolean;
+  turbidity: { limitNtu: number; borderlineMarginNtu: number; source: string };
+  cloggingIndex: { readyMaxS: number; borderlineMaxS: number; source: string };
+  cloggingIndexValidity: { validBelowNtu: number; source: string };
+  vmax: { readyMinSafetyFactor: number; borderlineMinSafetyFactor: number; source: string };
+};
+
+/**
+ * Readiness of the lot when the run started. 'frozen-at-start': the verdict, reasons,
+ * thresholds and analyses kept on the run when it started (later changes to the thresholds or
+ * lab results do not touch them). 'current-thresholds': a run started before readiness was kept
+ * with the run, judged now with the winery's current thresholds (`note` says so).
+ */
+export type RecordReadinessDto = {
+  verdict: ReadinessVerdict;
+  reasons: string[];
+  source: 'frozen-at-start' | 'current-thresholds';
+  thresholds: RecordReadinessThresholdsDto;
+  /** Words for the reader when the verdict was not kept at the start (null when it was). */
+  note: string | null;
+};
+
+/** What a run keeps of the lot's readiness when it starts (stored on the run, never changed). */
+export type RunReadinessAtStart = {
+  verdict: ReadinessVerdict;
+  reasons: string[];
+  thresholds: RecordReadinessThresholdsDto;
+  /** The lab result judged (the latest sampled at or before the start), as it was then. */
+  analyses: RecordAnalysesDto | null;
+  labResultId: string | null;
+};
 
 /** One stage of the chosen train as sized when the plan was approved. */
 export type RecordSizedStageDto = {

@@ -255,6 +255,112 @@ describe('changes during a run and closing', () => {
   });
 });
 
+describe('a correction after the run closed re-allocates the litres', () => {
+  type Ev = { id: string; kind: string; at: string; actorName: string | null; details: Record<string, unknown> };
+  const cartridge = async (id: string) => (await owner.get(`/api/cartridges/${id}`)).body as { litresFiltered: number; events: Ev[] };
+
+  it('correcting the last reading down: each cartridge carries the new figure, as a correction event beside the original run event, in the change log', async () => {
+    const w = await createPlanWorld(owner);
+    const { prefilters, membranes } = await fillTrainHousings(owner, w);
+    const fresh: string[] = [];
+    for (let i = 0; i < 3; i += 1) {
+      const reg = await owner.post('/api/cartridges', { serial: `RA${randomUUID().slice(0, 8).toUpperCase()}`, batch: 'B-RA', typeId: w.prefilterTypeId, lengthIn: 30 });
+      expect(reg.status).toBe(201);
+      fresh.push(reg.body.id);
+    }
+    const { planLotId } = await plannedLot(w);
+    const tech = members.technician;
+    const run = (await tech.post('/api/runs', { planLotId })).body;
+    expect((await tech.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 1000, upstreamBar: 2.3 }))).status).toBe(201);
+    // the prefilters are changed at 1,000 L
+    const change = await tech.post(`/api/runs/${run.id}/changes`, { stageIndex: 0, atVolumeL: 1000, removedCartridgeIds: prefilters.map((p) => p.id), installedCartridgeIds: fresh, kind: 'change' });
+    expect(change.status).toBe(201);
+    expect((await tech.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 2000, upstreamBar: 2.4 }))).status).toBe(201);
+    const last = await tech.post(`/api/runs/${run.id}/readings`, reading({ stageIndex: 1, volumeL: 2600, upstreamBar: 2.0, downstreamBar: 1.8 }));
+    expect(last.status).toBe(201);
+    expect((await tech.post(`/api/runs/${run.id}/close`, {})).status).toBe(200);
+    for (const m of membranes) expect((await cartridge(m.id)).litresFiltered).toBe(2600);
+    for (const id of fresh) expect((await cartridge(id)).litresFiltered).toBe(1600);
+    for (const p of prefilters) expect((await cartridge(p.id)).litresFiltered).toBe(1000);
+
+    // 2,600 was typed for 2,300
+    const corrected = await members['cellar-master'].post(`/api/runs/${run.id}/readings/${last.body.id}/correct`, {
+      volumeL: 2300,
+      upstreamBar: 2.0,
+      downstreamBar: 1.8,
+      reason: 'Meter read 2,300 L; 2,600 was a typing slip.',
+    });
+    expect(corrected.status).toBe(201);
+    for (const m of membranes) expect((await cartridge(m.id)).litresFiltered).toBe(2300);
+    for (const id of fresh) expect((await cartridge(id)).litresFiltered).toBe(1300);
+    // the prefilters taken out at 1,000 L are not touched: no correction event for them
+    for (const p of prefilters) {
+      const c = await cartridge(p.id);
+      expect(c.litresFiltered).toBe(1000);
+      expect(c.events.filter((e) => e.kind === 'run-correction')).toHaveLength(0);
+    }
+    // the stints of the run carry the corrected litres
+    const stints = [...corrected.body.stages[0].cartridges, ...corrected.body.stages[1].cartridges] as { cartridgeId: string; litresCarried: number }[];
+    expect(stints.find((s) => s.cartridgeId === membranes[0].id)!.litresCarried).toBe(2300);
+    expect(stints.find((s) => s.cartridgeId === fresh[0])!.litresCarried).toBe(1300);
+    expect(stints.find((s) => s.cartridgeId === prefilters[0].id)!.litresCarried).toBe(1000);
+
+    // the original run event is still there, unchanged; the correction is an event of its own, with who and why
+    const mem = await cartridge(membranes[0].id);
+    const runEvents = mem.events.filter((e) => e.kind === 'run' && e.details.runId === run.id);
+    expect(runEvents).toHaveLength(1);
+    expect(runEvents[0].details.litres).toBe(2600);
+    const fixes = mem.events.filter((e) => e.kind === 'run-correction');
+    expect(fixes).toHaveLength(1);
+    expect(fixes[0].details).toMatchObject({ runId: run.id, litres: -300, litresBefore: 2600, litresAfter: 2300, correction: 'correct', readingId: last.body.id, reason: 'Meter read 2,300 L; 2,600 was a typing slip.' });
+    expect(fixes[0].actorName).toBeTruthy();
+
+    // the change log names the cartridge, the action and the litres from → to
+    const log = (await owner.get(`/api/audit?kind=cartridge&recordId=${membranes[0].id}&action=correct`)).body.items as { userName: string; changes: Record<string, { before: unknown; after: unknown }> | null }[];
+    expect(log).toHaveLength(1);
+    expect(log[0].userName).toBeTruthy();
+    expect(log[0].changes?.litresFiltered).toMatchObject({ before: 2600, after: 2300 });
+
+    // a void of that reading: the end of the run falls back to the highest counted reading (2,000 L)
+    const voided = await owner.post(`/api/runs/${run.id}/readings/${last.body.id}/void`, { reason: 'That reading was of the next lot.' });
+    expect(voided.status).toBe(201);
+    for (const m of membranes) expect((await cartridge(m.id)).litresFiltered).toBe(2000);
+    for (const id of fresh) expect((await cartridge(id)).litresFiltered).toBe(1000);
+    const after = await cartridge(membranes[0].id);
+    expect(after.events.filter((e) => e.kind === 'run')).toHaveLength(1);
+    expect(after.events.filter((e) => e.kind === 'run-correction').map((e) => e.details.litres).sort()).toEqual([-300, -300]);
+    // the events of the run add up to what the cartridge carried
+    const sum = after.events.filter((e) => e.details.runId === run.id && (e.kind === 'run' || e.kind === 'run-correction')).reduce((t, e) => t + Number(e.details.litres), 0);
+    expect(sum).toBe(2000);
+
+    // a correction that changes no litres writes no correction event
+    const still = await owner.post(`/api/runs/${run.id}/readings/${last.body.id}/void`, { reason: 'Voided again, to be sure.' });
+    expect(still.status).toBe(201);
+    expect((await cartridge(membranes[0].id)).events.filter((e) => e.kind === 'run-correction')).toHaveLength(2);
+
+    // the filtration record shows the corrected litres per cartridge
+    const record = (await owner.get(`/api/records/lots/${w.lotId}`)).body;
+    const rr = record.runs.find((x: { id: string }) => x.id === run.id);
+    expect(rr.volumeFilteredL).toBe(2000);
+    const recMem = rr.stages[1].cartridges.find((c: { cartridgeId: string }) => c.cartridgeId === membranes[0].id);
+    expect(recMem.litresCarried).toBe(2000);
+  });
+
+  it('a correction while the run is open credits nothing until close', async () => {
+    const w = await createPlanWorld(owner);
+    const { membranes } = await fillTrainHousings(owner, w);
+    const { planLotId } = await plannedLot(w);
+    const run = (await members.technician.post('/api/runs', { planLotId })).body;
+    const r1 = await members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 900 }));
+    expect((await members.technician.post(`/api/runs/${run.id}/readings/${r1.body.id}/correct`, { volumeL: 800, upstreamBar: 2.2, downstreamBar: 2.0, reason: 'Typo.' })).status).toBe(201);
+    expect((await cartridge(membranes[0].id)).litresFiltered).toBe(0);
+    expect((await members.technician.post(`/api/runs/${run.id}/close`, {})).status).toBe(200);
+    const c = await cartridge(membranes[0].id);
+    expect(c.litresFiltered).toBe(800);
+    expect(c.events.filter((e) => e.kind === 'run-correction')).toHaveLength(0);
+  });
+});
+
 describe('records never vanish', () => {
   it('a lot, plan, cartridge, housing or type in a run cannot be deleted (409 in_record, nothing deleted); archive hides it from lists only', async () => {
     const w = await createPlanWorld(owner);

@@ -44,7 +44,7 @@ export const cartridgesTable = pgTable(
   ],
 );
 
-export const cartridgeEventKinds = ['registered', 'installed', 'removed', 'retired', 'run', 'cycle', 'integrity', 'note'] as const;
+export const cartridgeEventKinds = ['registered', 'installed', 'removed', 'retired', 'run', 'cycle', 'integrity', 'note', 'run-correction'] as const;
 
 /** Every move and every piece of care, with who and when. */
 export const cartridgeEventsTable = pgTable(

@@ -1,4 +1,5 @@
 import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import type { RunReadinessAtStart } from '../../../shared/types/records';
 import { usersTable } from './auth';
 import { double, tenantColumns } from './columns';
 import { cartridgesTable } from './cartridges';
@@ -37,6 +38,8 @@ export const runsTable = pgTable(
     readingCount: integer('reading_count').notNull().default(0),
     /** Litres through the train: the highest counted reading's (corrected) volume, 0 before any; kept like readingCount. */
     currentVolumeL: double('current_volume_l').notNull().default(0),
+    /** The lot's readiness as judged when the run started (verdict, reasons, thresholds, analyses); null for runs started before it was kept. */
+    readinessAtStart: jsonb('readiness_at_start').$type<RunReadinessAtStart>(),
   },
   (t) => [index('runs_winery_started_idx').on(t.wineryId, t.startedAt), index('runs_plan_lot_idx').on(t.planLotId, t.status)],
 );

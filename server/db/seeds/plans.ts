@@ -1,9 +1,11 @@
 // Demo data for Quillwater Estate's plans: one draft bottling day next week on the winery's
 // line, with a ready white and a borderline one, each with a prefilter + membrane train, and a
-// second train option to compare for the borderline lot. Invented figures; demo data.
+// second train option to compare for the borderline lot. The chosen trains use the types that
+// are installed in the housings, so the plan can be approved and started as it is.
+// Invented figures; demo data.
 import { and, asc, count, eq, inArray } from 'drizzle-orm';
 import type { DbOrTx } from '../client';
-import { cartridgeTypesTable, housingsTable, linesTable, lotsTable, planLotsTable, plansTable, planTrainsTable } from '../schema';
+import { cartridgesTable, cartridgeTypesTable, housingsTable, linesTable, lotsTable, planLotsTable, plansTable, planTrainsTable } from '../schema';
 
 import { seedHosePresets } from './hose-presets';
 
@@ -25,13 +27,23 @@ export async function seedPlans(tx: DbOrTx, ctx: { wineryId: string; actorId: st
   const borderline = lots.find((l) => l.code === 'QW-24-CH02');
   const type = (name: string) => types.find((t) => t.name === name);
   const housing = (name: string) => housings.find((h) => h.name === name);
-  const pp1 = type('Depth PP 1 µm');
   const gf = type('Glass fibre 0.8 µm');
-  const pes065 = type('PES membrane 0.65 µm');
   const pes045 = type('PES membrane 0.45 µm');
   const pre = housing('Prefilter housing A');
   const mem = housing('Membrane housing B');
-  if (!line || !ready || !borderline || !pp1 || !gf || !pes065 || !pes045 || !pre || !mem) return;
+  if (!line || !ready || !borderline || !gf || !pes045 || !pre || !mem) return;
+  // The type installed in a housing (the cartridge seed fills each housing with one type), so
+  // the chosen trains match what is physically there; the planned one when the housing is empty.
+  const installed = await tx
+    .select({ housingId: cartridgesTable.housingId, typeId: cartridgesTable.typeId })
+    .from(cartridgesTable)
+    .where(and(eq(cartridgesTable.wineryId, ctx.wineryId), eq(cartridgesTable.status, 'installed'), inArray(cartridgesTable.housingId, [pre.id, mem.id])));
+  const installedType = (housingId: string, fallback: string) => {
+    const ids = [...new Set(installed.filter((c) => c.housingId === housingId).map((c) => c.typeId))];
+    return ids.length === 1 ? ids[0] : fallback;
+  };
+  const preType = installedType(pre.id, gf.id);
+  const memType = installedType(mem.id, pes045.id);
 
   // Next week, same weekday.
   const plannedDate = new Date(now.getTime() + 7 * DAY_MS).toISOString().slice(0, 10);
@@ -66,8 +78,8 @@ export async function seedPlans(tx: DbOrTx, ctx: { wineryId: string; actorId: st
         planLotId: readyLot.id,
         name: 'Option A',
         stages: [
-          { name: 'Prefilter', cartridgeTypeId: pp1.id, housingId: pre.id, housingCount: 1, capacityLPerM2: 4000 },
-          { name: 'Membrane', cartridgeTypeId: pes065.id, housingId: mem.id, housingCount: 1, capacityLPerM2: 3000 },
+          { name: 'Prefilter', cartridgeTypeId: preType, housingId: pre.id, housingCount: 1, capacityLPerM2: 4000 },
+          { name: 'Membrane', cartridgeTypeId: memType, housingId: mem.id, housingCount: 1, capacityLPerM2: 3000 },
         ],
       },
       {
@@ -75,8 +87,8 @@ export async function seedPlans(tx: DbOrTx, ctx: { wineryId: string; actorId: st
         planLotId: borderlineLot.id,
         name: 'Option A',
         stages: [
-          { name: 'Prefilter', cartridgeTypeId: pp1.id, housingId: pre.id, housingCount: 1, capacityLPerM2: 600 },
-          { name: 'Membrane', cartridgeTypeId: pes045.id, housingId: mem.id, housingCount: 1, capacityLPerM2: 1200 },
+          { name: 'Prefilter', cartridgeTypeId: preType, housingId: pre.id, housingCount: 1, capacityLPerM2: 600 },
+          { name: 'Membrane', cartridgeTypeId: memType, housingId: mem.id, housingCount: 1, capacityLPerM2: 1200 },
         ],
       },
       {
@@ -84,8 +96,8 @@ export async function seedPlans(tx: DbOrTx, ctx: { wineryId: string; actorId: st
         planLotId: borderlineLot.id,
         name: 'Option B',
         stages: [
-          { name: 'Prefilter', cartridgeTypeId: gf.id, housingId: pre.id, housingCount: 1, capacityLPerM2: 2500 },
-          { name: 'Membrane', cartridgeTypeId: pes045.id, housingId: mem.id, housingCount: 2, capacityLPerM2: 2000 },
+          { name: 'Prefilter', cartridgeTypeId: preType, housingId: pre.id, housingCount: 1, capacityLPerM2: 2500 },
+          { name: 'Membrane', cartridgeTypeId: memType, housingId: mem.id, housingCount: 2, capacityLPerM2: 2000 },
         ],
       },
     ])

@@ -22,6 +22,7 @@ import {
   runStageCartridgesTable,
   usersTable,
 } from '../schema';
+import { readinessAtStart } from '../../modules/records/readiness-at-start';
 
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
@@ -119,6 +120,8 @@ export async function seedRuns(tx: DbOrTx, ctx: { wineryId: string; actorId: str
         status: 'closed',
         startedAt: at(r.startH),
         closedAt: at(r.endH),
+        // the lot's readiness as a run keeps it at its start
+        readinessAtStart: await readinessAtStart(tx, w, r.lot, at(r.startH)),
         startedBy: tech.id,
         startedByName: tech.name,
         closedBy: tech.id,

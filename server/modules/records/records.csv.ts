@@ -18,11 +18,15 @@ export function recordCsv(r: FilterRecordDto): string {
   ]);
   section(
     'run',
-    ['run_id', 'status', 'started_at', 'started_by', 'closed_at', 'closed_by', 'volume_filtered_l', 'bottles', 'bottle_ml', 'plan', 'planned_date', 'train', 'line', 'approved_at', 'approved_by', 'override_reason', 'override_by', 'readiness', 'readiness_reasons', 'sampled_at', 'turbidity_ntu', 'clogging_index_s', 'vmax_l_per_m2', 'closing_notes'],
+    ['run_id', 'status', 'started_at', 'started_by', 'closed_at', 'closed_by', 'volume_filtered_l', 'bottles', 'bottle_ml', 'plan', 'planned_date', 'train', 'line', 'approved_at', 'approved_by', 'override_reason', 'override_by', 'readiness', 'readiness_reasons', 'sampled_at', 'turbidity_ntu', 'clogging_index_s', 'vmax_l_per_m2', 'closing_notes', 'readiness_source', 'readiness_thresholds_default', 'readiness_turbidity_limit_ntu', 'readiness_turbidity_borderline_margin_ntu', 'readiness_ci_ready_max_s', 'readiness_ci_borderline_max_s', 'readiness_ci_valid_below_ntu', 'readiness_vmax_ready_min_factor', 'readiness_vmax_borderline_min_factor', 'readiness_note'],
     r.runs.map((x) => [
       x.id, x.status, x.startedAt, x.startedByName, x.closedAt, x.closedByName, x.volumeFilteredL, x.bottles, x.plan.bottleMl, x.plan.name, x.plan.plannedDate, x.plan.trainName, x.plan.lineName,
       x.plan.approvedAt, x.plan.approvedByName, x.overrideReason, x.overrideByName, x.readiness.verdict, x.readiness.reasons.join(' '), x.analyses?.sampledAt ?? null, x.analyses?.turbidityNtu ?? null,
       x.analyses?.cloggingIndex ?? null, x.analyses?.vmaxLPerM2 ?? null, x.notes,
+      // the readiness thresholds the verdict was judged against (kept at the start, or the current ones with a note)
+      x.readiness.source, x.readiness.thresholds.isDefault, x.readiness.thresholds.turbidity.limitNtu, x.readiness.thresholds.turbidity.borderlineMarginNtu,
+      x.readiness.thresholds.cloggingIndex.readyMaxS, x.readiness.thresholds.cloggingIndex.borderlineMaxS, x.readiness.thresholds.cloggingIndexValidity.validBelowNtu,
+      x.readiness.thresholds.vmax.readyMinSafetyFactor, x.readiness.thresholds.vmax.borderlineMinSafetyFactor, x.readiness.note,
     ]),
   );
   section(

@@ -4,7 +4,7 @@ import PDFDocument from 'pdfkit';
 import { formatNumber } from '../../../shared/engine';
 import { integrityTestLabels, cycleKindLabels } from '../../../shared/schemas/care';
 import type { RecordPaper } from '../../../shared/schemas/records';
-import type { FilterRecordDto, RecordIntegrityTestDto, RecordRunDto, RecordStageDto } from '../../../shared/types/records';
+import type { FilterRecordDto, RecordIntegrityTestDto, RecordReadinessDto, RecordRunDto, RecordStageDto } from '../../../shared/types/records';
 
 const require = createRequire(import.meta.url);
 const fontDir = join(dirname(require.resolve('@fontsource/source-sans-3/package.json')), 'files');
@@ -31,6 +31,18 @@ const when = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11,
 /** Date and time in a table cell; the column says UTC. */
 const stamp = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)}` : '—');
 const lawNames: Record<string, string> = { complete: 'complete blocking', standard: 'standard blocking', intermediate: 'intermediate blocking', cake: 'cake filtration' };
+
+/** The readiness thresholds a verdict was judged against, in one line, and where they come from. */
+function readinessThresholdsLine(r: RecordReadinessDto): string {
+  const t = r.thresholds;
+  const whose = t.isDefault ? 'Porewise defaults' : 'the winery’s own thresholds';
+  const when = r.source === 'frozen-at-start' ? 'as in force when the run started' : 'as they are now';
+  return (
+    `${whose}, ${when}: turbidity ready up to ${fmt(t.turbidity.limitNtu, 1, 'NTU')}, borderline up to ${fmt(t.turbidity.limitNtu + t.turbidity.borderlineMarginNtu, 1, 'NTU')}; ` +
+    `clogging index ready up to ${fmt(t.cloggingIndex.readyMaxS, 0, 's')}, borderline up to ${fmt(t.cloggingIndex.borderlineMaxS, 0, 's')} (valid below ${fmt(t.cloggingIndexValidity.validBelowNtu, 0, 'NTU')}); ` +
+    `Vmax safety factor ready from ${fmt(t.vmax.readyMinSafetyFactor, 1)}, borderline from ${fmt(t.vmax.borderlineMinSafetyFactor, 1)}.`
+  );
+}
 
 type Column = { label: string; width: number; align?: 'left' | 'right' };
 type Doc = PDFKit.PDFDocument;
@@ -303,6 +315,8 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
       field('Vmax', fmt(run.analyses.vmaxLPerM2, 0, 'L/m²'));
     } else text('No lab result was sampled before the run started.', { color: BAD });
     field('Readiness at start', `${run.readiness.verdict}${run.readiness.reasons.length ? `: ${run.readiness.reasons.join(' ')}` : ''}`);
+    field('Judged against', readinessThresholdsLine(run.readiness));
+    if (run.readiness.note) text(run.readiness.note, { color: BAD, size: 8.5 });
     heading('Plan and approval', 11);
     field('Plan', `${run.plan.name} (${run.plan.plannedDate})`);
     field('Train', run.plan.trainName || '—');

@@ -270,10 +270,14 @@ export function createRecordsRepository(db: DbOrTx) {
           .from(cartridgeEventsTable)
           .innerJoin(cartridgesTable, eq(cartridgesTable.id, cartridgeEventsTable.cartridgeId))
           .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-          .where(and(eq(cartridgeEventsTable.wineryId, wineryId), eq(cartridgeEventsTable.kind, 'run'), sql`${runIdOfEvent} = ${run.id}`));
+          .where(and(eq(cartridgeEventsTable.wineryId, wineryId), inArray(cartridgeEventsTable.kind, ['run', 'run-correction']), sql`${runIdOfEvent} = ${run.id}`))
+          .orderBy(asc(cartridgeEventsTable.at));
         for (const { housingId, details, ...row } of credited) {
           const litres = typeof details.litres === 'number' && Number.isFinite(details.litres) ? details.litres : 0;
-          add(row, housingId, litres);
+          // A correction after close adds its difference to what the close credited.
+          const seen = out.get(row.cartridgeId);
+          if (seen) seen.litresCarried = (seen.litresCarried ?? 0) + litres;
+          else add(row, housingId, litres);
         }
       } else {
         const installed = await db
@@ -378,7 +382,7 @@ export function createRecordsRepository(db: DbOrTx) {
           and(
             eq(cartridgeEventsTable.wineryId, wineryId),
             inArray(cartridgeEventsTable.cartridgeId, cartridgeIds),
-            inArray(cartridgeEventsTable.kind, ['cycle', 'integrity', 'run']),
+            inArray(cartridgeEventsTable.kind, ['cycle', 'integrity', 'run', 'run-correction']),
           ),
         )
         .orderBy(asc(cartridgeEventsTable.at), asc(cartridgeEventsTable.id));

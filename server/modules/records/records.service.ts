@@ -14,15 +14,20 @@ import type {
   RecordStageDto,
   VerifyRecordDto,
 } from '../../../shared/types/records';
+import type { WinerySettingsDto } from '../../../shared/types/api';
 import type { Database } from '../../db/client';
 import { sha256OfCanonical } from '../../lib/canonical-json';
 import { notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
-import { analyseLabResult, readinessOf } from '../cellar/lab-analysis';
 import { planCatalogue } from '../plans/plans.service';
-import { readinessThresholdsFor } from '../winery-settings/winery-settings.service';
+import { createWinerySettingsService } from '../winery-settings/winery-settings.service';
+import { judgeReadinessAt } from './readiness-at-start';
 import { presentCartridge, presentChange, presentIntegrityTest, presentLotListItem, presentReading, presentSanitation } from './records.presenter';
 import { createRecordsRepository, type RecordEventRow, type RecordRunRow, type StageCartridgeRow } from './records.repository';
+
+/** What the record says of a readiness verdict that was not kept when its run started. */
+export const READINESS_CURRENT_NOTE =
+  'Computed with the winery’s current readiness thresholds: this run started before Porewise kept the verdict with the run, so a later change of the thresholds changes this line.';
 
 /** Readings a stage needs before its ΔP curve is fitted (as on the run page). */
 export const RECORD_MIN_READINGS_FOR_FIT = 3;
@@ -111,7 +116,7 @@ function integrityOf(p: {
 function atStart(c: StageCartridgeRow, history: RecordEventRow[], startedAt: Date) {
   const since = history.filter((e) => e.cartridgeId === c.cartridgeId && e.at.getTime() >= startedAt.getTime());
   const count = (kind: string) => since.filter((e) => e.kind === 'cycle' && e.details.kind === kind).length;
-  const litresSince = since.filter((e) => e.kind === 'run').reduce((sum, e) => sum + (typeof e.details.litres === 'number' ? e.details.litres : 0), 0);
+  const litresSince = since.filter((e) => e.kind === 'run' || e.kind === 'run-correction').reduce((sum, e) => sum + (typeof e.details.litres === 'number' ? e.details.litres : 0), 0);
   return {
     litresAtStart: c.snapshotLitresAtStart ?? Math.max(0, c.litresNow - litresSince),
     cyclesAtStart: {
@@ -129,7 +134,8 @@ export function createRecordsService(db: Database) {
 
   async function runRecord(wineryId: string, lot: NonNullable<Awaited<ReturnType<typeof repo.lot>>>, row: RecordRunRow, ctx: {
     labs: Awaited<ReturnType<typeof repo.labResults>>;
-    thresholds: Awaited<ReturnType<typeof readinessThresholdsFor>>;
+    /** The winery's thresholds now, only for runs started before readiness was kept with the run. */
+    thresholds: Pick<WinerySettingsDto, 'readinessThresholds' | 'readinessThresholdsAreDefault'>;
     catalogue: { types: Awaited<ReturnType<typeof plansRepo.types>>; housings: Awaited<ReturnType<typeof plansRepo.housings>> };
   }): Promise<RecordRunDto> {
     const { run, plan, train, line, planLot } = row;
@@ -158,10 +164,12 @@ export function createRecordsService(db: Database) {
     const lastReadingAt = readings.reduce<Date | null>((m, r) => (m === null || Date.parse(r.at) > m.getTime() ? new Date(r.at) : m), null);
     const afterFrom = run.status === 'closed' ? (lastReadingAt ?? run.startedAt) : null;
 
-    // Analyses and readiness as they stood at the start.
-    const lab = [...ctx.labs].reverse().find((l) => l.sampledAt.getTime() <= run.startedAt.getTime()) ?? null;
-    const analysis = lab ? analyseLabResult(lab) : null;
-    const readiness = readinessOf(lot.style, lab && analysis ? { ...lab, analysis } : null, ctx.thresholds);
+    // Analyses and readiness as kept when the run started; runs from before that are judged
+    // now with the winery's current thresholds, and the record says so.
+    const frozenReadiness = run.readinessAtStart ?? null;
+    const readinessThen =
+      frozenReadiness ??
+      judgeReadinessAt({ style: lot.style, labs: ctx.labs, thresholds: ctx.thresholds.readinessThresholds, isDefault: ctx.thresholds.readinessThresholdsAreDefault, at: run.startedAt });
 
     // Sized figures of the chosen train (the train of an approved plan cannot change).
     let sizing: RecordSizingDto | null = null;
@@ -271,15 +279,14 @@ export function createRecordsService(db: Database) {
       closedByName: run.closedByName ?? row.closedByName,
       volumeFilteredL,
       bottles,
-      analyses: lab
-        ? {
-            sampledAt: iso(lab.sampledAt),
-            turbidityNtu: lab.turbidityNtu,
-            cloggingIndex: analysis?.cloggingIndex ?? null,
-            vmaxLPerM2: analysis?.disc?.computable ? analysis.disc.vmaxLPerM2 : null,
-          }
-        : null,
-      readiness: { verdict: readiness.verdict, reasons: readiness.reasons },
+      analyses: readinessThen.analyses,
+      readiness: {
+        verdict: readinessThen.verdict,
+        reasons: readinessThen.reasons,
+        source: frozenReadiness ? 'frozen-at-start' : 'current-thresholds',
+        thresholds: readinessThen.thresholds,
+        note: frozenReadiness ? null : READINESS_CURRENT_NOTE,
+      },
       plan: {
         id: plan.id,
         name: plan.name,
@@ -307,7 +314,7 @@ export function createRecordsService(db: Database) {
     if (runs.length === 0) throw notFound('Record of this lot (it has no run yet)');
     const [labs, thresholds, types, housings] = await Promise.all([
       repo.labResults(wineryId, lotId),
-      readinessThresholdsFor(db, wineryId),
+      createWinerySettingsService(db).get(wineryId),
       plansRepo.types(wineryId),
       plansRepo.housings(wineryId),
     ]);

@@ -564,6 +564,26 @@ export function createRunsRepository(db: DbOrTx) {
       if (values.length === 0) return;
       await db.insert(cartridgeEventsTable).values(values);
     },
+
+    /** Litres credited to each cartridge for a run: its 'run' event at close plus any 'run-correction' events since. */
+    async creditedLitres(wineryId: string, runId: string) {
+      const rows = await db
+        .select({
+          cartridgeId: cartridgeEventsTable.cartridgeId,
+          litres: sql<number>`coalesce(sum(coalesce((${cartridgeEventsTable.details}->>'litres')::double precision, 0)), 0)`.mapWith(Number),
+          housingId: sql<string | null>`(array_agg(${cartridgeEventsTable.housingId} order by ${cartridgeEventsTable.at}))[1]`,
+        })
+        .from(cartridgeEventsTable)
+        .where(
+          and(
+            eq(cartridgeEventsTable.wineryId, wineryId),
+            inArray(cartridgeEventsTable.kind, ['run', 'run-correction']),
+            sql`${cartridgeEventsTable.details}->>'runId' = ${runId}`,
+          ),
+        )
+        .groupBy(cartridgeEventsTable.cartridgeId);
+      return rows;
+    },
   };
 }
 

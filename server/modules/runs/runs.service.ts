@@ -38,6 +38,8 @@ import { effectiveReadings, presentChange, presentReading, presentRunSummary, pr
 import { createRunsRepository, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
+import { reallocateClosedRun } from './runs.reallocate';
+import { readinessAtStart } from '../records/readiness-at-start';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
 const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
@@ -380,8 +382,12 @@ export function createRunsService(db: Database) {
           if (!(OVERRIDE_ROLES as readonly string[]).includes(t.role)) throw forbidden('Only a cellar master or the owner may start a run despite the start checks.');
         }
         const overridden = reasons.length > 0 && input.override;
+        const startedAt = new Date();
         const run = await r.insertRun({
           wineryId: t.wineryId,
+          startedAt,
+          // the lot's readiness as judged now, kept so a later threshold change never rewrites the record
+          readinessAtStart: await readinessAtStart(tx, t.wineryId, ctx.lot, startedAt),
           planId: ctx.plan.id,
           planLotId: input.planLotId,
           startedBy: t.userId,
@@ -579,6 +585,7 @@ export function createRunsService(db: Database) {
         });
         await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
+        await reallocateClosedRun(tx, t, run, { readingId, kind: 'correct', reason: input.reason });
       });
       return detail(t.wineryId, runId);
     },
@@ -594,6 +601,7 @@ export function createRunsService(db: Database) {
         await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
         await r.recountRun(t.wineryId, runId);
         await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
+        await reallocateClosedRun(tx, t, run, { readingId, kind: 'void', reason: input.reason });
       });
       return detail(t.wineryId, runId);
     },

@@ -38,6 +38,26 @@ function describe(e: CartridgeEventDto): { icon: LucideIcon; title: ReactNode; b
           </>
         ),
       };
+    case 'run-correction': {
+      const before = n(d.litresBefore);
+      const after = n(d.litresAfter);
+      return {
+        icon: Wine,
+        title: (
+          <>
+            Litres of a run corrected{before !== null && after !== null ? ': ' : ''}
+            {before !== null && after !== null ? (
+              <>
+                <Measure kind="volume" value={before} /> → <Measure kind="volume" value={after} />
+              </>
+            ) : null}
+          </>
+        ),
+        body: [d.correction === 'void' ? 'A reading was voided after the run closed' : 'A reading was corrected after the run closed', typeof d.reason === 'string' && d.reason ? d.reason : null]
+          .filter(Boolean)
+          .join(': '),
+      };
+    }
     case 'cycle': {
       const c = cycleWords[String(d.kind)] ?? { word: 'Care cycle', icon: Droplets };
       const before = n(d.waterFlowBeforeLh);

@@ -208,6 +208,12 @@ function Run({ run, index, count }: { run: RecordRunDto; index: number; count: n
                       {r}
                     </span>
                   ))}
+                  <span className="text-xs text-ink-500" data-testid="readiness-thresholds">
+                    {run.readiness.source === 'frozen-at-start' ? 'Judged when the run started, against ' : 'Judged now, against '}
+                    {run.readiness.thresholds.isDefault ? 'Porewise’s default thresholds' : 'the winery’s own thresholds'}: turbidity ready up to{' '}
+                    {run.readiness.thresholds.turbidity.limitNtu} NTU, clogging index ready up to {run.readiness.thresholds.cloggingIndex.readyMaxS} s.
+                  </span>
+                  {run.readiness.note ? <span className="text-sm font-medium text-watch-800">{run.readiness.note}</span> : null}
                 </span>,
               ],
             ]}

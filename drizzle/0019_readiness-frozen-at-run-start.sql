@@ -1,0 +1,1 @@
+ALTER TABLE "runs" ADD COLUMN "readiness_at_start" jsonb;
