@@ -249,8 +249,8 @@ export type RecordLotDto = {
 
 /** What the fingerprint covers. */
 export type RecordContent = {
-  /** Version of the record's shape, so a fingerprint can be re-checked by the same rules. */
-  schemaVersion: 1;
+  /** Version of the record's shape, so a fingerprint can be re-checked by the same rules (2: readiness as judged at the run's start, with its thresholds). */
+  schemaVersion: 2;
   lot: RecordLotDto;
   runs: RecordRunDto[];
 };

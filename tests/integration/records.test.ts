@@ -59,7 +59,7 @@ describe('canonical JSON and the CSV neutraliser', () => {
 describe('the bottling filtration record', () => {
   it('holds the lot, analyses, plan, cartridges, sanitation, integrity before and after, readings, fit and notes', async () => {
     const r = await getRecord(members.auditor, bottled.lotId);
-    expect(r.schemaVersion).toBe(1);
+    expect(r.schemaVersion).toBe(2);
     expect(r.lot).toMatchObject({ id: bottled.lotId, code: bottled.lotCode, name: INJECTION, style: 'white', volumeL: 6000 });
     expect(r.runs).toHaveLength(1);
     const run = r.runs[0];

@@ -321,7 +321,7 @@ export function createRecordsService(db: Database) {
     const runDtos: RecordRunDto[] = [];
     for (const row of runs) runDtos.push(await runRecord(wineryId, lot, row, { labs, thresholds, catalogue: { types, housings } }));
     return {
-      schemaVersion: 1,
+      schemaVersion: 2,
       lot: { id: lot.id, code: lot.code, name: lot.name, style: lot.style, vintage: lot.vintage, volumeL: lot.volumeL },
       runs: runDtos,
     };
