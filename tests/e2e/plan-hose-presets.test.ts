@@ -100,7 +100,7 @@ describe('capacity source on the plan screen', () => {
       const membrane = option.getByRole('listitem', { name: 'Stage 2' }).getByTestId('stage-capacity-source');
       await expect.poll(() => membrane.textContent()).toBe('from past runs: 2 runs of whites, 1,000–1,200 L/m² (median 1,100 L/m²)');
       expect(await option.getByRole('listitem', { name: 'Stage 1' }).getByTestId('stage-capacity-source').textContent()).toMatch(/^from past runs: 2 runs of whites, 1,000–1,500 L\/m²/);
-      await option.getByRole('listitem', { name: 'Stage 2' }).getByTestId('stage-capacity').scrollIntoViewIfNeeded();
+      await option.getByRole('listitem', { name: 'Stage 2' }).scrollIntoViewIfNeeded();
       await screenshot(page, `plan-capacity-past-runs-${viewport.width > 500 ? 'desktop' : 'phone'}`);
       expect(errors).toEqual([]);
       await ctx.close();
