@@ -1,7 +1,7 @@
 // Demo data for Quillwater Estate's equipment: housings, one bottling line and a small
 // cartridge catalogue. The specifications are invented but plausible; they are demo data,
 // not any maker's published figures.
-import { count, eq } from 'drizzle-orm';
+import { and, count, eq, isNull } from 'drizzle-orm';
 import type { DbOrTx } from '../client';
 import { cartridgeTypesTable, housingsTable, linesTable } from '../schema';
 
@@ -72,6 +72,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 80,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 600,
+    nominalCapacityLPerM2: 3000,
     ratedSteamCycles: 20,
     ratedHotWaterCycles: 50,
     ratedChemicalCycles: 30,
@@ -94,6 +95,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 80,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 500,
+    nominalCapacityLPerM2: 2000,
     ratedSteamCycles: 20,
     ratedHotWaterCycles: 50,
     ratedChemicalCycles: 30,
@@ -116,6 +118,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 80,
     terminalDpBar: 1.2,
     designFluxLhPer10in: 400,
+    nominalCapacityLPerM2: 1500,
     ratedSteamCycles: 30,
     ratedHotWaterCycles: 30,
     ratedChemicalCycles: 10,
@@ -138,6 +141,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 140,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 500,
+    nominalCapacityLPerM2: 1200,
     ratedSteamCycles: 50,
     ratedHotWaterCycles: 100,
     ratedChemicalCycles: 30,
@@ -162,6 +166,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 140,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 400,
+    nominalCapacityLPerM2: 900,
     ratedSteamCycles: 50,
     ratedHotWaterCycles: 100,
     ratedChemicalCycles: 30,
@@ -191,4 +196,20 @@ export async function seedEquipment(tx: DbOrTx, ctx: { wineryId: string; actorId
     });
   }
   if (t === 0) await tx.insert(cartridgeTypesTable).values(cartridgeTypes.map((c) => ({ ...c, wineryId: ctx.wineryId })));
+  // Demo types seeded before the nominal capacity existed get theirs: only a demo row nobody has
+  // edited since it was seeded and that has no figure yet, so a winery's own entry is never touched.
+  for (const c of cartridgeTypes) {
+    if (!c.id || c.nominalCapacityLPerM2 === undefined || c.nominalCapacityLPerM2 === null) continue;
+    await tx
+      .update(cartridgeTypesTable)
+      .set({ nominalCapacityLPerM2: c.nominalCapacityLPerM2 })
+      .where(
+        and(
+          eq(cartridgeTypesTable.wineryId, ctx.wineryId),
+          eq(cartridgeTypesTable.id, c.id),
+          isNull(cartridgeTypesTable.nominalCapacityLPerM2),
+          eq(cartridgeTypesTable.updatedAt, cartridgeTypesTable.createdAt),
+        ),
+      );
+  }
 }
