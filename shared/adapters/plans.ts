@@ -31,6 +31,8 @@ export type SizingCatalogueType = {
   currency: string;
   /** Rated hot-water regeneration cycles of the type, or null when the maker gives none. */
   ratedHotWaterCycles?: number | null;
+  /** The type's nominal capacity to terminal ΔP for an average wine, L/m² (the last capacity source), or null when not given. */
+  nominalCapacityLPerM2?: number | null;
 };
 
 /** The fields of a housing the sizing reads. */
@@ -76,7 +78,7 @@ export type TrainSizingOutcome = { ok: true; input: TrainSizingInput; result: Tr
 /**
  * The engine's input for one train: wine from the lot (°C, % vol, g/L), flow from the line, one
  * engine stage per stored stage from the catalogue rows (a backwashable type counts as
- * regenerable during the lot), capacity per m² from the stage's figure or unknown.
+ * regenerable during the lot), capacity per m² from the stage's figure, else (in the engine) the lot's Vmax test, the winery's past runs, the type's nominal figure, or unknown.
  */
 export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input: TrainSizingInput } | { ok: false; error: string } {
   if (!src.line) return { ok: false, error: 'Choose a bottling line for the plan first.' };
@@ -115,6 +117,7 @@ export function buildTrainSizingInput(src: TrainSizingSource): { ok: true; input
         designFluxLhPer10in: t.designFluxLhPer10in,
         capacityLPerM2: s.capacityLPerM2 ?? undefined,
         ...(pastRuns ? { pastRuns } : {}),
+        ...(t.nominalCapacityLPerM2 ? { nominalCapacityLPerM2: t.nominalCapacityLPerM2 } : {}),
         regenerable,
         // A regenerable set serves its rated regeneration cycles + 1 loads over its life.
         serviceLifeLoads: regenerable && t.ratedHotWaterCycles ? t.ratedHotWaterCycles + 1 : undefined,

@@ -186,6 +186,11 @@ export interface SizingCartridgeType {
    * used when nothing is typed and no Vmax test gives one.
    */
   pastRuns?: PastRunsCapacity;
+  /**
+   * The type's nominal capacity to terminal ΔP, L/m²: the maker's or the winery's usual figure for an
+   * average wine. The last source, used when nothing is typed, no Vmax test applies and no past runs match.
+   */
+  nominalCapacityLPerM2?: number;
   /** Whether a blocked set can be regenerated during the lot (default false: it is changed). */
   regenerable?: boolean;
   /** Most regenerations one set may take within a lot before it is changed (default unlimited when regenerable). */
@@ -315,8 +320,8 @@ export interface StageSizing {
   capacityL: number | null;
   /** Capacity per m² used, L/m², or null when unknown. */
   capacityLPerM2: number | null;
-  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, the winery's past runs of similar wines, or unknown. */
-  capacitySource: 'stage' | 'vmax' | 'past-runs' | null;
+  /** Where the capacity came from: typed on the stage, the lot's Vmax disc test, the winery's past runs of similar wines, the type's nominal figure, or unknown. */
+  capacitySource: 'stage' | 'vmax' | 'past-runs' | 'nominal' | null;
   /** The past runs the capacity came from (runs, range), when capacitySource is 'past-runs'. */
   capacityPastRuns?: PastRunsCapacity;
   /** Hours of run to terminal ΔP for one set, or null when unknown. */
@@ -424,6 +429,7 @@ function validateCartridge(c: SizingCartridgeType, s: string): void {
   if (c.maxTempC !== undefined) requireFinite(`${s} cartridge maximum temperature (°C)`, c.maxTempC);
   if (c.capacityLPerM2 !== undefined) requirePositive(`${s} capacity to terminal ΔP (L/m²)`, c.capacityLPerM2);
   if (c.pastRuns !== undefined) requirePositive(`${s} capacity from past runs (L/m²)`, c.pastRuns.lPerM2);
+  if (c.nominalCapacityLPerM2 !== undefined) requirePositive(`${s} nominal capacity of the type (L/m²)`, c.nominalCapacityLPerM2);
   if (c.maxRegenerationsPerLot !== undefined) {
     requireNonNegative(`${s} maximum regenerations per lot`, c.maxRegenerationsPerLot);
     if (!Number.isInteger(c.maxRegenerationsPerLot)) {
@@ -773,7 +779,7 @@ interface StageCapacity {
 
 /**
  * Litres one set holds to terminal ΔP (the stage's capacity per m², for a membrane the lot's
- * Vmax disc test, else the winery's past runs of similar wines), the loads the lot needs and how they are served: a regenerable set
+ * Vmax disc test, else the winery's past runs of similar wines, else the type's nominal figure), the loads the lot needs and how they are served: a regenerable set
  * serves 1 + maxRegenerationsPerLot loads, any other set one.
  */
 function stageCapacity(c: SizingCartridgeType, wine: SizingWine, dp: number, areaM2: number, flowLh: number, batchL: number): StageCapacity {
@@ -787,6 +793,10 @@ function stageCapacity(c: SizingCartridgeType, wine: SizingWine, dp: number, are
   if (capPerM2 === null && c.pastRuns !== undefined && !infeasible) {
     capPerM2 = c.pastRuns.lPerM2;
     capacitySource = 'past-runs';
+  }
+  if (capPerM2 === null && c.nominalCapacityLPerM2 !== undefined && !infeasible) {
+    capPerM2 = c.nominalCapacityLPerM2;
+    capacitySource = 'nominal';
   }
   const unknown = { loads: null, interventions: null, regenerations: null, changes: null, kind: null, setsUsed: 1 };
   if (infeasible) return { infeasible, capacityLPerM2: capPerM2, capacitySource, capacityL: 0, hoursToTerminal: 0, ...unknown };

@@ -22,6 +22,12 @@ export const AREA_PER_10IN_MAX_M2 = 10;
 export const FLOW_PER_10IN_MAX_LH = 50_000;
 export const CYCLES_MAX = 100_000;
 export const PRICE_MAX = 1_000_000;
+/**
+ * Largest nominal capacity of a cartridge type, L/m² to terminal ΔP. Wine cartridges hold a few
+ * hundred to a few thousand L/m²; 100,000 leaves room for a very clean wine on a coarse prefilter
+ * and still catches a figure typed in the wrong unit (common practice, no source).
+ */
+export const NOMINAL_CAPACITY_MAX_L_PER_M2 = 100_000;
 /** Water-flow recovery below which a regenerated cartridge is retired when the type names none, % (common practice). */
 export const FLOW_RECOVERY_MIN_PCT_DEFAULT = 70;
 
@@ -180,6 +186,7 @@ const cartridgeTypeFields = {
   maxTempC: temperature('maximum temperature'),
   terminalDpBar: positive('terminal ΔP', PRESSURE_MAX_BAR),
   designFluxLhPer10in: positive('design flow per 10-inch module', FLOW_PER_10IN_MAX_LH),
+  nominalCapacityLPerM2: positive('nominal capacity to terminal ΔP', NOMINAL_CAPACITY_MAX_L_PER_M2).nullable().default(null),
   ratedSteamCycles: cycleCount('rated steam cycles').nullable().default(null),
   ratedHotWaterCycles: cycleCount('rated hot-water cycles').nullable().default(null),
   ratedChemicalCycles: cycleCount('rated chemical cycles').nullable().default(null),
@@ -223,6 +230,7 @@ export const updateCartridgeTypeInputSchema = z
     maxTempC: cartridgeTypeFields.maxTempC,
     terminalDpBar: cartridgeTypeFields.terminalDpBar,
     designFluxLhPer10in: cartridgeTypeFields.designFluxLhPer10in,
+    nominalCapacityLPerM2: positive('nominal capacity to terminal ΔP', NOMINAL_CAPACITY_MAX_L_PER_M2).nullable(),
     ratedSteamCycles: cycleCount('rated steam cycles').nullable(),
     ratedHotWaterCycles: cycleCount('rated hot-water cycles').nullable(),
     ratedChemicalCycles: cycleCount('rated chemical cycles').nullable(),

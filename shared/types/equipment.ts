@@ -57,6 +57,8 @@ export type CartridgeTypeDto = {
   maxTempC: number;
   terminalDpBar: number;
   designFluxLhPer10in: number;
+  /** The maker's or the winery's usual L/m² to terminal ΔP for an average wine; null when not given. */
+  nominalCapacityLPerM2: number | null;
   ratedSteamCycles: number | null;
   ratedHotWaterCycles: number | null;
   ratedChemicalCycles: number | null;

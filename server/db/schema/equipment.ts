@@ -49,6 +49,8 @@ export const cartridgeTypesTable = pgTable(
     maxTempC: double('max_temp_c').notNull(),
     terminalDpBar: double('terminal_dp_bar').notNull(),
     designFluxLhPer10in: double('design_flux_lh_per_10in').notNull(),
+    /** The maker's or the winery's usual litres per m² to terminal ΔP for an average wine (the last capacity source of a plan stage). */
+    nominalCapacityLPerM2: double('nominal_capacity_l_per_m2'),
     ratedSteamCycles: integer('rated_steam_cycles'),
     ratedHotWaterCycles: integer('rated_hot_water_cycles'),
     ratedChemicalCycles: integer('rated_chemical_cycles'),

@@ -2,7 +2,7 @@
 // cartridge catalogue. The specifications are invented but plausible; they are demo data,
 // not any maker's published figures. The prefilters are rated to 90 °C so the demo's hot-water
 // sanitation (82 °C in plans, 85 °C in the care history) is within their rating.
-import { count, eq } from 'drizzle-orm';
+import { and, count, eq, isNull } from 'drizzle-orm';
 import type { DbOrTx } from '../client';
 import { cartridgeTypesTable, housingsTable, linesTable } from '../schema';
 
@@ -73,6 +73,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 90,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 600,
+    nominalCapacityLPerM2: 3000,
     ratedSteamCycles: 20,
     ratedHotWaterCycles: 50,
     ratedChemicalCycles: 30,
@@ -95,6 +96,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 90,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 500,
+    nominalCapacityLPerM2: 2000,
     ratedSteamCycles: 20,
     ratedHotWaterCycles: 50,
     ratedChemicalCycles: 30,
@@ -117,6 +119,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 90,
     terminalDpBar: 1.2,
     designFluxLhPer10in: 400,
+    nominalCapacityLPerM2: 1500,
     ratedSteamCycles: 30,
     ratedHotWaterCycles: 30,
     ratedChemicalCycles: 10,
@@ -139,6 +142,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 140,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 500,
+    nominalCapacityLPerM2: 1200,
     ratedSteamCycles: 50,
     ratedHotWaterCycles: 100,
     ratedChemicalCycles: 30,
@@ -163,6 +167,7 @@ const cartridgeTypes: CartridgeTypeSeed[] = [
     maxTempC: 140,
     terminalDpBar: 1.5,
     designFluxLhPer10in: 400,
+    nominalCapacityLPerM2: 900,
     ratedSteamCycles: 50,
     ratedHotWaterCycles: 100,
     ratedChemicalCycles: 30,
@@ -192,4 +197,20 @@ export async function seedEquipment(tx: DbOrTx, ctx: { wineryId: string; actorId
     });
   }
   if (t === 0) await tx.insert(cartridgeTypesTable).values(cartridgeTypes.map((c) => ({ ...c, wineryId: ctx.wineryId })));
+  // Demo types seeded before the nominal capacity existed get theirs: only a demo row nobody has
+  // edited since it was seeded and that has no figure yet, so a winery's own entry is never touched.
+  for (const c of cartridgeTypes) {
+    if (!c.id || c.nominalCapacityLPerM2 === undefined || c.nominalCapacityLPerM2 === null) continue;
+    await tx
+      .update(cartridgeTypesTable)
+      .set({ nominalCapacityLPerM2: c.nominalCapacityLPerM2 })
+      .where(
+        and(
+          eq(cartridgeTypesTable.wineryId, ctx.wineryId),
+          eq(cartridgeTypesTable.id, c.id),
+          isNull(cartridgeTypesTable.nominalCapacityLPerM2),
+          eq(cartridgeTypesTable.updatedAt, cartridgeTypesTable.createdAt),
+        ),
+      );
+  }
 }

@@ -52,6 +52,7 @@ export const presentCartridgeType = ({ type: t, counts }: { type: CartridgeTypeR
     maxTempC: t.maxTempC,
     terminalDpBar: t.terminalDpBar,
     designFluxLhPer10in: t.designFluxLhPer10in,
+    nominalCapacityLPerM2: t.nominalCapacityLPerM2,
     ratedSteamCycles: t.ratedSteamCycles,
     ratedHotWaterCycles: t.ratedHotWaterCycles,
     ratedChemicalCycles: t.ratedChemicalCycles,

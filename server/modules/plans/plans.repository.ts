@@ -73,6 +73,7 @@ function prepare(db: DbOrTx) {
         pricePer10in: cartridgeTypesTable.pricePer10in,
         currency: cartridgeTypesTable.currency,
         ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
+        nominalCapacityLPerM2: cartridgeTypesTable.nominalCapacityLPerM2,
       })
       .from(cartridgeTypesTable)
       .where(eq(cartridgeTypesTable.wineryId, wineryParam))

@@ -70,6 +70,9 @@ export function CartridgeTypeDetailsDialog({ typeId, onClose, onEdit }: { typeId
               <Item label="Design flow for wine">
                 <Measured formatted={units.format('flow', t.designFluxLhPer10in)} />
               </Item>
+              <Item label="Nominal capacity">
+                {t.nominalCapacityLPerM2 === null ? <span className="text-sm text-ink-600">not given</span> : <Measured formatted={units.format('loading', t.nominalCapacityLPerM2)} />}
+              </Item>
               <Item label="Maximum forward ΔP">
                 <Measured formatted={units.format('dp', t.maxDpForwardBar)} />
               </Item>

@@ -34,6 +34,7 @@ type TypeForm = {
   waterFlowLhPer10in: string;
   waterDpBar: string;
   designFluxLhPer10in: string;
+  nominalCapacityLPerM2: string;
   maxDpForwardBar: string;
   maxDpReverseBar: string;
   terminalDpBar: string;
@@ -57,6 +58,7 @@ const fieldNames = [
   'waterFlowLhPer10in',
   'waterDpBar',
   'designFluxLhPer10in',
+  'nominalCapacityLPerM2',
   'maxDpForwardBar',
   'maxDpReverseBar',
   'terminalDpBar',
@@ -103,6 +105,9 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
   const update = useUpdateCartridgeType();
   const [alert, setAlert] = useState<string | null>(null);
   const { fromInput, toInput, symbol } = units;
+  // The nominal capacity as first shown; left as shown, its stored value is sent back exactly
+  // (no rounding back from gal/ft²).
+  const nominalShown = toInput('loading', type?.nominalCapacityLPerM2, 2);
 
   const toBody = (f: TypeForm) => ({
     name: f.name,
@@ -113,6 +118,8 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
     waterFlowLhPer10in: typedQuantity(fromInput, 'flow', f.waterFlowLhPer10in),
     waterDpBar: typedQuantity(fromInput, 'dp', f.waterDpBar),
     designFluxLhPer10in: typedQuantity(fromInput, 'flow', f.designFluxLhPer10in),
+    nominalCapacityLPerM2:
+      type && f.nominalCapacityLPerM2 === nominalShown ? type.nominalCapacityLPerM2 : typedOptionalQuantity(fromInput, 'loading', f.nominalCapacityLPerM2),
     maxDpForwardBar: typedQuantity(fromInput, 'dp', f.maxDpForwardBar),
     maxDpReverseBar: typedOptionalQuantity(fromInput, 'dp', f.maxDpReverseBar),
     terminalDpBar: typedQuantity(fromInput, 'dp', f.terminalDpBar),
@@ -139,6 +146,7 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
       waterFlowLhPer10in: toInput('flow', type?.waterFlowLhPer10in, 1),
       waterDpBar: toInput('dp', type?.waterDpBar),
       designFluxLhPer10in: toInput('flow', type?.designFluxLhPer10in, 1),
+      nominalCapacityLPerM2: nominalShown,
       maxDpForwardBar: toInput('dp', type?.maxDpForwardBar, 3),
       maxDpReverseBar: toInput('dp', type?.maxDpReverseBar, 3),
       terminalDpBar: toInput('dp', type?.terminalDpBar, 3),
@@ -229,6 +237,12 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
         </Group>
 
         <CartridgeTypeFigures figures={figures} spec={spec} />
+
+        <Group legend="Capacity for planning">
+          {field('nominalCapacityLPerM2', 'Nominal capacity to terminal ΔP', symbol('loading'), {
+            hint: 'The maker’s or your winery’s usual figure for an average wine. Plans use it when the lot has no Vmax test and no similar past runs. Leave empty when you have none.',
+          })}
+        </Group>
 
         <Group legend="Limits">
           {field('maxDpForwardBar', 'Maximum forward ΔP', symbol('dp'), { required: true })}

@@ -330,7 +330,7 @@ export function TrainCard({ plan, planLot, train, editable, onSized, className }
                     <NumberInput id={`${id}-n${i}`} disabled={!editable} value={d.housingCount} onChange={(e) => setStage(i, { housingCount: e.target.value })} />
                   </FormField>
                   <FormField label="Capacity" htmlFor={`${id}-c${i}`}>
-                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder={s?.capacitySource === 'past-runs' ? 'past runs' : s?.capacitySource === 'vmax' ? 'Vmax test' : 'unknown'} disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
+                    <NumberInput id={`${id}-c${i}`} unit={u.symbol('loading')} placeholder={s?.capacitySource === 'past-runs' ? 'past runs' : s?.capacitySource === 'vmax' ? 'Vmax test' : s?.capacitySource === 'nominal' ? 'nominal' : 'unknown'} disabled={!editable} value={d.capacity} onChange={(e) => setStage(i, { capacity: e.target.value })} />
                   </FormField>
                 </div>
               </div>

@@ -1,0 +1,1 @@
+ALTER TABLE "cartridge_types" ADD COLUMN "nominal_capacity_l_per_m2" double precision;
