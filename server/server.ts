@@ -51,7 +51,7 @@ export async function startServer(env: Env) {
   });
   const mailer = queuedMailer(queue);
   const alerts = createAlertsService({ db, mailer, appUrl: env.appUrl });
-  if (workers) await startWorkers({ db, queue, smtp, alerts });
+  if (workers) await startWorkers({ queue, smtp, alerts });
 
   if (!env.S3_ENDPOINT) fakeS3 = await startFakeS3({ directory: join(resolve(env.FAKE_SERVICES_DIR), 's3') });
   const storage = createS3Storage({

@@ -28,7 +28,7 @@ const queue = await createQueue({
   pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
 });
 const alerts = createAlertsService({ db, mailer: queuedMailer(queue), appUrl: env.appUrl });
-await startWorkers({ db, queue, smtp, alerts });
+await startWorkers({ queue, smtp, alerts });
 logger.info('Porewise workers are running');
 
 let stopping = false;

@@ -1,11 +1,9 @@
 // The job workers: mail delivery with retries, the alert sweep, the daily stock check and the daily digest. They run in
 // the web server by default (WORKERS=false turns them off) or alone with `npm run worker`.
 import type PgBoss from 'pg-boss';
-import type { Database } from '../db/client';
 import { logger } from '../lib/logger';
 import type { Mailer } from '../lib/mail';
 import { ALERTS_DIGEST_QUEUE, ALERTS_STOCK_QUEUE, ALERTS_SWEEP_QUEUE, MAIL_QUEUE, type MailJob, type Queue } from '../lib/queue';
-import { createAlertsRepository } from '../modules/alerts/alerts.repository';
 import type { AlertsService } from '../modules/alerts/alerts.service';
 
 /** Every 10 minutes: conditions that come with time (a day drawing near) and a backstop for missed events (all rules but stock). */
@@ -19,9 +17,9 @@ export const DIGEST_CRON = '0 * * * *';
  */
 export const STOCK_CRON = '0 * * * *';
 
-export type WorkerDeps = { db: Database; queue: Queue; smtp: Mailer; alerts: AlertsService; schedules?: boolean };
+export type WorkerDeps = { queue: Queue; smtp: Mailer; alerts: AlertsService; schedules?: boolean };
 
-export async function startWorkers({ db, queue, smtp, alerts, schedules = true }: WorkerDeps) {
+export async function startWorkers({ queue, smtp, alerts, schedules = true }: WorkerDeps) {
   const { boss } = queue;
   const polling = { pollingIntervalSeconds: queue.pollingIntervalSeconds };
 
@@ -34,7 +32,7 @@ export async function startWorkers({ db, queue, smtp, alerts, schedules = true }
         const message = error instanceof Error ? error.message : String(error);
         if (job.retryCount >= job.retryLimit) {
           // The last attempt: keep the message for the owners to see and resend.
-          await createAlertsRepository(db).insertMailFailure({
+          await alerts.keepMailFailure({
             wineryId: job.data.wineryId ?? null,
             jobId: job.id,
             to,

@@ -24,8 +24,8 @@ export function parseOrThrow<S extends ZodType>(schema: S, value: unknown): z.ou
 
 /**
  * Applied once to every API request, before any route: every string in the JSON body, the query
- * string and the headers must be well-formed text (no NUL, no lone surrogate). Routes that never
- * call validateBody (or read a query without validateQuery) are covered too.
+ * string and the headers must be well-formed text (no NUL, no lone surrogate). Routes that take
+ * no input through withBody (or read a query without withQuery) are covered too.
  */
 export const wellFormedInput: RequestHandler = (req, _res, next) => {
   const body = findIllFormedText(req.body);

@@ -7,7 +7,7 @@
  * Pure and isomorphic: the server reads whole files with it (papaparse feeds it rows), the
  * client the first rows for the column mapping. No clock: times come from the file.
  */
-import { convert } from '../engine/units';
+import { convert } from '../engine';
 import type { LoggerMapping } from '../schemas/logger';
 
 /** One row as read, in stored units. `at` is milliseconds since 1970 (UTC). */

@@ -2,7 +2,7 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { seriousA11yViolations } from '../support/a11y';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { DESKTOP, PHONE, screenshot, setupBrowserApp } from '../support/browser';
 import { addMember, signUp } from '../support/test-app';
 
@@ -19,10 +19,6 @@ function loggerFile(startHour: number) {
 
 async function chooseFile(page: Page, name: string, text: string) {
   await page.locator('#logger-file').setInputFiles({ name, mimeType: 'text/csv', buffer: Buffer.from(text, 'utf8') });
-}
-
-async function seriousFindings(page: Page) {
-  return (await seriousA11yViolations(page)).map((v) => `${v.rule}: ${v.help}`);
 }
 
 describe('logger files in the browser', () => {
@@ -82,7 +78,7 @@ describe('logger files in the browser', () => {
       await page.getByRole('img', { name: /ΔP against litres/ }).waitFor();
       expect(await page.getByRole('heading', { name: '2. Map the columns' }).count()).toBe(0);
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-      expect(await seriousFindings(page)).toEqual([]);
+      await expectNoSeriousA11yViolations(page);
       await screenshot(page, 'logger-import-phone');
       await page.getByRole('button', { name: /Import 4 rows into/ }).click();
       await page.waitForURL(new RegExp(`/runs/${runId}$`));
@@ -99,7 +95,7 @@ describe('logger files in the browser', () => {
       await page.getByRole('heading', { name: '2. Map the columns' }).waitFor();
       expect(await page.getByLabel('Logger clock’s time zone').inputValue()).toBe('Europe/Vienna');
       expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-      expect(await seriousFindings(page)).toEqual([]);
+      await expectNoSeriousA11yViolations(page);
       await screenshot(page, 'logger-mapping-phone');
       expect(errors).toEqual([]);
       await context.close();

@@ -1,10 +1,9 @@
 // @vitest-environment node
 // Today lists the runs in progress with each stage's ΔP, forecast and alarm (desktop and phone),
 // and the Care form takes the ΔP a clean-water flow was measured at.
-import AxeBuilder from '@axe-core/playwright';
-import type { Page } from 'playwright-core';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
+import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { DESKTOP, outputDir, PHONE, screenshot, setupBrowserApp } from '../support/browser';
 import { addMember, signUp, type Client } from '../support/test-app';
 
@@ -14,13 +13,8 @@ let tech: { client: Client; email: string };
 let runId: string;
 let membraneSerial: string;
 
-/** axe-core's serious and critical findings on the runs card (the part of Today this change adds). */
-async function seriousFindings(page: Page) {
-  const result = await new AxeBuilder({ page }).include('[data-testid="runs-in-progress"]').analyze();
-  return result.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id}: ${v.help} — ${v.nodes.map((n) => `${n.target.join(' ')} ${n.failureSummary ?? ''}`).join('; ')}`);
-}
+/** The runs card is the part of Today this file covers: axe looks inside it. */
+const RUNS_CARD = '[data-testid="runs-in-progress"]';
 
 beforeAll(async () => {
   const o = await signUp(app.baseUrl, { wineryName: 'Today Runs Cellars' });
@@ -57,7 +51,7 @@ describe('Today’s runs in progress', () => {
     await card.getByTestId('today-run-stage-1').getByText(/left|beyond the readings|No forecast|not rising/).first().waitFor();
     expect(await card.textContent()).toContain('Whites bottling day');
     expect(await page.getByText(/Runs in progress, with their readings and forecasts, are on the/).count()).toBe(0);
-    expect(await seriousFindings(page)).toEqual([]);
+    await expectNoSeriousA11yViolations(page, { include: RUNS_CARD });
     await screenshot(page, 'today-runs-desktop');
     await card.getByRole('link', { name: /Open run/ }).click();
     await page.waitForURL(new RegExp(`/runs/${runId}$`));
@@ -74,7 +68,7 @@ describe('Today’s runs in progress', () => {
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
     const box = await card.getByRole('link', { name: /Open run/ }).boundingBox();
     expect(box!.height).toBeGreaterThanOrEqual(44);
-    expect(await seriousFindings(page)).toEqual([]);
+    await expectNoSeriousA11yViolations(page, { include: RUNS_CARD });
     await screenshot(page, 'today-runs-phone');
     await card.screenshot({ path: `${outputDir}/today-runs-phone-card.png` });
     expect(errors).toEqual([]);

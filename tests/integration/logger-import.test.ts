@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/permissions';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
+import { approvedPlanLot, createPlanWorld, fillTrainHousings, type PlanWorld, startRun } from '../factories/plans';
 import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -25,14 +25,8 @@ afterAll(async () => {
 });
 
 async function startedRun() {
-  const plan = await createPlan(owner, world.lineId);
-  const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
-  const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
-  expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Test day: stock counted separately.' })).status).toBe(200);
-  const res = await members.technician.post('/api/runs', { planLotId });
-  expect(res.status).toBe(201);
-  return res.body as { id: string };
+  const { planLotId } = await approvedPlanLot(owner, { world, fill: false });
+  return startRun(members.technician, planLotId);
 }
 
 type Fields = { stageIndex?: string | number; profileId?: string; mapping?: unknown };

@@ -97,7 +97,7 @@ export async function startTestApp(
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   handler = app(baseUrl);
   mailOf.set(baseUrl, mail);
-  await startWorkers({ db, queue, smtp, alerts: alerts!, schedules: false });
+  await startWorkers({ queue, smtp, alerts: alerts!, schedules: false });
   return {
     baseUrl,
     mail,

@@ -31,7 +31,7 @@ import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { createRunsService } from '../runs/runs.service';
 import { alertSettingsOf } from './alert-settings';
-import { createAlertsRepository, type AlertRow } from './alerts.repository';
+import { createAlertsRepository, type AlertRow, type AlertsRepository } from './alerts.repository';
 
 /**
  * The rules evaluated after each change and by the 10-minute sweep. The stock rule is not among
@@ -429,6 +429,10 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
           resentAt: r.resentAt?.toISOString() ?? null,
         })),
       };
+    },
+    /** Keeps a mail whose last delivery attempt failed, for the owners to see and resend (a job kept twice is kept once). */
+    async keepMailFailure(failure: Parameters<AlertsRepository['insertMailFailure']>[0]) {
+      await repo.insertMailFailure(failure);
     },
     /** Enqueues the mail again (with fresh retries), in the same transaction as marking it resent. */
     async resendMail(tenant: TenantContext, id: string) {

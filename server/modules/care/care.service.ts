@@ -24,6 +24,16 @@ const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : u
 /** Keeps only the values that were given (stored details carry no nulls). */
 const given = (o: Record<string, unknown>) => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined && v !== null && v !== ''));
 
+/** What every Care event row states: the winery, the cartridge, who, where it sat (only when installed) and when (now unless given). */
+const eventHead = (tenant: TenantContext, c: { id: string; housingId: string | null; position: number | null }, installed: boolean, at: string | null | undefined) => ({
+  wineryId: tenant.wineryId,
+  cartridgeId: c.id,
+  actorId: tenant.userId,
+  housingId: installed ? c.housingId : null,
+  position: installed ? c.position : null,
+  at: at ? new Date(at) : new Date(),
+});
+
 /** 10-inch equivalents of all cartridges installed in a housing (PDA TR 26: a housing test covers them all). */
 async function housingEquivalents(repo: CareRepository, wineryId: string, housingId: string): Promise<number> {
   const lengths = await repo.installedLengths(wineryId, housingId);
@@ -101,13 +111,8 @@ export function createCareService(db: Database) {
         const installed = c.status === 'installed';
         const hasFlow = (input.waterFlowBeforeLh ?? null) !== null || (input.waterFlowAfterLh ?? null) !== null;
         const newId = await txRepo.insertEvent({
-          wineryId: tenant.wineryId,
-          cartridgeId: c.id,
+          ...eventHead(tenant, c, installed, input.at),
           kind: 'cycle',
-          actorId: tenant.userId,
-          housingId: installed ? c.housingId : null,
-          position: installed ? c.position : null,
-          at: input.at ? new Date(input.at) : new Date(),
           details: given({
             kind: input.kind,
             tempC: input.tempC,
@@ -179,13 +184,8 @@ export function createCareService(db: Database) {
       }
       const verdict = judged ?? { ...evaluateIntegrityTest(test as IntegrityTestInput), final: true };
       const eventId = await audited(db, tenant, { action: 'create', kind: 'integrity-test' }, (tx) => createCareRepository(tx).insertEvent({
-        wineryId: tenant.wineryId,
-        cartridgeId: c.id,
+        ...eventHead(tenant, c, installed, input.at),
         kind: 'integrity',
-        actorId: tenant.userId,
-        housingId: installed ? c.housingId : null,
-        position: installed ? c.position : null,
-        at: input.at ? new Date(input.at) : new Date(),
         details: given({
           pass: verdict.pass,
           ...(verdict.final ? {} : { retest: true }),

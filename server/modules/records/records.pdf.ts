@@ -27,9 +27,11 @@ const MARGIN = 48;
 const FOOTER = 46;
 
 const fmt = (v: number | null | undefined, digits = 0, unit = '') => (v === null || v === undefined || !Number.isFinite(v) ? '—' : `${formatNumber(v, digits)}${unit ? ` ${unit}` : ''}`);
-const when = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : '—');
 /** Date and time in a table cell; the column says UTC. */
 const stamp = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)}` : '—');
+const when = (iso: string | null) => (iso ? `${stamp(iso)} UTC` : '—');
+/** Who did it and when, as the record states it ("unknown" when the person is not on record). */
+const whenBy = (iso: string | null, name: string | null) => `${when(iso)} by ${name ?? 'unknown'}`;
 const lawNames: Record<string, string> = { complete: 'complete blocking', standard: 'standard blocking', intermediate: 'intermediate blocking', cake: 'cake filtration' };
 
 /** The readiness thresholds a verdict was judged against, in one line, and where they come from. */
@@ -164,10 +166,9 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
   const chart = (stage: RecordStageDto) => {
     const points = stage.readings.filter((r) => !r.voided).map((r) => {
       const c = r.corrections.at(-1);
-      const v = c?.kind === 'correct' && c.volumeL !== null ? c.volumeL : r.volumeL;
-      const up = c?.kind === 'correct' && c.upstreamBar !== null ? c.upstreamBar : r.upstreamBar;
-      const down = c?.kind === 'correct' && c.downstreamBar !== null ? c.downstreamBar : r.downstreamBar;
-      return { volumeL: v, dpBar: up - down };
+      /** The latest correction's value where it gives one, else the reading as logged. */
+      const latest = (key: 'volumeL' | 'upstreamBar' | 'downstreamBar') => (c?.kind === 'correct' ? (c[key] ?? r[key]) : r[key]);
+      return { volumeL: latest('volumeL'), dpBar: latest('upstreamBar') - latest('downstreamBar') };
     });
     if (points.length === 0) return;
     const h = 150;
@@ -215,6 +216,12 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
       cells: [t.serial, integrityTestLabels[t.test], fmt(t.measured, 2, t.unit), `${t.limitKind === 'min' ? 'at least' : 'at most'} ${fmt(t.limit, 2, t.unit)}`, t.pass ? 'PASS' : 'FAIL', t.byName ?? '—', stamp(t.at)],
       color: [undefined, undefined, undefined, undefined, t.pass ? GOOD : BAD],
     }));
+  /** A titled table of integrity tests, or what stands in for it when there is none. */
+  const integrityTests = (title: string, tests: RecordIntegrityTestDto[], none: string) => {
+    text(title, { bold: true, gap: 0.1 });
+    if (tests.length === 0) text(none, { color: BAD, gap: 0.3 });
+    else table(integrityCols, integrityRows(tests));
+  };
   const integrityCols: Column[] = [
     { label: 'Serial', width: 105 },
     { label: 'Test', width: 60 },
@@ -275,12 +282,8 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
         s.sanitation.map((x) => ({ cells: [x.serial, cycleKindLabels[x.kind], fmt(x.tempC, 0, '°C'), fmt(x.durationMin, 0, 'min'), x.agent ?? '—', x.byName ?? '—', stamp(x.at)] })),
       );
     if (s.integrity) {
-      text('Integrity tests before the run', { bold: true, gap: 0.1 });
-      if (s.integrity.before.length === 0) text('None recorded.', { color: BAD, gap: 0.3 });
-      else table(integrityCols, integrityRows(s.integrity.before));
-      text('Integrity tests after the run', { bold: true, gap: 0.1 });
-      if (s.integrity.after.length === 0) text(run.status === 'closed' ? 'None recorded.' : 'Not due yet: the run is open.', { color: BAD, gap: 0.3 });
-      else table(integrityCols, integrityRows(s.integrity.after));
+      integrityTests('Integrity tests before the run', s.integrity.before, 'None recorded.');
+      integrityTests('Integrity tests after the run', s.integrity.after, run.status === 'closed' ? 'None recorded.' : 'Not due yet: the run is open.');
       ensure(30);
       text(s.integrity.statement, { bold: true, color: s.integrity.status === 'proven' ? GOOD : BAD, gap: 0.5 });
     }
@@ -303,8 +306,8 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
   record.runs.forEach((run, i) => {
     if (i > 0) doc.addPage();
     heading(`Run ${String(i + 1)} of ${String(record.runs.length)}: ${run.status === 'closed' ? 'closed' : 'still open'}`);
-    field('Started', `${when(run.startedAt)} by ${run.startedByName ?? 'unknown'}`);
-    field('Closed', run.closedAt ? `${when(run.closedAt)} by ${run.closedByName ?? 'unknown'}` : 'Not closed yet');
+    field('Started', whenBy(run.startedAt, run.startedByName));
+    field('Closed', run.closedAt ? whenBy(run.closedAt, run.closedByName) : 'Not closed yet');
     field('Filtered', `${fmt(run.volumeFilteredL, 0, 'L')}${run.bottles === null ? '' : ` (${fmt(run.bottles, 0)} bottles of ${fmt(run.plan.bottleMl, 0, 'mL')})`}`);
     field('Override at start', run.overrideReason ? `${run.overrideReason} (${run.overrideByName ?? 'unknown'})` : 'None: the run started without an override.');
     heading('Wine at filtration', 11);
@@ -321,7 +324,7 @@ export function renderRecordPdf(record: FilterRecordDto, paper: RecordPaper): Pr
     field('Plan', `${run.plan.name} (${run.plan.plannedDate})`);
     field('Train', run.plan.trainName || '—');
     field('Line', run.plan.lineName ?? '—');
-    field('Approved', run.plan.approvedAt ? `${when(run.plan.approvedAt)} by ${run.plan.approvedByName ?? 'unknown'}` : 'Not approved');
+    field('Approved', run.plan.approvedAt ? whenBy(run.plan.approvedAt, run.plan.approvedByName) : 'Not approved');
     if (run.plan.sizing) {
       const z = run.plan.sizing;
       field('Sized for', `${fmt(z.batchL, 0, 'L')} at ${fmt(z.flowLh, 0, 'L/h')}, ${fmt(z.runHours, 1, 'h')}; pump ${fmt(z.pumpPressureCleanBar, 2, 'bar')} clean, ${fmt(z.pumpPressureEndOfRunBar, 2, 'bar')} at end of run`);

@@ -92,36 +92,30 @@ export function ChangeLogPage() {
         }
       />
       <form className="grid grid-cols-2 gap-3 lg:grid-cols-5" aria-label="Filter the change log" onSubmit={(e) => e.preventDefault()}>
-        <FormField label="Record kind" htmlFor="changes-kind" className="max-sm:col-span-2">
-          <Select
-            id="changes-kind"
-            className="font-normal"
-            value={filters.kind ?? ''}
-            onChange={(e) => setFilter('kind', e.target.value)}
-            placeholder="All records"
-            options={auditKinds.map((k) => ({ value: k, label: auditKindLabels[k] }))}
-          />
-        </FormField>
-        <FormField label="Person" htmlFor="changes-person" className="max-sm:col-span-2">
-          <Select
-            id="changes-person"
-            className="font-normal"
-            value={filters.userId ?? ''}
-            onChange={(e) => setFilter('userId', e.target.value)}
-            placeholder="Everyone"
-            options={(people.data?.items ?? []).map((p) => ({ value: p.userId, label: p.userName || p.userId }))}
-          />
-        </FormField>
-        <FormField label="Action" htmlFor="changes-action" className="max-sm:col-span-2">
-          <Select
-            id="changes-action"
-            className="font-normal"
-            value={filters.action ?? ''}
-            onChange={(e) => setFilter('action', e.target.value)}
-            placeholder="Any action"
-            options={auditActions.map((a) => ({ value: a, label: auditActionLabels[a] }))}
-          />
-        </FormField>
+        <FilterSelect
+          label="Record kind"
+          id="changes-kind"
+          value={filters.kind}
+          onChange={(v) => setFilter('kind', v)}
+          placeholder="All records"
+          options={auditKinds.map((k) => ({ value: k, label: auditKindLabels[k] }))}
+        />
+        <FilterSelect
+          label="Person"
+          id="changes-person"
+          value={filters.userId}
+          onChange={(v) => setFilter('userId', v)}
+          placeholder="Everyone"
+          options={(people.data?.items ?? []).map((p) => ({ value: p.userId, label: p.userName || p.userId }))}
+        />
+        <FilterSelect
+          label="Action"
+          id="changes-action"
+          value={filters.action}
+          onChange={(v) => setFilter('action', v)}
+          placeholder="Any action"
+          options={auditActions.map((a) => ({ value: a, label: auditActionLabels[a] }))}
+        />
         <FormField label="From" htmlFor="changes-from">
           <Input id="changes-from" type="date" className="font-normal" value={from ?? ''} onChange={(e) => setFilter('from', e.target.value)} />
         </FormField>
@@ -161,6 +155,29 @@ export function ChangeLogPage() {
         </>
       )}
     </div>
+  );
+}
+
+/** One filter of the change log as a list to choose from (empty = the filter is off); half a row on a phone. */
+function FilterSelect(props: {
+  label: string;
+  id: string;
+  value: string | undefined;
+  onChange: (value: string) => void;
+  placeholder: string;
+  options: { value: string; label: string }[];
+}) {
+  return (
+    <FormField label={props.label} htmlFor={props.id} className="max-sm:col-span-2">
+      <Select
+        id={props.id}
+        className="font-normal"
+        value={props.value ?? ''}
+        onChange={(e) => props.onChange(e.target.value)}
+        placeholder={props.placeholder}
+        options={props.options}
+      />
+    </FormField>
   );
 }
 

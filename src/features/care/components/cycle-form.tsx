@@ -19,6 +19,7 @@ import { useLogCycle } from '../api/log-cycle';
 import { ChemicalCaution, HeatCaution } from './care-cautions';
 import { recoveryPreview } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
+import { SaveOutcome } from './save-outcome';
 
 const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowDpBar', 'flowBasis', 'aboveRatingConfirmed', 'at'] as const;
 
@@ -239,16 +240,7 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
       <FormField label="When" htmlFor="cycle-at" error={errors.at?.message}>
         <Input id="cycle-at" type="datetime-local" {...form.register('at')} />
       </FormField>
-      {kept ? (
-        <p role="status" className="rounded border border-watch-200 bg-watch-50 px-3 py-2 text-base font-semibold text-ink-900">
-          {kept}
-        </p>
-      ) : null}
-      {alert ? (
-        <p role="alert" className="rounded border border-stop-200 bg-stop-50 px-3 py-2 text-base text-stop-700">
-          {alert}
-        </p>
-      ) : null}
+      <SaveOutcome kept={kept} alert={alert} />
       <Button type="submit" size="lg" loading={log.isPending} className="w-full sm:w-auto">
         Save cycle
       </Button>

@@ -16,6 +16,7 @@ import { useRecordIntegrityTest } from '../api/record-integrity-test';
 import { PressureCaution } from './care-cautions';
 import { integrityPreview, testedEquivalents } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
+import { SaveOutcome } from './save-outcome';
 
 const fields = ['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC', 'wettingFluid', 'ethanolPctVol', 'notes', 'at'] as const;
 
@@ -185,16 +186,7 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
       <FormField label="When" htmlFor="it-at" error={errors.at?.message}>
         <Input id="it-at" type="datetime-local" {...form.register('at')} />
       </FormField>
-      {kept ? (
-        <p role="status" className="rounded border border-watch-200 bg-watch-50 px-3 py-2 text-base font-semibold text-ink-900">
-          {kept}
-        </p>
-      ) : null}
-      {alert ? (
-        <p role="alert" className="rounded border border-stop-200 bg-stop-50 px-3 py-2 text-base text-stop-700">
-          {alert}
-        </p>
-      ) : null}
+      <SaveOutcome kept={kept} alert={alert} />
       <Button type="submit" size="lg" loading={record.isPending} className="w-full sm:w-auto">
         Save test
       </Button>

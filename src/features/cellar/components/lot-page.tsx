@@ -1,9 +1,10 @@
-import { ArrowLeft, FlaskConical, Pencil, Plus, Trash2 } from 'lucide-react';
+import { FlaskConical, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useCallback, useState, type ReactNode } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { useNavigate } from 'react-router-dom';
 import { wineStyleLabels } from '@shared/schemas/cellar';
 import type { LabResultDto, LotDto } from '@shared/types/cellar';
 import { AttachmentPanel } from '@/components/attachments/attachment-panel';
+import { BackLink, RecordLoadFailed } from '@/components/records/record-page';
 import { ArchiveOffer, ArchiveToggleButton, isInRecord } from '@/components/records/archive-offer';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
@@ -13,7 +14,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { ApiError, errorMessage } from '@/lib/api-client';
+import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useDeleteLabResult } from '../api/delete-lab-result';
 import { useDeleteLot } from '../api/delete-lot';
@@ -86,26 +87,10 @@ export function LotPage({ lotId }: { lotId: string }) {
   const onEditResult = useCallback((r: LabResultDto) => setResultForm({ open: true, result: r }), []);
   const onDeleteResult = useCallback((r: LabResultDto) => setDeletingResult(r), []);
 
-  const back = (
-    <Link to={paths.cellar} className="inline-flex min-h-9 items-center gap-1 text-primary-700 underline-offset-2 hover:underline">
-      <ArrowLeft aria-hidden="true" className="size-4" />
-      Cellar
-    </Link>
-  );
+  const back = <BackLink to={paths.cellar}>Cellar</BackLink>;
 
   if (lot.isPending) return <LoadingState />;
-  if (lot.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <div className="text-sm">{back}</div>
-        {lot.error instanceof ApiError && lot.error.status === 404 ? (
-          <EmptyState title="Lot not found">It may have been deleted, or it belongs to another winery.</EmptyState>
-        ) : (
-          <ErrorState message={errorMessage(lot.error)} onRetry={() => lot.refetch()} />
-        )}
-      </div>
-    );
-  }
+  if (lot.isError) return <RecordLoadFailed back={back} notFoundTitle="Lot not found" error={lot.error} onRetry={() => lot.refetch()} />;
   const l = lot.data;
   const addResult = mayEditResults ? (
     <Button icon={<Plus aria-hidden="true" className="size-4" />} onClick={() => setResultForm({ open: true, result: null })}>

@@ -1,5 +1,5 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { Cylinder, Pencil, Plus, Trash2 } from 'lucide-react';
+import { Cylinder, Plus } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import type { HousingSortKey } from '@shared/schemas/equipment';
 import type { HousingDto } from '@shared/types/equipment';
@@ -17,6 +17,7 @@ import { useHousings } from '../api/get-housings';
 import { ConfirmDeleteDialog } from './confirm-delete-dialog';
 import { HousingFormDialog } from './housing-form-dialog';
 import { Measured } from './measured';
+import { RowActions } from './row-actions';
 import { SearchBox, useListState } from './list-toolbar';
 
 
@@ -73,16 +74,7 @@ export function HousingsSection() {
               header: () => <span className="sr-only">Actions</span>,
               meta: { className: 'text-right whitespace-nowrap' },
               cell: ({ row }: { row: { original: HousingDto } }) => (
-                <div className="flex justify-end gap-1">
-                  <Button variant="ghost" size="sm" icon={<Pencil />} aria-label={`Edit ${row.original.name}`} onClick={() => setEditing(row.original)}>
-                    Edit
-                  </Button>
-                  {mayDelete ? (
-<Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
-                    Delete
-                  </Button>
-) : null}
-                </div>
+                <RowActions name={row.original.name} mayDelete={mayDelete} onEdit={() => setEditing(row.original)} onDelete={() => setDeleting(row.original)} />
               ),
             } satisfies ColumnDef<HousingDto>,
           ]

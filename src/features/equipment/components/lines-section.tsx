@@ -1,5 +1,5 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { Factory, Pencil, Plus, Trash2 } from 'lucide-react';
+import { Factory, Plus } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import type { LineSortKey } from '@shared/schemas/equipment';
 import type { LineDto } from '@shared/types/equipment';
@@ -17,6 +17,7 @@ import { ConfirmDeleteDialog } from './confirm-delete-dialog';
 import { LineFormDialog } from './line-form-dialog';
 import { SearchBox, useListState } from './list-toolbar';
 import { Measured } from './measured';
+import { RowActions } from './row-actions';
 
 
 export function LinesSection() {
@@ -63,16 +64,7 @@ export function LinesSection() {
               enableSorting: false,
               header: () => <span className="sr-only">Actions</span>,
               cell: ({ row }: { row: { original: LineDto } }) => (
-                <div className="flex justify-end gap-1">
-                  <Button variant="ghost" size="sm" icon={<Pencil />} aria-label={`Edit ${row.original.name}`} onClick={() => setEditing(row.original)}>
-                    Edit
-                  </Button>
-                  {mayDelete ? (
-<Button variant="ghost" size="sm" icon={<Trash2 />} aria-label={`Delete ${row.original.name}`} onClick={() => setDeleting(row.original)}>
-                    Delete
-                  </Button>
-) : null}
-                </div>
+                <RowActions name={row.original.name} mayDelete={mayDelete} onEdit={() => setEditing(row.original)} onDelete={() => setDeleting(row.original)} />
               ),
             } satisfies ColumnDef<LineDto>,
           ]

@@ -1,18 +1,19 @@
-import { ArrowLeft, CalendarPlus, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
+import { CalendarPlus, CircleCheck, ClipboardCheck, LockOpen, OctagonX, Pencil, Plus, Trash2 } from 'lucide-react';
 import { useState } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { useNavigate } from 'react-router-dom';
 import { DEFAULT_FLOW_MARGIN_PCT } from '@shared/engine';
 import { sanitationKindLabels } from '@shared/schemas/plans';
 import type { PlanDto } from '@shared/types/plans';
 import { Button, buttonClasses } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ArchiveToggleButton } from '@/components/records/archive-offer';
+import { BackLink, RecordLoadFailed } from '@/components/records/record-page';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
 import { FormField } from '@/components/ui/form-field';
 import { Textarea } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
-import { ErrorState, LoadingState } from '@/components/ui/states';
+import { LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
 import { ApiError, errorMessage } from '@/lib/api-client';
@@ -72,25 +73,9 @@ export function PlanPage({ planId }: { planId: string }) {
   const [cautions, setCautions] = useState<string[] | null>(null);
   const [reason, setReason] = useState('');
 
-  const back = (
-    <Link to={paths.plans} className="inline-flex min-h-9 items-center gap-1 text-primary-700 underline-offset-2 hover:underline">
-      <ArrowLeft aria-hidden="true" className="size-4" />
-      Plans
-    </Link>
-  );
+  const back = <BackLink to={paths.plans}>Plans</BackLink>;
   if (plan.isPending) return <LoadingState />;
-  if (plan.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <div className="text-sm">{back}</div>
-        {plan.error instanceof ApiError && plan.error.status === 404 ? (
-          <EmptyState title="Plan not found">It may have been deleted, or it belongs to another winery.</EmptyState>
-        ) : (
-          <ErrorState message={errorMessage(plan.error)} onRetry={() => plan.refetch()} />
-        )}
-      </div>
-    );
-  }
+  if (plan.isError) return <RecordLoadFailed back={back} notFoundTitle="Plan not found" error={plan.error} onRetry={() => plan.refetch()} />;
   const p = plan.data;
   // A refusal answers the plan as it was; any later change to the plan clears it.
   const refusal = refused && refused.at === p.updatedAt ? refused.reasons : null;
