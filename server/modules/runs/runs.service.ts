@@ -1,3 +1,4 @@
+import { CHART_POINTS_MAX, thinSeries } from '../../../shared/chart/thin';
 import {
   detectFlatDp,
   fitConstantFlow,
@@ -15,6 +16,7 @@ import type {
   LogReadingsBatchInput,
   RunBlockReason,
   RunChangeInput,
+  RunReadingsQuery,
   StartRunInput,
   VoidReadingInput,
 } from '../../../shared/schemas/runs';
@@ -22,12 +24,14 @@ import type {
   LoggedReadingDto,
   ReadingsBatchResultDto,
   RunDetailDto,
+  RunReadingDto,
   RunStageDto,
   RunStageFinalDto,
   RunStartCheckDto,
   RunStartOptionDto,
   RunSummaryDto,
 } from '../../../shared/types/runs';
+import type { ListDto } from '../../../shared/types/api';
 import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
@@ -284,7 +288,9 @@ export function createRunsService(db: Database) {
         housingId: s.housingId,
         housingName: housing?.name ?? 'Unknown housing',
         terminalDpBar,
-        readings: own.map(presentReading),
+        // The chart's points only; everything above was computed from all the stage's readings.
+        readings: thinSeries(own, { max: CHART_POINTS_MAX, y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
+        readingCount: own.length,
         ...figures,
         // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
         ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
@@ -330,8 +336,22 @@ export function createRunsService(db: Database) {
     return conflict('The reading could not be stored; send it again.');
   }
 
+  /**
+   * A run's stored readings, newest first (time, then litres), with their corrections applied and
+   * listed; one stage or all. For the run page's tables, which page rather than load thousands.
+   */
+  async function readingsPage(wineryId: string, runId: string, q: RunReadingsQuery): Promise<ListDto<RunReadingDto>> {
+    const run = await repo.run(wineryId, runId);
+    if (!run) throw notFound('Run');
+    const [raw, corrections] = await Promise.all([repo.readings(wineryId, runId, q.stage), repo.corrections(wineryId, runId)]);
+    const all = effectiveReadings(raw, corrections).sort((a, b) => b.at.getTime() - a.at.getTime() || b.volumeL - a.volumeL || b.stageIndex - a.stageIndex);
+    const from = (q.page - 1) * q.pageSize;
+    return { items: all.slice(from, from + q.pageSize).map(presentReading), total: all.length };
+  }
+
   return {
     detail: (t: TenantContext, id: string) => detail(t.wineryId, id),
+    readings: (t: TenantContext, id: string, q: RunReadingsQuery) => readingsPage(t.wineryId, id, q),
 
     async list(t: TenantContext): Promise<{ items: RunSummaryDto[]; total: number }> {
       const rows = await repo.list(t.wineryId, RUN_LIST_LIMIT);
