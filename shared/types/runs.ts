@@ -116,7 +116,8 @@ export type RunStageDto = {
   /** How many readings the stage has in all (voided ones included). */
   readingCount: number;
   /** The best physically valid fit; null with a reason in `note` when there is none yet. */
-  fit: ConstantFlowFit | null;
+  /** (Without the per-reading residuals, which would grow with the readings.) */
+  fit: Omit<ConstantFlowFit, 'residuals'> | null;
   /** Fitted ΔP along the readings' volumes up to terminal, for the chart. */
   curve: { volumeL: number; dpBar: number }[];
   forecast: RunForecast | null;

@@ -157,6 +157,13 @@ function finalFigures(p: { readings: EffectiveReading[]; changes: { kind: 'chang
   };
 }
 
+/** A fit as the run page gets it: its per-reading residuals stay on the server (one per reading). */
+function withoutResiduals(fit: Omit<ConstantFlowFit, 'residuals'> | null): Omit<ConstantFlowFit, 'residuals'> | null {
+  if (!fit) return null;
+  const { residuals: _residuals, ...rest } = fit as ConstantFlowFit;
+  return rest;
+}
+
 /** Why a closed run's stage has no fitted curve, in words of the past; null when it has one. */
 function closedNote(f: { fit: unknown; forecast: unknown; note: string | null }): string | null {
   if (f.fit !== null) return null;
@@ -292,6 +299,7 @@ export function createRunsService(db: Database) {
         readings: thinSeries(own, { max: CHART_POINTS_MAX, y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
         readingCount: own.length,
         ...figures,
+        fit: withoutResiduals(figures.fit),
         // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
         ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
         final,
