@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { thinSeries } from './thin';
+import { chartPointsPerStage, thinSeries } from './thin';
 
 // Min/max per bucket thinning: common practice for drawing long series, no source.
 describe('thinSeries', () => {
@@ -35,5 +35,14 @@ describe('thinSeries', () => {
     const out = thinSeries(s, { max: 50, y: (p) => p.y, keep: (p) => marked.has(p.i) });
     for (const i of marked) expect(out).toContain(s[i]);
     expect(out.length).toBeLessThanOrEqual(50);
+  });
+});
+
+describe('chartPointsPerStage', () => {
+  it('splits the run page budget over the stages, at least 50 each', () => {
+    expect(chartPointsPerStage(1)).toBe(300);
+    expect(chartPointsPerStage(2)).toBe(150);
+    expect(chartPointsPerStage(10)).toBe(50);
+    expect(chartPointsPerStage(0)).toBe(300);
   });
 });

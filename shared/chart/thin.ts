@@ -36,5 +36,7 @@ export function thinSeries<T>(items: readonly T[], opts: { max: number; y: (item
   return [...kept].sort((a, b) => a - b).map((i) => items[i]);
 }
 
-/** Points per stage the run page's chart gets at most (plus every corrected or voided reading). */
+/** Chart points a run page gets at most over all its stages (plus every corrected or voided reading). */
 export const CHART_POINTS_MAX = 300;
+/** A stage's share of the chart points: the run's budget split evenly, never below 50 per stage. */
+export const chartPointsPerStage = (stageCount: number) => Math.max(50, Math.floor(CHART_POINTS_MAX / Math.max(1, stageCount)));

@@ -107,7 +107,7 @@ export type RunStageDto = {
   housingName: string;
   terminalDpBar: number;
   /**
-   * The stage's readings thinned for the chart (at most about CHART_POINTS_MAX, plus every corrected
+   * The stage's readings thinned for the chart (at most `chartPointsPerStage` of the run, plus every corrected
    * or voided one; the first and the last always), in litre order. The fit, the forecast and the
    * final figures are computed on the server from all readings; the table pages them through
    * `GET /api/runs/:id/readings`.

@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CHART_POINTS_MAX } from '../../shared/chart/thin';
+import { chartPointsPerStage } from '../../shared/chart/thin';
 import { effectiveReadings } from '../../server/modules/runs/runs.presenter';
 import { createRunsRepository } from '../../server/modules/runs/runs.repository';
 import { stageFigures } from '../../server/modules/runs/runs.service';
@@ -71,7 +71,7 @@ describe('run detail at 5,000 readings', () => {
     const stage = bigDetail.stages[0];
     expect(bigDetail.readingCount).toBe(5000);
     expect(stage.readingCount).toBe(5000);
-    expect(stage.readings.length).toBeLessThanOrEqual(CHART_POINTS_MAX);
+    expect(stage.readings.length).toBeLessThanOrEqual(chartPointsPerStage(bigDetail.stages.length));
     expect(stage.readings[0].volumeL).toBe(0);
     expect(stage.readings.at(-1).volumeL).toBe(2 * 4999);
   });

@@ -1,4 +1,4 @@
-import { CHART_POINTS_MAX, thinSeries } from '../../../shared/chart/thin';
+import { chartPointsPerStage, thinSeries } from '../../../shared/chart/thin';
 import {
   detectFlatDp,
   fitConstantFlow,
@@ -296,7 +296,7 @@ export function createRunsService(db: Database) {
         housingName: housing?.name ?? 'Unknown housing',
         terminalDpBar,
         // The chart's points only; everything above was computed from all the stage's readings.
-        readings: thinSeries(own, { max: CHART_POINTS_MAX, y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
+        readings: thinSeries(own, { max: chartPointsPerStage(all.length), y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
         readingCount: own.length,
         ...figures,
         fit: withoutResiduals(figures.fit),
