@@ -112,7 +112,7 @@ async function request(port: number, method: string, urlPath: string, body: unkn
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const text = await res.text();
-  return { status: res.status, json: text ? (JSON.parse(text) as any) : null, setCookie: res.headers.getSetCookie() };
+  return { status: res.status, text, json: text ? (JSON.parse(text) as any) : null, setCookie: res.headers.getSetCookie() };
 }
 
 async function signIn(port: number, email: string): Promise<string> {
@@ -263,6 +263,30 @@ export async function report() {
       [bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50'],
     );
     console.log(`  cartridge list, demo ${fmt(demoList)} ms; at 10k sorted by received date ${fmt(bySort)} ms (${(bySort / demoList).toFixed(1)}×), searched ${fmt(search)} ms (${(search / demoList).toFixed(1)}×)`);
+    // The run page at 5,000 readings against the same run at 100 (one request at a time, median;
+    // the run is measured at 100, then grown to 5,000 through the batch endpoint).
+    const runPath = `/api/runs/${run.id as string}`;
+    await alternating(4, [cookie, runPath]);
+    const [run100] = await alternating(20, [cookie, runPath]);
+    const kb100 = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
+    for (let from = 100; from < 5000; from += 1000) {
+      const readings = Array.from({ length: Math.min(1000, 5000 - from) }, (_x, k) => {
+        const i = from + k;
+        return { clientKey: `bench-${String(i)}`, stageIndex: i % 2, volumeL: 60 * (i + 1), upstreamBar: 1.4 + (i - 100) * 0.0002, downstreamBar: 0.1 };
+      });
+      const res = await request(appPort, 'POST', `${runPath}/readings/batch`, { readings }, cookie);
+      if (res.status !== 200) throw new Error(`readings batch: ${String(res.status)}`);
+    }
+    await alternating(4, [cookie, runPath]);
+    const [run5k, page5k] = await alternating(20, [cookie, runPath], [cookie, `${runPath}/readings?stage=0&page=1&pageSize=10`]);
+    const kb5k = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
+    const posted = await request(appPort, 'POST', `${runPath}/readings?with=stage`, { clientKey: 'bench-5000', stageIndex: 0, volumeL: 60 * 5001, upstreamBar: 2.4, downstreamBar: 0.1 }, cookie);
+    console.log('  Run page, one request at a time (median), the same run at 100 and then 5,000 readings');
+    console.log(`  run detail, 100 readings   ${fmt(run100)} ms   ${kb100.toFixed(1)} KB`);
+    console.log(
+      `  run detail, 5,000 readings ${fmt(run5k)} ms   ${kb5k.toFixed(1)} KB   → ${(run5k / run100).toFixed(1)}× the time, ${(kb5k / kb100).toFixed(1)}× the bytes (goal ≤ 2×, ≤ 150 KB)`,
+    );
+    console.log(`  readings table page (10 of 2,500) ${fmt(page5k)} ms; a reading's POST with its stage ${(posted.text.length / 1024).toFixed(1)} KB`);
     const plan10k = async (sql: string, params: unknown[]) => {
       const res = await client.query(`explain ${sql}`, params);
       return (res.rows as { 'QUERY PLAN': string }[])

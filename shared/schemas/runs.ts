@@ -107,3 +107,19 @@ export const closeRunInputSchema = z.object({
   notes: z.string().trim().max(RUN_NOTES_MAX).optional(),
 });
 export type CloseRunInput = z.infer<typeof closeRunInputSchema>;
+
+/** Readings a page of a run's readings table holds at most. */
+export const RUN_READINGS_PAGE_MAX = 100;
+
+/** `GET /api/runs/:id/readings?stage=&page=&pageSize=`: one stage (or all when left out), newest first. */
+export const runReadingsQuerySchema = z.object({
+  stage: z.coerce.number({ error: 'Stage is a number.' }).int({ error: 'Stage is a whole number.' }).min(0, { error: 'Stages start at 0.' }).max(20, { error: 'A train has at most 21 stages.' }).optional(),
+  page: z.coerce.number({ error: 'Page is a number.' }).int({ error: 'Page is a whole number.' }).min(1, { error: 'Pages start at 1.' }).max(100_000, { error: 'That page is too far.' }).default(1),
+  pageSize: z.coerce
+    .number({ error: 'Page size is a number.' })
+    .int({ error: 'Page size is a whole number.' })
+    .min(1, { error: 'At least 1 per page.' })
+    .max(RUN_READINGS_PAGE_MAX, { error: `At most ${String(RUN_READINGS_PAGE_MAX)} per page.` })
+    .default(10),
+});
+export type RunReadingsQuery = z.output<typeof runReadingsQuerySchema>;

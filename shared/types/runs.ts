@@ -106,9 +106,18 @@ export type RunStageDto = {
   housingId: string;
   housingName: string;
   terminalDpBar: number;
+  /**
+   * The stage's readings thinned for the chart (at most `chartPointsPerStage` of the run, plus every corrected
+   * or voided one; the first and the last always), in litre order. The fit, the forecast and the
+   * final figures are computed on the server from all readings; the table pages them through
+   * `GET /api/runs/:id/readings`.
+   */
   readings: RunReadingDto[];
+  /** How many readings the stage has in all (voided ones included). */
+  readingCount: number;
   /** The best physically valid fit; null with a reason in `note` when there is none yet. */
-  fit: ConstantFlowFit | null;
+  /** (Without the per-reading residuals, which would grow with the readings.) */
+  fit: Omit<ConstantFlowFit, 'residuals'> | null;
   /** Fitted ΔP along the readings' volumes up to terminal, for the chart. */
   curve: { volumeL: number; dpBar: number }[];
   forecast: RunForecast | null;

@@ -6,6 +6,7 @@ import {
   correctReadingInputSchema,
   logReadingInputSchema,
   logReadingsBatchInputSchema,
+  runReadingsQuerySchema,
   runChangeInputSchema,
   startRunInputSchema,
   voidReadingInputSchema,
@@ -53,6 +54,10 @@ export function runsRoutes({ db }: ModuleDeps) {
   router.get('/runs/:id', ...read, async (req, res) => {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Run')));
   });
+  // The run's stored readings, newest first, a page at a time (the run detail carries only the chart's points).
+  router.get('/runs/:id/readings', ...read, withQuery(runReadingsQuerySchema, async (req, res, query) => {
+    res.json(await service.readings(tenantOf(res), idParam(req, 'id', 'Run'), query));
+  }));
   // Idempotent by the reading's clientKey: a resent reading answers the stored one.
   // `?with=stage` adds the stage's new figures, so the phone need not reload the run.
   router.post('/runs/:id/readings', ...log, withBody(logReadingInputSchema, async (req, res, body) => {

@@ -1,3 +1,4 @@
+import { chartPointsPerStage, thinSeries } from '../../../shared/chart/thin';
 import {
   detectFlatDp,
   fitConstantFlow,
@@ -15,6 +16,7 @@ import type {
   LogReadingsBatchInput,
   RunBlockReason,
   RunChangeInput,
+  RunReadingsQuery,
   StartRunInput,
   VoidReadingInput,
 } from '../../../shared/schemas/runs';
@@ -22,12 +24,14 @@ import type {
   LoggedReadingDto,
   ReadingsBatchResultDto,
   RunDetailDto,
+  RunReadingDto,
   RunStageDto,
   RunStageFinalDto,
   RunStartCheckDto,
   RunStartOptionDto,
   RunSummaryDto,
 } from '../../../shared/types/runs';
+import type { ListDto } from '../../../shared/types/api';
 import type { Database, DbOrTx } from '../../db/client';
 import type { PlanTrainStage } from '../../db/schema';
 import { badRequest, conflict, forbidden, HttpError, notFound } from '../../lib/errors';
@@ -153,6 +157,13 @@ function finalFigures(p: { readings: EffectiveReading[]; changes: { kind: 'chang
     maxDpBar,
     terminalReached: maxDpBar !== null && p.terminalDpBar > 0 && maxDpBar >= p.terminalDpBar,
   };
+}
+
+/** A fit as the run page gets it: its per-reading residuals stay on the server (one per reading). */
+function withoutResiduals(fit: Omit<ConstantFlowFit, 'residuals'> | null): Omit<ConstantFlowFit, 'residuals'> | null {
+  if (!fit) return null;
+  const { residuals: _residuals, ...rest } = fit as ConstantFlowFit;
+  return rest;
 }
 
 /** Why a closed run's stage has no fitted curve, in words of the past; null when it has one. */
@@ -286,8 +297,11 @@ export function createRunsService(db: Database) {
         housingId: s.housingId,
         housingName: housing?.name ?? 'Unknown housing',
         terminalDpBar,
-        readings: own.map(presentReading),
+        // The chart's points only; everything above was computed from all the stage's readings.
+        readings: thinSeries(own, { max: chartPointsPerStage(all.length), y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
+        readingCount: own.length,
         ...figures,
+        fit: withoutResiduals(figures.fit),
         // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
         ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
         final,
@@ -332,8 +346,22 @@ export function createRunsService(db: Database) {
     return conflict('The reading could not be stored; send it again.');
   }
 
+  /**
+   * A run's stored readings, newest first (time, then litres), with their corrections applied and
+   * listed; one stage or all. For the run page's tables, which page rather than load thousands.
+   */
+  async function readingsPage(wineryId: string, runId: string, q: RunReadingsQuery): Promise<ListDto<RunReadingDto>> {
+    const run = await repo.run(wineryId, runId);
+    if (!run) throw notFound('Run');
+    const [raw, corrections] = await Promise.all([repo.readings(wineryId, runId, q.stage), repo.corrections(wineryId, runId)]);
+    const all = effectiveReadings(raw, corrections).sort((a, b) => b.at.getTime() - a.at.getTime() || b.volumeL - a.volumeL || b.stageIndex - a.stageIndex);
+    const from = (q.page - 1) * q.pageSize;
+    return { items: all.slice(from, from + q.pageSize).map(presentReading), total: all.length };
+  }
+
   return {
     detail: (t: TenantContext, id: string) => detail(t.wineryId, id),
+    readings: (t: TenantContext, id: string, q: RunReadingsQuery) => readingsPage(t.wineryId, id, q),
 
     async list(t: TenantContext): Promise<{ items: RunSummaryDto[]; total: number }> {
       const rows = await repo.list(t.wineryId, RUN_LIST_LIMIT);

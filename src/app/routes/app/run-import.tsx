@@ -29,6 +29,7 @@ export default function RunImportRoute() {
       backTo={paths.run(runId)}
       onImported={() => {
         void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
+        void qc.invalidateQueries({ queryKey: runKeys.readings(runId) });
         void qc.invalidateQueries({ queryKey: runKeys.list() });
         navigate(paths.run(runId));
       }}

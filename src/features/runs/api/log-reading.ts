@@ -12,6 +12,8 @@ export const logReading = ({ runId, input }: { runId: string; input: LogReadingI
 /** Puts the server's answer for one reading into the cached run: its stage and the run's totals. */
 export function applyLoggedReading(qc: QueryClient, runId: string, answer: LoggedReadingDto) {
   const { stage, run } = answer;
+  // The readings tables page from the server: they load the new reading afresh.
+  void qc.invalidateQueries({ queryKey: runKeys.readings(runId) });
   if (!stage || !run) {
     void qc.invalidateQueries({ queryKey: runKeys.detail(runId) });
     return;
@@ -26,7 +28,10 @@ onEntryStored('reading', (entry, answer, qc) => {
   if (!entry.runId) return;
   const a = answer as Partial<LoggedReadingDto> | null;
   if (a && 'stage' in a && a.stage) applyLoggedReading(qc, entry.runId, a as LoggedReadingDto);
-  else void qc.invalidateQueries({ queryKey: runKeys.detail(entry.runId) });
+  else {
+    void qc.invalidateQueries({ queryKey: runKeys.detail(entry.runId) });
+    void qc.invalidateQueries({ queryKey: runKeys.readings(entry.runId) });
+  }
 });
 
 /**

@@ -24,9 +24,21 @@ export const voidReading = ({ runId, readingId, input }: { runId: string; readin
   api.post<RunDetailDto>(`/runs/${encodeURIComponent(runId)}/readings/${encodeURIComponent(readingId)}/void`, input);
 export function useCorrectReading() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: correctReading, onSuccess: (run) => qc.setQueryData(runKeys.detail(run.id), run) });
+  return useMutation({
+    mutationFn: correctReading,
+    onSuccess: (run) => {
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.readings(run.id) });
+    },
+  });
 }
 export function useVoidReading() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: voidReading, onSuccess: (run) => qc.setQueryData(runKeys.detail(run.id), run) });
+  return useMutation({
+    mutationFn: voidReading,
+    onSuccess: (run) => {
+      qc.setQueryData(runKeys.detail(run.id), run);
+      void qc.invalidateQueries({ queryKey: runKeys.readings(run.id) });
+    },
+  });
 }

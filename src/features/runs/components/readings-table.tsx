@@ -6,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import type { OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useUnits } from '@/lib/units';
 import { formatDayMonthTime } from '@/lib/dates';
+import { useRunReadings } from '../api/get-run-readings';
 
 const PAGE = 10;
 
@@ -15,6 +16,7 @@ export type ReadingRow =
   | { kind: 'kept'; entry: OutboxEntry; input: LogReadingInput };
 
 export interface ReadingsTableProps {
+  runId: string;
   stage: RunStageDto;
   /** This stage's readings kept on the device, not yet stored. */
   kept: OutboxEntry[];
@@ -44,16 +46,22 @@ function KeptBadge({ entry }: { entry: OutboxEntry }) {
   );
 }
 
-/** The readings of one stage, newest first, with those still waiting to send marked. */
-export function ReadingsTable({ stage, kept, rowActions }: ReadingsTableProps) {
+/**
+ * The readings of one stage, newest first, a page at a time from the server; those still waiting
+ * to send (kept on this device) stand on top of the first page, marked.
+ */
+export function ReadingsTable({ runId, stage, kept, rowActions }: ReadingsTableProps) {
   const units = useUnits();
-  const [shown, setShown] = useState(PAGE);
+  const [pageNo, setPageNo] = useState(1);
+  const stored = useRunReadings(runId, stage.index, pageNo, PAGE);
+  const total = stored.data?.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / PAGE));
   const rows: ReadingRow[] = [
-    ...kept.map((entry) => ({ kind: 'kept' as const, entry, input: entry.body as LogReadingInput })).reverse(),
-    ...[...stage.readings].sort((a, b) => b.at.localeCompare(a.at) || b.volumeL - a.volumeL).map((reading) => ({ kind: 'stored' as const, reading })),
+    ...(pageNo === 1 ? kept.map((entry) => ({ kind: 'kept' as const, entry, input: entry.body as LogReadingInput })).reverse() : []),
+    ...(stored.data?.items ?? []).map((reading) => ({ kind: 'stored' as const, reading })),
   ];
-  if (rows.length === 0) return null;
-  const page = rows.slice(0, shown);
+  if (rows.length === 0 && pageNo === 1) return null;
+  const page = rows;
   const cells = (r: ReadingRow) => {
     const x = r.kind === 'stored' ? r.reading : { ...r.input, at: r.input.at ?? r.entry.createdAt, dpBar: r.input.upstreamBar - r.input.downstreamBar, byName: null };
     return {
@@ -136,10 +144,18 @@ export function ReadingsTable({ stage, kept, rowActions }: ReadingsTableProps) {
           </tbody>
         </table>
       </div>
-      {rows.length > shown ? (
-        <Button variant="ghost" size="md" onClick={() => setShown((n) => n + PAGE)}>
-          Show {Math.min(PAGE, rows.length - shown)} more of {rows.length - shown}
-        </Button>
+      {pages > 1 ? (
+        <nav aria-label={`Pages of ${stage.name}'s readings`} className="flex flex-wrap items-center justify-between gap-2">
+          <Button variant="ghost" size="md" disabled={pageNo <= 1} onClick={() => setPageNo((n) => Math.max(1, n - 1))}>
+            Newer
+          </Button>
+          <span className="num text-sm text-ink-600">
+            Page {pageNo.toLocaleString('en')} of {pages.toLocaleString('en')} · {total.toLocaleString('en')} stored
+          </span>
+          <Button variant="ghost" size="md" disabled={pageNo >= pages} onClick={() => setPageNo((n) => Math.min(pages, n + 1))}>
+            Older
+          </Button>
+        </nav>
       ) : null}
     </div>
   );

@@ -85,7 +85,7 @@ function FinalFigures({ stage, final }: { stage: RunStageDto; final: RunStageFin
   );
 }
 
-function StageCard({ stage, kept, rowActions, importTo }: { stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode; importTo?: string }) {
+function StageCard({ runId, stage, kept, rowActions, importTo }: { runId: string; stage: RunStageDto; kept: OutboxEntry[]; rowActions?: (reading: RunReadingDto) => ReactNode; importTo?: string }) {
   const units = useUnits();
   const f = stage.forecast;
   const view = forecastView(f, stage.note, (litres) => units.format('volume', litres));
@@ -133,11 +133,11 @@ function StageCard({ stage, kept, rowActions, importTo }: { stage: RunStageDto; 
           </Suspense>
         ) : null}
         <p className="text-sm text-ink-600">
-          {stage.readings.length} reading{stage.readings.length === 1 ? '' : 's'}
+          {stage.readingCount.toLocaleString('en')} reading{stage.readingCount === 1 ? '' : 's'}
           {stage.readings.length > 0 ? <> · last ΔP {units.format('dp', stage.readings[stage.readings.length - 1].dpBar)}</> : null}
           {kept.length > 0 ? <> · {kept.length} waiting to send</> : null}
         </p>
-        <ReadingsTable stage={stage} kept={kept} rowActions={rowActions} />
+        <ReadingsTable runId={runId} stage={stage} kept={kept} rowActions={rowActions} />
         {importTo ? (
           <Link to={importTo} className="inline-flex min-h-11 items-center gap-2 self-start font-semibold text-primary-700 hover:underline">
             <FileUp aria-hidden="true" className="size-5" /> Import logger file
@@ -205,6 +205,7 @@ export function RunPage({ runId, readingActions }: RunPageProps) {
       {r.stages.map((s) => (
         <StageCard
           key={s.index}
+          runId={r.id}
           stage={s}
           kept={keptOf(s.index)}
           rowActions={readingActions ? (reading) => readingActions(reading, s) : undefined}
