@@ -181,8 +181,8 @@ describe('the stock rule', () => {
     });
     expect(short).toMatchObject({ severity: 'warning', link: `/plans/${plan.id}`, clearedAt: null });
     const subject = new RegExp(`${plan.name} is short of cartridges`);
-    await app.mail.waitFor(ownerEmail, { subject, timeoutMs: 10_000 });
-    await app.mail.waitFor(cellarMaster.email, { subject, timeoutMs: 10_000 });
+    await app.mail.waitFor(ownerEmail, { subject, timeoutMs: 30_000 });
+    await app.mail.waitFor(cellarMaster.email, { subject, timeoutMs: 30_000 });
 
     // The next day's check: still short, still one alert and one mail each.
     await app.queue.boss.send(ALERTS_STOCK_QUEUE, { nowMs: sixAm + 86_400_000, wineryId });
