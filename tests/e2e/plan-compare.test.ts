@@ -2,28 +2,18 @@
 // Comparing train options on the plan page (issue: plans you can approve with confidence): one
 // table with the figures aligned row by row across options and the best value per row marked,
 // one summary line per option; on a phone one option at a time with a switcher, and a short page.
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
 import { join } from 'node:path';
-import { clientDir, launchBrowser, outputDir, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupBrowserApp, outputDir, screenshot, watchPageErrors } from '../support/browser';
+import { signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 async function open(client: Client, url: string, viewport: { width: number; height: number }) {
   const mobile = viewport.width < 500;
-  const ctx = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
+  const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
   await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
   const page = await ctx.newPage();
   const errors = watchPageErrors(page);

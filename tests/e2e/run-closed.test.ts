@@ -4,24 +4,13 @@
 // "left", no alarm, no watch.
 import { format } from 'date-fns';
 import { fr as frLocale } from 'date-fns/locale/fr';
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { formatQuantity } from '../../shared/engine';
 import { closedRun } from '../factories/closed-run';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupBrowserApp, screenshot, watchPageErrors } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('a closed run’s page', () => {
   it('shows each stage’s final litres, last ΔP and whether terminal ΔP was reached, and no forecast or alarm', async () => {
@@ -33,7 +22,7 @@ describe('a closed run’s page', () => {
       { width: 390, height: 844 },
     ]) {
       const mobile = viewport.width < 500;
-      const ctx = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
+      const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
       await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
       const page = await ctx.newPage();
       const errors = watchPageErrors(page);
@@ -69,7 +58,7 @@ describe('a closed run’s page', () => {
     }
 
     // Dates follow the person's language: a French browser loads the French date locale.
-    const french = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'fr-FR' });
+    const french = await app.browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'fr-FR' });
     await french.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
     const page = await french.newPage();
     const errors = watchPageErrors(page);

@@ -2,23 +2,12 @@
 // The run page at many readings: the stage's readings table pages from the server (newest first)
 // and the chart draws the thinned points.
 import { randomUUID } from 'node:crypto';
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { clientDir, launchBrowser, screenshot, watchPageErrors } from '../support/browser';
-import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupBrowserApp, screenshot, watchPageErrors } from '../support/browser';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startTestApp({ config: { clientDir } });
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-});
+const app = setupBrowserApp();
 
 describe('a run page with many readings', () => {
   it('pages the readings table and draws the chart', async () => {
@@ -47,7 +36,7 @@ describe('a run page with many readings', () => {
       { width: 390, height: 844 },
     ]) {
       const mobile = viewport.width < 500;
-      const ctx = await browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
+      const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
       await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
       const page = await ctx.newPage();
       const errors = watchPageErrors(page);
