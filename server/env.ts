@@ -40,6 +40,10 @@ const envSchema = z.object({
   MAIL_RETRY_DELAY_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
   MAIL_RETRY_LIMIT: z.coerce.number().int().min(0).max(20).default(6),
   QUEUE_POLL_SECONDS: z.coerce.number().min(0.5).max(60).default(2),
+  /** A mail job a stopped process left half-done is given back to the queue after this long. */
+  MAIL_EXPIRE_SECONDS: z.coerce.number().int().min(1).max(3600).default(120),
+  /** How often the queue's upkeep runs (expired jobs back to the queue, old ones archived). */
+  QUEUE_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(120),
   /** Connections this process's app pool may open (the job queue keeps 4 more of its own). */
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(500).default(10),
   /**

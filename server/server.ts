@@ -46,6 +46,8 @@ export async function startServer(env: Env) {
     schema: env.QUEUE_SCHEMA,
     mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
     mailRetryLimit: env.MAIL_RETRY_LIMIT,
+    mailExpireSeconds: env.MAIL_EXPIRE_SECONDS,
+    maintenanceIntervalSeconds: env.QUEUE_MAINTENANCE_SECONDS,
     pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
     workers,
   });

@@ -25,6 +25,8 @@ const queue = await createQueue({
   schema: env.QUEUE_SCHEMA,
   mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
   mailRetryLimit: env.MAIL_RETRY_LIMIT,
+  mailExpireSeconds: env.MAIL_EXPIRE_SECONDS,
+  maintenanceIntervalSeconds: env.QUEUE_MAINTENANCE_SECONDS,
   pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
 });
 const alerts = createAlertsService({ db, mailer: queuedMailer(queue), appUrl: env.appUrl });

@@ -23,6 +23,10 @@ export type QueueOptions = {
   mailRetryDelaySeconds?: number;
   /** Retries after the first attempt. */
   mailRetryLimit?: number;
+  /** Seconds before a mail job left active by a stopped process goes back to the queue (default 120). */
+  mailExpireSeconds?: number;
+  /** Seconds between the queue's upkeep runs, which return expired jobs (default 120). */
+  maintenanceIntervalSeconds?: number;
   /** Seconds between polls for new jobs. */
   pollingIntervalSeconds?: number;
   /** False for a web-only process: it enqueues, and leaves upkeep and schedules to the workers. */
@@ -44,14 +48,21 @@ export type Queue = Awaited<ReturnType<typeof createQueue>>;
 export async function createQueue(opts: QueueOptions) {
   const schema = opts.schema ?? 'pgboss';
   const workers = opts.workers ?? true;
-  const boss = new PgBoss({ connectionString: opts.connectionString, schema, max: 4, supervise: workers, schedule: workers });
+  const boss = new PgBoss({
+    connectionString: opts.connectionString,
+    schema,
+    max: 4,
+    supervise: workers,
+    schedule: workers,
+    maintenanceIntervalSeconds: opts.maintenanceIntervalSeconds ?? 120,
+  });
   boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
   await boss.start();
   const retryDelay = opts.mailRetryDelaySeconds ?? DEFAULT_MAIL_RETRY_DELAY_SECONDS;
   const retryLimit = opts.mailRetryLimit ?? DEFAULT_MAIL_RETRY_LIMIT;
   for (const name of QUEUES) {
     if (!(await boss.getQueue(name))) {
-      await boss.createQueue(name, name === MAIL_QUEUE ? { name, retryLimit, retryDelay, retryBackoff: true, expireInSeconds: 120 } : { name, retryLimit: 2, retryDelay: 30 });
+      await boss.createQueue(name, name === MAIL_QUEUE ? { name, retryLimit, retryDelay, retryBackoff: true, expireInSeconds: opts.mailExpireSeconds ?? 120 } : { name, retryLimit: 2, retryDelay: 30 });
     }
   }
   let stopped = false;

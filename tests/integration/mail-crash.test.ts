@@ -38,6 +38,9 @@ async function startServerProcess(port: number, smtpPort: number) {
       QUEUE_SCHEMA: schema,
       MAIL_RETRY_DELAY_SECONDS: '1',
       QUEUE_POLL_SECONDS: '0.5',
+      // The first process may have taken the job before it was killed: it comes back after this.
+      MAIL_EXPIRE_SECONDS: '5',
+      QUEUE_MAINTENANCE_SECONDS: '1',
       RATE_LIMIT_SCALE: '100',
       FAKE_SERVICES_DIR: dir,
       CLIENT_DIR: join(dir, 'no-client'),
