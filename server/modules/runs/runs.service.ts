@@ -56,8 +56,8 @@ export const RUN_LIST_LIMIT = 100;
 export const MIN_READINGS_FOR_FIT = 3;
 const CURVE_POINTS = 40;
 
-/** Points of the fitted curve from clean ΔP to terminal, by inverting the fit with the engine. */
-function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: number) {
+/** Points of the fitted curve from clean ΔP to terminal, by inverting the fit with the engine (the run page's chart; the closed run's record freezes it). */
+export function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: number) {
   const top = Math.max(terminalDpBar, fit.dp0Bar);
   const out: { volumeL: number; dpBar: number }[] = [];
   for (let i = 0; i <= CURVE_POINTS; i++) {
