@@ -38,6 +38,13 @@ function checkKJ0(k: number, j0: number): void {
   requirePositive('initial flux J0', j0);
 }
 
+/** The arguments of the time forms (v(t), J(t)): a known law, k ≥ 0, J0 > 0, t ≥ 0. */
+function checkTimeArgs(law: BlockingLaw, p: { k: number; j0: number; t: number }): void {
+  checkLaw(law);
+  checkKJ0(p.k, p.j0);
+  requireNonNegative('time t', p.t);
+}
+
 /** (1 − e^(−z))/z, accurate near z = 0. */
 function oneMinusExpOverZ(z: number): number {
   return z === 0 ? 1 : -Math.expm1(-z) / z;
@@ -57,9 +64,7 @@ function log1pOverZ(z: number): number {
  * @returns v in the volume-per-area unit of J0·t (e.g. L m⁻² with J0 in L m⁻² min⁻¹ and t in min)
  */
 export function blockingVolume(law: BlockingLaw, p: { k: number; j0: number; t: number }): number {
-  checkLaw(law);
-  checkKJ0(p.k, p.j0);
-  requireNonNegative('time t', p.t);
+  checkTimeArgs(law, p);
   const { k, j0, t } = p;
   switch (law) {
     case 'complete':
@@ -81,9 +86,7 @@ export function blockingVolume(law: BlockingLaw, p: { k: number; j0: number; t: 
  * @returns J in the unit of J0
  */
 export function blockingFlux(law: BlockingLaw, p: { k: number; j0: number; t: number }): number {
-  checkLaw(law);
-  checkKJ0(p.k, p.j0);
-  requireNonNegative('time t', p.t);
+  checkTimeArgs(law, p);
   const { k, j0, t } = p;
   switch (law) {
     case 'complete':

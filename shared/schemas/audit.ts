@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { Action } from '../permissions';
-import { PAGE_SIZE_MAX } from './list';
+import { pageFields } from './list';
 
 /** Kinds of record the change log names. */
 export const auditKinds = [
@@ -134,15 +134,7 @@ export const auditFilterSchema = z
 export type AuditFilter = z.infer<typeof auditFilterSchema>;
 
 export const auditListQuerySchema = auditFilterSchema.and(
-  z.object({
-    page: z.coerce.number({ error: 'Page is a number.' }).int().min(1, { error: 'Pages start at 1.' }).default(1),
-    pageSize: z.coerce
-      .number({ error: 'Page size is a number.' })
-      .int()
-      .min(1)
-      .max(PAGE_SIZE_MAX, { error: `At most ${PAGE_SIZE_MAX} per page.` })
-      .default(AUDIT_PAGE_SIZE_DEFAULT),
-  }),
+  z.object(pageFields(AUDIT_PAGE_SIZE_DEFAULT)),
 );
 export type AuditListQuery = z.infer<typeof auditListQuerySchema>;
 

@@ -14,6 +14,9 @@ export type LifeInput = { cartridge: LifeCartridgeRow['cartridge']; housingName:
 export function createLifeInputsService(db: Database) {
   const repo = createLifeInputsRepository(db);
   return {
+    /** The ratings the life forecast reads, and the name shown, of every cartridge type of the winery (Today's stored life checks read them too). */
+    lifeTypes: (wineryId: string): Promise<LifeTypeRow[]> => repo.lifeTypes(wineryId),
+
     async lifeInputs(wineryId: string, opts: { housings?: boolean } = {}): Promise<{ items: LifeInput[]; housings: Map<string, LifeHousingRow> }> {
       const [types, rows, housings] = await Promise.all([
         repo.lifeTypes(wineryId),

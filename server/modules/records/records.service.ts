@@ -1,4 +1,4 @@
-import { fitConstantFlow, formatNumber, volumeAtDp, type ConstantFlowFit, type TrainSizingResult } from '../../../shared/engine';
+import { fitConstantFlow, formatNumber, type TrainSizingResult } from '../../../shared/engine';
 import { sizePlanTrain } from '../../../shared/adapters/plans';
 import type { RecordLotsQuery, VerifyRecordInput } from '../../../shared/schemas/records';
 import type {
@@ -20,6 +20,7 @@ import { sha256OfCanonical } from '../../lib/canonical-json';
 import { notFound } from '../../lib/errors';
 import type { TenantContext } from '../../middleware/authorize';
 import { planCatalogue } from '../plans/plans.service';
+import { fittedCurve } from '../runs/runs.service';
 import { createWinerySettingsService } from '../winery-settings/winery-settings.service';
 import { judgeReadinessAt } from './readiness-at-start';
 import { presentCartridge, presentChange, presentIntegrityTest, presentLotListItem, presentReading, presentSanitation } from './records.presenter';
@@ -31,29 +32,8 @@ export const READINESS_CURRENT_NOTE =
 
 /** Readings a stage needs before its ΔP curve is fitted (as on the run page). */
 export const RECORD_MIN_READINGS_FOR_FIT = 3;
-const CURVE_POINTS = 40;
 const iso = (d: Date) => d.toISOString();
 const litres = (v: number) => `${formatNumber(v, 0)} L`;
-
-/** The fitted ΔP from clean to terminal, by inverting the engine's fit (the run page's chart, frozen). */
-function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: number) {
-  const top = Math.max(terminalDpBar, fit.dp0Bar);
-  const out: { volumeL: number; dpBar: number }[] = [];
-  for (let i = 0; i <= CURVE_POINTS; i++) {
-    const dp = fit.dp0Bar + ((top - fit.dp0Bar) * i) / CURVE_POINTS;
-    if (dp <= 0) continue;
-    let v: number;
-    try {
-      v = volumeAtDp(fit, dp);
-    } catch {
-      break;
-    }
-    if (!Number.isFinite(v)) break;
-    out.push({ volumeL: v, dpBar: dp });
-    if (v > Math.max(maxVolumeL * 20, 1)) break;
-  }
-  return out;
-}
 
 /** Bottles a volume fills, whole bottles only; null without a bottle size. */
 export function bottlesOf(volumeL: number, bottleMl: number | null): number | null {
@@ -234,6 +214,7 @@ export function createRecordsService(db: Database) {
         if (!best) fitNote = 'ΔP did not rise with the litres on these readings, so no law could be fitted.';
         else {
           fit = { law: best.law, dp0Bar: best.dp0Bar, kPerL: best.kPerL, r2: best.r2, n: best.n };
+          // the run page's chart, frozen
           curve = terminalDpBar > 0 ? fittedCurve(best, terminalDpBar, Math.max(...points.map((q) => q.volumeL))) : [];
         }
       }

@@ -45,18 +45,15 @@ export function createRunsInProgressService(db: Database) {
             const type = row.types.find((t) => t.id === s.cartridgeTypeId);
             const counted = readings.filter((r) => r.stageIndex === index && !r.voided);
             const terminalDpBar = type?.terminalDpBar ?? 0;
-            const figures =
-              terminalDpBar > 0
-                ? stageFigures({
-                    readings: counted,
-                    terminalDpBar,
-                    lineFlowLh,
-                    currentVolumeL,
-                    volumeToBottleL,
-                    restartsAtL: row.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
-                    resolutionBar,
-                  })
-                : { forecast: null, alarm: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+            const figures = stageFigures({
+              readings: counted,
+              terminalDpBar,
+              lineFlowLh,
+              currentVolumeL,
+              volumeToBottleL,
+              restartsAtL: row.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
+              resolutionBar,
+            });
             const last = counted[counted.length - 1];
             const f = figures.forecast;
             return {

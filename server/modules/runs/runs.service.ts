@@ -56,8 +56,8 @@ export const RUN_LIST_LIMIT = 100;
 export const MIN_READINGS_FOR_FIT = 3;
 const CURVE_POINTS = 40;
 
-/** Points of the fitted curve from clean ΔP to terminal, by inverting the fit with the engine. */
-function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: number) {
+/** Points of the fitted curve from clean ΔP to terminal, by inverting the fit with the engine (the run page's chart; the closed run's record freezes it). */
+export function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: number) {
   const top = Math.max(terminalDpBar, fit.dp0Bar);
   const out: { volumeL: number; dpBar: number }[] = [];
   for (let i = 0; i <= CURVE_POINTS; i++) {
@@ -74,8 +74,10 @@ function fittedCurve(fit: ConstantFlowFit, terminalDpBar: number, maxVolumeL: nu
   return out;
 }
 
+/** A stage's fit, curve, forecast and alarm; a terminal ΔP not above zero (the stage's cartridge type is gone from the catalogue) gives none, with a note. */
 export function stageFigures(p: {
   readings: EffectiveReading[];
+  /** The stage's cartridge type's terminal ΔP, bar; 0 when the type is no longer in the catalogue. */
   terminalDpBar: number;
   lineFlowLh: number | null;
   currentVolumeL: number;
@@ -84,6 +86,7 @@ export function stageFigures(p: {
   /** The winery's gauge resolution, bar: a smaller ΔP rise is not fouling. */
   resolutionBar?: number;
 }): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning'> {
+  if (!(p.terminalDpBar > 0)) return { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
   const latestFlow = [...p.readings].reverse().find((r) => r.flowLh !== null && r.flowLh > 0)?.flowLh ?? null;
   const flowLh = latestFlow ?? p.lineFlowLh;
   const dpPoints = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
@@ -274,19 +277,16 @@ export function createRunsService(db: Database) {
       const own = readings.filter((r) => r.stageIndex === index);
       const counted = own.filter((r) => !r.voided);
       const terminalDpBar = type?.terminalDpBar ?? 0;
-      const figures =
-        terminalDpBar > 0
-          ? stageFigures({
-              readings: counted,
-              terminalDpBar,
-              lineFlowLh,
-              currentVolumeL: summary.currentVolumeL,
-              volumeToBottleL,
-              // A change or regeneration restores the stage: the forecast starts again from there.
-              restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
-              resolutionBar,
-            })
-          : { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
+      const figures = stageFigures({
+        readings: counted,
+        terminalDpBar,
+        lineFlowLh,
+        currentVolumeL: summary.currentVolumeL,
+        volumeToBottleL,
+        // A change or regeneration restores the stage: the forecast starts again from there.
+        restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
+        resolutionBar,
+      });
       // A closed run is a record: its final figures, never a forecast or an alarm.
       const final = summary.run.status === 'closed' ? finalFigures({ readings: counted, changes: changes.filter((c) => c.stageIndex === index), volumeL: summary.currentVolumeL, terminalDpBar }) : null;
       return {

@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, gte, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, cartridgeTypesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
+import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
 
 /** One event as the aggregate gives it: kind, time (ms since the Unix epoch), details. */
 type LifeEventTuple = [kind: (typeof LIFE_EVENT_KINDS)[number], atMs: number, details: Record<string, unknown> | null];
@@ -53,23 +53,6 @@ export function createTodayRepository(db: DbOrTx) {
         .leftJoin(installedPerHousing, eq(installedPerHousing.housingId, housingsTable.id))
         .where(eq(housingsTable.wineryId, wineryId));
       return { housings: row?.housings ?? 0, housingsWithFreeRounds: row?.withFree ?? 0, tanks: row?.tanks ?? 0 };
-    },
-
-    /** The ratings the life forecast reads, and the name shown, of every cartridge type of the winery. */
-    async lifeTypes(wineryId: string) {
-      return db
-        .select({
-          id: cartridgeTypesTable.id,
-          name: cartridgeTypesTable.name,
-          ratedSteamCycles: cartridgeTypesTable.ratedSteamCycles,
-          ratedHotWaterCycles: cartridgeTypesTable.ratedHotWaterCycles,
-          ratedChemicalCycles: cartridgeTypesTable.ratedChemicalCycles,
-          flowRecoveryMinPct: cartridgeTypesTable.flowRecoveryMinPct,
-          waterFlowLhPer10in: cartridgeTypesTable.waterFlowLhPer10in,
-          waterDpBar: cartridgeTypesTable.waterDpBar,
-        })
-        .from(cartridgeTypesTable)
-        .where(eq(cartridgeTypesTable.wineryId, wineryId));
     },
 
     /**
@@ -151,4 +134,3 @@ export function createTodayRepository(db: DbOrTx) {
 }
 export type TodayRepository = ReturnType<typeof createTodayRepository>;
 export type TodayCartridgeRow = Awaited<ReturnType<TodayRepository['flaggedCartridges']>>['rows'][number];
-export type TodayLifeType = Awaited<ReturnType<TodayRepository['lifeTypes']>>[number];

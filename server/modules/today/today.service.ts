@@ -5,6 +5,7 @@ import type { TodayCartridgeFigure, TodayDto, TodayPlanDto } from '../../../shar
 import type { Database } from '../../db/client';
 import type { TenantContext } from '../../middleware/authorize';
 import { createCartridgesService, lifeVerdictFromHistory } from '../cartridges/cartridges.service';
+import { createLifeInputsService } from '../cartridges/life-inputs.service';
 import { createCellarService } from '../cellar/cellar.service';
 import { createPlansService } from '../plans/plans.service';
 import { createRunsInProgressService } from '../runs/runs-in-progress.service';
@@ -110,6 +111,7 @@ export function createTodayService(db: Database) {
   const repo = createTodayRepository(db);
   const cellar = createCellarService(db);
   const cartridges = createCartridgesService(db);
+  const lifeInputs = createLifeInputsService(db);
   const plans = createPlansService(db);
   const runsInProgress = createRunsInProgressService(db);
 
@@ -134,7 +136,7 @@ export function createTodayService(db: Database) {
   async function cartridgesToLookAt(wineryId: string, now: Date) {
     // The flagged ones are read alongside; read again only when some checks had to be stored.
     const [types, stale, flaggedBefore] = await Promise.all([
-      repo.lifeTypes(wineryId),
+      lifeInputs.lifeTypes(wineryId),
       repo.staleLifeChecks(wineryId),
       repo.flaggedCartridges(wineryId, TODAY_CARTRIDGES_MAX),
     ]);
