@@ -84,11 +84,19 @@ export function stageFigures(p: {
   /** The winery's gauge resolution, bar: a smaller ΔP rise is not fouling. */
   resolutionBar?: number;
 }): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning'> {
-  const latestFlow = [...p.readings].reverse().find((r) => r.flowLh !== null && r.flowLh > 0)?.flowLh ?? null;
+  let latestFlow: number | null = null;
+  for (let i = p.readings.length - 1; i >= 0; i--) {
+    const f = p.readings[i].flowLh;
+    if (f !== null && f > 0) {
+      latestFlow = f;
+      break;
+    }
+  }
   const flowLh = latestFlow ?? p.lineFlowLh;
   const dpPoints = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
+  const lastRestartL = Math.max(0, ...(p.restartsAtL ?? []));
   const flat = detectFlatDp(
-    dpPoints.filter((q) => q.volumeL >= Math.max(0, ...(p.restartsAtL ?? []))),
+    dpPoints.filter((q) => q.volumeL >= lastRestartL),
     { resolutionBar: p.resolutionBar },
   );
   const flatWarning = flat.flat ? flat.reason : null;
