@@ -266,7 +266,7 @@ export function createRunsService(db: Database) {
     const [types, housings, rawReadings, corrections, stints, changes, resolutionBar] = await Promise.all([
       repo.types(wineryId, [...new Set(stages.map(({ s }) => s.cartridgeTypeId))]),
       repo.housings(wineryId, [...new Set(stages.map(({ s }) => s.housingId))]),
-      repo.readings(wineryId, id, onlyStage),
+      repo.readingsForFigures(wineryId, id, onlyStage),
       repo.corrections(wineryId, id),
       repo.stageCartridges(wineryId, id),
       repo.changes(wineryId, id),
