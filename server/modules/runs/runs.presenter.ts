@@ -15,9 +15,16 @@ export type EffectiveReading = RunReadingRow & {
  */
 export function effectiveReadings(readings: RunReadingRow[], corrections: ReadingCorrectionRow[]): EffectiveReading[] {
   const byReading = new Map<string, ReadingCorrectionRow[]>();
-  for (const c of corrections) byReading.set(c.readingId, [...(byReading.get(c.readingId) ?? []), c]);
+  for (const c of corrections) {
+    const list = byReading.get(c.readingId);
+    if (list) list.push(c);
+    else byReading.set(c.readingId, [c]);
+  }
+  const none: ReadingCorrectionRow[] = [];
   const out = readings.map((r): EffectiveReading => {
-    const own = byReading.get(r.id) ?? [];
+    const own = byReading.get(r.id);
+    // Most readings are never corrected: they stay as stored, with no copy of their values.
+    if (!own) return Object.assign({}, r, { voided: false, original: null, corrections: none });
     const original = { volumeL: r.volumeL, upstreamBar: r.upstreamBar, downstreamBar: r.downstreamBar, flowLh: r.flowLh, tempC: r.tempC };
     let values = original;
     let voided = false;
@@ -38,7 +45,18 @@ export function effectiveReadings(readings: RunReadingRow[], corrections: Readin
     const changed = own.some((c) => c.kind === 'correct');
     return { ...r, ...values, voided, original: changed ? original : null, corrections: own };
   });
-  return out.sort((a, b) => a.stageIndex - b.stageIndex || a.volumeL - b.volumeL || a.at.getTime() - b.at.getTime());
+  // Stored readings come in this order already; only corrected litres can move one.
+  if (corrections.length === 0 && isOrdered(out)) return out;
+  return out.sort(byStageVolumeTime);
+}
+
+function byStageVolumeTime(a: EffectiveReading, b: EffectiveReading): number {
+  return a.stageIndex - b.stageIndex || a.volumeL - b.volumeL || a.at.getTime() - b.at.getTime();
+}
+
+function isOrdered(list: EffectiveReading[]): boolean {
+  for (let i = 1; i < list.length; i++) if (byStageVolumeTime(list[i - 1], list[i]) > 0) return false;
+  return true;
 }
 
 export function presentReading(r: EffectiveReading | RunReadingRow): RunReadingDto {

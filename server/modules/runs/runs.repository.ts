@@ -235,6 +235,34 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     /**
+     * The run's readings with only what the run page reads of them (values, time, key, who):
+     * no tenant columns or row timestamps, so thousands of readings map quickly. The other
+     * fields of the row type are absent.
+     */
+    async readingsForFigures(wineryId: string, runId: string, stageIndex?: number): Promise<RunReadingRow[]> {
+      const t = runReadingsTable;
+      const rows = await db
+        .select({
+          id: t.id,
+          stageIndex: t.stageIndex,
+          at: t.at,
+          volumeL: t.volumeL,
+          upstreamBar: t.upstreamBar,
+          downstreamBar: t.downstreamBar,
+          flowLh: t.flowLh,
+          tempC: t.tempC,
+          clientKey: t.clientKey,
+          createdByName: t.createdByName,
+          byName: usersTable.name,
+        })
+        .from(t)
+        .leftJoin(usersTable, eq(usersTable.id, t.createdBy))
+        .where(and(eq(t.wineryId, wineryId), eq(t.runId, runId), stageIndex === undefined ? undefined : eq(t.stageIndex, stageIndex)))
+        .orderBy(asc(t.stageIndex), asc(t.volumeL), asc(t.at));
+      return rows as RunReadingRow[];
+    },
+
+    /**
      * Stores one reading in a single statement, only while the run is running and has the stage
      * and the litres do not go down, and counts it on the run (reading_count, current_volume_l).
      * The run row is locked for this statement alone (readings of one run take turns for the

@@ -87,11 +87,19 @@ export function stageFigures(p: {
   resolutionBar?: number;
 }): Pick<RunStageDto, 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning'> {
   if (!(p.terminalDpBar > 0)) return { fit: null, curve: [], forecast: null, alarm: null, flowLh: null, flatWarning: null, note: 'This stage’s cartridge type is no longer in the catalogue.' };
-  const latestFlow = [...p.readings].reverse().find((r) => r.flowLh !== null && r.flowLh > 0)?.flowLh ?? null;
+  let latestFlow: number | null = null;
+  for (let i = p.readings.length - 1; i >= 0; i--) {
+    const f = p.readings[i].flowLh;
+    if (f !== null && f > 0) {
+      latestFlow = f;
+      break;
+    }
+  }
   const flowLh = latestFlow ?? p.lineFlowLh;
   const dpPoints = p.readings.map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar }));
+  const lastRestartL = Math.max(0, ...(p.restartsAtL ?? []));
   const flat = detectFlatDp(
-    dpPoints.filter((q) => q.volumeL >= Math.max(0, ...(p.restartsAtL ?? []))),
+    dpPoints.filter((q) => q.volumeL >= lastRestartL),
     { resolutionBar: p.resolutionBar },
   );
   const flatWarning = flat.flat ? flat.reason : null;
@@ -261,7 +269,7 @@ export function createRunsService(db: Database) {
     const [types, housings, rawReadings, corrections, stints, changes, resolutionBar] = await Promise.all([
       repo.types(wineryId, [...new Set(stages.map(({ s }) => s.cartridgeTypeId))]),
       repo.housings(wineryId, [...new Set(stages.map(({ s }) => s.housingId))]),
-      repo.readings(wineryId, id, onlyStage),
+      repo.readingsForFigures(wineryId, id, onlyStage),
       repo.corrections(wineryId, id),
       repo.stageCartridges(wineryId, id),
       repo.changes(wineryId, id),
