@@ -10,7 +10,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { insertAttachmentIn } from '../attachments/attachments.service';
 import { safeFileName } from '../attachments/file-type';
 import { recordChange } from '../audit/audit.service';
-import { runForBulkReadings, storeReadings } from '../runs/runs.service';
+import { runForBulkReadings, runIsWinerys, storeReadings } from '../runs/runs.service';
 import { createLoggerRepository, type LoggerProfileRow } from './logger.repository';
 
 /** Rows shown in a preview, and errors listed. */
@@ -91,7 +91,7 @@ export function createLoggerService({ db, storage }: { db: Database; storage: St
   return {
     /** 404 unless the run is this winery's. */
     async requireRun(t: TenantContext, runId: string): Promise<void> {
-      if (!(await runForBulkReadings(db, t.wineryId, runId))) throw notFound('Run');
+      if (!(await runIsWinerys(db, t.wineryId, runId))) throw notFound('Run');
     },
 
     async listProfiles(t: TenantContext): Promise<{ items: LoggerProfileDto[] }> {

@@ -246,6 +246,11 @@ export async function storeReadings(tx: DbOrTx, values: NewReadingRow[]): Promis
   return stored;
 }
 
+/** True when the run is the winery's: a plain lookup, no lock and no look at its readings. */
+export async function runIsWinerys(db: DbOrTx, wineryId: string, runId: string): Promise<boolean> {
+  return (await createRunsRepository(db).run(wineryId, runId)) !== null;
+}
+
 /**
  * What a bulk write needs to know of a run (status, stage count), read in the caller's
  * transaction with the run row share-locked until commit; null when the run is not the winery's.
