@@ -1,4 +1,5 @@
-import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import { index, integer, json, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
 import type { RunReadinessAtStart } from '../../../shared/types/records';
 import { usersTable } from './auth';
 import { double, tenantColumns } from './columns';
@@ -64,7 +65,13 @@ export const runReadingsTable = pgTable(
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
     createdByName: text('created_by_name'),
   },
-  (t) => [uniqueIndex('run_readings_run_client_key_uq').on(t.runId, t.clientKey), index('run_readings_run_stage_idx').on(t.runId, t.stageIndex, t.volumeL)],
+  (t) => [
+    uniqueIndex('run_readings_run_client_key_uq').on(t.runId, t.clientKey),
+    index('run_readings_run_stage_idx').on(t.runId, t.stageIndex, t.volumeL),
+    // The few readings whose "who" is the user's current name (no name kept on the row): a
+    // rename makes their runs' stored figures stale (trigger, migration 0022).
+    index('run_readings_unnamed_by_idx').on(t.createdBy).where(sql`${t.createdByName} is null`),
+  ],
 );
 
 export const runChangeKinds = ['change', 'regeneration'] as const;
@@ -151,3 +158,28 @@ export const runReadingCorrectionsTable = pgTable(
   },
   (t) => [index('run_reading_corrections_reading_idx').on(t.readingId, t.createdAt)],
 );
+
+/**
+ * The run's figures that depend on its readings, kept so the run page and Today do not read and
+ * fit every reading on each request. `version` goes up (by triggers, migration 0022) in the same
+ * statement as any write of the run's readings, corrections or changes (and a rename of a user
+ * whose readings carry no name of their own). Each entry is stored with the version it was
+ * worked out at and a key: the small inputs it was worked out with (status, litres, terminal ΔP
+ * per stage, line flow, gauge resolution…), read again on every request; an entry is used only
+ * when both still match. `page`: the run page's per-stage figures (thinned chart readings, fit,
+ * curve, forecast, alarm, final figures); `today`: Today's per-stage figures of a run in
+ * progress. Kept as `json` (the text as written: same keys in the same order). A cache:
+ * nothing is lost if a row goes, it is worked out again.
+ */
+export const runFiguresTable = pgTable('run_figures', {
+  runId: uuid('run_id')
+    .primaryKey()
+    .references(() => runsTable.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull().default(0),
+  pageVersion: integer('page_version'),
+  pageKey: text('page_key'),
+  page: json('page'),
+  todayVersion: integer('today_version'),
+  todayKey: text('today_key'),
+  today: json('today'),
+});

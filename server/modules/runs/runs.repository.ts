@@ -13,6 +13,7 @@ import {
   plansTable,
   planTrainsTable,
   runChangesTable,
+  runFiguresTable,
   runReadingCorrectionsTable,
   runReadingsTable,
   runsTable,
@@ -185,8 +186,20 @@ export function createRunsRepository(db: DbOrTx) {
      */
     async summaryWithPlanLot(wineryId: string, id: string) {
       const runPlan = alias(plansTable, 'run_plan');
+      const f = runFiguresTable;
       const [row] = await db
-        .select({ run: runsTable, planName: runPlan.name, planLot: planLotsTable, plan: plansTable, lot: lotsTable, train: planTrainsTable, line: linesTable })
+        .select({
+          run: runsTable,
+          planName: runPlan.name,
+          planLot: planLotsTable,
+          plan: plansTable,
+          lot: lotsTable,
+          train: planTrainsTable,
+          line: linesTable,
+          figuresVersion: sql<number>`coalesce(${f.version}, 0)`.mapWith(Number),
+          pageKey: sql<string | null>`case when ${f.pageVersion} = ${f.version} then ${f.pageKey} end`,
+          page: sql<unknown>`case when ${f.pageVersion} = ${f.version} then ${f.page} end`,
+        })
         .from(runsTable)
         .innerJoin(runPlan, eq(runPlan.id, runsTable.planId))
         .innerJoin(planLotsTable, and(eq(planLotsTable.id, runsTable.planLotId), eq(planLotsTable.wineryId, wineryId)))
@@ -194,6 +207,7 @@ export function createRunsRepository(db: DbOrTx) {
         .innerJoin(lotsTable, eq(lotsTable.id, planLotsTable.lotId))
         .leftJoin(planTrainsTable, and(eq(planTrainsTable.id, planLotsTable.chosenTrainId), eq(planTrainsTable.wineryId, wineryId)))
         .leftJoin(linesTable, and(eq(linesTable.id, plansTable.lineId), eq(linesTable.wineryId, wineryId)))
+        .leftJoin(f, eq(f.runId, runsTable.id))
         .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
       if (!row) return null;
       const summary: RunSummaryRow = {
@@ -206,7 +220,26 @@ export function createRunsRepository(db: DbOrTx) {
         currentVolumeL: row.run.currentVolumeL,
         readingCount: row.run.readingCount,
       };
-      return { summary, ctx: { planLot: row.planLot, plan: row.plan, lot: row.lot, train: row.train, line: row.line } };
+      return {
+        summary,
+        ctx: { planLot: row.planLot, plan: row.plan, lot: row.lot, train: row.train, line: row.line },
+        /** The run's figures version (0 before any row) and its stored page entry, when worked out at that version (else null). */
+        stored: { version: row.figuresVersion, pageKey: row.pageKey, page: row.page ?? null },
+      };
+    },
+
+    /**
+     * Stores the run page's per-stage figures worked out at `version` with the inputs `key`, only
+     * if the run's version is still that one (a write in between leaves the entry as it was, to be
+     * worked out again by the next read). `page` is the JSON text, kept as written.
+     */
+    async storePageFigures(runId: string, version: number, key: string, page: string) {
+      await db.execute(sql`
+        insert into ${runFiguresTable} (run_id, version, page_version, page_key, page)
+        values (${runId}::uuid, ${version}::int, ${version}::int, ${key}::text, ${page}::json)
+        on conflict (run_id) do update
+          set page_version = excluded.page_version, page_key = excluded.page_key, page = excluded.page
+          where ${runFiguresTable}.version = excluded.version`);
     },
 
     async lockRun(wineryId: string, id: string) {

@@ -185,6 +185,59 @@ function closedNote(f: { fit: unknown; forecast: unknown; note: string | null })
   return f.note;
 }
 
+/**
+ * Everything a stage's figures on the run page are worked out from besides the run's readings,
+ * corrections and changes: small, read on every request, and kept as the stored entry's key (an
+ * entry worked out with other inputs is not used). `stagePageFigures` reads nothing else.
+ */
+export type PageFigureInputs = {
+  status: 'running' | 'closed';
+  /** Per stage of the train (its length is the stage count, which sets the chart's points). */
+  terminalDpBars: number[];
+  lineFlowLh: number | null;
+  currentVolumeL: number;
+  volumeToBottleL: number;
+  resolutionBar: number;
+};
+
+/** The part of a run page's stage worked out from its readings (what `run_figures.page` keeps per stage). */
+export type StagePageFigures = Pick<RunStageDto, 'readings' | 'readingCount' | 'fit' | 'curve' | 'forecast' | 'alarm' | 'flowLh' | 'note' | 'flatWarning' | 'final'>;
+
+/** A stage's chart readings, fit, curve, forecast, alarm and (closed) final figures, from all its readings (every stage's, corrections applied). */
+export function stagePageFigures(
+  inputs: PageFigureInputs,
+  index: number,
+  readings: EffectiveReading[],
+  changes: { stageIndex: number; kind: 'change' | 'regeneration'; atVolumeL: number }[],
+): StagePageFigures {
+  const own = readings.filter((r) => r.stageIndex === index);
+  const counted = own.filter((r) => !r.voided);
+  const terminalDpBar = inputs.terminalDpBars[index] ?? 0;
+  const stageChanges = changes.filter((c) => c.stageIndex === index);
+  const figures = stageFigures({
+    readings: counted,
+    terminalDpBar,
+    lineFlowLh: inputs.lineFlowLh,
+    currentVolumeL: inputs.currentVolumeL,
+    volumeToBottleL: inputs.volumeToBottleL,
+    // A change or regeneration restores the stage: the forecast starts again from there.
+    restartsAtL: stageChanges.map((c) => c.atVolumeL),
+    resolutionBar: inputs.resolutionBar,
+  });
+  // A closed run is a record: its final figures, never a forecast or an alarm.
+  const final = inputs.status === 'closed' ? finalFigures({ readings: counted, changes: stageChanges, volumeL: inputs.currentVolumeL, terminalDpBar }) : null;
+  return {
+    // The chart's points only; everything below was computed from all the stage's readings.
+    readings: thinSeries(own, { max: chartPointsPerStage(inputs.terminalDpBars.length), y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
+    readingCount: own.length,
+    ...figures,
+    fit: withoutResiduals(figures.fit),
+    // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
+    ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= inputs.currentVolumeL) } : {}),
+    final,
+  };
+}
+
 /** What is in the stages' housings and why a run could not start on it. */
 async function inspect(r: RunsRepository, wineryId: string, stages: PlanTrainStage[], opts: { lock?: boolean } = {}) {
   const housingIds = [...new Set(stages.map((s) => s.housingId))];
@@ -263,45 +316,56 @@ export function runForBulkReadings(tx: DbOrTx, wineryId: string, runId: string) 
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
 
-  /** The run's summary, plan context and the figures of its stages (all, or just one). */
+  /**
+   * The run's summary, plan context and the figures of its stages (all, or just one). The
+   * stages' figures worked out from the readings come from the stored entry (`run_figures.page`)
+   * when its version and its key (the small inputs, read here on every request) are still the
+   * run's; otherwise they are worked out from every reading as before and, for the whole run,
+   * stored (only if the version has not moved since it was read).
+   */
   async function build(wineryId: string, id: string, onlyStage?: number) {
+    // First: the version is read before anything the figures are worked out from.
     const found = await repo.summaryWithPlanLot(wineryId, id);
     if (!found) throw notFound('Run');
-    const { summary, ctx } = found;
+    const { summary, ctx, stored } = found;
     const all = ctx.train?.stages ?? [];
     const wanted = onlyStage === undefined ? all.map((_s, index) => index) : [onlyStage].filter((i) => i < all.length);
     const stages = wanted.map((index) => ({ index, s: all[index] }));
-    const [types, housings, rawReadings, corrections, stints, changes, resolutionBar] = await Promise.all([
-      repo.types(wineryId, [...new Set(stages.map(({ s }) => s.cartridgeTypeId))]),
+    const whole = onlyStage === undefined;
+    // Read the readings alongside the rest when nothing stored can be used anyway.
+    const readingsNow = !whole || stored.page === null;
+    const [types, housings, stints, changes, resolutionBar, data] = await Promise.all([
+      repo.types(wineryId, [...new Set(all.map((s) => s.cartridgeTypeId))]),
       repo.housings(wineryId, [...new Set(stages.map(({ s }) => s.housingId))]),
-      repo.readingsForFigures(wineryId, id, onlyStage),
-      repo.corrections(wineryId, id),
       repo.stageCartridges(wineryId, id),
       repo.changes(wineryId, id),
       gaugeResolutionFor(db, wineryId),
+      readingsNow ? readingData(wineryId, id, onlyStage) : null,
     ]);
-    const readings = effectiveReadings(rawReadings, corrections);
     const serialOf = new Map(stints.map((c) => [c.cartridgeId, c.serial]));
     const lineFlowLh = ctx.line ? requiredFlowLh({ bottlesPerHour: ctx.line.bottlesPerHour, bottleMl: ctx.line.bottleMl }) : null;
     const volumeToBottleL = Math.max(0, summary.volumeL - summary.currentVolumeL);
-    const stageDtos: RunStageDto[] = stages.map(({ s, index }) => {
+    const inputs: PageFigureInputs = {
+      status: summary.run.status,
+      terminalDpBars: all.map((s) => types.find((t) => t.id === s.cartridgeTypeId)?.terminalDpBar ?? 0),
+      lineFlowLh,
+      currentVolumeL: summary.currentVolumeL,
+      volumeToBottleL,
+      resolutionBar,
+    };
+    const key = JSON.stringify(inputs);
+    let computed: StagePageFigures[];
+    if (whole && stored.page !== null && stored.pageKey === key) {
+      computed = stored.page as StagePageFigures[];
+    } else {
+      const { raw, corrections } = data ?? (await readingData(wineryId, id));
+      const readings = effectiveReadings(raw, corrections);
+      computed = stages.map(({ index }) => stagePageFigures(inputs, index, readings, changes));
+      if (whole) await repo.storePageFigures(id, stored.version, key, JSON.stringify(computed));
+    }
+    const stageDtos: RunStageDto[] = stages.map(({ s, index }, i) => {
       const type = types.find((t) => t.id === s.cartridgeTypeId);
       const housing = housings.find((h) => h.id === s.housingId);
-      const own = readings.filter((r) => r.stageIndex === index);
-      const counted = own.filter((r) => !r.voided);
-      const terminalDpBar = type?.terminalDpBar ?? 0;
-      const figures = stageFigures({
-        readings: counted,
-        terminalDpBar,
-        lineFlowLh,
-        currentVolumeL: summary.currentVolumeL,
-        volumeToBottleL,
-        // A change or regeneration restores the stage: the forecast starts again from there.
-        restartsAtL: changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL),
-        resolutionBar,
-      });
-      // A closed run is a record: its final figures, never a forecast or an alarm.
-      const final = summary.run.status === 'closed' ? finalFigures({ readings: counted, changes: changes.filter((c) => c.stageIndex === index), volumeL: summary.currentVolumeL, terminalDpBar }) : null;
       return {
         index,
         name: s.name ?? `Stage ${String(index + 1)}`,
@@ -309,19 +373,17 @@ export function createRunsService(db: Database) {
         cartridgeTypeName: type?.name ?? 'Unknown type',
         housingId: s.housingId,
         housingName: housing?.name ?? 'Unknown housing',
-        terminalDpBar,
-        // The chart's points only; everything above was computed from all the stage's readings.
-        readings: thinSeries(own, { max: chartPointsPerStage(all.length), y: (r) => r.upstreamBar - r.downstreamBar, keep: (r) => r.corrections.length > 0 }).map(presentReading),
-        readingCount: own.length,
-        ...figures,
-        fit: withoutResiduals(figures.fit),
-        // Closed: the fitted curve stays only over the litres the run filtered (no extrapolation).
-        ...(final ? { forecast: null, alarm: null, note: closedNote(figures), curve: figures.curve.filter((q) => q.volumeL <= summary.currentVolumeL) } : {}),
-        final,
+        terminalDpBar: inputs.terminalDpBars[index],
+        ...computed[i],
         cartridges: stints.filter((c) => c.stageIndex === index).map(presentStageCartridge),
       };
     });
     return { summary, ctx, lineFlowLh, volumeToBottleL, stages: stageDtos, changes, serialOf };
+  }
+
+  async function readingData(wineryId: string, id: string, onlyStage?: number) {
+    const [raw, corrections] = await Promise.all([repo.readingsForFigures(wineryId, id, onlyStage), repo.corrections(wineryId, id)]);
+    return { raw, corrections };
   }
 
   async function detail(wineryId: string, id: string): Promise<RunDetailDto> {
