@@ -6,17 +6,13 @@
 -- its key and is used only when they still match. Statement triggers with transition tables:
 -- one small upsert per statement and run, however many rows it wrote. Ids are taken in order so
 -- two writers never wait for each other's rows the other way round.
-CREATE OR REPLACE FUNCTION run_figures_bump(ids uuid[]) RETURNS void
-LANGUAGE sql AS $$
-  INSERT INTO run_figures (run_id, version)
-  SELECT id, 1 FROM (SELECT DISTINCT unnest(ids) AS id) x WHERE id IS NOT NULL ORDER BY id
-  ON CONFLICT (run_id) DO UPDATE SET version = run_figures.version + 1;
-$$;
---> statement-breakpoint
+-- (Each function holds its own upsert: PL/pgSQL keeps the plan, a SQL function would plan it on every call.)
 CREATE OR REPLACE FUNCTION run_figures_rows_new() RETURNS trigger
 LANGUAGE plpgsql AS $$
 BEGIN
-  PERFORM run_figures_bump(ARRAY(SELECT run_id FROM new_rows));
+  INSERT INTO run_figures (run_id, version)
+  SELECT DISTINCT n.run_id, 1 FROM new_rows n ORDER BY 1
+  ON CONFLICT (run_id) DO UPDATE SET version = run_figures.version + 1;
   RETURN NULL;
 END;
 $$;
@@ -24,7 +20,9 @@ $$;
 CREATE OR REPLACE FUNCTION run_figures_rows_changed() RETURNS trigger
 LANGUAGE plpgsql AS $$
 BEGIN
-  PERFORM run_figures_bump(ARRAY(SELECT run_id FROM new_rows UNION SELECT run_id FROM old_rows));
+  INSERT INTO run_figures (run_id, version)
+  SELECT x.run_id, 1 FROM (SELECT n.run_id FROM new_rows n UNION SELECT o.run_id FROM old_rows o) x ORDER BY 1
+  ON CONFLICT (run_id) DO UPDATE SET version = run_figures.version + 1;
   RETURN NULL;
 END;
 $$;
@@ -33,7 +31,9 @@ CREATE OR REPLACE FUNCTION run_figures_rows_old() RETURNS trigger
 LANGUAGE plpgsql AS $$
 BEGIN
   -- no row for a run that is gone
-  PERFORM run_figures_bump(ARRAY(SELECT o.run_id FROM old_rows o WHERE EXISTS (SELECT 1 FROM runs r WHERE r.id = o.run_id)));
+  INSERT INTO run_figures (run_id, version)
+  SELECT DISTINCT o.run_id, 1 FROM old_rows o WHERE EXISTS (SELECT 1 FROM runs r WHERE r.id = o.run_id) ORDER BY 1
+  ON CONFLICT (run_id) DO UPDATE SET version = run_figures.version + 1;
   RETURN NULL;
 END;
 $$;
@@ -71,7 +71,9 @@ CREATE TRIGGER run_changes_figures_delete AFTER DELETE ON run_changes
 CREATE OR REPLACE FUNCTION run_figures_user_renamed() RETURNS trigger
 LANGUAGE plpgsql AS $$
 BEGIN
-  PERFORM run_figures_bump(ARRAY(SELECT x.run_id FROM run_readings x WHERE x.created_by = NEW.id AND x.created_by_name IS NULL));
+  INSERT INTO run_figures (run_id, version)
+  SELECT DISTINCT x.run_id, 1 FROM run_readings x WHERE x.created_by = NEW.id AND x.created_by_name IS NULL ORDER BY 1
+  ON CONFLICT (run_id) DO UPDATE SET version = run_figures.version + 1;
   RETURN NULL;
 END;
 $$;
