@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { planLotsTable, planTrainsTable, runFiguresTable, runReadingsTable, runsTable, usersTable, type PlanTrainStage } from '../../server/db/schema';
 import type { RunDetailDto, RunInProgressDto } from '../../shared/types/runs';
 import { createRunsRepository } from '../../server/modules/runs/runs.repository';
+import { RUN_FIGURES_REVISION } from '../../server/modules/runs/runs.service';
 import { closedRun } from '../factories/closed-run';
 import { createPlanWorld, type PlanWorld } from '../factories/plans';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -210,6 +211,19 @@ describe('a run’s stored figures', () => {
     expect(res.status).toBe(201);
     now = await changed('a correction after the close');
     expect(page(now).stages[0].final?.lastDpBar).toBeCloseTo(1.1, 6);
+  });
+
+  it('is not used when stored by code of another revision (its key differs)', async () => {
+    await views(owner, runId);
+    const row = await storedRow(runId);
+    expect(row.pageKey).toContain(`"revision":${String(RUN_FIGURES_REVISION)}`);
+    const marked = (row.page as { readingCount: number }[]).map((s) => ({ ...s, readingCount: 434343 }));
+    const olderKey = row.pageKey!.replace(`"revision":${String(RUN_FIGURES_REVISION)}`, '"revision":0');
+    await app.db.update(runFiguresTable).set({ page: marked, pageKey: olderKey }).where(eq(runFiguresTable.runId, runId));
+    const seen = await views(owner, runId);
+    expect(seen.page).not.toContain('434343');
+    expect(seen.page).toBe(last.page);
+    expect((await storedRow(runId)).pageKey).toBe(row.pageKey);
   });
 
   it('leaves an entry worked out before a write unstored (the version moved on)', async () => {

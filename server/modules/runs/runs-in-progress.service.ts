@@ -6,7 +6,7 @@ import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 import { effectiveReadings } from './runs.presenter';
 import type { ReadingCorrectionRow, RunReadingRow } from './runs.repository';
 import { createRunsInProgressRepository, type InProgressData } from './runs-in-progress.repository';
-import { stageFigures } from './runs.service';
+import { RUN_FIGURES_REVISION, stageFigures } from './runs.service';
 
 /** Stored readings and corrections in the shape the correction rules read (only the fields they use). */
 function applyCorrections(data: InProgressData) {
@@ -26,6 +26,7 @@ function applyCorrections(data: InProgressData) {
  * with other inputs is not used). `todayFigures` reads nothing else.
  */
 export type TodayFigureInputs = {
+  revision: typeof RUN_FIGURES_REVISION;
   volumeL: number;
   lineFlowLh: number | null;
   resolutionBar: number;
@@ -86,6 +87,7 @@ export function createRunsInProgressService(db: Database) {
       const [rows, resolutionBar] = await Promise.all([repo.inProgress(tenant.wineryId), gaugeResolutionFor(db, tenant.wineryId)]);
       const runs = rows.map((row) => {
         const inputs: TodayFigureInputs = {
+          revision: RUN_FIGURES_REVISION,
           volumeL: row.volumeL,
           lineFlowLh: row.bottlesPerHour !== null && row.bottleMl !== null ? requiredFlowLh({ bottlesPerHour: row.bottlesPerHour, bottleMl: row.bottleMl }) : null,
           resolutionBar,

@@ -186,11 +186,20 @@ function closedNote(f: { fit: unknown; forecast: unknown; note: string | null })
 }
 
 /**
+ * Part of every stored run figures entry's key (run page and Today): raise it when a change of
+ * code changes what `stagePageFigures` or `todayFigures` answer for the same rows (the engine's
+ * fits and forecast, the chart's thinning, the presenters, the DTO's fields), so entries stored
+ * by the code before are worked out again instead of being served.
+ */
+export const RUN_FIGURES_REVISION = 1;
+
+/**
  * Everything a stage's figures on the run page are worked out from besides the run's readings,
  * corrections and changes: small, read on every request, and kept as the stored entry's key (an
  * entry worked out with other inputs is not used). `stagePageFigures` reads nothing else.
  */
 export type PageFigureInputs = {
+  revision: typeof RUN_FIGURES_REVISION;
   status: 'running' | 'closed';
   /** Per stage of the train (its length is the stage count, which sets the chart's points). */
   terminalDpBars: number[];
@@ -346,6 +355,7 @@ export function createRunsService(db: Database) {
     const lineFlowLh = ctx.line ? requiredFlowLh({ bottlesPerHour: ctx.line.bottlesPerHour, bottleMl: ctx.line.bottleMl }) : null;
     const volumeToBottleL = Math.max(0, summary.volumeL - summary.currentVolumeL);
     const inputs: PageFigureInputs = {
+      revision: RUN_FIGURES_REVISION,
       status: summary.run.status,
       terminalDpBars: all.map((s) => types.find((t) => t.id === s.cartridgeTypeId)?.terminalDpBar ?? 0),
       lineFlowLh,
