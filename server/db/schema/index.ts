@@ -10,3 +10,4 @@ export * from './runs';
 export * from './alerts';
 export * from './audit';
 export * from './logger';
+export * from './learnings';

@@ -156,7 +156,7 @@ export const runReadingCorrectionsTable = pgTable(
     createdBy: text('created_by').references(() => usersTable.id, { onDelete: 'set null' }),
     createdByName: text('created_by_name'),
   },
-  (t) => [index('run_reading_corrections_reading_idx').on(t.readingId, t.createdAt)],
+  (t) => [index('run_reading_corrections_reading_idx').on(t.readingId, t.createdAt), index('run_reading_corrections_run_idx').on(t.runId)],
 );
 
 /**

@@ -1,18 +1,73 @@
-import { createHash } from 'node:crypto';
 import { cloggingIndex, elementEquivalents, stageLitresPerM2FromRun, type PastRunStageOutcome } from '../../../shared/engine';
 import type { SizingCatalogueHousing, SizingCatalogueType } from '../../../shared/adapters/plans';
-import type { ClosedRunForCapacity } from './plans.repository';
+import type { ClosedRunForCapacity, PlansRepository, StoredStageLearning } from './plans.repository';
 
 /** Closed runs read for the capacity learning, at most (the latest first). */
 export const PAST_RUNS_READ_MAX = 60;
 
+/** A closed run with what each of its stages tells (litres to terminal ΔP for 1 m², or null). */
+export type LearnedClosedRun = Omit<ClosedRunForCapacity, 'learned' | 'counts'> & { learned: Map<number, StoredStageLearning | null> };
+
+/** What a stage's learning is worked out from: its cartridge type and terminal ΔP, and the run's readings, corrections and changes. */
+const inputsOf = (type: Pick<SizingCatalogueType, 'id' | 'terminalDpBar'>, counts: string) => `${type.id}/${String(type.terminalDpBar)}/${counts}`;
+
 /**
- * What a closed run's stage tells changes only with its readings (a correction) or the catalogue
- * figures it is read with, so the engine's answer is kept per (run, stage, type, area, terminal,
- * readings' signature): a plan page does not refit the same runs each time it opens.
+ * The winery's closed runs of these styles with what each stage tells the capacity learning.
+ * Each stage's figure is stored (run_stage_learnings) and worked out again (engine
+ * `stageLitresPerM2FromRun`, for 1 m²) only when its inputs changed since — the stage's type or
+ * its terminal ΔP, or a correction of the run — so a plan page reads the readings of the runs
+ * that need it, not of every past run on each visit.
  */
-const learned = new Map<string, ReturnType<typeof stageLitresPerM2FromRun>>();
-const LEARNED_MAX = 5000;
+export async function learnedClosedRuns(repo: PlansRepository, wineryId: string, styles: string[], types: readonly SizingCatalogueType[]): Promise<LearnedClosedRun[]> {
+  const runs = await repo.closedRunsForCapacity(wineryId, styles, PAST_RUNS_READ_MAX);
+  const typeById = new Map(types.map((t) => [t.id, t]));
+  const usable = (stageTypeId: string) => {
+    const type = typeById.get(stageTypeId);
+    return type && type.terminalDpBar > 0 ? type : null;
+  };
+  const stale = runs.filter((run) =>
+    run.stages.some((stage, index) => {
+      const type = usable(stage.cartridgeTypeId);
+      return type !== null && run.learned.find((l) => l.stageIndex === index)?.inputs !== inputsOf(type, run.counts);
+    }),
+  );
+  const fresh = new Map<string, Map<number, StoredStageLearning | null>>();
+  if (stale.length > 0) {
+    const read = await repo.closedRunReadings(
+      wineryId,
+      stale.map((r) => r.id),
+    );
+    const rows: Parameters<PlansRepository['storeStageLearnings']>[0] = [];
+    for (const run of read) {
+      const stages = stale.find((r) => r.id === run.id)?.stages ?? [];
+      const byStage = new Map<number, StoredStageLearning | null>();
+      stages.forEach((stage, index) => {
+        const type = usable(stage.cartridgeTypeId);
+        if (!type) return;
+        const points = run.readings
+          .filter((r) => r.stageIndex === index)
+          .map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar, flowLh: r.flowLh, tempC: r.tempC }));
+        const restartsAtL = run.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL);
+        let learning: StoredStageLearning | null = null;
+        try {
+          // Worked out for 1 m²: the engine divides the litres by the area last, so the plan divides by its stage's area.
+          const found = stageLitresPerM2FromRun({ points, terminalDpBar: type.terminalDpBar, areaM2: 1, restartsAtL });
+          learning = found ? { litres: found.lPerM2, basis: found.basis, sets: found.sets } : null;
+        } catch (error) {
+          if (!(error instanceof RangeError)) throw error;
+        }
+        byStage.set(index, learning);
+        rows.push({ runId: run.id, stageIndex: index, inputs: inputsOf(type, run.counts), litres: learning?.litres ?? null, basis: learning?.basis ?? null, sets: learning?.sets ?? null });
+      });
+      fresh.set(run.id, byStage);
+    }
+    await repo.storeStageLearnings(rows);
+  }
+  return runs.map(({ learned, counts: _counts, ...run }) => ({
+    ...run,
+    learned: fresh.get(run.id) ?? new Map(learned.map((l) => [l.stageIndex, l.learning])),
+  }));
+}
 
 /**
  * What the winery's closed runs tell, stage by stage: the litres per m² each stage's sets took
@@ -21,7 +76,7 @@ const LEARNED_MAX = 5000;
  * stages that tell nothing, are left out.
  */
 export function pastRunOutcomes(
-  runs: readonly ClosedRunForCapacity[],
+  runs: readonly LearnedClosedRun[],
   types: readonly SizingCatalogueType[],
   housings: readonly SizingCatalogueHousing[],
 ): PastRunStageOutcome[] {
@@ -41,33 +96,20 @@ export function pastRunOutcomes(
       const type = typeById.get(stage.cartridgeTypeId);
       const housing = housingById.get(stage.housingId);
       if (!type || !housing || !(type.terminalDpBar > 0) || !(type.areaM2Per10in > 0)) return;
+      const learning = run.learned.get(index);
+      if (!learning) return;
       const areaM2 = elementEquivalents({ cartridges: (stage.housingCount || 1) * housing.rounds, lengthIn: housing.lengthIn as 10 | 20 | 30 | 40 }) * type.areaM2Per10in;
-      const points = run.readings
-        .filter((r) => r.stageIndex === index)
-        .map((r) => ({ volumeL: r.volumeL, dpBar: r.upstreamBar - r.downstreamBar, flowLh: r.flowLh, tempC: r.tempC }));
-      const restartsAtL = run.changes.filter((c) => c.stageIndex === index).map((c) => c.atVolumeL);
-      const key = createHash('sha256').update(JSON.stringify([run.id, index, type.id, areaM2, type.terminalDpBar, restartsAtL, points])).digest('base64');
-      try {
-        let result = learned.get(key);
-        if (result === undefined) {
-          result = stageLitresPerM2FromRun({ points, terminalDpBar: type.terminalDpBar, areaM2, restartsAtL });
-          if (learned.size >= LEARNED_MAX) learned.clear();
-          learned.set(key, result);
-        }
-        if (!result) return;
-        out.push({
-          runId: run.id,
-          style: run.style,
-          cartridgeTypeId: type.id,
-          cloggingIndexS: ci,
-          turbidityNtu: run.turbidityNtu,
-          closedAt: run.closedAt,
-          lPerM2: result.lPerM2,
-          basis: result.basis,
-        });
-      } catch (error) {
-        if (!(error instanceof RangeError)) throw error;
-      }
+      if (!(areaM2 > 0)) return;
+      out.push({
+        runId: run.id,
+        style: run.style,
+        cartridgeTypeId: type.id,
+        cloggingIndexS: ci,
+        turbidityNtu: run.turbidityNtu,
+        closedAt: run.closedAt,
+        lPerM2: learning.litres / areaM2,
+        basis: learning.basis,
+      });
     });
   }
   return out;

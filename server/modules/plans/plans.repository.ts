@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, ilike, inArray, isNull, max, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, isNull, max, or, sql, type SQL } from 'drizzle-orm';
 import type { PlanListQuery, PlanValues } from '../../../shared/schemas/plans';
 import type { DbOrTx } from '../../db/client';
 import {
@@ -12,6 +12,7 @@ import {
   plansTable,
   planTrainsTable,
   runsTable,
+  runStageLearningsTable,
   usersTable,
   type PlanTrainHose,
   type PlanTrainStage,
@@ -384,11 +385,18 @@ export function createPlansRepository(db: DbOrTx) {
      * reading wins; voided ones left out), its changes and regenerations, and the lot's latest
      * lab result sampled before the run started — in one query.
      */
+    /**
+     * The winery's latest closed runs of these styles (at most `limit` per style, latest first)
+     * with the lab figures of their lot before the run, their stages' stored learnings and what
+     * those learnings must have been worked out from now (`counts`: counted readings,
+     * corrections, changes). No readings: those are read only for runs whose learning is missing
+     * or out of date ({@link closedRunReadings}).
+     */
     async closedRunsForCapacity(wineryId: string, styles: string[], limit: number): Promise<ClosedRunForCapacity[]> {
       if (styles.length === 0) return [];
       const result = await db.execute(sql`
         with picked as (
-          select r.id, r.closed_at, r.started_at, r.winery_id, l.id as lot_id, l.style, t.stages,
+          select r.id, r.closed_at, r.started_at, r.winery_id, r.reading_count, l.id as lot_id, l.style, t.stages,
             row_number() over (partition by l.style order by r.closed_at desc nulls last, r.id) as rn
           from runs r
           join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
@@ -399,21 +407,9 @@ export function createPlansRepository(db: DbOrTx) {
         )
         select p.id, p.closed_at, p.started_at, p.style, p.stages,
           lab.turbidity_ntu, lab.t200_s, lab.t400_s,
-          (select coalesce(json_agg(json_build_object(
-              'stageIndex', rr.stage_index,
-              'volumeL', coalesce(c.volume_l, rr.volume_l),
-              'upstreamBar', coalesce(c.upstream_bar, rr.upstream_bar),
-              'downstreamBar', coalesce(c.downstream_bar, rr.downstream_bar),
-              'flowLh', case when c.id is null then rr.flow_lh else c.flow_lh end,
-              'tempC', case when c.id is null then rr.temp_c else c.temp_c end)), '[]'::json)
-            from run_readings rr
-            left join lateral (
-              select x.id, x.kind, x.volume_l, x.upstream_bar, x.downstream_bar, x.flow_lh, x.temp_c
-              from run_reading_corrections x where x.reading_id = rr.id and x.winery_id = p.winery_id
-              order by x.created_at desc, x.id desc limit 1) c on true
-            where rr.run_id = p.id and rr.winery_id = p.winery_id and (c.kind is null or c.kind <> 'void')) as readings,
-          (select coalesce(json_agg(json_build_object('stageIndex', ch.stage_index, 'atVolumeL', ch.at_volume_l)), '[]'::json)
-            from run_changes ch where ch.run_id = p.id and ch.winery_id = p.winery_id) as changes
+          ${runCounts(sql`p`)} as counts,
+          (select coalesce(json_agg(json_build_array(s.stage_index, s.inputs, s.litres, s.basis, s.sets)), '[]'::json)
+            from ${runStageLearningsTable} s where s.run_id = p.id) as learned
         from picked p
         left join lateral (
           select lr.turbidity_ntu, lr.t200_s, lr.t400_s from lab_results lr
@@ -429,22 +425,86 @@ export function createPlansRepository(db: DbOrTx) {
         turbidityNtu: row.turbidity_ntu === null ? null : Number(row.turbidity_ntu),
         t200s: row.t200_s === null ? null : Number(row.t200_s),
         t400s: row.t400_s === null ? null : Number(row.t400_s),
-        readings: (row.readings as ClosedRunForCapacity['readings']).map((x) => ({
-          stageIndex: Number(x.stageIndex),
-          volumeL: Number(x.volumeL),
-          upstreamBar: Number(x.upstreamBar),
-          downstreamBar: Number(x.downstreamBar),
-          flowLh: x.flowLh === null ? null : Number(x.flowLh),
-          tempC: x.tempC === null ? null : Number(x.tempC),
+        counts: String(row.counts),
+        learned: (row.learned as [number, string, number | null, 'reached' | 'fit' | null, number | null][]).map(([stageIndex, inputs, litres, basis, sets]) => ({
+          stageIndex: Number(stageIndex),
+          inputs,
+          learning: litres === null || basis === null || sets === null ? null : { litres: Number(litres), basis, sets: Number(sets) },
         })),
-        changes: (row.changes as ClosedRunForCapacity['changes']).map((x) => ({ stageIndex: Number(x.stageIndex), atVolumeL: Number(x.atVolumeL) })),
       }));
+    },
+
+    /**
+     * The effective readings (latest correction applied, voided ones left out) and changes of
+     * these closed runs, with their `counts` read in the same statement (so a learning is stored
+     * under the inputs it was really worked out from).
+     */
+    async closedRunReadings(wineryId: string, runIds: string[]): Promise<ClosedRunReadings[]> {
+      if (runIds.length === 0) return [];
+      const result = await db.execute(sql`
+        select p.id, ${runCounts(sql`p`)} as counts,
+          (select coalesce(json_agg(json_build_array(
+              rr.stage_index,
+              coalesce(c.volume_l, rr.volume_l),
+              coalesce(c.upstream_bar, rr.upstream_bar),
+              coalesce(c.downstream_bar, rr.downstream_bar),
+              case when c.id is null then rr.flow_lh else c.flow_lh end,
+              case when c.id is null then rr.temp_c else c.temp_c end)), '[]'::json)
+            from run_readings rr
+            left join lateral (
+              select x.id, x.kind, x.volume_l, x.upstream_bar, x.downstream_bar, x.flow_lh, x.temp_c
+              from run_reading_corrections x where x.reading_id = rr.id and x.winery_id = p.winery_id
+              order by x.created_at desc, x.id desc limit 1) c on true
+            where rr.run_id = p.id and rr.winery_id = p.winery_id and (c.kind is null or c.kind <> 'void')) as readings,
+          (select coalesce(json_agg(json_build_array(ch.stage_index, ch.at_volume_l)), '[]'::json)
+            from run_changes ch where ch.run_id = p.id and ch.winery_id = p.winery_id) as changes
+        from runs p
+        where p.winery_id = ${wineryId}::uuid and p.id = any(${sql.param(runIds)}::uuid[])`);
+      const num = (v: unknown) => (v === null ? null : Number(v));
+      return (result.rows as Record<string, unknown>[]).map((row) => ({
+        id: String(row.id),
+        counts: String(row.counts),
+        readings: (row.readings as unknown[][]).map(([stageIndex, volumeL, upstreamBar, downstreamBar, flowLh, tempC]) => ({
+          stageIndex: Number(stageIndex),
+          volumeL: Number(volumeL),
+          upstreamBar: Number(upstreamBar),
+          downstreamBar: Number(downstreamBar),
+          flowLh: num(flowLh),
+          tempC: num(tempC),
+        })),
+        changes: (row.changes as unknown[][]).map(([stageIndex, atVolumeL]) => ({ stageIndex: Number(stageIndex), atVolumeL: Number(atVolumeL) })),
+      }));
+    },
+
+    /** Stores stages' learnings (replacing what was kept for the same run and stage). */
+    async storeStageLearnings(rows: { runId: string; stageIndex: number; inputs: string; litres: number | null; basis: 'reached' | 'fit' | null; sets: number | null }[]) {
+      if (rows.length === 0) return;
+      await db
+        .insert(runStageLearningsTable)
+        .values(rows.map((r) => ({ ...r, computedAt: new Date() })))
+        .onConflictDoUpdate({
+          target: [runStageLearningsTable.runId, runStageLearningsTable.stageIndex],
+          set: { inputs: sql`excluded.inputs`, litres: sql`excluded.litres`, basis: sql`excluded.basis`, sets: sql`excluded.sets`, computedAt: sql`excluded.computed_at` },
+        });
     },
   };
 }
 export type PlansRepository = ReturnType<typeof createPlansRepository>;
 
-/** A closed run as the capacity-from-past-runs learning reads it (metric values). */
+/**
+ * A run's inputs to its stages' learnings, as one text: counted readings, corrections and
+ * changes (a closed run only ever gains corrections, each one a new row).
+ */
+function runCounts(run: SQL) {
+  return sql`concat_ws('/', ${run}.reading_count,
+    (select count(*) from run_reading_corrections x where x.run_id = ${run}.id),
+    (select count(*) from run_changes ch where ch.run_id = ${run}.id))`;
+}
+
+/** A stage's stored learning: litres to terminal ΔP for 1 m² (null when the stage told nothing). */
+export type StoredStageLearning = { litres: number; basis: 'reached' | 'fit'; sets: number };
+
+/** A closed run as the capacity-from-past-runs learning reads it (metric values), with what is stored of its stages. */
 export type ClosedRunForCapacity = {
   id: string;
   closedAt: string;
@@ -453,6 +513,15 @@ export type ClosedRunForCapacity = {
   turbidityNtu: number | null;
   t200s: number | null;
   t400s: number | null;
+  /** The run's inputs now (see runCounts). */
+  counts: string;
+  learned: { stageIndex: number; inputs: string; learning: StoredStageLearning | null }[];
+};
+
+/** A closed run's effective readings and changes, with the inputs they were read at. */
+export type ClosedRunReadings = {
+  id: string;
+  counts: string;
   readings: { stageIndex: number; volumeL: number; upstreamBar: number; downstreamBar: number; flowLh: number | null; tempC: number | null }[];
   changes: { stageIndex: number; atVolumeL: number }[];
 };

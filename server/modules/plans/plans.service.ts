@@ -21,9 +21,9 @@ import type { TenantContext } from '../../middleware/authorize';
 import { isUniqueViolation } from '../../db/errors';
 import { createCellarService } from '../cellar/cellar.service';
 import { analyseLabResult } from '../cellar/lab-analysis';
-import { PAST_RUNS_READ_MAX, pastRunOutcomes } from './plans.past-runs';
+import { learnedClosedRuns, pastRunOutcomes, type LearnedClosedRun } from './plans.past-runs';
 import { presentPlan, presentPlanListItem, presentPlanLot, presentTimeline, presentTrain } from './plans.presenter';
-import { createPlansRepository, PLAN_LOT_UNIQUE, type ClosedRunForCapacity, type PlanRow, type PlansRepository } from './plans.repository';
+import { createPlansRepository, PLAN_LOT_UNIQUE, type PlanRow, type PlansRepository } from './plans.repository';
 import { audited, recordChange } from '../audit/audit.service';
 
 const checkFields = 'Check the highlighted fields.';
@@ -68,7 +68,7 @@ async function buildPlan(
   repo: PlansRepository,
   wineryId: string,
   id: string,
-  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue>; closedRuns?: Promise<ClosedRunForCapacity[]> } = {},
+  opts: { inTransaction?: boolean; catalogue?: Promise<Catalogue>; closedRuns?: Promise<LearnedClosedRun[]> } = {},
 ): Promise<PlanDto | null> {
   const row = await repo.plan(wineryId, id);
   if (!row) return null;
@@ -94,7 +94,7 @@ async function buildPlan(
       wineryId,
       planLots.map((p) => p.lot.id),
     ),
-    opts.closedRuns ?? repo.closedRunsForCapacity(wineryId, styles, PAST_RUNS_READ_MAX),
+    opts.closedRuns ?? learnedClosedRuns(repo, wineryId, styles, types),
   ]);
   // What the winery's closed runs of these styles tell about each cartridge type's L/m² (learned by the engine).
   const pastRuns = pastRunOutcomes(closedRuns, types, housings);
@@ -280,7 +280,7 @@ export function createPlansService(db: Database) {
     const catalogue = Promise.all([repo.catalogueTypes(tenant.wineryId), repo.catalogueHousings(tenant.wineryId), repo.stock(tenant.wineryId)] as const);
     catalogue.catch(() => undefined); // awaited by each plan; this only keeps a failure with no plan left from going unhandled
     // The winery's closed runs of every style, read once for all the plans.
-    const closedRuns = repo.closedRunsForCapacity(tenant.wineryId, [...WINE_STYLES], PAST_RUNS_READ_MAX);
+    const closedRuns = catalogue.then(([types]) => learnedClosedRuns(repo, tenant.wineryId, [...WINE_STYLES], types));
     closedRuns.catch(() => undefined);
     const plans = await Promise.all(ids.map((id) => buildPlan(repo, tenant.wineryId, id, { catalogue, closedRuns })));
     return plans.filter((p): p is PlanDto => p !== null);

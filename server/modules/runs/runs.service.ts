@@ -42,7 +42,7 @@ import { effectiveReadings, presentChange, presentReading, presentRunSummary, pr
 import { createRunsRepository, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
-import { reallocateClosedRun } from './runs.reallocate';
+import { reallocateClosedRun, runEndLitres, stintLitres } from './runs.reallocate';
 import { readinessAtStart } from '../records/readiness-at-start';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
@@ -804,7 +804,7 @@ export function createRunsService(db: Database) {
         const corrections = await r.corrections(t.wineryId, runId);
         const stints = await r.stageCartridges(t.wineryId, runId);
         const counted = effectiveReadings(raw, corrections).filter((x) => !x.voided);
-        const litres = Math.max(0, ...counted.map((x) => x.volumeL), ...stints.map((s) => s.removedAtVolumeL ?? s.installedAtVolumeL));
+        const litres = runEndLitres(counted, stints);
         const before = await auditSnapshot(tx, 'run', t.wineryId, runId);
         await r.closeRun(t.wineryId, runId, t.userId, t.userName ?? null, input.notes);
         await recordChange(tx, t, { action: 'close', kind: 'run', id: runId, before });
@@ -824,8 +824,7 @@ export function createRunsService(db: Database) {
         }
         const carried = new Map<string, { litres: number; stint: RunStageCartridgeRow }>();
         for (const s of stints) {
-          const end = s.removedAtVolumeL ?? litres;
-          const v = Math.max(0, end - s.installedAtVolumeL);
+          const v = stintLitres(s, litres);
           await r.setCarried(t.wineryId, s.id, v);
           const prev = carried.get(s.cartridgeId);
           carried.set(s.cartridgeId, { litres: (prev?.litres ?? 0) + v, stint: prev?.stint ?? s });
