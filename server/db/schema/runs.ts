@@ -69,7 +69,7 @@ export const runReadingsTable = pgTable(
     uniqueIndex('run_readings_run_client_key_uq').on(t.runId, t.clientKey),
     index('run_readings_run_stage_idx').on(t.runId, t.stageIndex, t.volumeL),
     // The few readings whose "who" is the user's current name (no name kept on the row): a
-    // rename makes their runs' stored figures stale (trigger, migration 0022).
+    // rename makes their runs' stored figures stale (trigger, migration 0023).
     index('run_readings_unnamed_by_idx').on(t.createdBy).where(sql`${t.createdByName} is null`),
   ],
 );
@@ -161,7 +161,7 @@ export const runReadingCorrectionsTable = pgTable(
 
 /**
  * The run's figures that depend on its readings, kept so the run page and Today do not read and
- * fit every reading on each request. `version` goes up (by triggers, migration 0022) in the same
+ * fit every reading on each request. `version` goes up (by triggers, migration 0023) in the same
  * statement as any write of the run's readings, corrections or changes (and a rename of a user
  * whose readings carry no name of their own). Each entry is stored with the version it was
  * worked out at and a key: the small inputs it was worked out with (status, litres, terminal ΔP
