@@ -7,9 +7,10 @@ import { runsTable } from './runs';
  * worked out per litre of the stage, i.e. for 1 m²: the plan divides by the stage's area), kept
  * so a plan page or Today does not read and fit every reading of sixty past runs on each visit.
  * `inputs` names what the figure was worked out from: the stage's cartridge type and its terminal
- * ΔP, the run's counted readings, its corrections and its changes (a closed run takes no new
- * readings or changes; a correction after closing adds a row). A row whose `inputs` are not the
- * run's current ones is worked out again. A cache: nothing is lost if a row goes.
+ * ΔP, and the version of the run's readings, corrections and changes (`run_figures.version`,
+ * raised by triggers on every write of them, migration 0023 — the same version the run page's
+ * stored figures use). A row whose `inputs` are not the current ones is worked out again. A
+ * cache: nothing is lost if a row goes.
  */
 export const runStageLearningsTable = pgTable(
   'run_stage_learnings',

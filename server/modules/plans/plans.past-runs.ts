@@ -6,16 +6,17 @@ import type { ClosedRunForCapacity, PlansRepository, StoredStageLearning } from 
 export const PAST_RUNS_READ_MAX = 60;
 
 /** A closed run with what each of its stages tells (litres to terminal ΔP for 1 m², or null). */
-export type LearnedClosedRun = Omit<ClosedRunForCapacity, 'learned' | 'counts'> & { learned: Map<number, StoredStageLearning | null> };
+export type LearnedClosedRun = Omit<ClosedRunForCapacity, 'learned' | 'version'> & { learned: Map<number, StoredStageLearning | null> };
 
 /** What a stage's learning is worked out from: its cartridge type and terminal ΔP, and the run's readings, corrections and changes. */
-const inputsOf = (type: Pick<SizingCatalogueType, 'id' | 'terminalDpBar'>, counts: string) => `${type.id}/${String(type.terminalDpBar)}/${counts}`;
+const inputsOf = (type: Pick<SizingCatalogueType, 'id' | 'terminalDpBar'>, version: string) => `${type.id}/${String(type.terminalDpBar)}/${version}`;
 
 /**
  * The winery's closed runs of these styles with what each stage tells the capacity learning.
  * Each stage's figure is stored (run_stage_learnings) and worked out again (engine
  * `stageLitresPerM2FromRun`, for 1 m²) only when its inputs changed since — the stage's type or
- * its terminal ΔP, or a correction of the run — so a plan page reads the readings of the runs
+ * its terminal ΔP, or the version of the run's readings, corrections and changes (raised by
+ * triggers, like the run page's stored figures) — so a plan page reads the readings of the runs
  * that need it, not of every past run on each visit.
  */
 export async function learnedClosedRuns(repo: PlansRepository, wineryId: string, styles: string[], types: readonly SizingCatalogueType[]): Promise<LearnedClosedRun[]> {
@@ -28,7 +29,7 @@ export async function learnedClosedRuns(repo: PlansRepository, wineryId: string,
   const stale = runs.filter((run) =>
     run.stages.some((stage, index) => {
       const type = usable(stage.cartridgeTypeId);
-      return type !== null && run.learned.find((l) => l.stageIndex === index)?.inputs !== inputsOf(type, run.counts);
+      return type !== null && run.learned.find((l) => l.stageIndex === index)?.inputs !== inputsOf(type, run.version);
     }),
   );
   const fresh = new Map<string, Map<number, StoredStageLearning | null>>();
@@ -57,13 +58,13 @@ export async function learnedClosedRuns(repo: PlansRepository, wineryId: string,
           if (!(error instanceof RangeError)) throw error;
         }
         byStage.set(index, learning);
-        rows.push({ runId: run.id, stageIndex: index, inputs: inputsOf(type, run.counts), litres: learning?.litres ?? null, basis: learning?.basis ?? null, sets: learning?.sets ?? null });
+        rows.push({ runId: run.id, stageIndex: index, inputs: inputsOf(type, run.version), litres: learning?.litres ?? null, basis: learning?.basis ?? null, sets: learning?.sets ?? null });
       });
       fresh.set(run.id, byStage);
     }
     await repo.storeStageLearnings(rows);
   }
-  return runs.map(({ learned, counts: _counts, ...run }) => ({
+  return runs.map(({ learned, version: _version, ...run }) => ({
     ...run,
     learned: fresh.get(run.id) ?? new Map(learned.map((l) => [l.stageIndex, l.learning])),
   }));

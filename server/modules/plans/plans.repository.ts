@@ -388,15 +388,15 @@ export function createPlansRepository(db: DbOrTx) {
     /**
      * The winery's latest closed runs of these styles (at most `limit` per style, latest first)
      * with the lab figures of their lot before the run, their stages' stored learnings and what
-     * those learnings must have been worked out from now (`counts`: counted readings,
-     * corrections, changes). No readings: those are read only for runs whose learning is missing
+     * those learnings must have been worked out from now (`version`: of the
+     * run's readings, corrections and changes). No readings: those are read only for runs whose learning is missing
      * or out of date ({@link closedRunReadings}).
      */
     async closedRunsForCapacity(wineryId: string, styles: string[], limit: number): Promise<ClosedRunForCapacity[]> {
       if (styles.length === 0) return [];
       const result = await db.execute(sql`
         with picked as (
-          select r.id, r.closed_at, r.started_at, r.winery_id, r.reading_count, l.id as lot_id, l.style, t.stages,
+          select r.id, r.closed_at, r.started_at, r.winery_id, l.id as lot_id, l.style, t.stages,
             row_number() over (partition by l.style order by r.closed_at desc nulls last, r.id) as rn
           from runs r
           join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
@@ -407,7 +407,7 @@ export function createPlansRepository(db: DbOrTx) {
         )
         select p.id, p.closed_at, p.started_at, p.style, p.stages,
           lab.turbidity_ntu, lab.t200_s, lab.t400_s,
-          ${runCounts(sql`p`)} as counts,
+          ${runVersion(sql`p`)} as version,
           (select coalesce(json_agg(json_build_array(s.stage_index, s.inputs, s.litres, s.basis, s.sets)), '[]'::json)
             from ${runStageLearningsTable} s where s.run_id = p.id) as learned
         from picked p
@@ -425,7 +425,7 @@ export function createPlansRepository(db: DbOrTx) {
         turbidityNtu: row.turbidity_ntu === null ? null : Number(row.turbidity_ntu),
         t200s: row.t200_s === null ? null : Number(row.t200_s),
         t400s: row.t400_s === null ? null : Number(row.t400_s),
-        counts: String(row.counts),
+        version: String(row.version),
         learned: (row.learned as [number, string, number | null, 'reached' | 'fit' | null, number | null][]).map(([stageIndex, inputs, litres, basis, sets]) => ({
           stageIndex: Number(stageIndex),
           inputs,
@@ -436,13 +436,13 @@ export function createPlansRepository(db: DbOrTx) {
 
     /**
      * The effective readings (latest correction applied, voided ones left out) and changes of
-     * these closed runs, with their `counts` read in the same statement (so a learning is stored
+     * these closed runs, with their `version` read in the same statement (so a learning is stored
      * under the inputs it was really worked out from).
      */
     async closedRunReadings(wineryId: string, runIds: string[]): Promise<ClosedRunReadings[]> {
       if (runIds.length === 0) return [];
       const result = await db.execute(sql`
-        select p.id, ${runCounts(sql`p`)} as counts,
+        select p.id, ${runVersion(sql`p`)} as version,
           (select coalesce(json_agg(json_build_array(
               rr.stage_index,
               coalesce(c.volume_l, rr.volume_l),
@@ -463,7 +463,7 @@ export function createPlansRepository(db: DbOrTx) {
       const num = (v: unknown) => (v === null ? null : Number(v));
       return (result.rows as Record<string, unknown>[]).map((row) => ({
         id: String(row.id),
-        counts: String(row.counts),
+        version: String(row.version),
         readings: (row.readings as unknown[][]).map(([stageIndex, volumeL, upstreamBar, downstreamBar, flowLh, tempC]) => ({
           stageIndex: Number(stageIndex),
           volumeL: Number(volumeL),
@@ -492,13 +492,11 @@ export function createPlansRepository(db: DbOrTx) {
 export type PlansRepository = ReturnType<typeof createPlansRepository>;
 
 /**
- * A run's inputs to its stages' learnings, as one text: counted readings, corrections and
- * changes (a closed run only ever gains corrections, each one a new row).
+ * A run's inputs to its stages' learnings: the version of its readings, corrections and changes,
+ * raised by triggers on every write of them (run_figures, migration 0023; 0 before the first).
  */
-function runCounts(run: SQL) {
-  return sql`concat_ws('/', ${run}.reading_count,
-    (select count(*) from run_reading_corrections x where x.run_id = ${run}.id),
-    (select count(*) from run_changes ch where ch.run_id = ${run}.id))`;
+function runVersion(run: SQL) {
+  return sql`coalesce((select f.version from run_figures f where f.run_id = ${run}.id), 0)::text`;
 }
 
 /** A stage's stored learning: litres to terminal ΔP for 1 m² (null when the stage told nothing). */
@@ -513,15 +511,15 @@ export type ClosedRunForCapacity = {
   turbidityNtu: number | null;
   t200s: number | null;
   t400s: number | null;
-  /** The run's inputs now (see runCounts). */
-  counts: string;
+  /** The version of the run's readings, corrections and changes now (see runVersion). */
+  version: string;
   learned: { stageIndex: number; inputs: string; learning: StoredStageLearning | null }[];
 };
 
 /** A closed run's effective readings and changes, with the inputs they were read at. */
 export type ClosedRunReadings = {
   id: string;
-  counts: string;
+  version: string;
   readings: { stageIndex: number; volumeL: number; upstreamBar: number; downstreamBar: number; flowLh: number | null; tempC: number | null }[];
   changes: { stageIndex: number; atVolumeL: number }[];
 };
