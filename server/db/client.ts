@@ -1,6 +1,8 @@
+import { sql } from 'drizzle-orm';
 import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
 import pg from 'pg';
 import { logger } from '../lib/logger';
+import { isLockNotAvailable } from './errors';
 import * as schema from './schema';
 
 export type Database = NodePgDatabase<typeof schema>;
@@ -21,4 +23,30 @@ export function createDatabase(url: string, opts: { max?: number } = {}) {
   });
   const db = drizzle(pool, { schema });
   return { db, pool };
+}
+
+/** How long a cache write waits for a row another transaction holds before it gives up. */
+export const CACHE_WRITE_LOCK_TIMEOUT_MS = 100;
+
+/**
+ * Runs a write of derived figures (a cache the next read can work out again) so that it never
+ * queues behind a long write of the same row — a logger import holding the run until it commits:
+ * in its own transaction with a short `lock_timeout`; when the lock is not had in time the
+ * write is skipped (false). Inside a caller's transaction the write simply runs there.
+ */
+export async function writeCacheWithoutWaiting(db: DbOrTx, write: (tx: DbOrTx) => Promise<unknown>): Promise<boolean> {
+  if ('rollback' in db) {
+    await write(db);
+    return true;
+  }
+  try {
+    await db.transaction(async (tx) => {
+      await tx.execute(sql.raw(`set local lock_timeout = '${String(CACHE_WRITE_LOCK_TIMEOUT_MS)}ms'`));
+      await write(tx);
+    });
+    return true;
+  } catch (error) {
+    if (isLockNotAvailable(error)) return false;
+    throw error;
+  }
 }

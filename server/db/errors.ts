@@ -39,3 +39,14 @@ export function isDatabaseUnavailable(error: unknown): boolean {
   }
   return false;
 }
+
+/** PostgreSQL's SQLSTATE for a lock not obtained within `lock_timeout` (or NOWAIT). */
+const LOCK_NOT_AVAILABLE = '55P03';
+
+/** True when `error` (or one of its causes) is PostgreSQL's "lock not available". */
+export function isLockNotAvailable(error: unknown): boolean {
+  for (let e: any = error, depth = 0; e && depth < 4; e = e.cause, depth++) {
+    if (e.code === LOCK_NOT_AVAILABLE) return true;
+  }
+  return false;
+}

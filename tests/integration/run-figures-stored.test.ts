@@ -239,4 +239,27 @@ describe('a run’s stored figures', () => {
     expect(row.pageVersion).not.toBe(row.version);
     await checkedBothWays(owner, runId);
   });
+
+  it('never queues a read behind a long write of the run (a logger import still open): the answer comes, unstored, and is stored after', async () => {
+    const before = await views(owner, runId);
+    // Both stored entries taken away, so this read works them out and tries to store them.
+    await app.db.update(runFiguresTable).set({ pageVersion: null, todayVersion: null }).where(eq(runFiguresTable.runId, runId));
+    const version = (await storedRow(runId)).version;
+    // Another connection holds the run's figures row in an open transaction, as a long import does.
+    const holder = await app.pool.connect();
+    try {
+      await holder.query('begin');
+      await holder.query('update run_figures set version = version where run_id = $1', [runId]);
+      const during = await views(owner, runId);
+      expect(during.page).toBe(before.page);
+      expect(during.today).toBe(before.today);
+      await holder.query('rollback');
+    } finally {
+      holder.release();
+    }
+    const row = await storedRow(runId);
+    expect(row.version).toBe(version);
+    expect(row.pageVersion).toBeNull(); // skipped, not waited for
+    await checkedBothWays(owner, runId);
+  });
 });

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import type { DbOrTx } from '../../db/client';
+import { writeCacheWithoutWaiting, type DbOrTx } from '../../db/client';
 import { runFiguresTable, type PlanTrainStage } from '../../db/schema';
 
 /** Most runs in progress shown at once (a winery runs a few lines at a time). */
@@ -108,14 +108,15 @@ export function createRunsInProgressRepository(db: DbOrTx) {
     async storeToday(entries: { runId: string; version: number; key: string; today: string }[]) {
       if (entries.length === 0) return;
       const col = <T>(pick: (e: (typeof entries)[number]) => T) => sql.param(entries.map(pick));
-      await db.execute(sql`
+      // Never queues behind a long write of a run (a logger import): skipped, the next visit stores it.
+      await writeCacheWithoutWaiting(db, (tx) => tx.execute(sql`
         insert into ${runFiguresTable} (run_id, version, today_version, today_key, today)
         select x.run_id, x.version, x.version, x.key, x.today::json
           from unnest(${col((e) => e.runId)}::uuid[], ${col((e) => e.version)}::int[], ${col((e) => e.key)}::text[], ${col((e) => e.today)}::text[]) as x(run_id, version, key, today)
          order by x.run_id
         on conflict (run_id) do update
           set today_version = excluded.today_version, today_key = excluded.today_key, today = excluded.today
-          where ${runFiguresTable}.version = excluded.version`);
+          where ${runFiguresTable}.version = excluded.version`));
     },
   };
 }

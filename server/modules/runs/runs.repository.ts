@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { DbOrTx } from '../../db/client';
+import { writeCacheWithoutWaiting, type DbOrTx } from '../../db/client';
 import {
   usersTable,
   cartridgeEventsTable,
@@ -234,12 +234,13 @@ export function createRunsRepository(db: DbOrTx) {
      * worked out again by the next read). `page` is the JSON text, kept as written.
      */
     async storePageFigures(runId: string, version: number, key: string, page: string) {
-      await db.execute(sql`
+      // Never queues behind a long write of the run (a logger import): skipped, the next read stores it.
+      await writeCacheWithoutWaiting(db, (tx) => tx.execute(sql`
         insert into ${runFiguresTable} (run_id, version, page_version, page_key, page)
         values (${runId}::uuid, ${version}::int, ${version}::int, ${key}::text, ${page}::json)
         on conflict (run_id) do update
           set page_version = excluded.page_version, page_key = excluded.page_key, page = excluded.page
-          where ${runFiguresTable}.version = excluded.version`);
+          where ${runFiguresTable}.version = excluded.version`));
     },
 
     async lockRun(wineryId: string, id: string) {
