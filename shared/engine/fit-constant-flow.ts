@@ -79,9 +79,24 @@ const EXP_POW2 = new Float64Array(2046); // 2^e for e = −1022 … 1023
 for (let j = 0; j < EXP_N; j++) EXP_FRAC[j] = Math.pow(2, j / EXP_N);
 for (let e = -1022; e <= 1023; e++) EXP_POW2[e + 1022] = Math.pow(2, e);
 
+/** e^u: 2^(k/64)·e^ρ as above for |u| < 700, Math.exp beyond. */
+function fastExp(u: number): number {
+  if (!(u > -700 && u < 700)) return Math.exp(u);
+  const kf = u * EXP_INV + EXP_SHIFT - EXP_SHIFT;
+  const rho = u - kf * EXP_HI - kf * EXP_LO;
+  const k = kf | 0;
+  const poly = 1 + rho * (1 + rho * (0.5 + rho * (1 / 6 + rho * (1 / 24 + rho * (1 / 120)))));
+  return EXP_FRAC[k & 63] * EXP_POW2[(k >> 6) + 1022] * poly;
+}
+
 /**
  * One pass over the data at (a = ΔP0, K): writes residuals r = y − a·g(K·x) into `res`
  * and the sums of {@link Sums} into `s`. Returns RSS (Infinity when not finite).
+ * Per law, with h = 1/(1 − Kx) for the two with an asymptote and h = 1 otherwise:
+ *   complete      g = h,        q = x·h²,    ∂q/∂K = 2x·h·q
+ *   standard      g = h²,       q = 2x·h³,   ∂q/∂K = 3x·h·q
+ *   intermediate  g = e^(Kx),   q = x·g,     ∂q/∂K = x·q
+ *   cake          g = 1 + Kx,   q = x,       ∂q/∂K = 0
  */
 function pass(
   law: BlockingLaw,
@@ -93,6 +108,9 @@ function pass(
   res: Float64Array,
   s: Sums,
 ): number {
+  const asymptote = law === 'complete' || law === 'standard';
+  const squared = law === 'standard';
+  const exponential = law === 'intermediate';
   let gg = 0;
   let gq = 0;
   let qq = 0;
@@ -100,96 +118,40 @@ function pass(
   let qr = 0;
   let rdq = 0;
   let rss = 0;
-  switch (law) {
-    case 'complete':
-      // g = h = 1/(1 − Kx), q = x·h², ∂q/∂K = 2x·h·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const h = 1 / (1 - K * xi);
-        const q = xi * h * h;
-        const r = y[i] - a * h;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += h * h;
-        gq += h * q;
-        qq += q * q;
-        gr += h * r;
-        qr += rq;
-        rdq += rq * xi * h;
-      }
-      rdq *= 2;
-      break;
-    case 'standard':
-      // g = h², q = 2x·h³, ∂q/∂K = 3x·h·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const h = 1 / (1 - K * xi);
-        const g = h * h;
-        const q = 2 * xi * g * h;
-        const r = y[i] - a * g;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += g * g;
-        gq += g * q;
-        qq += q * q;
-        gr += g * r;
-        qr += rq;
-        rdq += rq * xi * h;
-      }
-      rdq *= 3;
-      break;
-    case 'intermediate':
-      // g = e^(Kx), q = x·g, ∂q/∂K = x·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const u = K * xi;
-        let g: number;
-        if (u > -700 && u < 700) {
-          const kf = u * EXP_INV + EXP_SHIFT - EXP_SHIFT;
-          const rho = u - kf * EXP_HI - kf * EXP_LO;
-          const k = kf | 0;
-          const poly = 1 + rho * (1 + rho * (0.5 + rho * (1 / 6 + rho * (1 / 24 + rho * (1 / 120)))));
-          g = EXP_FRAC[k & 63] * EXP_POW2[(k >> 6) + 1022] * poly;
-        } else {
-          g = Math.exp(u);
-        }
-        const q = xi * g;
-        const r = y[i] - a * g;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += g * g;
-        gq += g * q;
-        qq += q * q;
-        gr += g * r;
-        qr += rq;
-        rdq += rq * xi;
-      }
-      break;
-    case 'cake':
-      // g = 1 + Kx, q = x, ∂q/∂K = 0
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const g = 1 + K * xi;
-        const r = y[i] - a * g;
-        res[i] = r;
-        rss += r * r;
-        gg += g * g;
-        gq += g * xi;
-        qq += xi * xi;
-        gr += g * r;
-        qr += r * xi;
-      }
-      break;
+  for (let i = 0; i < n; i++) {
+    const xi = x[i];
+    let g: number;
+    let h = 1;
+    let q: number;
+    if (asymptote) {
+      h = 1 / (1 - K * xi);
+      g = squared ? h * h : h;
+      q = (squared ? 2 * xi : xi) * g * h;
+    } else if (exponential) {
+      g = fastExp(K * xi);
+      q = xi * g;
+    } else {
+      g = 1 + K * xi;
+      q = xi;
+    }
+    const r = y[i] - a * g;
+    res[i] = r;
+    const rq = r * q;
+    rss += r * r;
+    gg += g * g;
+    gq += g * q;
+    qq += q * q;
+    gr += g * r;
+    qr += rq;
+    rdq += rq * xi * h;
   }
   s[0] = gg;
   s[1] = gq;
   s[2] = qq;
   s[3] = gr;
   s[4] = qr;
-  s[5] = rdq;
+  // Σr·∂q/∂K = c·Σr·q·x·h with c = 2, 3, 1 (cake: 0)
+  s[5] = law === 'cake' ? 0 : rdq * (law === 'complete' ? 2 : law === 'standard' ? 3 : 1);
   return Number.isFinite(rss) ? rss : Infinity;
 }
 

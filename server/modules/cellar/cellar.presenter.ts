@@ -19,6 +19,17 @@ export const presentTank = (t: TankRow): TankDto => ({
 
 const tankRef = (l: { tankId: string | null; tankName: string | null }) => (l.tankId && l.tankName !== null ? { id: l.tankId, name: l.tankName } : null);
 
+/** What the lot list and the lot page both say first about a lot. */
+const lotHead = (l: LotRow) => ({
+  id: l.id,
+  code: l.code,
+  name: l.name,
+  style: l.style,
+  vintage: l.vintage,
+  volumeL: l.volumeL,
+  tank: tankRef(l),
+});
+
 export const presentLabResult = (r: LabResultRow, a: LabAnalysis): LabResultDto => ({
   id: r.id,
   lotId: r.lotId,
@@ -41,13 +52,7 @@ export const presentLotListItem = (
   latest: { sampledAt: Date; turbidityNtu: number | null; analysis: LabAnalysis } | null,
   readiness: ReadinessDto,
 ): LotListItemDto => ({
-  id: l.id,
-  code: l.code,
-  name: l.name,
-  style: l.style,
-  vintage: l.vintage,
-  volumeL: l.volumeL,
-  tank: tankRef(l),
+  ...lotHead(l),
   latest: latest
     ? {
         sampledAt: iso(latest.sampledAt),
@@ -65,13 +70,7 @@ export const presentLot = (
   readiness: ReadinessDto,
   thresholds: ReadinessThresholdsUsedDto,
 ): LotDto => ({
-  id: l.id,
-  code: l.code,
-  name: l.name,
-  style: l.style,
-  vintage: l.vintage,
-  volumeL: l.volumeL,
-  tank: tankRef(l),
+  ...lotHead(l),
   ethanolPctVol: l.ethanolPctVol,
   sugarGPerL: l.sugarGPerL,
   tempC: l.tempC,
