@@ -155,8 +155,22 @@ function pass(
   return Number.isFinite(rss) ? rss : Infinity;
 }
 
+/** Sums of a weighted straight line z = c0 + c1·x: Σw, Σw·x, Σw·x², Σw·z, Σw·z·x. */
+type LineSums = { w: number; x: number; xx: number; z: number; xz: number };
+
+const lineSums = (): LineSums => ({ w: 0, x: 0, xx: 0, z: 0, xz: 0 });
+
+/** Adds a point at x with weight w and weighted value wz = w·z. */
+function addPoint(l: LineSums, xi: number, w: number, wz: number): void {
+  l.w += w;
+  l.x += w * xi;
+  l.xx += w * xi * xi;
+  l.z += wz;
+  l.xz += wz * xi;
+}
+
 /** Weighted straight line z = c0 + c1·x from accumulated sums; null when degenerate. */
-function line(sw: number, sx: number, sxx: number, sz: number, sxz: number): [number, number] | null {
+function line({ w: sw, x: sx, xx: sxx, z: sz, xz: sxz }: LineSums): [number, number] | null {
   const det = sw * sxx - sx * sx;
   if (!(det > 0) || !Number.isFinite(det)) return null;
   const c1 = (sw * sxz - sx * sz) / det;
@@ -170,42 +184,27 @@ type Start = { a: number; K: number };
 function starts(x: Float64Array, y: Float64Array, n: number): Record<NonlinearLaw, Start | null> {
   // complete: 1/ΔP = 1/a − (K/a)V, weight ΔP⁴; standard: ΔP^−½ = a^−½(1 − KV), weight ΔP³;
   // intermediate: ln ΔP = ln a + KV, weight ΔP². (Cake is fitted exactly in closed form.)
-  let cw = 0, cx = 0, cxx = 0, cz = 0, cxz = 0;
-  let sw = 0, sx = 0, sxx = 0, sz = 0, sxz = 0;
-  let iw = 0, ix = 0, ixx = 0, iz = 0, ixz = 0;
+  const complete = lineSums();
+  const standard = lineSums();
+  const intermediate = lineSums();
   for (let i = 0; i < n; i++) {
     const xi = x[i];
     const yi = y[i];
     const y2 = yi * yi;
     const y3 = y2 * yi;
-    const y4 = y2 * y2;
-    // complete: z = 1/y, w = y⁴ → w = y⁴, w·z = y³
-    cw += y4;
-    cx += y4 * xi;
-    cxx += y4 * xi * xi;
-    cz += y3;
-    cxz += y3 * xi;
+    // complete: z = 1/y, w = y⁴ → w·z = y³
+    addPoint(complete, xi, y2 * y2, y3);
     // standard: z = y^−½, w = y³ → w·z = y^2.5
-    const wz = y2 * Math.sqrt(yi);
-    sw += y3;
-    sx += y3 * xi;
-    sxx += y3 * xi * xi;
-    sz += wz;
-    sxz += wz * xi;
+    addPoint(standard, xi, y3, y2 * Math.sqrt(yi));
     // intermediate: z = ln y, w = y²
-    const lz = y2 * Math.log(yi);
-    iw += y2;
-    ix += y2 * xi;
-    ixx += y2 * xi * xi;
-    iz += lz;
-    ixz += lz * xi;
+    addPoint(intermediate, xi, y2, y2 * Math.log(yi));
   }
   const out: Record<NonlinearLaw, Start | null> = { complete: null, standard: null, intermediate: null };
-  const c = line(cw, cx, cxx, cz, cxz);
+  const c = line(complete);
   if (c && c[0] > 0) out.complete = { a: 1 / c[0], K: -c[1] / c[0] };
-  const s = line(sw, sx, sxx, sz, sxz);
+  const s = line(standard);
   if (s && s[0] > 0) out.standard = { a: 1 / (s[0] * s[0]), K: -s[1] / s[0] };
-  const m = line(iw, ix, ixx, iz, ixz);
+  const m = line(intermediate);
   if (m) out.intermediate = { a: Math.exp(m[0]), K: m[1] };
   return out;
 }
