@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { deleteOwnRow, likePattern, lockOwnRow, orderBy, ownRow, ownRowExists, pageWindow, updateOwnRow, updateOwnRowReturning } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
@@ -147,30 +147,11 @@ export function createEquipmentRepository(db: DbOrTx) {
       const [row] = await db.insert(housingsTable).values(values).returning({ id: housingsTable.id });
       return row.id;
     },
-    async updateHousing(wineryId: string, id: string, changes: Partial<HousingInsert>) {
-      const rows = await db
-        .update(housingsTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .returning({ id: housingsTable.id });
-      return rows.length > 0;
-    },
-    async deleteHousing(wineryId: string, id: string) {
-      const rows = await db
-        .delete(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .returning({ id: housingsTable.id });
-      return rows.length > 0;
-    },
+    updateHousing: (wineryId: string, id: string, changes: Partial<HousingInsert>) =>
+      updateOwnRow(db, housingsTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    deleteHousing: (wineryId: string, id: string) => deleteOwnRow(db, housingsTable, wineryId, id),
     /** Locks the housing row so a concurrent install cannot slip in between the check and the delete. */
-    async lockHousing(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: housingsTable.id })
-        .from(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .for('update');
-      return row ?? null;
-    },
+    lockHousing: (wineryId: string, id: string) => lockOwnRow(db, housingsTable, wineryId, id),
     /** The highest round holding a cartridge (0 when empty). */
     async highestUsedRound(wineryId: string, housingId: string) {
       const [row] = await db
@@ -220,31 +201,16 @@ export function createEquipmentRepository(db: DbOrTx) {
       return { rows, total };
     },
     async line(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(linesTable)
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)));
+      const [row] = await db.select().from(linesTable).where(ownRow(linesTable, wineryId, id));
       return row ?? null;
     },
     async insertLine(values: LineInsert) {
       const [row] = await db.insert(linesTable).values(values).returning();
       return row;
     },
-    async updateLine(wineryId: string, id: string, changes: Partial<LineInsert>) {
-      const [row] = await db
-        .update(linesTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)))
-        .returning();
-      return row ?? null;
-    },
-    async deleteLine(wineryId: string, id: string) {
-      const rows = await db
-        .delete(linesTable)
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)))
-        .returning({ id: linesTable.id });
-      return rows.length > 0;
-    },
+    updateLine: (wineryId: string, id: string, changes: Partial<LineInsert>) =>
+      updateOwnRowReturning(db, linesTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    deleteLine: (wineryId: string, id: string) => deleteOwnRow(db, linesTable, wineryId, id),
 
     // ---- cartridge types ------------------------------------------------------------
     async listCartridgeTypes(wineryId: string, query: ListQuery<CartridgeTypeSortKey> & { kind?: 'prefilter' | 'membrane' }) {
@@ -276,22 +242,9 @@ export function createEquipmentRepository(db: DbOrTx) {
       const [row] = await db.insert(cartridgeTypesTable).values(values).returning({ id: cartridgeTypesTable.id });
       return row.id;
     },
-    async updateCartridgeType(wineryId: string, id: string, changes: Partial<CartridgeTypeInsert>) {
-      const rows = await db
-        .update(cartridgeTypesTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .returning({ id: cartridgeTypesTable.id });
-      return rows.length > 0;
-    },
-    async lockCartridgeType(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: cartridgeTypesTable.id })
-        .from(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .for('update');
-      return row ?? null;
-    },
+    updateCartridgeType: (wineryId: string, id: string, changes: Partial<CartridgeTypeInsert>) =>
+      updateOwnRow(db, cartridgeTypesTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    lockCartridgeType: (wineryId: string, id: string) => lockOwnRow(db, cartridgeTypesTable, wineryId, id),
     async cartridgesOfType(wineryId: string, typeId: string) {
       const [row] = await db
         .select({ n: count() })
@@ -299,21 +252,9 @@ export function createEquipmentRepository(db: DbOrTx) {
         .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.typeId, typeId)));
       return row.n;
     },
-    async deleteCartridgeType(wineryId: string, id: string) {
-      const rows = await db
-        .delete(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .returning({ id: cartridgeTypesTable.id });
-      return rows.length > 0;
-    },
+    deleteCartridgeType: (wineryId: string, id: string) => deleteOwnRow(db, cartridgeTypesTable, wineryId, id),
     /** Whether an attachment of this winery exists (a certificate must be the winery's own file). */
-    async attachmentExists(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: attachmentsTable.id })
-        .from(attachmentsTable)
-        .where(and(eq(attachmentsTable.wineryId, wineryId), eq(attachmentsTable.id, id)));
-      return Boolean(row);
-    },
+    attachmentExists: (wineryId: string, id: string) => ownRowExists(db, attachmentsTable, wineryId, id),
   };
 }
 
