@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, type AnyColumn, type SQL } from 'drizzle-orm';
-import type { PgColumn, PgTable, PgUpdateSetSource } from 'drizzle-orm/pg-core';
+import type { PgColumn, PgSelect, PgTable, PgUpdateSetSource } from 'drizzle-orm/pg-core';
 import type { ListQuery } from '../../shared/schemas/list';
 import type { DbOrTx } from './client';
 
@@ -12,6 +12,17 @@ export function pageWindow(query: Pick<ListQuery, 'page' | 'pageSize'>) {
 export function orderBy<S extends string>(query: Pick<ListQuery<S>, 'sort' | 'order'>, columns: Record<S, AnyColumn | SQL>, tieBreaker: AnyColumn): SQL[] {
   const dir = query.order === 'desc' ? desc : asc;
   return [dir(columns[query.sort]), asc(tieBreaker)];
+}
+
+/** One page of a list: the validated sort with its tie-breaker, then LIMIT/OFFSET (`qb` from `.$dynamic()`). */
+export function sortedPage<Q extends PgSelect, S extends string>(
+  qb: Q,
+  query: Pick<ListQuery<S>, 'sort' | 'order' | 'page' | 'pageSize'>,
+  columns: Record<S, AnyColumn | SQL>,
+  tieBreaker: AnyColumn,
+) {
+  const { limit, offset } = pageWindow(query);
+  return qb.orderBy(...orderBy(query, columns, tieBreaker)).limit(limit).offset(offset);
 }
 
 /** Escapes LIKE wildcards in user search text. */

@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { likePattern, sortedPage } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;
@@ -66,39 +66,31 @@ export function createCartridgesRepository(db: DbOrTx) {
     return and(...conditions)!;
   }
 
+  const listPage = (where: SQL, query: CartridgeListQuery) =>
+    sortedPage(
+      db
+        .select(listColumns)
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
+        .where(where)
+        .$dynamic(),
+      query,
+      sortColumns,
+      cartridgesTable.id,
+    );
+
   return {
     /** One page of the inventory (type and housing joined, no N+1) and the total matching. */
     async list(wineryId: string, query: CartridgeListQuery) {
       const where = listWhere(wineryId, query);
-      const { limit, offset } = pageWindow(query);
-      const [items, [{ total }]] = await Promise.all([
-        db
-          .select(listColumns)
-          .from(cartridgesTable)
-          .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-          .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-          .where(where)
-          .orderBy(...orderBy(query, sortColumns, cartridgesTable.id))
-          .limit(limit)
-          .offset(offset),
-        db.select({ total: count() }).from(cartridgesTable).where(where),
-      ]);
+      const [items, [{ total }]] = await Promise.all([listPage(where, query), db.select({ total: count() }).from(cartridgesTable).where(where)]);
       return { items, total };
     },
 
     /** The list query's SQL text and parameters, for EXPLAIN in a performance check. */
     listSql(wineryId: string, query: CartridgeListQuery) {
-      const { limit, offset } = pageWindow(query);
-      return db
-        .select(listColumns)
-        .from(cartridgesTable)
-        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-        .where(listWhere(wineryId, query))
-        .orderBy(...orderBy(query, sortColumns, cartridgesTable.id))
-        .limit(limit)
-        .offset(offset)
-        .toSQL();
+      return listPage(listWhere(wineryId, query), query).toSQL();
     },
 
     async listRow(wineryId: string, id: string) {

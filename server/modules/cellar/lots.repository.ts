@@ -4,7 +4,7 @@ import type { WineStyle } from '../../../shared/engine';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, planLotsTable, plansTable, tanksTable } from '../../db/schema';
 
-import { deleteOwnRow, likePattern, orderBy, ownRow, ownRowExists, pageWindow, updateOwnRow } from '../../db/list';
+import { deleteOwnRow, likePattern, ownRow, ownRowExists, sortedPage, updateOwnRow } from '../../db/list';
 
 /** A lot's tank, and only within the same winery (a second guard beside the write-time check). */
 const sameWineryTank = and(eq(tanksTable.id, lotsTable.tankId), eq(tanksTable.wineryId, lotsTable.wineryId));
@@ -88,25 +88,27 @@ export function createLotsRepository(db: DbOrTx) {
         turbidityNtu: latest.turbidityNtu,
       };
       const where = listWhere(wineryId, query);
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        db
-          .select({
-            ...lotColumns,
-            latestSampledAt: latest.sampledAt,
-            latestTurbidityNtu: latest.turbidityNtu,
-            latestT200s: latest.t200s,
-            latestT400s: latest.t400s,
-            latestDiscDiameterMm: latest.discDiameterMm,
-            latestDiscPoints: latest.discPoints,
-          })
-          .from(lotsTable)
-          .leftJoin(tanksTable, sameWineryTank)
-          .leftJoin(latest, eq(latest.lotId, lotsTable.id))
-          .where(where)
-          .orderBy(...orderBy(query, sortColumns, lotsTable.id))
-          .limit(limit)
-          .offset(offset),
+        sortedPage(
+          db
+            .select({
+              ...lotColumns,
+              latestSampledAt: latest.sampledAt,
+              latestTurbidityNtu: latest.turbidityNtu,
+              latestT200s: latest.t200s,
+              latestT400s: latest.t400s,
+              latestDiscDiameterMm: latest.discDiameterMm,
+              latestDiscPoints: latest.discPoints,
+            })
+            .from(lotsTable)
+            .leftJoin(tanksTable, sameWineryTank)
+            .leftJoin(latest, eq(latest.lotId, lotsTable.id))
+            .where(where)
+            .$dynamic(),
+          query,
+          sortColumns,
+          lotsTable.id,
+        ),
         db
           .select({ total: count() })
           .from(lotsTable)

@@ -2,7 +2,7 @@ import { and, count, eq, ilike, or, sql } from 'drizzle-orm';
 import type { TanksListQuery } from '../../../shared/schemas/cellar';
 import type { DbOrTx } from '../../db/client';
 import { lotsTable, tanksTable } from '../../db/schema';
-import { deleteOwnRow, likePattern, lockOwnRow, orderBy, ownRow, ownRowExists, pageWindow, updateOwnRow } from '../../db/list';
+import { deleteOwnRow, likePattern, lockOwnRow, ownRow, ownRowExists, sortedPage, updateOwnRow } from '../../db/list';
 
 export type TankRow = typeof tanksTable.$inferSelect & { lotCount: number; lotVolumeL: number };
 export type TankValues = { name: string; capacityL: number; notes: string };
@@ -32,14 +32,8 @@ export function createTanksRepository(db: DbOrTx) {
   return {
     async list(wineryId: string, query: TanksListQuery): Promise<{ rows: TankRow[]; total: number }> {
       const where = and(eq(tanksTable.wineryId, wineryId), query.q ? or(ilike(tanksTable.name, likePattern(query.q)), ilike(tanksTable.notes, likePattern(query.q))) : undefined);
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        withLots()
-          .where(where)
-          .groupBy(tanksTable.id)
-          .orderBy(...orderBy(query, { name: tanksTable.name, capacityL: tanksTable.capacityL, lotCount }, tanksTable.id))
-          .limit(limit)
-          .offset(offset),
+        sortedPage(withLots().where(where).groupBy(tanksTable.id).$dynamic(), query, { name: tanksTable.name, capacityL: tanksTable.capacityL, lotCount }, tanksTable.id),
         db.select({ total: count() }).from(tanksTable).where(where),
       ]);
       return { rows, total };

@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { deleteOwnRow, likePattern, lockOwnRow, orderBy, ownRow, ownRowExists, pageWindow, updateOwnRow, updateOwnRowReturning } from '../../db/list';
+import { deleteOwnRow, likePattern, lockOwnRow, ownRow, ownRowExists, sortedPage, updateOwnRow, updateOwnRowReturning } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
@@ -51,26 +51,21 @@ export function createEquipmentRepository(db: DbOrTx) {
       .where(and(eq(housingsTable.wineryId, wineryId), where))
       .$dynamic();
     if (!query) return base;
-    const { limit, offset } = pageWindow(query);
-    return base
-      .orderBy(
-        ...orderBy(
-          query,
-          {
-            name: housingsTable.name,
-            rounds: housingsTable.rounds,
-            lengthIn: housingsTable.lengthIn,
-            maxPressureBar: housingsTable.maxPressureBar,
-            maxTempC: housingsTable.maxTempC,
-            holdUpL: housingsTable.holdUpL,
-            installedCount,
-            createdAt: housingsTable.createdAt,
-          },
-          housingsTable.id,
-        ),
-      )
-      .limit(limit)
-      .offset(offset);
+    return sortedPage(
+      base,
+      query,
+      {
+        name: housingsTable.name,
+        rounds: housingsTable.rounds,
+        lengthIn: housingsTable.lengthIn,
+        maxPressureBar: housingsTable.maxPressureBar,
+        maxTempC: housingsTable.maxTempC,
+        holdUpL: housingsTable.holdUpL,
+        installedCount,
+        createdAt: housingsTable.createdAt,
+      },
+      housingsTable.id,
+    );
   }
 
   function typesWithCounts(wineryId: string, where: SQL | undefined, query?: ListQuery<CartridgeTypeSortKey>) {
@@ -91,27 +86,22 @@ export function createEquipmentRepository(db: DbOrTx) {
       .where(and(eq(cartridgeTypesTable.wineryId, wineryId), where))
       .$dynamic();
     if (!query) return base;
-    const { limit, offset } = pageWindow(query);
-    return base
-      .orderBy(
-        ...orderBy(
-          query,
-          {
-            name: cartridgeTypesTable.name,
-            kind: cartridgeTypesTable.kind,
-            media: cartridgeTypesTable.media,
-            ratingUm: cartridgeTypesTable.ratingUm,
-            areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
-            maxTempC: cartridgeTypesTable.maxTempC,
-            pricePer10in: cartridgeTypesTable.pricePer10in,
-            cartridgeCount,
-            createdAt: cartridgeTypesTable.createdAt,
-          },
-          cartridgeTypesTable.id,
-        ),
-      )
-      .limit(limit)
-      .offset(offset);
+    return sortedPage(
+      base,
+      query,
+      {
+        name: cartridgeTypesTable.name,
+        kind: cartridgeTypesTable.kind,
+        media: cartridgeTypesTable.media,
+        ratingUm: cartridgeTypesTable.ratingUm,
+        areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
+        maxTempC: cartridgeTypesTable.maxTempC,
+        pricePer10in: cartridgeTypesTable.pricePer10in,
+        cartridgeCount,
+        createdAt: cartridgeTypesTable.createdAt,
+      },
+      cartridgeTypesTable.id,
+    );
   }
 
   const splitCounts = (r: { total: number; inStock: number; installed: number; regenerating: number; retired: number }): TypeCounts => ({
@@ -181,21 +171,13 @@ export function createEquipmentRepository(db: DbOrTx) {
         eq(linesTable.wineryId, wineryId),
         query.q ? or(ilike(linesTable.name, likePattern(query.q)), ilike(linesTable.notes, likePattern(query.q))) : undefined,
       );
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        db
-          .select()
-          .from(linesTable)
-          .where(where)
-          .orderBy(
-            ...orderBy(
-              query,
-              { name: linesTable.name, bottlesPerHour: linesTable.bottlesPerHour, bottleMl: linesTable.bottleMl, createdAt: linesTable.createdAt },
-              linesTable.id,
-            ),
-          )
-          .limit(limit)
-          .offset(offset),
+        sortedPage(
+          db.select().from(linesTable).where(where).$dynamic(),
+          query,
+          { name: linesTable.name, bottlesPerHour: linesTable.bottlesPerHour, bottleMl: linesTable.bottleMl, createdAt: linesTable.createdAt },
+          linesTable.id,
+        ),
         db.select({ total: count() }).from(linesTable).where(where),
       ]);
       return { rows, total };
