@@ -313,10 +313,7 @@ export function createRecordsRepository(db: DbOrTx) {
       return [...out.values()].sort((a, b) => a.stageIndex - b.stageIndex || a.serial.localeCompare(b.serial));
     },
 
-    /**
-     * Changes and regenerations during a run. Today there are none to read (runs record no
-     * changes yet). TODO(run_changes): read run_changes by run id when that table lands.
-     */
+    /** Changes and regenerations during a run, in volume order, with the cartridges' serials. */
     async runChanges(wineryId: string, runId: string): Promise<RunChangeRow[]> {
       const rows = await db
         .select()
@@ -340,10 +337,7 @@ export function createRecordsRepository(db: DbOrTx) {
       }));
     },
 
-    /**
-     * Corrections and voidings of a run's readings. Today there are none (readings cannot be
-     * corrected yet). TODO(run_reading_corrections): read that table by run id, oldest first.
-     */
+    /** Corrections and voidings of a run's readings, oldest first (the record's own order: by time alone). */
     async readingCorrections(wineryId: string, runId: string): Promise<ReadingCorrectionRow[]> {
       const rows = await db
         .select()
