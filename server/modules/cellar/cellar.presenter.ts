@@ -1,4 +1,4 @@
-import type { LabResultDto, LotDto, LotListItemDto, ReadinessDto, ReadinessThresholdsUsedDto, TankDto } from '../../../shared/types/cellar';
+import type { LabResultDto, LotDto, LotHeadDto, LotListItemDto, ReadinessDto, ReadinessThresholdsUsedDto, TankDto } from '../../../shared/types/cellar';
 import type { LabAnalysis } from './lab-analysis';
 import type { LabResultRow } from './lab-results.repository';
 import type { LotRow } from './lots.repository';
@@ -19,8 +19,7 @@ export const presentTank = (t: TankRow): TankDto => ({
 
 const tankRef = (l: { tankId: string | null; tankName: string | null }) => (l.tankId && l.tankName !== null ? { id: l.tankId, name: l.tankName } : null);
 
-/** What the lot list and the lot page both say first about a lot. */
-const lotHead = (l: LotRow) => ({
+const lotHead = (l: LotRow): LotHeadDto => ({
   id: l.id,
   code: l.code,
   name: l.name,
