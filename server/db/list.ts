@@ -53,6 +53,13 @@ export async function lockOwnRow(db: DbOrTx, table: OwnedTable, wineryId: string
   return Boolean(row);
 }
 
+/** The winery's row, locked (FOR UPDATE) until the transaction ends; null when it is not there. */
+export async function lockedOwnRow<T extends OwnedTable>(db: DbOrTx, table: T, wineryId: string, id: string): Promise<T['$inferSelect'] | null> {
+  // As in updateOwnRowReturning: the rows of `select()` from a type-parameter table are the table's.
+  const rows = (await db.select().from(table as OwnedTable).where(ownRow(table, wineryId, id)).for('update')) as T['$inferSelect'][];
+  return rows[0] ?? null;
+}
+
 /** Updates the winery's row; whether it was there. */
 export async function updateOwnRow<T extends OwnedTable>(db: DbOrTx, table: T, wineryId: string, id: string, set: PgUpdateSetSource<T>): Promise<boolean> {
   const rows = await db.update(table).set(set).where(ownRow(table, wineryId, id)).returning({ id: table.id });

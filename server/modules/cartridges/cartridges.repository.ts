@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, sortedPage } from '../../db/list';
+import { likePattern, lockedOwnRow, sortedPage } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;
@@ -210,14 +210,7 @@ export function createCartridgesRepository(db: DbOrTx) {
     },
 
     /** The housing row, locked (SELECT … FOR UPDATE) so concurrent installs into it run one after the other. */
-    async lockHousing(wineryId: string, housingId: string) {
-      const [row] = await db
-        .select()
-        .from(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, housingId)))
-        .for('update');
-      return row ?? null;
-    },
+    lockHousing: (wineryId: string, housingId: string) => lockedOwnRow(db, housingsTable, wineryId, housingId),
 
     /** Cartridges installed in one housing. */
     async installedIn(wineryId: string, housingId: string) {
