@@ -47,6 +47,13 @@ export async function ownRowExists(db: DbOrTx, table: OwnedTable, wineryId: stri
   return Boolean(row);
 }
 
+/** The winery's row; null when it is not there. */
+export async function findOwnRow<T extends OwnedTable>(db: DbOrTx, table: T, wineryId: string, id: string): Promise<T['$inferSelect'] | null> {
+  // As in updateOwnRowReturning: the rows of `select()` from a type-parameter table are the table's.
+  const rows = (await db.select().from(table as OwnedTable).where(ownRow(table, wineryId, id))) as T['$inferSelect'][];
+  return rows[0] ?? null;
+}
+
 /** Locks the winery's row (FOR UPDATE, until the transaction ends); whether it was there. */
 export async function lockOwnRow(db: DbOrTx, table: OwnedTable, wineryId: string, id: string): Promise<boolean> {
   const [row] = await db.select({ id: table.id }).from(table).where(ownRow(table, wineryId, id)).for('update');
@@ -55,7 +62,7 @@ export async function lockOwnRow(db: DbOrTx, table: OwnedTable, wineryId: string
 
 /** The winery's row, locked (FOR UPDATE) until the transaction ends; null when it is not there. */
 export async function lockedOwnRow<T extends OwnedTable>(db: DbOrTx, table: T, wineryId: string, id: string): Promise<T['$inferSelect'] | null> {
-  // As in updateOwnRowReturning: the rows of `select()` from a type-parameter table are the table's.
+  // As in findOwnRow.
   const rows = (await db.select().from(table as OwnedTable).where(ownRow(table, wineryId, id)).for('update')) as T['$inferSelect'][];
   return rows[0] ?? null;
 }

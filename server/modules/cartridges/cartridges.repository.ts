@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, lockedOwnRow, sortedPage } from '../../db/list';
+import { findOwnRow, likePattern, lockedOwnRow, sortedPage } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;
@@ -152,13 +152,7 @@ export function createCartridgesRepository(db: DbOrTx) {
         .orderBy(desc(cartridgeEventsTable.at), desc(cartridgeEventsTable.id));
     },
 
-    async type(wineryId: string, typeId: string) {
-      const [row] = await db
-        .select()
-        .from(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, typeId)));
-      return row ?? null;
-    },
+    type: (wineryId: string, typeId: string) => findOwnRow(db, cartridgeTypesTable, wineryId, typeId),
 
     async typeNames(wineryId: string) {
       return db.select({ id: cartridgeTypesTable.id, name: cartridgeTypesTable.name }).from(cartridgeTypesTable).where(eq(cartridgeTypesTable.wineryId, wineryId));

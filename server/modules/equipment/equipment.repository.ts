@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { deleteOwnRow, likePattern, lockOwnRow, ownRow, ownRowExists, sortedPage, updateOwnRow, updateOwnRowReturning } from '../../db/list';
+import { deleteOwnRow, findOwnRow, likePattern, lockOwnRow, ownRowExists, sortedPage, updateOwnRow, updateOwnRowReturning } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
@@ -182,10 +182,7 @@ export function createEquipmentRepository(db: DbOrTx) {
       ]);
       return { rows, total };
     },
-    async line(wineryId: string, id: string) {
-      const [row] = await db.select().from(linesTable).where(ownRow(linesTable, wineryId, id));
-      return row ?? null;
-    },
+    line: (wineryId: string, id: string) => findOwnRow(db, linesTable, wineryId, id),
     async insertLine(values: LineInsert) {
       const [row] = await db.insert(linesTable).values(values).returning();
       return row;

@@ -1,6 +1,6 @@
 import { asc, count, eq } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { deleteOwnRow, ownRow, updateOwnRowReturning } from '../../db/list';
+import { deleteOwnRow, findOwnRow, updateOwnRowReturning } from '../../db/list';
 import { hosePresetsTable } from '../../db/schema';
 
 export type HosePresetRow = typeof hosePresetsTable.$inferSelect;
@@ -18,10 +18,7 @@ export function createHosePresetsRepository(db: DbOrTx) {
       const [row] = await db.select({ n: count() }).from(hosePresetsTable).where(eq(hosePresetsTable.wineryId, wineryId));
       return Number(row?.n ?? 0);
     },
-    async get(wineryId: string, id: string) {
-      const [row] = await db.select().from(hosePresetsTable).where(ownRow(hosePresetsTable, wineryId, id));
-      return row ?? null;
-    },
+    get: (wineryId: string, id: string) => findOwnRow(db, hosePresetsTable, wineryId, id),
     async insert(wineryId: string, values: PresetValues, by: { userId: string; userName: string | null }) {
       const [row] = await db
         .insert(hosePresetsTable)
