@@ -10,40 +10,22 @@ import { databaseUrl, ensureDatabase, startCluster, stopCluster } from './lib/po
 
 const root = resolve(import.meta.dirname, '..');
 
-function ensureChromium() {
-  if (existsSync('/usr/bin/chromium')) return;
+/**
+ * Installs a Debian package (apt-get) when its program is missing: Chromium for the browser
+ * tests, poppler-utils (pdftotext, pdfinfo, pdffonts) to read the record PDFs from outside the
+ * project, unzip to list the whole-winery export.
+ */
+function ensureDebianPackage(program: string, pkg: string, name: string, neededFor: string) {
+  if (existsSync(program)) return;
   if (process.getuid?.() !== 0) {
-    throw new Error('Chromium is needed for the browser tests. Install it with: sudo apt-get install -y chromium');
+    throw new Error(`${name} is needed ${neededFor}. Install it with: sudo apt-get install -y ${pkg}`);
   }
-  console.log('[porewise] installing Chromium from Debian packages (apt-get) …');
+  console.log(`[porewise] installing ${name} from Debian packages (apt-get) …`);
   execFileSync('apt-get', ['update'], { stdio: 'inherit' });
-  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], {
+  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', pkg], {
     stdio: 'inherit',
     env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
   });
-}
-
-/** pdftotext, pdfinfo and pdffonts (Debian's poppler-utils) read the record PDFs from outside the project. */
-function ensurePoppler() {
-  if (existsSync('/usr/bin/pdftotext')) return;
-  if (process.getuid?.() !== 0) {
-    throw new Error('poppler-utils is needed to check the record PDFs. Install it with: sudo apt-get install -y poppler-utils');
-  }
-  console.log('[porewise] installing poppler-utils from Debian packages (apt-get) …');
-  execFileSync('apt-get', ['update'], { stdio: 'inherit' });
-  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'poppler-utils'], {
-    stdio: 'inherit',
-    env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
-  });
-}
-
-/** unzip (Debian's package) lists the whole-winery export in the tests, from outside the project. */
-function ensureUnzip() {
-  if (existsSync('/usr/bin/unzip')) return;
-  if (process.getuid?.() !== 0) throw new Error('unzip is needed for the export tests. Install it with: sudo apt-get install -y unzip');
-  console.log('[porewise] installing unzip from Debian packages (apt-get) …');
-  execFileSync('apt-get', ['update'], { stdio: 'inherit' });
-  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'unzip'], { stdio: 'inherit', env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } });
 }
 
 async function main() {
@@ -52,9 +34,9 @@ async function main() {
   try {
     ensureDatabase('porewise_test', { fresh: true });
     await runMigrations(databaseUrl('porewise_test'));
-    ensureChromium();
-    ensurePoppler();
-    ensureUnzip();
+    ensureDebianPackage('/usr/bin/chromium', 'chromium', 'Chromium', 'for the browser tests');
+    ensureDebianPackage('/usr/bin/pdftotext', 'poppler-utils', 'poppler-utils', 'to check the record PDFs');
+    ensureDebianPackage('/usr/bin/unzip', 'unzip', 'unzip', 'for the export tests');
     buildClientIfChanged();
     console.log('[porewise] type-checking and linting …');
     execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });

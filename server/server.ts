@@ -7,8 +7,8 @@ import type { Env } from './env';
 import { startFakeS3, startFakeSmtp, type FakeS3, type FakeSmtp } from './lib/fake-services';
 import { logger } from './lib/logger';
 import { startWorkers } from './jobs/workers';
-import { createSmtpMailer } from './lib/mail';
-import { createQueue, queuedMailer } from './lib/queue';
+import { createSmtpMailer, smtpSettingsFrom } from './lib/mail';
+import { createQueue, queueOptionsFrom, queuedMailer } from './lib/queue';
 import { createAlertsService } from './modules/alerts/alerts.service';
 import { createS3Storage } from './lib/storage';
 
@@ -31,26 +31,13 @@ export async function startServer(env: Env) {
     }
     fakeSmtp = await startFakeSmtp();
   }
-  const smtp = createSmtpMailer(
-    fakeSmtp
-      ? { host: '127.0.0.1', port: fakeSmtp.port, from: env.MAIL_FROM }
-      : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM },
-  );
+  const smtp = createSmtpMailer(smtpSettingsFrom(env, fakeSmtp?.port));
 
   // The development outbox opens without signing in only with this key (printed by `npm start`).
   const outboxKey = fakeSmtp ? (env.DEV_OUTBOX_KEY ?? randomBytes(18).toString('base64url')) : undefined;
   // Mail goes through the job queue: the app enqueues, the workers deliver over SMTP with retries.
   const workers = env.WORKERS ?? true;
-  const queue = await createQueue({
-    connectionString: env.DATABASE_URL,
-    schema: env.QUEUE_SCHEMA,
-    mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
-    mailRetryLimit: env.MAIL_RETRY_LIMIT,
-    mailExpireSeconds: env.MAIL_EXPIRE_SECONDS,
-    maintenanceIntervalSeconds: env.QUEUE_MAINTENANCE_SECONDS,
-    pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
-    workers,
-  });
+  const queue = await createQueue(queueOptionsFrom(env, workers));
   const mailer = queuedMailer(queue);
   const alerts = createAlertsService({ db, mailer, appUrl: env.appUrl });
   if (workers) await startWorkers({ queue, smtp, alerts });

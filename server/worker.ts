@@ -6,8 +6,8 @@ import { parseEnv } from './env';
 import { startWorkers } from './jobs/workers';
 import { startFakeSmtp } from './lib/fake-services';
 import { logger } from './lib/logger';
-import { createSmtpMailer } from './lib/mail';
-import { createQueue, queuedMailer } from './lib/queue';
+import { createSmtpMailer, smtpSettingsFrom } from './lib/mail';
+import { createQueue, queueOptionsFrom, queuedMailer } from './lib/queue';
 import { createAlertsService } from './modules/alerts/alerts.service';
 
 const env = parseEnv();
@@ -15,20 +15,8 @@ const { db, pool } = createDatabase(env.DATABASE_URL);
 await runMigrations(env.DATABASE_URL);
 const fake = env.SMTP_HOST ? undefined : await startFakeSmtp();
 if (fake) logger.warn('SMTP_HOST is not set: this worker delivers to a local fake SMTP server whose mail only it sees.');
-const smtp = createSmtpMailer(
-  fake
-    ? { host: '127.0.0.1', port: fake.port, from: env.MAIL_FROM }
-    : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM },
-);
-const queue = await createQueue({
-  connectionString: env.DATABASE_URL,
-  schema: env.QUEUE_SCHEMA,
-  mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
-  mailRetryLimit: env.MAIL_RETRY_LIMIT,
-  mailExpireSeconds: env.MAIL_EXPIRE_SECONDS,
-  maintenanceIntervalSeconds: env.QUEUE_MAINTENANCE_SECONDS,
-  pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
-});
+const smtp = createSmtpMailer(smtpSettingsFrom(env, fake?.port));
+const queue = await createQueue(queueOptionsFrom(env));
 const alerts = createAlertsService({ db, mailer: queuedMailer(queue), appUrl: env.appUrl });
 await startWorkers({ queue, smtp, alerts });
 logger.info('Porewise workers are running');

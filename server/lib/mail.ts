@@ -1,4 +1,5 @@
 import nodemailer from 'nodemailer';
+import type { Env } from '../env';
 
 export type MailMessage = { to: string; subject: string; text: string; html?: string };
 /**
@@ -17,6 +18,13 @@ export type SmtpSettings = {
   password?: string;
   from: string;
 };
+
+/** The SMTP relay from the environment, or the local fake SMTP server listening on `fakePort`. */
+export function smtpSettingsFrom(env: Env, fakePort?: number): SmtpSettings {
+  return fakePort !== undefined
+    ? { host: '127.0.0.1', port: fakePort, from: env.MAIL_FROM }
+    : { host: env.SMTP_HOST!, port: env.SMTP_PORT, secure: env.SMTP_SECURE, user: env.SMTP_USER, password: env.SMTP_PASSWORD, from: env.MAIL_FROM };
+}
 
 /** Sends mail over SMTP through nodemailer (a real relay, or the local fake in development). */
 export function createSmtpMailer(settings: SmtpSettings): Mailer {

@@ -2,6 +2,7 @@
 // in the transaction of the change that causes it, so a crash loses neither the change nor the mail.
 import PgBoss from 'pg-boss';
 import type { DbOrTx } from '../db/client';
+import type { Env } from '../env';
 import { logger } from './logger';
 import type { MailMessage, Mailer } from './mail';
 
@@ -35,6 +36,20 @@ export type QueueOptions = {
 
 export const DEFAULT_MAIL_RETRY_DELAY_SECONDS = 30;
 export const DEFAULT_MAIL_RETRY_LIMIT = 6;
+
+/** The queue's options from the environment (the web server and `npm run worker` alike). */
+export function queueOptionsFrom(env: Env, workers?: boolean): QueueOptions {
+  return {
+    connectionString: env.DATABASE_URL,
+    schema: env.QUEUE_SCHEMA,
+    mailRetryDelaySeconds: env.MAIL_RETRY_DELAY_SECONDS,
+    mailRetryLimit: env.MAIL_RETRY_LIMIT,
+    mailExpireSeconds: env.MAIL_EXPIRE_SECONDS,
+    maintenanceIntervalSeconds: env.QUEUE_MAINTENANCE_SECONDS,
+    pollingIntervalSeconds: env.QUEUE_POLL_SECONDS,
+    workers,
+  };
+}
 
 /** pg-boss's "db" option: its SQL run on the caller's connection, so it joins the caller's transaction. */
 function executorOf(db: DbOrTx) {

@@ -49,6 +49,16 @@ export const DEFAULT_HOT_WATER_SANITATION_MIN = 30;
  */
 export const DEFAULT_STEAM_SANITATION_MIN = 45;
 
+/** The steps that take as long after hot water as after steam. */
+const STEPS_AFTER_COOL_DOWN = {
+  integrityTestMin: 20,
+  pushOutMin: 10,
+  changeoverMin: 30,
+  postIntegrityTestMin: 20,
+  regenerationMin: 20,
+  changeMin: 30,
+} as const;
+
 /**
  * Default step durations by sanitation kind, min. Apart from the sanitation times above,
  * every figure is common practice, no source:
@@ -63,22 +73,12 @@ export const DEFAULT_DAY_STEPS: Readonly<Record<SanitationKind, Readonly<DayStep
   'hot-water': {
     sanitationMin: DEFAULT_HOT_WATER_SANITATION_MIN,
     coolDownMin: 15,
-    integrityTestMin: 20,
-    pushOutMin: 10,
-    changeoverMin: 30,
-    postIntegrityTestMin: 20,
-    regenerationMin: 20,
-    changeMin: 30,
+    ...STEPS_AFTER_COOL_DOWN,
   },
   steam: {
     sanitationMin: DEFAULT_STEAM_SANITATION_MIN,
     coolDownMin: 30,
-    integrityTestMin: 20,
-    pushOutMin: 10,
-    changeoverMin: 30,
-    postIntegrityTestMin: 20,
-    regenerationMin: 20,
-    changeMin: 30,
+    ...STEPS_AFTER_COOL_DOWN,
   },
 };
 

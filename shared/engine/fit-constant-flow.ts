@@ -79,9 +79,24 @@ const EXP_POW2 = new Float64Array(2046); // 2^e for e = −1022 … 1023
 for (let j = 0; j < EXP_N; j++) EXP_FRAC[j] = Math.pow(2, j / EXP_N);
 for (let e = -1022; e <= 1023; e++) EXP_POW2[e + 1022] = Math.pow(2, e);
 
+/** e^u: 2^(k/64)·e^ρ as above for |u| < 700, Math.exp beyond. */
+function fastExp(u: number): number {
+  if (!(u > -700 && u < 700)) return Math.exp(u);
+  const kf = u * EXP_INV + EXP_SHIFT - EXP_SHIFT;
+  const rho = u - kf * EXP_HI - kf * EXP_LO;
+  const k = kf | 0;
+  const poly = 1 + rho * (1 + rho * (0.5 + rho * (1 / 6 + rho * (1 / 24 + rho * (1 / 120)))));
+  return EXP_FRAC[k & 63] * EXP_POW2[(k >> 6) + 1022] * poly;
+}
+
 /**
  * One pass over the data at (a = ΔP0, K): writes residuals r = y − a·g(K·x) into `res`
  * and the sums of {@link Sums} into `s`. Returns RSS (Infinity when not finite).
+ * Per law, with h = 1/(1 − Kx) for the two with an asymptote and h = 1 otherwise:
+ *   complete      g = h,        q = x·h²,    ∂q/∂K = 2x·h·q
+ *   standard      g = h²,       q = 2x·h³,   ∂q/∂K = 3x·h·q
+ *   intermediate  g = e^(Kx),   q = x·g,     ∂q/∂K = x·q
+ *   cake          g = 1 + Kx,   q = x,       ∂q/∂K = 0
  */
 function pass(
   law: BlockingLaw,
@@ -93,6 +108,9 @@ function pass(
   res: Float64Array,
   s: Sums,
 ): number {
+  const asymptote = law === 'complete' || law === 'standard';
+  const squared = law === 'standard';
+  const exponential = law === 'intermediate';
   let gg = 0;
   let gq = 0;
   let qq = 0;
@@ -100,101 +118,59 @@ function pass(
   let qr = 0;
   let rdq = 0;
   let rss = 0;
-  switch (law) {
-    case 'complete':
-      // g = h = 1/(1 − Kx), q = x·h², ∂q/∂K = 2x·h·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const h = 1 / (1 - K * xi);
-        const q = xi * h * h;
-        const r = y[i] - a * h;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += h * h;
-        gq += h * q;
-        qq += q * q;
-        gr += h * r;
-        qr += rq;
-        rdq += rq * xi * h;
-      }
-      rdq *= 2;
-      break;
-    case 'standard':
-      // g = h², q = 2x·h³, ∂q/∂K = 3x·h·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const h = 1 / (1 - K * xi);
-        const g = h * h;
-        const q = 2 * xi * g * h;
-        const r = y[i] - a * g;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += g * g;
-        gq += g * q;
-        qq += q * q;
-        gr += g * r;
-        qr += rq;
-        rdq += rq * xi * h;
-      }
-      rdq *= 3;
-      break;
-    case 'intermediate':
-      // g = e^(Kx), q = x·g, ∂q/∂K = x·q
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const u = K * xi;
-        let g: number;
-        if (u > -700 && u < 700) {
-          const kf = u * EXP_INV + EXP_SHIFT - EXP_SHIFT;
-          const rho = u - kf * EXP_HI - kf * EXP_LO;
-          const k = kf | 0;
-          const poly = 1 + rho * (1 + rho * (0.5 + rho * (1 / 6 + rho * (1 / 24 + rho * (1 / 120)))));
-          g = EXP_FRAC[k & 63] * EXP_POW2[(k >> 6) + 1022] * poly;
-        } else {
-          g = Math.exp(u);
-        }
-        const q = xi * g;
-        const r = y[i] - a * g;
-        res[i] = r;
-        const rq = r * q;
-        rss += r * r;
-        gg += g * g;
-        gq += g * q;
-        qq += q * q;
-        gr += g * r;
-        qr += rq;
-        rdq += rq * xi;
-      }
-      break;
-    case 'cake':
-      // g = 1 + Kx, q = x, ∂q/∂K = 0
-      for (let i = 0; i < n; i++) {
-        const xi = x[i];
-        const g = 1 + K * xi;
-        const r = y[i] - a * g;
-        res[i] = r;
-        rss += r * r;
-        gg += g * g;
-        gq += g * xi;
-        qq += xi * xi;
-        gr += g * r;
-        qr += r * xi;
-      }
-      break;
+  for (let i = 0; i < n; i++) {
+    const xi = x[i];
+    let g: number;
+    let h = 1;
+    let q: number;
+    if (asymptote) {
+      h = 1 / (1 - K * xi);
+      g = squared ? h * h : h;
+      q = (squared ? 2 * xi : xi) * g * h;
+    } else if (exponential) {
+      g = fastExp(K * xi);
+      q = xi * g;
+    } else {
+      g = 1 + K * xi;
+      q = xi;
+    }
+    const r = y[i] - a * g;
+    res[i] = r;
+    const rq = r * q;
+    rss += r * r;
+    gg += g * g;
+    gq += g * q;
+    qq += q * q;
+    gr += g * r;
+    qr += rq;
+    rdq += rq * xi * h;
   }
   s[0] = gg;
   s[1] = gq;
   s[2] = qq;
   s[3] = gr;
   s[4] = qr;
-  s[5] = rdq;
+  // Σr·∂q/∂K = c·Σr·q·x·h with c = 2, 3, 1 (cake: 0)
+  s[5] = law === 'cake' ? 0 : rdq * (law === 'complete' ? 2 : law === 'standard' ? 3 : 1);
   return Number.isFinite(rss) ? rss : Infinity;
 }
 
+/** Sums of a weighted straight line z = c0 + c1·x: Σw, Σw·x, Σw·x², Σw·z, Σw·z·x. */
+type LineSums = { w: number; x: number; xx: number; z: number; xz: number };
+
+const lineSums = (): LineSums => ({ w: 0, x: 0, xx: 0, z: 0, xz: 0 });
+
+/** Adds a point at x with weight w and weighted value wz = w·z. */
+function addPoint(l: LineSums, xi: number, w: number, wz: number): void {
+  l.w += w;
+  l.x += w * xi;
+  l.xx += w * xi * xi;
+  l.z += wz;
+  l.xz += wz * xi;
+}
+
 /** Weighted straight line z = c0 + c1·x from accumulated sums; null when degenerate. */
-function line(sw: number, sx: number, sxx: number, sz: number, sxz: number): [number, number] | null {
+function line({ w: sw, x: sx, xx: sxx, z: sz, xz: sxz }: LineSums): [number, number] | null {
   const det = sw * sxx - sx * sx;
   if (!(det > 0) || !Number.isFinite(det)) return null;
   const c1 = (sw * sxz - sx * sz) / det;
@@ -208,42 +184,27 @@ type Start = { a: number; K: number };
 function starts(x: Float64Array, y: Float64Array, n: number): Record<NonlinearLaw, Start | null> {
   // complete: 1/ΔP = 1/a − (K/a)V, weight ΔP⁴; standard: ΔP^−½ = a^−½(1 − KV), weight ΔP³;
   // intermediate: ln ΔP = ln a + KV, weight ΔP². (Cake is fitted exactly in closed form.)
-  let cw = 0, cx = 0, cxx = 0, cz = 0, cxz = 0;
-  let sw = 0, sx = 0, sxx = 0, sz = 0, sxz = 0;
-  let iw = 0, ix = 0, ixx = 0, iz = 0, ixz = 0;
+  const complete = lineSums();
+  const standard = lineSums();
+  const intermediate = lineSums();
   for (let i = 0; i < n; i++) {
     const xi = x[i];
     const yi = y[i];
     const y2 = yi * yi;
     const y3 = y2 * yi;
-    const y4 = y2 * y2;
-    // complete: z = 1/y, w = y⁴ → w = y⁴, w·z = y³
-    cw += y4;
-    cx += y4 * xi;
-    cxx += y4 * xi * xi;
-    cz += y3;
-    cxz += y3 * xi;
+    // complete: z = 1/y, w = y⁴ → w·z = y³
+    addPoint(complete, xi, y2 * y2, y3);
     // standard: z = y^−½, w = y³ → w·z = y^2.5
-    const wz = y2 * Math.sqrt(yi);
-    sw += y3;
-    sx += y3 * xi;
-    sxx += y3 * xi * xi;
-    sz += wz;
-    sxz += wz * xi;
+    addPoint(standard, xi, y3, y2 * Math.sqrt(yi));
     // intermediate: z = ln y, w = y²
-    const lz = y2 * Math.log(yi);
-    iw += y2;
-    ix += y2 * xi;
-    ixx += y2 * xi * xi;
-    iz += lz;
-    ixz += lz * xi;
+    addPoint(intermediate, xi, y2, y2 * Math.log(yi));
   }
   const out: Record<NonlinearLaw, Start | null> = { complete: null, standard: null, intermediate: null };
-  const c = line(cw, cx, cxx, cz, cxz);
+  const c = line(complete);
   if (c && c[0] > 0) out.complete = { a: 1 / c[0], K: -c[1] / c[0] };
-  const s = line(sw, sx, sxx, sz, sxz);
+  const s = line(standard);
   if (s && s[0] > 0) out.standard = { a: 1 / (s[0] * s[0]), K: -s[1] / s[0] };
-  const m = line(iw, ix, ixx, iz, ixz);
+  const m = line(intermediate);
   if (m) out.intermediate = { a: Math.exp(m[0]), K: m[1] };
   return out;
 }

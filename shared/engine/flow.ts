@@ -46,6 +46,13 @@ export function mediumResistance(spec: MediumSpec): number {
   return (spec.dpBar * PA_PER_BAR * spec.areaM2) / (mu * spec.waterFlowLh * M3S_PER_LH);
 }
 
+/** Checks the clean medium's area, resistance and the liquid's viscosity (Darcy's law both ways). */
+function requireCleanMedium(args: { areaM2: number; resistancePerM: number; viscosityPaS: number }): void {
+  requirePositive('filter area', args.areaM2);
+  requirePositive('medium resistance', args.resistancePerM);
+  requirePositive('viscosity', args.viscosityPaS);
+}
+
 /**
  * Clean differential pressure across a medium at a given flow, bar:
  * ΔP = μ·R_m·Q/A (Darcy 1856).
@@ -63,9 +70,7 @@ export function cleanDpBar(args: {
   viscosityPaS: number;
 }): number {
   requireNonNegative('flow', args.flowLh);
-  requirePositive('filter area', args.areaM2);
-  requirePositive('medium resistance', args.resistancePerM);
-  requirePositive('viscosity', args.viscosityPaS);
+  requireCleanMedium(args);
   return (args.viscosityPaS * args.resistancePerM * args.flowLh * M3S_PER_LH) / args.areaM2 / PA_PER_BAR;
 }
 
@@ -82,9 +87,7 @@ export function cleanFlowLh(args: {
   viscosityPaS: number;
 }): number {
   requireNonNegative('pressure drop', args.dpBar);
-  requirePositive('filter area', args.areaM2);
-  requirePositive('medium resistance', args.resistancePerM);
-  requirePositive('viscosity', args.viscosityPaS);
+  requireCleanMedium(args);
   return (args.dpBar * PA_PER_BAR * args.areaM2) / (args.viscosityPaS * args.resistancePerM) / M3S_PER_LH;
 }
 

@@ -9,18 +9,10 @@
  */
 import { convert } from '../engine';
 import type { LoggerMapping } from '../schemas/logger';
+import type { ReadingValuesDto } from '../types/runs';
 
 /** One row as read, in stored units. `at` is milliseconds since 1970 (UTC). */
-export type LoggerRow = {
-  row: number;
-  at: number;
-  volumeL: number;
-  upstreamBar: number;
-  downstreamBar: number;
-  dpBar: number;
-  flowLh: number | null;
-  tempC: number | null;
-};
+export type LoggerRow = Omit<ReadingValuesDto, 'at'> & { row: number; at: number };
 export type LoggerRowError = { row: number; column: string | null; message: string };
 
 /** A problem with the whole file or the mapping (not one row): field → message. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isTimeZone } from '../engine';
 import { textSchema } from './text';
 
 /** Largest logger file taken, bytes (100,000 rows of a dozen columns fit with room to spare). */
@@ -48,15 +49,6 @@ export const loggerTimeFormats = [
 
 export const LOGGER_TIME_FORMAT_PATTERN = /^(auto|epoch-s|epoch-ms|[YMDHhmsSA .:/T,_-]{2,40})$/;
 
-/** True when the runtime knows this IANA time zone (e.g. "Europe/Vienna", "UTC"). */
-export function isTimeZone(zone: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en-US', { timeZone: zone });
-    return true;
-  } catch {
-    return false;
-  }
-}
 
 const columnSchema = textSchema({ error: 'Choose the column by its header.' })
   .trim()

@@ -69,8 +69,8 @@ export type LabResultDto = {
   updatedAt: string;
 };
 
-/** One row of the lots table: the lot with a summary of its latest lab result. */
-export type LotListItemDto = {
+/** What the lots table and the lot page both say first about a lot. */
+export type LotHeadDto = {
   id: string;
   code: string;
   name: string;
@@ -78,6 +78,10 @@ export type LotListItemDto = {
   vintage: number | null;
   volumeL: number;
   tank: TankRefDto | null;
+};
+
+/** One row of the lots table: the lot with a summary of its latest lab result. */
+export type LotListItemDto = LotHeadDto & {
   latest: {
     sampledAt: string;
     turbidityNtu: number | null;
@@ -96,14 +100,7 @@ export type ReadinessThresholdsUsedDto = {
   vmax: { readyMinSafetyFactor: number; borderlineMinSafetyFactor: number; source: string };
 };
 
-export type LotDto = {
-  id: string;
-  code: string;
-  name: string;
-  style: WineStyle;
-  vintage: number | null;
-  volumeL: number;
-  tank: TankRefDto | null;
+export type LotDto = LotHeadDto & {
   ethanolPctVol: number;
   sugarGPerL: number;
   tempC: number;

@@ -1,4 +1,5 @@
 import type { LoggerMapping } from '../schemas/logger';
+import type { ReadingValuesDto } from './runs';
 
 export type LoggerProfileDto = {
   id: string;
@@ -10,16 +11,9 @@ export type LoggerProfileDto = {
 };
 
 /** One row of a logger file as read, in stored units (bar, L, L/h, °C). */
-export type LoggerRowDto = {
+export type LoggerRowDto = ReadingValuesDto & {
   /** The row in the file, counted as a spreadsheet does (the header row is 1). */
   row: number;
-  at: string;
-  volumeL: number;
-  upstreamBar: number;
-  downstreamBar: number;
-  dpBar: number;
-  flowLh: number | null;
-  tempC: number | null;
 };
 
 /** What is wrong with one row; `column` is the header of the cell at fault, if one is. */

@@ -18,10 +18,8 @@ export type RunSummaryDto = {
   readingCount: number;
 };
 
-export type RunReadingDto = {
-  id: string;
-  clientKey: string;
-  stageIndex: number;
+/** A reading's values as logged, in stored units (bar, L, L/h, °C); `at` is an ISO time. */
+export type ReadingValuesDto = {
   at: string;
   volumeL: number;
   upstreamBar: number;
@@ -29,6 +27,13 @@ export type RunReadingDto = {
   dpBar: number;
   flowLh: number | null;
   tempC: number | null;
+};
+
+export type RunReadingDto = {
+  id: string;
+  clientKey: string;
+  stageIndex: number;
+} & ReadingValuesDto & {
   /** Who logged it, as named at the time. */
   createdByName: string | null;
   /** Who logged it: the name at the time, else the person's current name. */

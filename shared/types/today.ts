@@ -2,7 +2,7 @@
 import type { BudgetFactor, LimitingFactor, ReadinessVerdict, WineStyle } from '../engine';
 import type { CartridgeStatus } from '../schemas/cartridges';
 import type { PlanStatus } from '../schemas/plans';
-import type { StockFigure } from './cartridges';
+import type { CartridgeStockRowDto } from './cartridges';
 import type { RunInProgressDto } from './runs';
 
 /** A lot that is not ready, borderline, or has no verdict yet. */
@@ -47,14 +47,8 @@ export type TodayCartridgeDto = {
   alsoNoted: string[];
 };
 
-export type TodayStockTypeDto = {
-  typeId: string;
-  typeName: string;
-  kind: 'prefilter' | 'membrane';
-  ratingUm: number;
-  inStock: StockFigure;
-  installed: StockFigure;
-  regenerating: StockFigure;
+/** A type's stock as the cartridges page counts it (without the retired), and whether the shelf is empty. */
+export type TodayStockTypeDto = Omit<CartridgeStockRowDto, 'retired'> & {
   /** Nothing of this type on the shelf. */
   shortfall: boolean;
 };

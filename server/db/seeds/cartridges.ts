@@ -167,37 +167,37 @@ export async function seedCartridges(tx: DbOrTx, ctx: { wineryId: string; actorI
       events.push({ wineryId: ctx.wineryId, cartridgeId: id, kind: 'installed', actorId: technicianId, housingId: housing.id, position: plan.position, at: new Date(startMs - DAY), details: { from: 'in-stock' } });
     }
     let flowBefore = newFlowLh;
+    // An event of the cartridge in its housing, logged by the technician.
+    const inHousing = (kind: EventInsert['kind'], at: Date, details: EventInsert['details']): EventInsert => ({
+      wineryId: ctx.wineryId,
+      cartridgeId: id,
+      kind,
+      actorId: technicianId,
+      housingId: housing?.id ?? null,
+      position: plan.position ?? null,
+      at,
+      details,
+    });
     plan.cycles.forEach((kind, i) => {
       const t = startMs + i * stepMs;
       const run = plan.runs[i] ?? 0;
       litres += run;
-      if (run > 0) events.push({ wineryId: ctx.wineryId, cartridgeId: id, kind: 'run', actorId: technicianId, housingId: housing?.id ?? null, position: plan.position ?? null, at: new Date(t), details: { litres: run } });
+      if (run > 0) events.push(inHousing('run', new Date(t), { litres: run }));
       const after = Math.round(newFlowLh * plan.recovery[i]);
       const before = Math.round(Math.min(flowBefore, after) * 0.68);
-      events.push({
-        wineryId: ctx.wineryId,
-        cartridgeId: id,
-        kind: 'cycle',
-        actorId: technicianId,
-        housingId: housing?.id ?? null,
-        position: plan.position ?? null,
-        at: new Date(t + 6 * 3600_000),
-        details: { kind, ...CYCLES[kind], waterFlowBeforeLh: before, waterFlowAfterLh: after },
-      });
+      events.push(inHousing('cycle', new Date(t + 6 * 3600_000), { kind, ...CYCLES[kind], waterFlowBeforeLh: before, waterFlowAfterLh: after }));
       flowBefore = after;
       // Membranes are integrity-tested after the thermal cycles (a pass, or the failure that retired one).
       if (plan.type.kind === 'membrane' && kind === 'steam' && integrityIndex < plan.integrity.length) {
         const pass = plan.integrity[integrityIndex++];
-        events.push({
-          wineryId: ctx.wineryId,
-          cartridgeId: id,
-          kind: 'integrity',
-          actorId: technicianId,
-          housingId: housing?.id ?? null,
-          position: plan.position ?? null,
-          at: new Date(t + 8 * 3600_000),
-          details: { pass, method: 'bubble point', measuredBar: pass ? (plan.type.bubblePointMinBar ?? 3) + 0.3 : (plan.type.bubblePointMinBar ?? 3) - 0.6, minBar: plan.type.bubblePointMinBar },
-        });
+        events.push(
+          inHousing('integrity', new Date(t + 8 * 3600_000), {
+            pass,
+            method: 'bubble point',
+            measuredBar: pass ? (plan.type.bubblePointMinBar ?? 3) + 0.3 : (plan.type.bubblePointMinBar ?? 3) - 0.6,
+            minBar: plan.type.bubblePointMinBar,
+          }),
+        );
       }
     });
     // Any remaining integrity results (the re-test of the failed membrane).

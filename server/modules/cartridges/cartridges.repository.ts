@@ -2,7 +2,7 @@ import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, 
 import type { CartridgeListQuery, CartridgeSortKey } from '../../../shared/schemas/cartridges';
 import type { DbOrTx } from '../../db/client';
 import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, usersTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { findOwnRow, likePattern, lockedOwnRow, sortedPage } from '../../db/list';
 
 export type CartridgeRow = typeof cartridgesTable.$inferSelect;
 export type CartridgeInsert = typeof cartridgesTable.$inferInsert;
@@ -66,39 +66,31 @@ export function createCartridgesRepository(db: DbOrTx) {
     return and(...conditions)!;
   }
 
+  const listPage = (where: SQL, query: CartridgeListQuery) =>
+    sortedPage(
+      db
+        .select(listColumns)
+        .from(cartridgesTable)
+        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
+        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
+        .where(where)
+        .$dynamic(),
+      query,
+      sortColumns,
+      cartridgesTable.id,
+    );
+
   return {
     /** One page of the inventory (type and housing joined, no N+1) and the total matching. */
     async list(wineryId: string, query: CartridgeListQuery) {
       const where = listWhere(wineryId, query);
-      const { limit, offset } = pageWindow(query);
-      const [items, [{ total }]] = await Promise.all([
-        db
-          .select(listColumns)
-          .from(cartridgesTable)
-          .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-          .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-          .where(where)
-          .orderBy(...orderBy(query, sortColumns, cartridgesTable.id))
-          .limit(limit)
-          .offset(offset),
-        db.select({ total: count() }).from(cartridgesTable).where(where),
-      ]);
+      const [items, [{ total }]] = await Promise.all([listPage(where, query), db.select({ total: count() }).from(cartridgesTable).where(where)]);
       return { items, total };
     },
 
     /** The list query's SQL text and parameters, for EXPLAIN in a performance check. */
     listSql(wineryId: string, query: CartridgeListQuery) {
-      const { limit, offset } = pageWindow(query);
-      return db
-        .select(listColumns)
-        .from(cartridgesTable)
-        .innerJoin(cartridgeTypesTable, eq(cartridgeTypesTable.id, cartridgesTable.typeId))
-        .leftJoin(housingsTable, eq(housingsTable.id, cartridgesTable.housingId))
-        .where(listWhere(wineryId, query))
-        .orderBy(...orderBy(query, sortColumns, cartridgesTable.id))
-        .limit(limit)
-        .offset(offset)
-        .toSQL();
+      return listPage(listWhere(wineryId, query), query).toSQL();
     },
 
     async listRow(wineryId: string, id: string) {
@@ -160,13 +152,7 @@ export function createCartridgesRepository(db: DbOrTx) {
         .orderBy(desc(cartridgeEventsTable.at), desc(cartridgeEventsTable.id));
     },
 
-    async type(wineryId: string, typeId: string) {
-      const [row] = await db
-        .select()
-        .from(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, typeId)));
-      return row ?? null;
-    },
+    type: (wineryId: string, typeId: string) => findOwnRow(db, cartridgeTypesTable, wineryId, typeId),
 
     async typeNames(wineryId: string) {
       return db.select({ id: cartridgeTypesTable.id, name: cartridgeTypesTable.name }).from(cartridgeTypesTable).where(eq(cartridgeTypesTable.wineryId, wineryId));
@@ -218,14 +204,7 @@ export function createCartridgesRepository(db: DbOrTx) {
     },
 
     /** The housing row, locked (SELECT … FOR UPDATE) so concurrent installs into it run one after the other. */
-    async lockHousing(wineryId: string, housingId: string) {
-      const [row] = await db
-        .select()
-        .from(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, housingId)))
-        .for('update');
-      return row ?? null;
-    },
+    lockHousing: (wineryId: string, housingId: string) => lockedOwnRow(db, housingsTable, wineryId, housingId),
 
     /** Cartridges installed in one housing. */
     async installedIn(wineryId: string, housingId: string) {

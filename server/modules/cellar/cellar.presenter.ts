@@ -1,4 +1,4 @@
-import type { LabResultDto, LotDto, LotListItemDto, ReadinessDto, ReadinessThresholdsUsedDto, TankDto } from '../../../shared/types/cellar';
+import type { LabResultDto, LotDto, LotHeadDto, LotListItemDto, ReadinessDto, ReadinessThresholdsUsedDto, TankDto } from '../../../shared/types/cellar';
 import type { LabAnalysis } from './lab-analysis';
 import type { LabResultRow } from './lab-results.repository';
 import type { LotRow } from './lots.repository';
@@ -18,6 +18,16 @@ export const presentTank = (t: TankRow): TankDto => ({
 });
 
 const tankRef = (l: { tankId: string | null; tankName: string | null }) => (l.tankId && l.tankName !== null ? { id: l.tankId, name: l.tankName } : null);
+
+const lotHead = (l: LotRow): LotHeadDto => ({
+  id: l.id,
+  code: l.code,
+  name: l.name,
+  style: l.style,
+  vintage: l.vintage,
+  volumeL: l.volumeL,
+  tank: tankRef(l),
+});
 
 export const presentLabResult = (r: LabResultRow, a: LabAnalysis): LabResultDto => ({
   id: r.id,
@@ -41,13 +51,7 @@ export const presentLotListItem = (
   latest: { sampledAt: Date; turbidityNtu: number | null; analysis: LabAnalysis } | null,
   readiness: ReadinessDto,
 ): LotListItemDto => ({
-  id: l.id,
-  code: l.code,
-  name: l.name,
-  style: l.style,
-  vintage: l.vintage,
-  volumeL: l.volumeL,
-  tank: tankRef(l),
+  ...lotHead(l),
   latest: latest
     ? {
         sampledAt: iso(latest.sampledAt),
@@ -65,13 +69,7 @@ export const presentLot = (
   readiness: ReadinessDto,
   thresholds: ReadinessThresholdsUsedDto,
 ): LotDto => ({
-  id: l.id,
-  code: l.code,
-  name: l.name,
-  style: l.style,
-  vintage: l.vintage,
-  volumeL: l.volumeL,
-  tank: tankRef(l),
+  ...lotHead(l),
   ethanolPctVol: l.ethanolPctVol,
   sugarGPerL: l.sugarGPerL,
   tempC: l.tempC,

@@ -4,7 +4,7 @@ import type { WineStyle } from '../../../shared/engine';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, labResultsTable, lotsTable, planLotsTable, plansTable, tanksTable } from '../../db/schema';
 
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { deleteOwnRow, likePattern, ownRow, ownRowExists, sortedPage, updateOwnRow } from '../../db/list';
 
 /** A lot's tank, and only within the same winery (a second guard beside the write-time check). */
 const sameWineryTank = and(eq(tanksTable.id, lotsTable.tankId), eq(tanksTable.wineryId, lotsTable.wineryId));
@@ -88,25 +88,27 @@ export function createLotsRepository(db: DbOrTx) {
         turbidityNtu: latest.turbidityNtu,
       };
       const where = listWhere(wineryId, query);
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        db
-          .select({
-            ...lotColumns,
-            latestSampledAt: latest.sampledAt,
-            latestTurbidityNtu: latest.turbidityNtu,
-            latestT200s: latest.t200s,
-            latestT400s: latest.t400s,
-            latestDiscDiameterMm: latest.discDiameterMm,
-            latestDiscPoints: latest.discPoints,
-          })
-          .from(lotsTable)
-          .leftJoin(tanksTable, sameWineryTank)
-          .leftJoin(latest, eq(latest.lotId, lotsTable.id))
-          .where(where)
-          .orderBy(...orderBy(query, sortColumns, lotsTable.id))
-          .limit(limit)
-          .offset(offset),
+        sortedPage(
+          db
+            .select({
+              ...lotColumns,
+              latestSampledAt: latest.sampledAt,
+              latestTurbidityNtu: latest.turbidityNtu,
+              latestT200s: latest.t200s,
+              latestT400s: latest.t400s,
+              latestDiscDiameterMm: latest.discDiameterMm,
+              latestDiscPoints: latest.discPoints,
+            })
+            .from(lotsTable)
+            .leftJoin(tanksTable, sameWineryTank)
+            .leftJoin(latest, eq(latest.lotId, lotsTable.id))
+            .where(where)
+            .$dynamic(),
+          query,
+          sortColumns,
+          lotsTable.id,
+        ),
         db
           .select({ total: count() })
           .from(lotsTable)
@@ -123,25 +125,15 @@ export function createLotsRepository(db: DbOrTx) {
         })
         .from(lotsTable)
         .leftJoin(tanksTable, sameWineryTank)
-        .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)));
+        .where(ownRow(lotsTable, wineryId, id));
       return row ?? null;
     },
-    async exists(wineryId: string, id: string) {
-      const [row] = await db.select({ id: lotsTable.id }).from(lotsTable).where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)));
-      return Boolean(row);
-    },
+    exists: (wineryId: string, id: string) => ownRowExists(db, lotsTable, wineryId, id),
     async insert(wineryId: string, values: LotValues) {
       const [row] = await db.insert(lotsTable).values({ wineryId, ...values }).returning({ id: lotsTable.id });
       return row.id;
     },
-    async update(wineryId: string, id: string, values: LotValues, now: Date) {
-      const rows = await db
-        .update(lotsTable)
-        .set({ ...values, updatedAt: now })
-        .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id)))
-        .returning({ id: lotsTable.id });
-      return rows.length > 0;
-    },
+    update: (wineryId: string, id: string, values: LotValues, now: Date) => updateOwnRow(db, lotsTable, wineryId, id, { ...values, updatedAt: now }),
     /** Files attached to the lot or to any of its lab results. */
     async attachmentCount(wineryId: string, id: string) {
       const resultIds = db.select({ id: labResultsTable.id }).from(labResultsTable).where(and(eq(labResultsTable.wineryId, wineryId), eq(labResultsTable.lotId, id)));
@@ -159,7 +151,6 @@ export function createLotsRepository(db: DbOrTx) {
         );
       return n;
     },
-    /** Deletes the lot; its lab results go with it (they belong to the lot). */
     /**
      * Deletes a lot that no record holds, with its lab results and its places in draft plans
      * (records restrict these deletes, so they go explicitly, in the caller's transaction).
@@ -171,8 +162,7 @@ export function createLotsRepository(db: DbOrTx) {
         .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.status, 'draft')));
       await db.delete(planLotsTable).where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.lotId, id), inArray(planLotsTable.planId, drafts)));
       await db.delete(labResultsTable).where(and(eq(labResultsTable.wineryId, wineryId), eq(labResultsTable.lotId, id)));
-      const rows = await db.delete(lotsTable).where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.id, id))).returning({ id: lotsTable.id });
-      return rows.length > 0;
+      return deleteOwnRow(db, lotsTable, wineryId, id);
     },
   };
 }

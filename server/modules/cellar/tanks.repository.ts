@@ -2,7 +2,7 @@ import { and, count, eq, ilike, or, sql } from 'drizzle-orm';
 import type { TanksListQuery } from '../../../shared/schemas/cellar';
 import type { DbOrTx } from '../../db/client';
 import { lotsTable, tanksTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { deleteOwnRow, likePattern, lockOwnRow, ownRow, ownRowExists, sortedPage, updateOwnRow } from '../../db/list';
 
 export type TankRow = typeof tanksTable.$inferSelect & { lotCount: number; lotVolumeL: number };
 export type TankValues = { name: string; capacityL: number; notes: string };
@@ -32,49 +32,26 @@ export function createTanksRepository(db: DbOrTx) {
   return {
     async list(wineryId: string, query: TanksListQuery): Promise<{ rows: TankRow[]; total: number }> {
       const where = and(eq(tanksTable.wineryId, wineryId), query.q ? or(ilike(tanksTable.name, likePattern(query.q)), ilike(tanksTable.notes, likePattern(query.q))) : undefined);
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        withLots()
-          .where(where)
-          .groupBy(tanksTable.id)
-          .orderBy(...orderBy(query, { name: tanksTable.name, capacityL: tanksTable.capacityL, lotCount }, tanksTable.id))
-          .limit(limit)
-          .offset(offset),
+        sortedPage(withLots().where(where).groupBy(tanksTable.id).$dynamic(), query, { name: tanksTable.name, capacityL: tanksTable.capacityL, lotCount }, tanksTable.id),
         db.select({ total: count() }).from(tanksTable).where(where),
       ]);
       return { rows, total };
     },
     async find(wineryId: string, id: string): Promise<TankRow | null> {
       const [row] = await withLots()
-        .where(and(eq(tanksTable.wineryId, wineryId), eq(tanksTable.id, id)))
+        .where(ownRow(tanksTable, wineryId, id))
         .groupBy(tanksTable.id);
       return row ?? null;
     },
-    async exists(wineryId: string, id: string) {
-      const [row] = await db.select({ id: tanksTable.id }).from(tanksTable).where(and(eq(tanksTable.wineryId, wineryId), eq(tanksTable.id, id)));
-      return Boolean(row);
-    },
+    exists: (wineryId: string, id: string) => ownRowExists(db, tanksTable, wineryId, id),
     async insert(wineryId: string, values: TankValues) {
       const [row] = await db.insert(tanksTable).values({ wineryId, ...values }).returning({ id: tanksTable.id });
       return row.id;
     },
-    async update(wineryId: string, id: string, values: TankValues, now: Date) {
-      const rows = await db
-        .update(tanksTable)
-        .set({ ...values, updatedAt: now })
-        .where(and(eq(tanksTable.wineryId, wineryId), eq(tanksTable.id, id)))
-        .returning({ id: tanksTable.id });
-      return rows.length > 0;
-    },
+    update: (wineryId: string, id: string, values: TankValues, now: Date) => updateOwnRow(db, tanksTable, wineryId, id, { ...values, updatedAt: now }),
     /** Locks the tank row so a lot cannot move in while it is being deleted. */
-    async lockForDelete(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: tanksTable.id })
-        .from(tanksTable)
-        .where(and(eq(tanksTable.wineryId, wineryId), eq(tanksTable.id, id)))
-        .for('update');
-      return Boolean(row);
-    },
+    lockForDelete: (wineryId: string, id: string) => lockOwnRow(db, tanksTable, wineryId, id),
     async lotsIn(wineryId: string, id: string) {
       const [{ n }] = await db
         .select({ n: count() })
@@ -82,9 +59,7 @@ export function createTanksRepository(db: DbOrTx) {
         .where(and(eq(lotsTable.wineryId, wineryId), eq(lotsTable.tankId, id)));
       return n;
     },
-    async delete(wineryId: string, id: string) {
-      await db.delete(tanksTable).where(and(eq(tanksTable.wineryId, wineryId), eq(tanksTable.id, id)));
-    },
+    delete: (wineryId: string, id: string) => deleteOwnRow(db, tanksTable, wineryId, id),
   };
 }
 export type TanksRepository = ReturnType<typeof createTanksRepository>;

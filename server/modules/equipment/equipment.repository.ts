@@ -3,7 +3,7 @@ import type { HousingSortKey, LineSortKey, CartridgeTypeSortKey } from '../../..
 import type { ListQuery } from '../../../shared/schemas/list';
 import type { DbOrTx } from '../../db/client';
 import { attachmentsTable, cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, linesTable } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { deleteOwnRow, findOwnRow, likePattern, lockOwnRow, ownRowExists, sortedPage, updateOwnRow, updateOwnRowReturning } from '../../db/list';
 
 export type HousingRow = typeof housingsTable.$inferSelect;
 export type LineRow = typeof linesTable.$inferSelect;
@@ -51,26 +51,21 @@ export function createEquipmentRepository(db: DbOrTx) {
       .where(and(eq(housingsTable.wineryId, wineryId), where))
       .$dynamic();
     if (!query) return base;
-    const { limit, offset } = pageWindow(query);
-    return base
-      .orderBy(
-        ...orderBy(
-          query,
-          {
-            name: housingsTable.name,
-            rounds: housingsTable.rounds,
-            lengthIn: housingsTable.lengthIn,
-            maxPressureBar: housingsTable.maxPressureBar,
-            maxTempC: housingsTable.maxTempC,
-            holdUpL: housingsTable.holdUpL,
-            installedCount,
-            createdAt: housingsTable.createdAt,
-          },
-          housingsTable.id,
-        ),
-      )
-      .limit(limit)
-      .offset(offset);
+    return sortedPage(
+      base,
+      query,
+      {
+        name: housingsTable.name,
+        rounds: housingsTable.rounds,
+        lengthIn: housingsTable.lengthIn,
+        maxPressureBar: housingsTable.maxPressureBar,
+        maxTempC: housingsTable.maxTempC,
+        holdUpL: housingsTable.holdUpL,
+        installedCount,
+        createdAt: housingsTable.createdAt,
+      },
+      housingsTable.id,
+    );
   }
 
   function typesWithCounts(wineryId: string, where: SQL | undefined, query?: ListQuery<CartridgeTypeSortKey>) {
@@ -91,27 +86,22 @@ export function createEquipmentRepository(db: DbOrTx) {
       .where(and(eq(cartridgeTypesTable.wineryId, wineryId), where))
       .$dynamic();
     if (!query) return base;
-    const { limit, offset } = pageWindow(query);
-    return base
-      .orderBy(
-        ...orderBy(
-          query,
-          {
-            name: cartridgeTypesTable.name,
-            kind: cartridgeTypesTable.kind,
-            media: cartridgeTypesTable.media,
-            ratingUm: cartridgeTypesTable.ratingUm,
-            areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
-            maxTempC: cartridgeTypesTable.maxTempC,
-            pricePer10in: cartridgeTypesTable.pricePer10in,
-            cartridgeCount,
-            createdAt: cartridgeTypesTable.createdAt,
-          },
-          cartridgeTypesTable.id,
-        ),
-      )
-      .limit(limit)
-      .offset(offset);
+    return sortedPage(
+      base,
+      query,
+      {
+        name: cartridgeTypesTable.name,
+        kind: cartridgeTypesTable.kind,
+        media: cartridgeTypesTable.media,
+        ratingUm: cartridgeTypesTable.ratingUm,
+        areaM2Per10in: cartridgeTypesTable.areaM2Per10in,
+        maxTempC: cartridgeTypesTable.maxTempC,
+        pricePer10in: cartridgeTypesTable.pricePer10in,
+        cartridgeCount,
+        createdAt: cartridgeTypesTable.createdAt,
+      },
+      cartridgeTypesTable.id,
+    );
   }
 
   const splitCounts = (r: { total: number; inStock: number; installed: number; regenerating: number; retired: number }): TypeCounts => ({
@@ -147,30 +137,11 @@ export function createEquipmentRepository(db: DbOrTx) {
       const [row] = await db.insert(housingsTable).values(values).returning({ id: housingsTable.id });
       return row.id;
     },
-    async updateHousing(wineryId: string, id: string, changes: Partial<HousingInsert>) {
-      const rows = await db
-        .update(housingsTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .returning({ id: housingsTable.id });
-      return rows.length > 0;
-    },
-    async deleteHousing(wineryId: string, id: string) {
-      const rows = await db
-        .delete(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .returning({ id: housingsTable.id });
-      return rows.length > 0;
-    },
+    updateHousing: (wineryId: string, id: string, changes: Partial<HousingInsert>) =>
+      updateOwnRow(db, housingsTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    deleteHousing: (wineryId: string, id: string) => deleteOwnRow(db, housingsTable, wineryId, id),
     /** Locks the housing row so a concurrent install cannot slip in between the check and the delete. */
-    async lockHousing(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: housingsTable.id })
-        .from(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), eq(housingsTable.id, id)))
-        .for('update');
-      return row ?? null;
-    },
+    lockHousing: (wineryId: string, id: string) => lockOwnRow(db, housingsTable, wineryId, id),
     /** The highest round holding a cartridge (0 when empty). */
     async highestUsedRound(wineryId: string, housingId: string) {
       const [row] = await db
@@ -200,51 +171,25 @@ export function createEquipmentRepository(db: DbOrTx) {
         eq(linesTable.wineryId, wineryId),
         query.q ? or(ilike(linesTable.name, likePattern(query.q)), ilike(linesTable.notes, likePattern(query.q))) : undefined,
       );
-      const { limit, offset } = pageWindow(query);
       const [rows, [{ total }]] = await Promise.all([
-        db
-          .select()
-          .from(linesTable)
-          .where(where)
-          .orderBy(
-            ...orderBy(
-              query,
-              { name: linesTable.name, bottlesPerHour: linesTable.bottlesPerHour, bottleMl: linesTable.bottleMl, createdAt: linesTable.createdAt },
-              linesTable.id,
-            ),
-          )
-          .limit(limit)
-          .offset(offset),
+        sortedPage(
+          db.select().from(linesTable).where(where).$dynamic(),
+          query,
+          { name: linesTable.name, bottlesPerHour: linesTable.bottlesPerHour, bottleMl: linesTable.bottleMl, createdAt: linesTable.createdAt },
+          linesTable.id,
+        ),
         db.select({ total: count() }).from(linesTable).where(where),
       ]);
       return { rows, total };
     },
-    async line(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(linesTable)
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)));
-      return row ?? null;
-    },
+    line: (wineryId: string, id: string) => findOwnRow(db, linesTable, wineryId, id),
     async insertLine(values: LineInsert) {
       const [row] = await db.insert(linesTable).values(values).returning();
       return row;
     },
-    async updateLine(wineryId: string, id: string, changes: Partial<LineInsert>) {
-      const [row] = await db
-        .update(linesTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)))
-        .returning();
-      return row ?? null;
-    },
-    async deleteLine(wineryId: string, id: string) {
-      const rows = await db
-        .delete(linesTable)
-        .where(and(eq(linesTable.wineryId, wineryId), eq(linesTable.id, id)))
-        .returning({ id: linesTable.id });
-      return rows.length > 0;
-    },
+    updateLine: (wineryId: string, id: string, changes: Partial<LineInsert>) =>
+      updateOwnRowReturning(db, linesTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    deleteLine: (wineryId: string, id: string) => deleteOwnRow(db, linesTable, wineryId, id),
 
     // ---- cartridge types ------------------------------------------------------------
     async listCartridgeTypes(wineryId: string, query: ListQuery<CartridgeTypeSortKey> & { kind?: 'prefilter' | 'membrane' }) {
@@ -276,22 +221,9 @@ export function createEquipmentRepository(db: DbOrTx) {
       const [row] = await db.insert(cartridgeTypesTable).values(values).returning({ id: cartridgeTypesTable.id });
       return row.id;
     },
-    async updateCartridgeType(wineryId: string, id: string, changes: Partial<CartridgeTypeInsert>) {
-      const rows = await db
-        .update(cartridgeTypesTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .returning({ id: cartridgeTypesTable.id });
-      return rows.length > 0;
-    },
-    async lockCartridgeType(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: cartridgeTypesTable.id })
-        .from(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .for('update');
-      return row ?? null;
-    },
+    updateCartridgeType: (wineryId: string, id: string, changes: Partial<CartridgeTypeInsert>) =>
+      updateOwnRow(db, cartridgeTypesTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    lockCartridgeType: (wineryId: string, id: string) => lockOwnRow(db, cartridgeTypesTable, wineryId, id),
     async cartridgesOfType(wineryId: string, typeId: string) {
       const [row] = await db
         .select({ n: count() })
@@ -299,21 +231,9 @@ export function createEquipmentRepository(db: DbOrTx) {
         .where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.typeId, typeId)));
       return row.n;
     },
-    async deleteCartridgeType(wineryId: string, id: string) {
-      const rows = await db
-        .delete(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), eq(cartridgeTypesTable.id, id)))
-        .returning({ id: cartridgeTypesTable.id });
-      return rows.length > 0;
-    },
+    deleteCartridgeType: (wineryId: string, id: string) => deleteOwnRow(db, cartridgeTypesTable, wineryId, id),
     /** Whether an attachment of this winery exists (a certificate must be the winery's own file). */
-    async attachmentExists(wineryId: string, id: string) {
-      const [row] = await db
-        .select({ id: attachmentsTable.id })
-        .from(attachmentsTable)
-        .where(and(eq(attachmentsTable.wineryId, wineryId), eq(attachmentsTable.id, id)));
-      return Boolean(row);
-    },
+    attachmentExists: (wineryId: string, id: string) => ownRowExists(db, attachmentsTable, wineryId, id),
   };
 }
 

@@ -1,6 +1,7 @@
 import { and, asc, eq, getTableColumns, gt, type SQL } from 'drizzle-orm';
-import type { PgColumn, PgTable } from 'drizzle-orm/pg-core';
+import type { PgTable } from 'drizzle-orm/pg-core';
 import type { DbOrTx } from '../../db/client';
+import type { OwnedTable } from '../../db/list';
 import {
   attachmentsTable,
   auditEventsTable,
@@ -24,10 +25,8 @@ import {
   wineriesTable,
 } from '../../db/schema';
 
-type WineryTable = PgTable & { id: PgColumn; wineryId: PgColumn };
-
 /** One CSV of the export: a winery-owned table (every column), optionally narrowed. */
-export type ExportTable = { file: string; table: WineryTable; where?: SQL };
+export type ExportTable = { file: string; table: OwnedTable; where?: SQL };
 
 /**
  * The record tables of a winery, one CSV each. A table added later belongs here too (every

@@ -1,5 +1,6 @@
-import { and, asc, count, eq } from 'drizzle-orm';
+import { asc, count, eq } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
+import { deleteOwnRow, findOwnRow, updateOwnRowReturning } from '../../db/list';
 import { hosePresetsTable } from '../../db/schema';
 
 export type HosePresetRow = typeof hosePresetsTable.$inferSelect;
@@ -17,10 +18,7 @@ export function createHosePresetsRepository(db: DbOrTx) {
       const [row] = await db.select({ n: count() }).from(hosePresetsTable).where(eq(hosePresetsTable.wineryId, wineryId));
       return Number(row?.n ?? 0);
     },
-    async get(wineryId: string, id: string) {
-      const [row] = await db.select().from(hosePresetsTable).where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)));
-      return row ?? null;
-    },
+    get: (wineryId: string, id: string) => findOwnRow(db, hosePresetsTable, wineryId, id),
     async insert(wineryId: string, values: PresetValues, by: { userId: string; userName: string | null }) {
       const [row] = await db
         .insert(hosePresetsTable)
@@ -28,20 +26,8 @@ export function createHosePresetsRepository(db: DbOrTx) {
         .returning();
       return row;
     },
-    async update(wineryId: string, id: string, changes: Partial<PresetValues>) {
-      const [row] = await db
-        .update(hosePresetsTable)
-        .set({ ...changes, updatedAt: new Date() })
-        .where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)))
-        .returning();
-      return row ?? null;
-    },
-    async remove(wineryId: string, id: string) {
-      const rows = await db
-        .delete(hosePresetsTable)
-        .where(and(eq(hosePresetsTable.wineryId, wineryId), eq(hosePresetsTable.id, id)))
-        .returning({ id: hosePresetsTable.id });
-      return rows.length > 0;
-    },
+    update: (wineryId: string, id: string, changes: Partial<PresetValues>) =>
+      updateOwnRowReturning(db, hosePresetsTable, wineryId, id, { ...changes, updatedAt: new Date() }),
+    remove: (wineryId: string, id: string) => deleteOwnRow(db, hosePresetsTable, wineryId, id),
   };
 }

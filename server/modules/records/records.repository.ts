@@ -1,5 +1,6 @@
 import { aliasedTable, and, asc, desc, eq, exists, gte, ilike, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import type { RecordLotsQuery } from '../../../shared/schemas/records';
+import type { RecordCartridgeDto, RecordChangeDto, RecordCorrectionDto } from '../../../shared/types/records';
 import type { DbOrTx } from '../../db/client';
 import {
   cartridgeEventsTable,
@@ -25,52 +26,25 @@ export type RecordReadingRow = Awaited<ReturnType<ReturnType<typeof createRecord
 export type RecordEventRow = Awaited<ReturnType<ReturnType<typeof createRecordsRepository>['cartridgeHistory']>>[number];
 
 /** A cartridge that served a stage of a run, as the repository derives it. */
-export type StageCartridgeRow = {
+export type StageCartridgeRow = Pick<
+  RecordCartridgeDto,
+  'cartridgeId' | 'serial' | 'batch' | 'typeName' | 'kind' | 'ratingUm' | 'lengthIn' | 'litresCarried' | 'installedAtVolumeL' | 'removedAtVolumeL'
+> & {
   stageIndex: number;
-  cartridgeId: string;
-  serial: string;
-  batch: string;
-  typeName: string;
-  kind: 'prefilter' | 'membrane';
-  ratingUm: number;
-  lengthIn: number;
-  /** Litres through the train while it was in; null while the run is open. */
-  litresCarried: number | null;
   /** Counters as they stand now (the service subtracts what happened since the start). */
   litresNow: number;
   steamNow: number;
   hotWaterNow: number;
   chemicalNow: number;
-  installedAtVolumeL: number;
-  removedAtVolumeL: number | null;
   /** Litres before the run, as snapshotted when the run started (runs bound to their cartridges). */
   snapshotLitresAtStart?: number;
 };
 
 /** A change or regeneration during a run. */
-export type RunChangeRow = {
-  stageIndex: number;
-  kind: 'change' | 'regeneration';
-  atVolumeL: number;
-  removedSerials: string[];
-  installedSerials: string[];
-  byName: string | null;
-  at: Date;
-};
+export type RunChangeRow = Omit<RecordChangeDto, 'at'> & { stageIndex: number; at: Date };
 
 /** A correction or voiding of a reading (the reading row itself is never changed). */
-export type ReadingCorrectionRow = {
-  readingId: string;
-  kind: 'correct' | 'void';
-  volumeL: number | null;
-  upstreamBar: number | null;
-  downstreamBar: number | null;
-  flowLh: number | null;
-  tempC: number | null;
-  reason: string;
-  byName: string | null;
-  at: Date;
-};
+export type ReadingCorrectionRow = Omit<RecordCorrectionDto, 'at'> & { readingId: string; at: Date };
 
 const starter = aliasedTable(usersTable, 'starter');
 const closer = aliasedTable(usersTable, 'closer');
@@ -313,10 +287,7 @@ export function createRecordsRepository(db: DbOrTx) {
       return [...out.values()].sort((a, b) => a.stageIndex - b.stageIndex || a.serial.localeCompare(b.serial));
     },
 
-    /**
-     * Changes and regenerations during a run. Today there are none to read (runs record no
-     * changes yet). TODO(run_changes): read run_changes by run id when that table lands.
-     */
+    /** Changes and regenerations during a run, in volume order, with the cartridges' serials. */
     async runChanges(wineryId: string, runId: string): Promise<RunChangeRow[]> {
       const rows = await db
         .select()
@@ -340,10 +311,7 @@ export function createRecordsRepository(db: DbOrTx) {
       }));
     },
 
-    /**
-     * Corrections and voidings of a run's readings. Today there are none (readings cannot be
-     * corrected yet). TODO(run_reading_corrections): read that table by run id, oldest first.
-     */
+    /** Corrections and voidings of a run's readings, oldest first (the record's own order: by time alone). */
     async readingCorrections(wineryId: string, runId: string): Promise<ReadingCorrectionRow[]> {
       const rows = await db
         .select()
