@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, type AnyColumn, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, type AnyColumn, type SQL } from 'drizzle-orm';
 import type { PgColumn, PgSelect, PgTable, PgUpdateSetSource } from 'drizzle-orm/pg-core';
 import type { ListQuery } from '../../shared/schemas/list';
 import type { DbOrTx } from './client';
@@ -90,4 +90,14 @@ export async function updateOwnRowReturning<T extends OwnedTable>(
   // Drizzle does not resolve `returning()` of a table given as a type parameter: the rows are the table's.
   const rows = (await db.update(table).set(set).where(ownRow(table, wineryId, id)).returning()) as T['$inferSelect'][];
   return rows[0] ?? null;
+}
+
+/** Which of these ids are the winery's rows of the table (one query; an empty list asks nothing). */
+export async function ownIdsAmong(db: DbOrTx, table: OwnedTable, wineryId: string, ids: string[]): Promise<Set<string>> {
+  if (ids.length === 0) return new Set<string>();
+  const rows = (await db
+    .select({ id: table.id })
+    .from(table as OwnedTable)
+    .where(and(eq(table.wineryId, wineryId), inArray(table.id, ids)))) as { id: string }[];
+  return new Set(rows.map((r) => r.id));
 }

@@ -92,3 +92,15 @@ export const cartridgeLifeFlagsTable = pgTable('cartridge_life_flags', {
   /** The lead reason, its figure and the other findings in words, as Today shows them. */
   attention: jsonb('attention').$type<{ reason: string; figure: unknown; alsoNoted: string[] }>(),
 });
+
+/** The columns of a cartridge the life forecast and Today's list read (one select shape for both). */
+export const lifeCartridgeColumns = {
+  id: cartridgesTable.id,
+  serial: cartridgesTable.serial,
+  status: cartridgesTable.status,
+  typeId: cartridgesTable.typeId,
+  housingId: cartridgesTable.housingId,
+  position: cartridgesTable.position,
+  litresFiltered: cartridgesTable.litresFiltered,
+  lengthIn: cartridgesTable.lengthIn,
+};

@@ -1,6 +1,6 @@
 import { and, asc, eq, exists, inArray, or, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable } from '../../db/schema';
+import { cartridgeEventsTable, cartridgesTable, cartridgeTypesTable, housingsTable, lifeCartridgeColumns } from '../../db/schema';
 
 /** Event kinds the life forecast reads. */
 export const LIFE_EVENT_KINDS = ['registered', 'cycle', 'integrity'] as const;
@@ -67,16 +67,7 @@ export function createLifeInputsRepository(db: DbOrTx) {
         .as('life_events');
       return db
         .select({
-          cartridge: {
-            id: cartridgesTable.id,
-            serial: cartridgesTable.serial,
-            status: cartridgesTable.status,
-            typeId: cartridgesTable.typeId,
-            housingId: cartridgesTable.housingId,
-            position: cartridgesTable.position,
-            litresFiltered: cartridgesTable.litresFiltered,
-            lengthIn: cartridgesTable.lengthIn,
-          },
+          cartridge: lifeCartridgeColumns,
           housingName: housingsTable.name,
           events: lifeEvents.events,
         })

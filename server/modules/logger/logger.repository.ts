@@ -1,5 +1,6 @@
 import { and, asc, count, eq, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
+import { findOwnRow } from '../../db/list';
 import { loggerImportsTable, loggerProfilesTable } from '../../db/schema';
 
 export type LoggerProfileRow = typeof loggerProfilesTable.$inferSelect;
@@ -14,11 +15,7 @@ export function createLoggerRepository(db: DbOrTx) {
     },
 
     async profile(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(loggerProfilesTable)
-        .where(and(eq(loggerProfilesTable.wineryId, wineryId), eq(loggerProfilesTable.id, id)));
-      return row ?? null;
+      return findOwnRow(db, loggerProfilesTable, wineryId, id);
     },
 
     async profileCount(wineryId: string) {

@@ -17,7 +17,7 @@ import {
   type PlanTrainHose,
   type PlanTrainStage,
 } from '../../db/schema';
-import { likePattern, orderBy, pageWindow } from '../../db/list';
+import { likePattern, lockedOwnRow, orderBy, ownIdsAmong, pageWindow } from '../../db/list';
 
 export type PlanRow = typeof plansTable.$inferSelect;
 export type PlanLotRow = typeof planLotsTable.$inferSelect;
@@ -155,12 +155,7 @@ export function createPlansRepository(db: DbOrTx) {
 
     /** Locks the plan row (writes to a plan and its lots and trains go through this). */
     async lockPlan(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(plansTable)
-        .where(and(eq(plansTable.wineryId, wineryId), eq(plansTable.id, id)))
-        .for('update');
-      return row ?? null;
+      return lockedOwnRow(db, plansTable, wineryId, id);
     },
 
     /** The plan row with its line and the names of who made and approved it. */
@@ -252,20 +247,10 @@ export function createPlansRepository(db: DbOrTx) {
       return row ?? null;
     },
     async existingTypeIds(wineryId: string, ids: string[]) {
-      if (ids.length === 0) return new Set<string>();
-      const rows = await db
-        .select({ id: cartridgeTypesTable.id })
-        .from(cartridgeTypesTable)
-        .where(and(eq(cartridgeTypesTable.wineryId, wineryId), inArray(cartridgeTypesTable.id, ids)));
-      return new Set(rows.map((r) => r.id));
+      return ownIdsAmong(db, cartridgeTypesTable, wineryId, ids);
     },
     async existingHousingIds(wineryId: string, ids: string[]) {
-      if (ids.length === 0) return new Set<string>();
-      const rows = await db
-        .select({ id: housingsTable.id })
-        .from(housingsTable)
-        .where(and(eq(housingsTable.wineryId, wineryId), inArray(housingsTable.id, ids)));
-      return new Set(rows.map((r) => r.id));
+      return ownIdsAmong(db, housingsTable, wineryId, ids);
     },
 
     // ---- writes ---------------------------------------------------------------------

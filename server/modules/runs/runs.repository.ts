@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { writeCacheWithoutWaiting, type DbOrTx } from '../../db/client';
+import { findOwnRow, lockedOwnRow, lockOwnRow } from '../../db/list';
 import {
   usersTable,
   cartridgeEventsTable,
@@ -67,7 +68,7 @@ type StageCartridgeInsert = typeof runStageCartridgesTable.$inferInsert;
 export type RunChangeRow = typeof runChangesTable.$inferSelect;
 type ChangeInsert = typeof runChangesTable.$inferInsert;
 export type ReadingCorrectionRow = typeof runReadingCorrectionsTable.$inferSelect;
-type CorrectionInsert = typeof runReadingCorrectionsTable.$inferInsert;
+export type CorrectionInsert = typeof runReadingCorrectionsTable.$inferInsert;
 type RunInsert = typeof runsTable.$inferInsert;
 
 const summaryColumns = {
@@ -155,11 +156,7 @@ export function createRunsRepository(db: DbOrTx) {
 
     /** Locks the plan lot so two starts of the same lot queue up. */
     async lockPlanLot(wineryId: string, id: string) {
-      await db
-        .select({ id: planLotsTable.id })
-        .from(planLotsTable)
-        .where(and(eq(planLotsTable.wineryId, wineryId), eq(planLotsTable.id, id)))
-        .for('update');
+      await lockOwnRow(db, planLotsTable, wineryId, id);
     },
 
     async runningFor(wineryId: string, planLotId: string) {
@@ -244,12 +241,7 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     async lockRun(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(runsTable)
-        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)))
-        .for('update');
-      return row ?? null;
+      return lockedOwnRow(db, runsTable, wineryId, id);
     },
 
     async readings(wineryId: string, runId: string, stageIndex?: number): Promise<RunReadingRow[]> {
@@ -424,11 +416,7 @@ export function createRunsRepository(db: DbOrTx) {
 
     /** The run without locking it (for telling why a reading was not stored). */
     async run(wineryId: string, id: string) {
-      const [row] = await db
-        .select()
-        .from(runsTable)
-        .where(and(eq(runsTable.wineryId, wineryId), eq(runsTable.id, id)));
-      return row ?? null;
+      return findOwnRow(db, runsTable, wineryId, id);
     },
 
     async lastReading(wineryId: string, runId: string, stageIndex: number) {

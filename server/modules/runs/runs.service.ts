@@ -39,7 +39,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { cartridgeMovesIn } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
-import { createRunsRepository, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
+import { createRunsRepository, type CorrectionInsert, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 import { reallocateClosedRun, runEndLitres, stintLitres } from './runs.reallocate';
@@ -396,6 +396,31 @@ export function createRunsService(db: Database) {
     return { raw, corrections };
   }
 
+  /**
+   * A correction or void of one reading, kept beside the original: in one transaction the run is
+   * locked, the reading found (404s), the correction row written with who, the run's counters
+   * recounted, the change logged and, for a closed run, the cartridges' litres re-allocated.
+   */
+  async function amendReading(
+    t: TenantContext,
+    runId: string,
+    readingId: string,
+    amendment: { kind: 'correct' | 'void'; reason: string; values: Partial<Pick<CorrectionInsert, 'volumeL' | 'upstreamBar' | 'downstreamBar' | 'flowLh' | 'tempC'>> },
+  ): Promise<RunDetailDto> {
+    await db.transaction(async (tx) => {
+      const r = createRunsRepository(tx);
+      const run = await r.lockRun(t.wineryId, runId);
+      if (!run) throw notFound('Run');
+      const reading = await r.reading(t.wineryId, runId, readingId);
+      if (!reading) throw notFound('Reading');
+      await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: amendment.kind, ...amendment.values, reason: amendment.reason, createdBy: t.userId, createdByName: t.userName ?? null });
+      await r.recountRun(t.wineryId, runId);
+      await recordChange(tx, t, { action: amendment.kind, kind: 'run', id: runId });
+      await reallocateClosedRun(tx, t, run, { readingId, kind: amendment.kind, reason: amendment.reason });
+    });
+    return detail(t.wineryId, runId);
+  }
+
   async function detail(wineryId: string, id: string): Promise<RunDetailDto> {
     const { summary, ctx, lineFlowLh, volumeToBottleL, stages, changes, serialOf } = await build(wineryId, id);
     const base = presentRunSummary(summary);
@@ -676,47 +701,13 @@ export function createRunsService(db: Database) {
       if (input.downstreamBar > input.upstreamBar) {
         throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
       }
-      await db.transaction(async (tx) => {
-        const r = createRunsRepository(tx);
-        const run = await r.lockRun(t.wineryId, runId);
-        if (!run) throw notFound('Run');
-        const reading = await r.reading(t.wineryId, runId, readingId);
-        if (!reading) throw notFound('Reading');
-        await r.insertCorrection({
-          wineryId: t.wineryId,
-          runId,
-          readingId,
-          kind: 'correct',
-          volumeL: input.volumeL,
-          upstreamBar: input.upstreamBar,
-          downstreamBar: input.downstreamBar,
-          flowLh: input.flowLh ?? null,
-          tempC: input.tempC ?? null,
-          reason: input.reason,
-          createdBy: t.userId,
-          createdByName: t.userName ?? null,
-        });
-        await r.recountRun(t.wineryId, runId);
-        await recordChange(tx, t, { action: 'correct', kind: 'run', id: runId });
-        await reallocateClosedRun(tx, t, run, { readingId, kind: 'correct', reason: input.reason });
-      });
-      return detail(t.wineryId, runId);
+      const values = { volumeL: input.volumeL, upstreamBar: input.upstreamBar, downstreamBar: input.downstreamBar, flowLh: input.flowLh ?? null, tempC: input.tempC ?? null };
+      return amendReading(t, runId, readingId, { kind: 'correct', reason: input.reason, values });
     },
 
     /** Voids a reading with a reason: it stays in the record, struck through, and leaves the fits. */
     async voidReading(t: TenantContext, runId: string, readingId: string, input: VoidReadingInput): Promise<RunDetailDto> {
-      await db.transaction(async (tx) => {
-        const r = createRunsRepository(tx);
-        const run = await r.lockRun(t.wineryId, runId);
-        if (!run) throw notFound('Run');
-        const reading = await r.reading(t.wineryId, runId, readingId);
-        if (!reading) throw notFound('Reading');
-        await r.insertCorrection({ wineryId: t.wineryId, runId, readingId, kind: 'void', reason: input.reason, createdBy: t.userId, createdByName: t.userName ?? null });
-        await r.recountRun(t.wineryId, runId);
-        await recordChange(tx, t, { action: 'void', kind: 'run', id: runId });
-        await reallocateClosedRun(tx, t, run, { readingId, kind: 'void', reason: input.reason });
-      });
-      return detail(t.wineryId, runId);
+      return amendReading(t, runId, readingId, { kind: 'void', reason: input.reason, values: {} });
     },
 
     /**

@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, gte, inArray, isNotNull, or, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, housingsTable, plansTable, tanksTable } from '../../db/schema';
+import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, housingsTable, lifeCartridgeColumns, plansTable, tanksTable } from '../../db/schema';
 
 /** One event as the aggregate gives it: kind, time (ms since the Unix epoch), details. */
 type LifeEventTuple = [kind: (typeof LIFE_EVENT_KINDS)[number], atMs: number, details: Record<string, unknown> | null];
@@ -106,16 +106,7 @@ export function createTodayRepository(db: DbOrTx) {
     async flaggedCartridges(wineryId: string, limit: number) {
       const rows = await db
         .select({
-          cartridge: {
-            id: cartridgesTable.id,
-            serial: cartridgesTable.serial,
-            status: cartridgesTable.status,
-            typeId: cartridgesTable.typeId,
-            housingId: cartridgesTable.housingId,
-            position: cartridgesTable.position,
-            litresFiltered: cartridgesTable.litresFiltered,
-            lengthIn: cartridgesTable.lengthIn,
-          },
+          cartridge: lifeCartridgeColumns,
           housingName: housingsTable.name,
           rank: sql<number>`${cartridgeLifeFlagsTable.rank}`.mapWith(Number),
           closeness: sql<number>`${cartridgeLifeFlagsTable.closeness}`.mapWith(Number),
