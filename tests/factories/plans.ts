@@ -142,3 +142,12 @@ export async function approvedPlanLot(
 
 /** Starts the run of an approved plan lot as `client`; answers the run's id. */
 export const startRun = async (client: Client, planLotId: string) => ok<{ id: string }>(await client.post('/api/runs', { planLotId }), 201, 'starting a run');
+
+/**
+ * A run on a new approved plan of a world whose housings are already filled
+ * (`fillTrainHousings`); started by `as`, the owner unless told. Answers the run's id.
+ */
+export async function startedRunOn(owner: Client, world: PlanWorld, as: Client = owner) {
+  const { planLotId } = await approvedPlanLot(owner, { world, fill: false });
+  return startRun(as, planLotId);
+}
