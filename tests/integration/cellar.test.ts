@@ -132,7 +132,7 @@ describe('another winery', () => {
     const tanks = await app.other.get(`/api/tanks?q=${encodeURIComponent(tank.name)}`);
     expect(tanks.body.total).toBe(0);
 
-    // Everything is still there for the app.owner.
+    // Everything is still there for the owner.
     expect((await app.owner.get(`/api/lots/${lot.id}/lab-results/${result.id}`)).status).toBe(200);
     expect((await app.owner.get(`/api/tanks/${tank.id}`)).status).toBe(200);
   });
