@@ -151,3 +151,11 @@ export async function startedRunOn(owner: Client, world: PlanWorld, as: Client =
   const { planLotId } = await approvedPlanLot(owner, { world, fill: false });
   return startRun(as, planLotId);
 }
+
+/** A draft plan named `name` on a new world's first lot (6,000 L), no train yet. */
+export async function draftPlanLot(client: Client, name: string) {
+  const world = await createPlanWorld(client);
+  const plan = await createPlan(client, world.lineId, { name });
+  const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+  return { world, plan, planLotId };
+}
