@@ -27,6 +27,20 @@ export const trainBody = (w: PlanWorld, over: Record<string, unknown> = {}, coun
   ...over,
 });
 
+/** The plan world's prefilter: 1 µm polypropylene depth cartridge, no integrity-test limits. */
+export const prefilterTypeFields = {
+  kind: 'prefilter',
+  media: 'polypropylene',
+  ratingUm: 1,
+  areaM2Per10in: 0.45,
+  waterFlowLhPer10in: 900,
+  waterDpBar: 0.15,
+  designFluxLhPer10in: 500,
+  bubblePointMinBar: null,
+  diffusionMaxMlMinPer10in: null,
+  pricePer10in: 16,
+};
+
 export type PlanWorld = {
   lineId: string;
   lotId: string;
@@ -44,18 +58,7 @@ export async function createPlanWorld(client: Client): Promise<PlanWorld> {
   const line = await createLine(client, { bottlesPerHour: 3000, bottleMl: 750 });
   const lot = await createLot(client, { volumeL: 6000, tempC: 12, ethanolPctVol: 12.5, sugarGPerL: 2 });
   const second = await createLot(client, { volumeL: 3000, tempC: 14, ethanolPctVol: 13.5, sugarGPerL: 1 });
-  const pre = await createCartridgeType(client, {
-    kind: 'prefilter',
-    media: 'polypropylene',
-    ratingUm: 1,
-    areaM2Per10in: 0.45,
-    waterFlowLhPer10in: 900,
-    waterDpBar: 0.15,
-    designFluxLhPer10in: 500,
-    bubblePointMinBar: null,
-    diffusionMaxMlMinPer10in: null,
-    pricePer10in: 16,
-  });
+  const pre = await createCartridgeType(client, prefilterTypeFields);
   const mem = await createCartridgeType(client, { pricePer10in: 95 });
   const preHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 8 });
   const memHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 10 });
