@@ -122,72 +122,43 @@ const lawArb = fc.constantFrom<BlockingLaw>(...BLOCKING_LAWS);
 const j0Arb = fc.double({ min: 1, max: 100, noNaN: true });
 const kScale: Record<BlockingLaw, number> = { complete: 0.05, standard: 0.02, intermediate: 0.02, cake: 0.002 };
 
+/**
+ * Checks `check` on sampled inputs: every law, J0, k = kf × the law's scale with kf from `kfMin`
+ * to 1, and the test's own sampled value(s).
+ */
+function forSampledLaws<T>(kfMin: number, own: fc.Arbitrary<T>, check: (law: BlockingLaw, k: number, j0: number, own: T) => void) {
+  fc.assert(fc.property(lawArb, j0Arb, fc.double({ min: kfMin, max: 1, noNaN: true }), own, (law, j0, kf, x) => check(law, kf * kScale[law], j0, x)));
+}
+
 describe('properties (Hermia 1982)', () => {
   it('the fouled state depends on v only: ΔP/ΔP0 at constant flux = J0/J at constant pressure', () => {
-    fc.assert(
-      fc.property(
-        lawArb,
-        j0Arb,
-        fc.double({ min: 1e-3, max: 1, noNaN: true }),
-        fc.double({ min: 0, max: 100, noNaN: true }),
-        (law, j0, kf, t) => {
-          const k = kf * kScale[law];
-          const v = blockingVolume(law, { k, j0, t });
-          const j = blockingFlux(law, { k, j0, t });
-          const ratio = blockingPressureRatio(law, { k, j0, v });
-          expect(rel(ratio, j0 / j)).toBeLessThan(1e-9);
-        },
-      ),
-    );
+    forSampledLaws(1e-3, fc.double({ min: 0, max: 100, noNaN: true }), (law, k, j0, t) => {
+      const v = blockingVolume(law, { k, j0, t });
+      const j = blockingFlux(law, { k, j0, t });
+      const ratio = blockingPressureRatio(law, { k, j0, v });
+      expect(rel(ratio, j0 / j)).toBeLessThan(1e-9);
+    });
   });
 
   it('J = dv/dt (central difference)', () => {
-    fc.assert(
-      fc.property(
-        lawArb,
-        j0Arb,
-        fc.double({ min: 1e-2, max: 1, noNaN: true }),
-        fc.double({ min: 1, max: 100, noNaN: true }),
-        (law, j0, kf, t) => {
-          const k = kf * kScale[law];
-          const h = 1e-4 * t;
-          const d = (blockingVolume(law, { k, j0, t: t + h }) - blockingVolume(law, { k, j0, t: t - h })) / (2 * h);
-          expect(rel(d, blockingFlux(law, { k, j0, t }))).toBeLessThan(1e-6);
-        },
-      ),
-    );
+    forSampledLaws(1e-2, fc.double({ min: 1, max: 100, noNaN: true }), (law, k, j0, t) => {
+      const h = 1e-4 * t;
+      const d = (blockingVolume(law, { k, j0, t: t + h }) - blockingVolume(law, { k, j0, t: t - h })) / (2 * h);
+      expect(rel(d, blockingFlux(law, { k, j0, t }))).toBeLessThan(1e-6);
+    });
   });
 
   it('volume at ratio inverts the pressure ratio', () => {
-    fc.assert(
-      fc.property(
-        lawArb,
-        j0Arb,
-        fc.double({ min: 1e-3, max: 1, noNaN: true }),
-        fc.double({ min: 1, max: 50, noNaN: true }),
-        (law, j0, kf, r) => {
-          const k = kf * kScale[law];
-          const v = blockingVolumeAtRatio(law, { k, j0, ratio: r });
-          expect(rel(blockingPressureRatio(law, { k, j0, v }), r)).toBeLessThan(1e-9);
-        },
-      ),
-    );
+    forSampledLaws(1e-3, fc.double({ min: 1, max: 50, noNaN: true }), (law, k, j0, r) => {
+      const v = blockingVolumeAtRatio(law, { k, j0, ratio: r });
+      expect(rel(blockingPressureRatio(law, { k, j0, v }), r)).toBeLessThan(1e-9);
+    });
   });
 
   it('v(t) rises and J(t) falls with time', () => {
-    fc.assert(
-      fc.property(
-        lawArb,
-        j0Arb,
-        fc.double({ min: 1e-3, max: 1, noNaN: true }),
-        fc.double({ min: 0, max: 100, noNaN: true }),
-        fc.double({ min: 0.01, max: 10, noNaN: true }),
-        (law, j0, kf, t, dt) => {
-          const k = kf * kScale[law];
-          expect(blockingVolume(law, { k, j0, t: t + dt })).toBeGreaterThan(blockingVolume(law, { k, j0, t }));
-          expect(blockingFlux(law, { k, j0, t: t + dt })).toBeLessThan(blockingFlux(law, { k, j0, t }));
-        },
-      ),
-    );
+    forSampledLaws(1e-3, fc.tuple(fc.double({ min: 0, max: 100, noNaN: true }), fc.double({ min: 0.01, max: 10, noNaN: true })), (law, k, j0, [t, dt]) => {
+      expect(blockingVolume(law, { k, j0, t: t + dt })).toBeGreaterThan(blockingVolume(law, { k, j0, t }));
+      expect(blockingFlux(law, { k, j0, t: t + dt })).toBeLessThan(blockingFlux(law, { k, j0, t }));
+    });
   });
 });

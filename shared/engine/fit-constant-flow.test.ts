@@ -45,6 +45,29 @@ function run(law: BlockingLaw, dp0: number, K: number, vEnd: number, n: number, 
 
 const byLaw = (fits: ConstantFlowFit[], law: BlockingLaw) => fits.find((f) => f.law === law)!;
 
+/**
+ * The optimum of a least-squares fit satisfies the normal equations Jᵀr = 0: the cosine between
+ * the residual vector and each Jacobian column (`columns` per point: ∂/∂ΔP0, ∂/∂K) is below 1e-4.
+ */
+function expectNormalEquations(points: { volumeL: number }[], residuals: number[], columns: (p: { volumeL: number }) => [number, number]) {
+  let g0 = 0;
+  let g1 = 0;
+  let n0 = 0;
+  let n1 = 0;
+  let nr = 0;
+  points.forEach((p, i) => {
+    const r = residuals[i];
+    const [d0, d1] = columns(p);
+    g0 += r * d0;
+    g1 += r * d1;
+    n0 += d0 * d0;
+    n1 += d1 * d1;
+    nr += r * r;
+  });
+  expect(Math.abs(g0) / Math.sqrt(n0 * nr)).toBeLessThan(1e-4);
+  expect(Math.abs(g1) / Math.sqrt(n1 * nr)).toBeLessThan(1e-4);
+}
+
 describe('fitConstantFlow: noise-free runs are recovered exactly (constructed from the Hermia 1982 forms)', () => {
   it.each(LAWS.map((l) => [l]))('%s: law first, ΔP0 and K to 1e-8', (law) => {
     const K = kForRatio(law, 3, 4000); // ΔP triples over 4000 L
@@ -121,25 +144,11 @@ describe('fitConstantFlow: statistics reported', () => {
     '%s: the optimum satisfies the normal equations Jᵀr = 0',
     (law) => {
       const f = byLaw(fits, law);
-      let g0 = 0;
-      let g1 = 0;
-      let n0 = 0;
-      let n1 = 0;
-      let nr = 0;
       const h = 1e-7;
-      pts.forEach((p, i) => {
-        const r = f.residuals[i];
-        const d0 = shape(law, f.kPerL, p.volumeL);
-        const d1 = (f.dp0Bar * (shape(law, f.kPerL * (1 + h), p.volumeL) - shape(law, f.kPerL * (1 - h), p.volumeL))) / (2 * h * f.kPerL);
-        g0 += r * d0;
-        g1 += r * d1;
-        n0 += d0 * d0;
-        n1 += d1 * d1;
-        nr += r * r;
-      });
-      // cosine between the residual vector and each Jacobian column
-      expect(Math.abs(g0) / Math.sqrt(n0 * nr)).toBeLessThan(1e-4);
-      expect(Math.abs(g1) / Math.sqrt(n1 * nr)).toBeLessThan(1e-4);
+      expectNormalEquations(pts, f.residuals, (p) => [
+        shape(law, f.kPerL, p.volumeL),
+        (f.dp0Bar * (shape(law, f.kPerL * (1 + h), p.volumeL) - shape(law, f.kPerL * (1 - h), p.volumeL))) / (2 * h * f.kPerL),
+      ]);
     },
   );
 
@@ -148,23 +157,10 @@ describe('fitConstantFlow: statistics reported', () => {
     const f = fitConstantFlow(big);
     expect(f[0].law).toBe('intermediate');
     const best = f[0];
-    let g0 = 0;
-    let g1 = 0;
-    let nr = 0;
-    let n0 = 0;
-    let n1 = 0;
-    big.forEach((p, i) => {
-      const r = best.residuals[i];
+    expectNormalEquations(big, best.residuals, (p) => {
       const e = Math.exp(best.kPerL * p.volumeL);
-      const d1 = best.dp0Bar * p.volumeL * e;
-      g0 += r * e;
-      g1 += r * d1;
-      nr += r * r;
-      n0 += e * e;
-      n1 += d1 * d1;
+      return [e, best.dp0Bar * p.volumeL * e];
     });
-    expect(Math.abs(g0) / Math.sqrt(n0 * nr)).toBeLessThan(1e-4);
-    expect(Math.abs(g1) / Math.sqrt(n1 * nr)).toBeLessThan(1e-4);
     expect(Math.abs(best.kPerL / kForRatio('intermediate', 3, 20000) - 1)).toBeLessThan(0.01);
   });
 });

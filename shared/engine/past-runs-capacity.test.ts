@@ -6,8 +6,8 @@ import {
   sizeTrain,
   stageLitresPerM2FromRun,
   type PastRunStageOutcome,
-  type TrainSizingInput,
 } from './index';
+import { pastRunsOfWhites, twoStageSizingInput } from '../../tests/factories/sizing';
 
 // Standard blocking at constant flow (Hermia, Trans. IChemE 60 (1982) 183–187, constant-flux
 // form): ΔP = ΔP0 / (1 − K·V)². With ΔP0 = 0.2 bar, K = 1/20,000 L⁻¹ and terminal 1.2 bar:
@@ -121,45 +121,24 @@ describe('capacityFromPastRuns — the choice among similar wines (common practi
   });
 });
 
-function input(): TrainSizingInput {
-  return {
-    wine: { tempC: 20, ethanolPctVol: 12 },
-    line: { bottlesPerHour: 3000, bottleMl: 750, marginPct: 10 },
-    batchL: 10_000,
-    stages: [
-      {
-        name: 'Prefilter 1 µm',
-        cartridgeType: { kind: 'prefilter', ratingUm: 1, areaM2Per10in: 0.6, waterFlowLhPer10in: 1000, waterDpBar: 0.05, maxDpForwardBar: 5, terminalDpBar: 2, designFluxLhPer10in: 1200 },
-        housing: { rounds: 3, lengthIn: 20, maxPressureBar: 6, holdUpL: 10 },
-      },
-      {
-        name: 'Membrane 0.45 µm',
-        cartridgeType: { kind: 'membrane', ratingUm: 0.45, areaM2Per10in: 0.6, waterFlowLhPer10in: 500, waterDpBar: 0.1, maxDpForwardBar: 5, terminalDpBar: 1.2, designFluxLhPer10in: 500 },
-        housing: { rounds: 3, lengthIn: 30, maxPressureBar: 6, holdUpL: 20 },
-      },
-    ],
-  };
-}
-
 describe('sizeTrain — order of the capacity sources: typed, Vmax test, past runs, unknown', () => {
-  const past = { lPerM2: 1500, lowLPerM2: 1350, highLPerM2: 1720, runs: 3, style: 'white' as const, nearestBy: 'clogging-index' as const, runIds: ['a', 'b', 'c'] };
 
   it('takes the past runs when nothing is typed and no Vmax test applies, and carries the evidence', () => {
-    const i = input();
-    i.stages[0].cartridgeType.pastRuns = { ...past, lPerM2: 4000 };
-    i.stages[1].cartridgeType.pastRuns = past;
+    const i = twoStageSizingInput();
+    i.stages[0].cartridgeType.pastRuns = { ...pastRunsOfWhites, lPerM2: 4000 };
+    i.stages[1].cartridgeType.pastRuns = pastRunsOfWhites;
     const r = sizeTrain(i);
     expect(r.stages[0].capacitySource).toBe('past-runs');
     expect(r.stages[0].capacityLPerM2).toBe(4000);
     expect(r.stages[1].capacitySource).toBe('past-runs');
     expect(r.stages[1].capacityL).toBeCloseTo(1500 * r.stages[1].areaM2, 6);
-    expect(r.stages[1].capacityPastRuns).toEqual(past);
+    expect(r.stages[1].capacityPastRuns).toEqual(pastRunsOfWhites);
   });
 
   it('a Vmax test wins over the past runs for a membrane; a typed capacity wins over both', () => {
-    const i = input();
+    const i = twoStageSizingInput();
     i.wine.vmaxLPerM2 = 900;
-    i.stages[1].cartridgeType.pastRuns = past;
+    i.stages[1].cartridgeType.pastRuns = pastRunsOfWhites;
     expect(sizeTrain(i).stages[1].capacitySource).toBe('vmax');
     expect(sizeTrain(i).stages[1].capacityPastRuns).toBeUndefined();
     i.stages[1].cartridgeType.capacityLPerM2 = 2000;
@@ -167,7 +146,7 @@ describe('sizeTrain — order of the capacity sources: typed, Vmax test, past ru
   });
 
   it('without any source the capacity is unknown', () => {
-    const r = sizeTrain(input());
+    const r = sizeTrain(twoStageSizingInput());
     expect(r.stages.map((s) => s.capacitySource)).toEqual([null, null]);
   });
 });

@@ -6,6 +6,7 @@
  * t quantiles: NIST/SEMATECH e-Handbook table 1.3.6.7.2; water viscosity ratio: IAPWS R12-08.
  */
 import { describe, expect, it } from 'vitest';
+import { seededNormals } from '../../tests/support/seeded-random';
 import fc from 'fast-check';
 import type { BlockingLaw } from './blocking';
 import { waterViscosity } from './fluids';
@@ -25,19 +26,6 @@ function kFor(law: BlockingLaw, r: number, v: number): number {
     case 'cake':
       return (r - 1) / v;
   }
-}
-
-/** mulberry32 (common practice, no source) and Box–Muller normal deviates (Box & Muller, Ann. Math. Stat. 29 (1958) 610). */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  const uni = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uni())) * Math.cos(2 * Math.PI * uni());
 }
 
 describe('flat ΔP is never fouling (common practice, no source)', () => {
@@ -191,7 +179,7 @@ describe('Monte Carlo coverage of the ≈95 % band (200 noisy runs per law; Burn
   const VT = 10000;
   function coverage(law: BlockingLaw, fraction: number, seed: number) {
     const K = kFor(law, 1.0 / 0.15, VT);
-    const noise = rng(seed);
+    const noise = seededNormals(seed);
     let held = 0;
     let beyond = 0;
     let refused = 0;

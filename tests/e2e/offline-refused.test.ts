@@ -3,12 +3,12 @@
 // server's reason on the Waiting page and fixes, moves or discards it explicitly. Nothing is
 // dropped on its own, and signing out with entries still on the device warns first.
 import { randomUUID } from 'node:crypto';
-import type { Page } from 'playwright-core';
 import { sql } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { approvedPlanLot, startRun } from '../factories/plans';
 import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { DESKTOP, PHONE, screenshot, setupBrowserApp } from '../support/browser';
+import { logReading } from '../support/run-page';
 import { addMember, signUp } from '../support/test-app';
 
 const app = setupBrowserApp();
@@ -16,14 +16,6 @@ const app = setupBrowserApp();
 async function storedVolumes(runId: string) {
   const res = await app.db.execute(sql`select volume_l::float as v from run_readings where run_id = ${runId}::uuid order by volume_l`);
   return (res.rows as { v: number }[]).map((r) => r.v);
-}
-
-async function logReading(page: Page, litres: string, up: string, down: string) {
-  await page.getByLabel('Litres through the train so far').fill(litres);
-  await page.getByLabel('Upstream pressure').fill(up);
-  await page.getByLabel('Downstream pressure').fill(down);
-  await page.getByRole('button', { name: 'Save reading' }).click();
-  await page.getByRole('status').filter({ hasText: `${Number(litres).toLocaleString('en')} L` }).first().waitFor();
 }
 
 describe('entries the server refuses after a spell offline', () => {

@@ -1,10 +1,10 @@
 // @vitest-environment node
-import type { Page } from 'playwright-core';
 import { sql } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { approvedPlanLot, startRun } from '../factories/plans';
 import { expectNoSeriousA11yViolations } from '../support/a11y';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
+import { logReading } from '../support/run-page';
 import { addMember, signUp } from '../support/test-app';
 
 const app = setupBrowserApp();
@@ -12,14 +12,6 @@ const app = setupBrowserApp();
 async function storedReadings(runId: string) {
   const res = await app.db.execute(sql`select count(*)::int as n, count(distinct client_key)::int as keys from run_readings where run_id = ${runId}::uuid`);
   return res.rows[0] as { n: number; keys: number };
-}
-
-async function logReading(page: Page, litres: string, up: string, down: string) {
-  await page.getByLabel('Litres through the train so far').fill(litres);
-  await page.getByLabel('Upstream pressure').fill(up);
-  await page.getByLabel('Downstream pressure').fill(down);
-  await page.getByRole('button', { name: 'Save reading' }).click();
-  await page.getByRole('status').filter({ hasText: `${Number(litres).toLocaleString('en')} L` }).first().waitFor();
 }
 
 describe('the cellar without signal', () => {

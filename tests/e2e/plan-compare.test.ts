@@ -4,19 +4,16 @@
 // one summary line per option; on a phone one option at a time with a switcher, and a short page.
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addTrain, trainBody, draftPlanLot } from '../factories/plans';
 import { join } from 'node:path';
-import { setupBrowserApp, outputDir, screenshot, watchPageErrors } from '../support/browser';
+import { setupBrowserApp, outputDir, screenshot } from '../support/browser';
 import { signUp, type Client } from '../support/test-app';
 
 const app = setupBrowserApp();
 
 async function open(client: Client, url: string, viewport: { width: number; height: number }) {
   const mobile = viewport.width < 500;
-  const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
-  await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-  const page = await ctx.newPage();
-  const errors = watchPageErrors(page);
+  const { context: ctx, page, errors } = await app.pageFor(client, { viewport, mobile });
   await page.goto(url);
   return { ctx, page, errors };
 }
@@ -29,9 +26,7 @@ const pageHeight = (page: Page) => page.evaluate(() => document.documentElement.
 describe('comparing train options on the plan page', () => {
   it('aligns the figures of three options in one table, marks the best per row, and shows one option at a time on a phone', async () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'Compare Test Cellars' });
-    const world = await createPlanWorld(client);
-    const plan = await createPlan(client, world.lineId, { name: 'Compare day' });
-    const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+    const { world, plan, planLotId } = await draftPlanLot(client, 'Compare day');
     // A: one membrane housing; B: two in parallel (half the flux, more cartridges); C: two prefilter housings.
     await addTrain(client, plan.id, planLotId, trainBody(world, { name: 'Option A' }));
     await addTrain(client, plan.id, planLotId, trainBody(world, { name: 'Option B' }, [1, 2]));

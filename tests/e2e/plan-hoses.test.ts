@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { formatQuantity } from '../../shared/engine';
 import type { PlanDto } from '../../shared/types/plans';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addTrain, trainBody, draftPlanLot } from '../factories/plans';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { signUp } from '../support/test-app';
 
@@ -14,9 +14,7 @@ const app = setupBrowserApp();
 describe('hoses on the plan screen', () => {
   it('a hose typed on the train raises the line loss and pump pressure live, and is saved with the train', async () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'Hose Test Cellars' });
-    const world = await createPlanWorld(client);
-    const plan = await createPlan(client, world.lineId, { name: 'Hose day' });
-    const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+    const { world, plan, planLotId } = await draftPlanLot(client, 'Hose day');
     await addTrain(client, plan.id, planLotId, trainBody(world));
 
     for (const viewport of [

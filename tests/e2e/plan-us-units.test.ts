@@ -2,7 +2,7 @@
 // Every figure on the plan screen in the person's units (issue: plans you can approve with
 // confidence): in US customary no litre, bar, °C or per-hL figure shows.
 import { describe, expect, it } from 'vitest';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
+import { addTrain, trainBody, draftPlanLot } from '../factories/plans';
 import { setupBrowserApp, DESKTOP, screenshot } from '../support/browser';
 import { signUp } from '../support/test-app';
 
@@ -12,9 +12,7 @@ describe('the plan screen in US customary units', () => {
   it('shows gallons, gal/min, psi, °F, gal/ft² and cost per 100 gal, and no metric figure', async () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'US Plan Test Cellars' });
     expect((await client.put('/api/me', { units: 'us' })).status).toBe(200);
-    const world = await createPlanWorld(client);
-    const plan = await createPlan(client, world.lineId, { name: 'US day' });
-    const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+    const { world, plan, planLotId } = await draftPlanLot(client, 'US day');
     const trainId = (await addTrain(client, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
     expect((await client.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
 

@@ -3,6 +3,7 @@ import type { Locator } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { createLot } from '../factories/cellar';
 import { createCartridgeType, createHousing, createLine } from '../factories/equipment';
+import { prefilterTypeFields } from '../factories/plans';
 import { setupBrowserApp, DESKTOP, PHONE, screenshot } from '../support/browser';
 import { addMember, signUp } from '../support/test-app';
 
@@ -21,19 +22,7 @@ describe('plans', () => {
   it('a cellar master plans a day: lot, train sized live, a second option compared, chosen, approved', async () => {
     const { client: owner } = await signUp(app.baseUrl, { name: 'Orla Penhallow', wineryName: 'Saltmarsh Test Vineyard' });
     await createLine(owner, { name: 'Filler line', bottlesPerHour: 3000, bottleMl: 750 });
-    await createCartridgeType(owner, {
-      name: 'Depth PP 1 µm',
-      kind: 'prefilter',
-      media: 'polypropylene',
-      ratingUm: 1,
-      areaM2Per10in: 0.45,
-      waterFlowLhPer10in: 900,
-      waterDpBar: 0.15,
-      designFluxLhPer10in: 500,
-      bubblePointMinBar: null,
-      diffusionMaxMlMinPer10in: null,
-      pricePer10in: 16,
-    });
+    await createCartridgeType(owner, { name: 'Depth PP 1 µm', ...prefilterTypeFields });
     await createCartridgeType(owner, { name: 'PES 0.45 µm', pricePer10in: 95 });
     await createHousing(owner, { name: 'A prefilter housing', rounds: 3, lengthIn: 30, maxPressureBar: 8 });
     await createHousing(owner, { name: 'B membrane housing', rounds: 3, lengthIn: 30, maxPressureBar: 10 });

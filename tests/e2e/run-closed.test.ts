@@ -7,7 +7,7 @@ import { fr as frLocale } from 'date-fns/locale/fr';
 import { describe, expect, it } from 'vitest';
 import { formatQuantity } from '../../shared/engine';
 import { closedRun } from '../factories/closed-run';
-import { setupBrowserApp, screenshot, watchPageErrors } from '../support/browser';
+import { DESKTOP, PHONE, screenshot, setupBrowserApp, watchPageErrors } from '../support/browser';
 import { signUp } from '../support/test-app';
 
 const app = setupBrowserApp();
@@ -17,15 +17,9 @@ describe('a closed run’s page', () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'Closed Run Test Cellars' });
     const { runId } = await closedRun(client);
 
-    for (const viewport of [
-      { width: 1280, height: 900 },
-      { width: 390, height: 844 },
-    ]) {
-      const mobile = viewport.width < 500;
-      const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
-      await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-      const page = await ctx.newPage();
-      const errors = watchPageErrors(page);
+    for (const viewport of [DESKTOP, PHONE]) {
+      const mobile = viewport === PHONE;
+      const { context: ctx, page, errors } = await app.pageFor(client, { viewport, mobile });
       await page.goto(`${app.baseUrl}/runs/${runId}`);
       await page.getByText('Closed', { exact: true }).first().waitFor();
       await page.getByRole('region', { name: /Prefilter/ }).waitFor();

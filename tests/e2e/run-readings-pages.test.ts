@@ -4,7 +4,7 @@
 import { randomUUID } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { setupBrowserApp, screenshot, watchPageErrors } from '../support/browser';
+import { DESKTOP, PHONE, screenshot, setupBrowserApp } from '../support/browser';
 import { signUp } from '../support/test-app';
 
 const app = setupBrowserApp();
@@ -31,15 +31,9 @@ describe('a run page with many readings', () => {
     }));
     expect((await client.post(`/api/runs/${run.id}/readings/batch`, { readings })).status).toBe(200);
 
-    for (const viewport of [
-      { width: 1280, height: 900 },
-      { width: 390, height: 844 },
-    ]) {
-      const mobile = viewport.width < 500;
-      const ctx = await app.browser.newContext({ viewport, isMobile: mobile, hasTouch: mobile });
-      await ctx.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: app.baseUrl })));
-      const page = await ctx.newPage();
-      const errors = watchPageErrors(page);
+    for (const viewport of [DESKTOP, PHONE]) {
+      const mobile = viewport === PHONE;
+      const { context: ctx, page, errors } = await app.pageFor(client, { viewport, mobile });
       await page.goto(`${app.baseUrl}/runs/${run.id}`);
       const table = page.getByTestId('readings-0');
       await table.getByText('Page 1 of 80 · 800 stored').waitFor();

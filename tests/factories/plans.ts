@@ -27,6 +27,20 @@ export const trainBody = (w: PlanWorld, over: Record<string, unknown> = {}, coun
   ...over,
 });
 
+/** The plan world's prefilter: 1 µm polypropylene depth cartridge, no integrity-test limits. */
+export const prefilterTypeFields = {
+  kind: 'prefilter',
+  media: 'polypropylene',
+  ratingUm: 1,
+  areaM2Per10in: 0.45,
+  waterFlowLhPer10in: 900,
+  waterDpBar: 0.15,
+  designFluxLhPer10in: 500,
+  bubblePointMinBar: null,
+  diffusionMaxMlMinPer10in: null,
+  pricePer10in: 16,
+};
+
 export type PlanWorld = {
   lineId: string;
   lotId: string;
@@ -44,18 +58,7 @@ export async function createPlanWorld(client: Client): Promise<PlanWorld> {
   const line = await createLine(client, { bottlesPerHour: 3000, bottleMl: 750 });
   const lot = await createLot(client, { volumeL: 6000, tempC: 12, ethanolPctVol: 12.5, sugarGPerL: 2 });
   const second = await createLot(client, { volumeL: 3000, tempC: 14, ethanolPctVol: 13.5, sugarGPerL: 1 });
-  const pre = await createCartridgeType(client, {
-    kind: 'prefilter',
-    media: 'polypropylene',
-    ratingUm: 1,
-    areaM2Per10in: 0.45,
-    waterFlowLhPer10in: 900,
-    waterDpBar: 0.15,
-    designFluxLhPer10in: 500,
-    bubblePointMinBar: null,
-    diffusionMaxMlMinPer10in: null,
-    pricePer10in: 16,
-  });
+  const pre = await createCartridgeType(client, prefilterTypeFields);
   const mem = await createCartridgeType(client, { pricePer10in: 95 });
   const preHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 8 });
   const memHousing = await createHousing(client, { rounds: 3, lengthIn: 30, maxPressureBar: 10 });
@@ -142,3 +145,20 @@ export async function approvedPlanLot(
 
 /** Starts the run of an approved plan lot as `client`; answers the run's id. */
 export const startRun = async (client: Client, planLotId: string) => ok<{ id: string }>(await client.post('/api/runs', { planLotId }), 201, 'starting a run');
+
+/**
+ * A run on a new approved plan of a world whose housings are already filled
+ * (`fillTrainHousings`); started by `as`, the owner unless told. Answers the run's id.
+ */
+export async function startedRunOn(owner: Client, world: PlanWorld, as: Client = owner) {
+  const { planLotId } = await approvedPlanLot(owner, { world, fill: false });
+  return startRun(as, planLotId);
+}
+
+/** A draft plan named `name` on a new world's first lot (6,000 L), no train yet. */
+export async function draftPlanLot(client: Client, name: string) {
+  const world = await createPlanWorld(client);
+  const plan = await createPlan(client, world.lineId, { name });
+  const planLotId = (await addPlanLot(client, plan.id, world.lotId, 6000)).lots[0].id;
+  return { world, plan, planLotId };
+}

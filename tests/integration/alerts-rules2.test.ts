@@ -10,6 +10,7 @@ import { ALERTS_STOCK_QUEUE } from '../../server/lib/queue';
 import { STOCK_CHECK_HOUR } from '../../server/modules/alerts/alerts.service';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
 import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { until } from '../support/until';
 
 let app: TestApp;
 let owner: Client;
@@ -18,15 +19,6 @@ let wineryId: string;
 let technician: { client: Client; email: string };
 let cellarMaster: { client: Client; email: string };
 
-async function until<T>(what: string, fn: () => Promise<T | null | undefined | false>, timeoutMs = 25_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const v = await fn();
-    if (v) return v;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 const mailsTo = (email: string, subject: RegExp) => app.mail.messages.filter((m) => m.to.includes(email.toLowerCase()) && subject.test(m.subject));
 const alertsOf = (kind: string, recordId: string) =>
   app.db.select().from(alertsTable).where(and(eq(alertsTable.wineryId, wineryId), eq(alertsTable.kind, kind), eq(alertsTable.recordId, recordId)));

@@ -10,6 +10,7 @@ import { ALERTS_DIGEST_QUEUE } from '../../server/lib/queue';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
 import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { until } from '../support/until';
 
 let app: TestApp;
 let owner: Client;
@@ -21,15 +22,6 @@ let membraneTypeId: string;
 const prefix = serialPrefix();
 let seq = 0;
 
-async function until<T>(what: string, fn: () => Promise<T | null | undefined | false>, timeoutMs = 25_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const v = await fn();
-    if (v) return v;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
 
 async function registered(client: Client, typeId: string) {
   const res = await client.post('/api/cartridges', { serial: `${prefix}-${String(++seq).padStart(4, '0')}`, batch: 'B1', typeId, lengthIn: 30, receivedAt: '2024-11-05' });

@@ -6,6 +6,7 @@ import { cartridgeMovesIn, createCartridgesService } from '../../server/modules/
 import type { TenantContext } from '../../server/middleware/authorize';
 import { cartridgeListQuerySchema, createCartridgeInputSchema } from '../../shared/schemas/cartridges';
 import { deliveryCsv, insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
+import { ownerTenant } from '../support/api-app';
 import { signUp, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -17,17 +18,10 @@ let housing: { id: string; name: string };
 let shortHousing: { id: string; name: string };
 let otherHousing: { id: string; name: string };
 
-const tenantOf = (me: Awaited<ReturnType<typeof signUp>>['me']): TenantContext => ({
-  wineryId: me.activeWineryId!,
-  role: 'owner',
-  userId: me.user.id,
-  userName: me.user.name,
-});
-
 beforeAll(async () => {
   app = await startTestApp();
-  tenant = tenantOf((await signUp(app.baseUrl, { wineryName: 'Cartridges Service Winery', name: 'Tomas Lind' })).me);
-  otherTenant = tenantOf((await signUp(app.baseUrl, { wineryName: 'Other Cartridges Service Winery' })).me);
+  tenant = ownerTenant((await signUp(app.baseUrl, { wineryName: 'Cartridges Service Winery', name: 'Tomas Lind' })).me);
+  otherTenant = ownerTenant((await signUp(app.baseUrl, { wineryName: 'Other Cartridges Service Winery' })).me);
   membrane = await insertCartridgeType(app.db, tenant.wineryId, { name: 'PES 0.45 service test' });
   housing = await insertHousing(app.db, tenant.wineryId, { name: 'Service housing 2x30', rounds: 2, lengthIn: 30 });
   shortHousing = await insertHousing(app.db, tenant.wineryId, { name: 'Service housing 1x10', rounds: 1, lengthIn: 10 });

@@ -1,28 +1,12 @@
 // @vitest-environment node
 import { eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Role } from '../../shared/permissions';
+import { describe, expect, it } from 'vitest';
 import { cartridgesTable } from '../../server/db/schema';
 import { cartridgeTypeInput, createCartridgeType, createHousing, createLine, housingInput, lineInput } from '../factories/equipment';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let owner: Client;
-let wineryId: string;
-const members = {} as Record<Exclude<Role, 'owner'>, Client>;
-
-beforeAll(async () => {
-  app = await startTestApp();
-  const signedUp = await signUp(app.baseUrl, { wineryName: 'Equipment Test Winery' });
-  owner = signedUp.client;
-  wineryId = signedUp.me.activeWineryId!;
-  for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
-    members[role] = (await addMember(app, owner, role)).client;
-  }
-});
-afterAll(async () => {
-  await app?.close();
-});
+const app = setupApiApp({ wineryName: 'Equipment Test Winery', members: true });
 
 const resources = [
   { path: '/api/housings', input: housingInput, patch: { notes: 'Checked the gaskets.' } },
@@ -35,7 +19,7 @@ async function insertCartridge(values: { typeId: string; housingId?: string | nu
   const [row] = await app.db
     .insert(cartridgesTable)
     .values({
-      wineryId,
+      wineryId: app.wineryId,
       serial: `EQ-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 8)}`,
       typeId: values.typeId,
       lengthIn: 30,
@@ -49,52 +33,52 @@ async function insertCartridge(values: { typeId: string; housingId?: string | nu
 
 describe('housings', () => {
   it('creates, reads, updates and deletes with derived figures', async () => {
-    const created = await owner.post('/api/housings', housingInput({ name: 'Stage one housing', rounds: 4, lengthIn: 20 }));
+    const created = await app.owner.post('/api/housings', housingInput({ name: 'Stage one housing', rounds: 4, lengthIn: 20 }));
     expect(created.status).toBe(201);
     expect(created.body).toMatchObject({ name: 'Stage one housing', rounds: 4, lengthIn: 20, elementEquivalents: 8, installedCount: 0 });
     const id = created.body.id;
 
-    const read = await owner.get(`/api/housings/${id}`);
+    const read = await app.owner.get(`/api/housings/${id}`);
     expect(read.status).toBe(200);
     expect(read.body).toEqual(created.body);
 
-    const updated = await owner.patch(`/api/housings/${id}`, { rounds: 5, upstreamGasVolumeL: null });
+    const updated = await app.owner.patch(`/api/housings/${id}`, { rounds: 5, upstreamGasVolumeL: null });
     expect(updated.status).toBe(200);
     expect(updated.body).toMatchObject({ rounds: 5, lengthIn: 20, elementEquivalents: 10, upstreamGasVolumeL: null, name: 'Stage one housing' });
 
-    expect((await owner.delete(`/api/housings/${id}`)).status).toBe(204);
-    expect((await owner.get(`/api/housings/${id}`)).status).toBe(404);
+    expect((await app.owner.delete(`/api/housings/${id}`)).status).toBe(204);
+    expect((await app.owner.get(`/api/housings/${id}`)).status).toBe(404);
   });
 
   it('refuses bad input with a message per field', async () => {
-    const res = await owner.post('/api/housings', housingInput({ lengthIn: 25, rounds: -2, maxPressureBar: 0 }));
+    const res = await app.owner.post('/api/housings', housingInput({ lengthIn: 25, rounds: -2, maxPressureBar: 0 }));
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['lengthIn', 'maxPressureBar', 'rounds']);
     expect(res.body.error.fields.lengthIn).toMatch(/10, 20, 30 or 40/);
 
-    const empty = await owner.post('/api/housings', {});
+    const empty = await app.owner.post('/api/housings', {});
     expect(empty.status).toBe(400);
     expect(Object.keys(empty.body.error.fields).sort()).toEqual(['holdUpL', 'lengthIn', 'maxPressureBar', 'maxTempC', 'name', 'rounds']);
 
-    const wrongType = await owner.post('/api/housings', housingInput({ rounds: '3', holdUpL: 'lots' }));
+    const wrongType = await app.owner.post('/api/housings', housingInput({ rounds: '3', holdUpL: 'lots' }));
     expect(wrongType.status).toBe(400);
     expect(wrongType.body.error.fields).toHaveProperty('rounds');
     expect(wrongType.body.error.fields).toHaveProperty('holdUpL');
 
-    const housing = await createHousing(owner);
-    const badPatch = await owner.patch(`/api/housings/${housing.id}`, { lengthIn: 25 });
+    const housing = await createHousing(app.owner);
+    const badPatch = await app.owner.patch(`/api/housings/${housing.id}`, { lengthIn: 25 });
     expect(badPatch.status).toBe(400);
     expect(badPatch.body.error.fields).toHaveProperty('lengthIn');
   });
 
   it('keeps names unique per winery (409 on create and rename), but another winery may reuse one', async () => {
-    const first = await createHousing(owner);
-    const dup = await owner.post('/api/housings', housingInput({ name: first.name }));
+    const first = await createHousing(app.owner);
+    const dup = await app.owner.post('/api/housings', housingInput({ name: first.name }));
     expect(dup.status).toBe(409);
     expect(dup.body.error.fields.name).toMatch(/already/);
 
-    const second = await createHousing(owner);
-    const rename = await owner.patch(`/api/housings/${second.id}`, { name: first.name });
+    const second = await createHousing(app.owner);
+    const rename = await app.owner.patch(`/api/housings/${second.id}`, { name: first.name });
     expect(rename.status).toBe(409);
 
     const { client: other } = await signUp(app.baseUrl);
@@ -102,46 +86,46 @@ describe('housings', () => {
   });
 
   it('counts installed cartridges, and refuses to delete or re-size a housing that holds some', async () => {
-    const housing = await createHousing(owner, { rounds: 3, lengthIn: 30 });
-    const type = await createCartridgeType(owner);
+    const housing = await createHousing(app.owner, { rounds: 3, lengthIn: 30 });
+    const type = await createCartridgeType(app.owner);
     const cartridgeId = await insertCartridge({ typeId: type.id, housingId: housing.id });
     await insertCartridge({ typeId: type.id, status: 'in-stock' });
 
-    expect((await owner.get(`/api/housings/${housing.id}`)).body.installedCount).toBe(1);
-    const list = await owner.get(`/api/housings?q=${encodeURIComponent(housing.name)}`);
+    expect((await app.owner.get(`/api/housings/${housing.id}`)).body.installedCount).toBe(1);
+    const list = await app.owner.get(`/api/housings?q=${encodeURIComponent(housing.name)}`);
     expect(list.body.items[0]).toMatchObject({ id: housing.id, installedCount: 1, elementEquivalents: 9 });
 
-    const refused = await owner.delete(`/api/housings/${housing.id}`);
+    const refused = await app.owner.delete(`/api/housings/${housing.id}`);
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/1 cartridge is installed/);
-    expect((await owner.patch(`/api/housings/${housing.id}`, { lengthIn: 20 })).status).toBe(409);
+    expect((await app.owner.patch(`/api/housings/${housing.id}`, { lengthIn: 20 })).status).toBe(409);
 
-    const typeRefused = await owner.delete(`/api/cartridge-types/${type.id}`);
+    const typeRefused = await app.owner.delete(`/api/cartridge-types/${type.id}`);
     expect(typeRefused.status).toBe(409);
     expect(typeRefused.body.error.message).toMatch(/2 cartridges are of this type/);
-    const typeRead = await owner.get(`/api/cartridge-types/${type.id}`);
+    const typeRead = await app.owner.get(`/api/cartridge-types/${type.id}`);
     expect(typeRead.body.counts).toEqual({ total: 2, inStock: 1, installed: 1, regenerating: 0, retired: 0 });
 
     await app.db.delete(cartridgesTable).where(eq(cartridgesTable.id, cartridgeId));
-    expect((await owner.get(`/api/housings/${housing.id}`)).body.installedCount).toBe(0);
-    expect((await owner.delete(`/api/housings/${housing.id}`)).status).toBe(204);
+    expect((await app.owner.get(`/api/housings/${housing.id}`)).body.installedCount).toBe(0);
+    expect((await app.owner.delete(`/api/housings/${housing.id}`)).status).toBe(204);
   });
 
   it('refuses to cut the rounds below a round that holds a cartridge', async () => {
-    const housing = await createHousing(owner, { rounds: 3, lengthIn: 30 });
-    const type = await createCartridgeType(owner);
+    const housing = await createHousing(app.owner, { rounds: 3, lengthIn: 30 });
+    const type = await createCartridgeType(app.owner);
     await insertCartridge({ typeId: type.id, housingId: housing.id, position: 3 });
-    const refused = await owner.patch(`/api/housings/${housing.id}`, { rounds: 2 });
+    const refused = await app.owner.patch(`/api/housings/${housing.id}`, { rounds: 2 });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/Round 3 holds a cartridge/);
-    expect((await owner.patch(`/api/housings/${housing.id}`, { rounds: 4 })).status).toBe(200);
+    expect((await app.owner.patch(`/api/housings/${housing.id}`, { rounds: 4 })).status).toBe(200);
   });
 
   it('carries out a retried create once (Idempotency-Key)', async () => {
     const body = housingInput();
     const key = `housing-${Date.now()}-retry`;
-    const first = await owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
-    const again = await owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
+    const first = await app.owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
+    const again = await app.owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
     expect(first.status).toBe(201);
     expect(again.status).toBe(201);
     expect(again.body.id).toBe(first.body.id);
@@ -151,28 +135,28 @@ describe('housings', () => {
 
 describe('bottling lines', () => {
   it('derives the flow the filters must carry, with the default margin', async () => {
-    const line = await createLine(owner, { bottlesPerHour: 3000, bottleMl: 750 });
+    const line = await createLine(app.owner, { bottlesPerHour: 3000, bottleMl: 750 });
     expect(line.fillerFlowLh).toBeCloseTo(2250, 9); // 3,000 × 0.75 L
     expect(line.flowMarginPct).toBe(10);
     expect(line.requiredFlowLh).toBeCloseTo(2475, 9); // 2,250 × 1.10
 
-    const updated = await owner.patch(`/api/lines/${line.id}`, { bottleMl: 375 });
+    const updated = await app.owner.patch(`/api/lines/${line.id}`, { bottleMl: 375 });
     expect(updated.status).toBe(200);
     expect(updated.body.fillerFlowLh).toBeCloseTo(1125, 9);
   });
 
   it('refuses bad input and duplicate names', async () => {
-    const res = await owner.post('/api/lines', { name: '', bottlesPerHour: -5, bottleMl: 5 });
+    const res = await app.owner.post('/api/lines', { name: '', bottlesPerHour: -5, bottleMl: 5 });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['bottleMl', 'bottlesPerHour', 'name']);
-    const line = await createLine(owner);
-    expect((await owner.post('/api/lines', lineInput({ name: line.name }))).status).toBe(409);
+    const line = await createLine(app.owner);
+    expect((await app.owner.post('/api/lines', lineInput({ name: line.name }))).status).toBe(409);
   });
 });
 
 describe('cartridge types', () => {
   it('stores the full specification and derives the clean-water figures', async () => {
-    const res = await owner.post('/api/cartridge-types', cartridgeTypeInput({ name: 'PES 0.45 test', currency: 'usd' }));
+    const res = await app.owner.post('/api/cartridge-types', cartridgeTypeInput({ name: 'PES 0.45 test', currency: 'usd' }));
     expect(res.status).toBe(201);
     const t = res.body;
     expect(t).toMatchObject({ kind: 'membrane', media: 'PES', ratingUm: 0.45, currency: 'USD', warnings: [], certificateAttachmentId: null });
@@ -186,34 +170,34 @@ describe('cartridge types', () => {
   });
 
   it('accepts a membrane without integrity limits but warns; refuses a terminal ΔP above the maximum', async () => {
-    const warned = await owner.post('/api/cartridge-types', cartridgeTypeInput({ bubblePointMinBar: null, diffusionMaxMlMinPer10in: null }));
+    const warned = await app.owner.post('/api/cartridge-types', cartridgeTypeInput({ bubblePointMinBar: null, diffusionMaxMlMinPer10in: null }));
     expect(warned.status).toBe(201);
     expect(warned.body.warnings).toEqual([expect.objectContaining({ field: 'bubblePointMinBar' })]);
 
-    const refused = await owner.post('/api/cartridge-types', cartridgeTypeInput({ terminalDpBar: 6, maxDpForwardBar: 5 }));
+    const refused = await app.owner.post('/api/cartridge-types', cartridgeTypeInput({ terminalDpBar: 6, maxDpForwardBar: 5 }));
     expect(refused.status).toBe(400);
     expect(refused.body.error.fields.terminalDpBar).toMatch(/must not exceed the maximum forward/);
 
     // A PATCH of one field is checked against the stored rest of the record.
-    const patched = await owner.patch(`/api/cartridge-types/${warned.body.id}`, { terminalDpBar: 5.5 });
+    const patched = await app.owner.patch(`/api/cartridge-types/${warned.body.id}`, { terminalDpBar: 5.5 });
     expect(patched.status).toBe(400);
     expect(patched.body.error.fields).toHaveProperty('terminalDpBar');
-    const fixed = await owner.patch(`/api/cartridge-types/${warned.body.id}`, { diffusionMaxMlMinPer10in: 11, maxDpReverseBar: null });
+    const fixed = await app.owner.patch(`/api/cartridge-types/${warned.body.id}`, { diffusionMaxMlMinPer10in: 11, maxDpReverseBar: null });
     expect(fixed.status).toBe(200);
     expect(fixed.body).toMatchObject({ warnings: [], maxDpReverseBar: null, diffusionMaxMlMinPer10in: 11 });
   });
 
   it('refuses unknown kinds, media, missing fields and a certificate that is not the winery’s', async () => {
-    const res = await owner.post('/api/cartridge-types', cartridgeTypeInput({ kind: 'sieve', media: 'paper', ratingUm: 0 }));
+    const res = await app.owner.post('/api/cartridge-types', cartridgeTypeInput({ kind: 'sieve', media: 'paper', ratingUm: 0 }));
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['kind', 'media', 'ratingUm']);
 
-    const empty = await owner.post('/api/cartridge-types', {});
+    const empty = await app.owner.post('/api/cartridge-types', {});
     expect(empty.status).toBe(400);
     expect(empty.body.error.fields).toHaveProperty('areaM2Per10in');
     expect(empty.body.error.fields).toHaveProperty('designFluxLhPer10in');
 
-    const cert = await owner.post('/api/cartridge-types', cartridgeTypeInput({ certificateAttachmentId: '8f2a4c1e-1b2c-4d3e-8f9a-0b1c2d3e4f50' }));
+    const cert = await app.owner.post('/api/cartridge-types', cartridgeTypeInput({ certificateAttachmentId: '8f2a4c1e-1b2c-4d3e-8f9a-0b1c2d3e4f50' }));
     expect(cert.status).toBe(400);
     expect(cert.body.error.fields).toHaveProperty('certificateAttachmentId');
   });
@@ -236,20 +220,20 @@ describe('cartridge types', () => {
 
 describe('roles', () => {
   it.each(['owner', 'cellar-master'] as const)('%s creates and updates every kind of equipment; only the owner deletes', async (role) => {
-    const client = role === 'owner' ? owner : members[role];
+    const client = role === 'owner' ? app.owner : app.members[role];
     for (const r of resources) {
       const created = await client.post(r.path, r.input());
       expect(created.status, r.path).toBe(201);
       expect((await client.patch(`${r.path}/${created.body.id}`, r.patch)).status, r.path).toBe(200);
       if (role !== 'owner') expect((await client.delete(`${r.path}/${created.body.id}`)).status, r.path).toBe(403);
-      expect((await owner.delete(`${r.path}/${created.body.id}`)).status, r.path).toBe(204);
+      expect((await app.owner.delete(`${r.path}/${created.body.id}`)).status, r.path).toBe(204);
     }
   });
 
   it.each(['winemaker', 'technician', 'auditor'] as const)('%s reads everything and changes nothing (403)', async (role) => {
-    const client = members[role];
+    const client = app.members[role];
     for (const r of resources) {
-      const existing = (await owner.post(r.path, r.input())).body;
+      const existing = (await app.owner.post(r.path, r.input())).body;
       expect((await client.get(r.path)).status, r.path).toBe(200);
       const read = await client.get(`${r.path}/${existing.id}`);
       expect(read.status, r.path).toBe(200);
@@ -257,7 +241,7 @@ describe('roles', () => {
       expect((await client.post(r.path, r.input())).status, r.path).toBe(403);
       expect((await client.patch(`${r.path}/${existing.id}`, r.patch)).status, r.path).toBe(403);
       expect((await client.delete(`${r.path}/${existing.id}`)).status, r.path).toBe(403);
-      expect((await owner.get(`${r.path}/${existing.id}`)).status, r.path).toBe(200);
+      expect((await app.owner.get(`${r.path}/${existing.id}`)).status, r.path).toBe(200);
     }
   });
 
@@ -275,16 +259,16 @@ describe('tenancy', () => {
   it('another winery’s records are 404 on every route and absent from lists', async () => {
     const { client: stranger } = await signUp(app.baseUrl, { wineryName: 'Stranger Cellars' });
     for (const r of resources) {
-      const mine = (await owner.post(r.path, r.input())).body;
+      const mine = (await app.owner.post(r.path, r.input())).body;
       expect((await stranger.get(`${r.path}/${mine.id}`)).status, r.path).toBe(404);
       expect((await stranger.patch(`${r.path}/${mine.id}`, r.patch)).status, r.path).toBe(404);
       expect((await stranger.delete(`${r.path}/${mine.id}`)).status, r.path).toBe(404);
       const list = await stranger.get(`${r.path}?q=${encodeURIComponent(mine.name)}`);
       expect(list.body).toEqual({ items: [], total: 0 });
       // Still there, unchanged, for its own winery.
-      expect((await owner.get(`${r.path}/${mine.id}`)).body).toEqual(mine);
+      expect((await app.owner.get(`${r.path}/${mine.id}`)).body).toEqual(mine);
       // An id that is not a UUID names nothing.
-      expect((await owner.get(`${r.path}/not-an-id`)).status).toBe(404);
+      expect((await app.owner.get(`${r.path}/not-an-id`)).status).toBe(404);
     }
   });
 });
@@ -315,9 +299,9 @@ describe('lists', () => {
   });
 
   it('refuses unknown sort keys and page sizes with field messages', async () => {
-    const res = await owner.get('/api/housings?sort=colour&pageSize=1000&page=0');
+    const res = await app.owner.get('/api/housings?sort=colour&pageSize=1000&page=0');
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['page', 'pageSize', 'sort']);
-    expect((await owner.get('/api/lines?order=sideways')).status).toBe(400);
+    expect((await app.owner.get('/api/lines?order=sideways')).status).toBe(400);
   });
 });

@@ -2,32 +2,21 @@
 // Approval stops at broken limits (issue: plans you can approve with confidence): the same
 // housing in two stages, sanitation hotter than a rating, a stage that cannot filter the wine;
 // and cautions (flux above design, a lot not ready) pass only with a written reason.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
 import { createLabResult, createLot, discPoints } from '../factories/cellar';
 import { createCartridgeType } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, stockPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
-import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, stockPlanWorld, trainBody } from '../factories/plans';
+import { setupApiApp } from '../support/api-app';
+import { signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-let owner: Client;
-let world: PlanWorld;
-
-beforeAll(async () => {
-  app = await startTestApp();
-  owner = (await signUp(app.baseUrl, { wineryName: 'Approval Test Winery' })).client;
-  world = await createPlanWorld(owner);
-  await stockPlanWorld(owner, world);
-});
-afterAll(async () => {
-  await app?.close();
-});
+const app = setupApiApp({ wineryName: 'Approval Test Winery', world: 'stocked' });
 
 /** A draft for one lot whose only train is chosen. */
 async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: string; sanitationKind?: 'hot-water' | 'steam'; client?: Client; lineId?: string } = {}) {
-  const who = opts.client ?? owner;
-  const plan = await createPlan(who, opts.lineId ?? world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
-  const withLot = await addPlanLot(who, plan.id, opts.lotId ?? world.lotId);
+  const who = opts.client ?? app.owner;
+  const plan = await createPlan(who, opts.lineId ?? app.world.lineId, opts.sanitationKind ? { sanitationKind: opts.sanitationKind } : {});
+  const withLot = await addPlanLot(who, plan.id, opts.lotId ?? app.world.lotId);
   const planLotId = withLot.lots[0].id;
   const withTrain = await addTrain(who, plan.id, planLotId, train);
   const trainId = withTrain.lots[0].trains[0].id;
@@ -38,40 +27,40 @@ async function chosenDraft(train: Record<string, unknown>, opts: { lotId?: strin
 
 describe('approval refuses broken limits (409 plan_not_ready with the reasons)', () => {
   it('the same housing in two stages', async () => {
-    const body = trainBody(world);
+    const body = trainBody(app.world);
     body.stages[1].housingId = body.stages[0].housingId;
     const { planId, detail } = await chosenDraft(body);
     expect(detail.lots[0].trains[0].blockingReasons.join(' ')).toMatch(/same housing/);
-    const res = await owner.post(`/api/plans/${planId}/approve`);
+    const res = await app.owner.post(`/api/plans/${planId}/approve`);
     expect(res.status).toBe(409);
     expect(res.body.error.code).toBe('plan_not_ready');
     expect(Object.values(res.body.error.fields).join(' ')).toMatch(/same housing as Prefilter/);
   });
 
   it('steam (121 °C, from memory) over cartridges rated 80 °C', async () => {
-    const cool = await createCartridgeType(owner, { kind: 'prefilter', media: 'polypropylene', ratingUm: 1, maxTempC: 80, bubblePointMinBar: null, diffusionMaxMlMinPer10in: null, designFluxLhPer10in: 800 });
-    const body = trainBody(world);
+    const cool = await createCartridgeType(app.owner, { kind: 'prefilter', media: 'polypropylene', ratingUm: 1, maxTempC: 80, bubblePointMinBar: null, diffusionMaxMlMinPer10in: null, designFluxLhPer10in: 800 });
+    const body = trainBody(app.world);
     body.stages[0].cartridgeTypeId = cool.id;
     const { planId } = await chosenDraft(body, { sanitationKind: 'steam' });
-    const res = await owner.post(`/api/plans/${planId}/approve`);
+    const res = await app.owner.post(`/api/plans/${planId}/approve`);
     expect(res.status).toBe(409);
     expect(Object.values(res.body.error.fields).join(' ')).toMatch(/steam sanitation at 121 °C is above the cartridges' 80 °C rating/);
     // Hot water (82 °C) is also above 80 °C: still refused, never "no limit broken".
     const hot = await chosenDraft(body, { sanitationKind: 'hot-water' });
-    expect((await owner.post(`/api/plans/${hot.planId}/approve`)).status).toBe(409);
+    expect((await app.owner.post(`/api/plans/${hot.planId}/approve`)).status).toBe(409);
   });
 
   it('a stage whose clean ΔP already reaches its terminal ΔP (cold wine, tight membrane)', async () => {
-    const cold = await createLot(owner, { volumeL: 4000, tempC: 2, ethanolPctVol: 12.5, sugarGPerL: 2 });
-    const tight = await createCartridgeType(owner, { waterFlowLhPer10in: 150, waterDpBar: 1, terminalDpBar: 1.2, maxDpForwardBar: 5 });
-    const body = trainBody(world);
+    const cold = await createLot(app.owner, { volumeL: 4000, tempC: 2, ethanolPctVol: 12.5, sugarGPerL: 2 });
+    const tight = await createCartridgeType(app.owner, { waterFlowLhPer10in: 150, waterDpBar: 1, terminalDpBar: 1.2, maxDpForwardBar: 5 });
+    const body = trainBody(app.world);
     body.stages[1].cartridgeTypeId = tight.id;
     const { planId, detail } = await chosenDraft(body, { lotId: cold.id });
     const stage = detail.lots[0].trains[0].sizing!.stages[1];
     expect(stage.infeasible).toBe(true);
     expect(stage.capacityL).toBe(0);
     expect(stage.loadsNeeded).toBeNull();
-    const res = await owner.post(`/api/plans/${planId}/approve`);
+    const res = await app.owner.post(`/api/plans/${planId}/approve`);
     expect(res.status).toBe(409);
     expect(Object.values(res.body.error.fields).join(' ')).toMatch(/cannot filter it/);
   });
@@ -79,39 +68,39 @@ describe('approval refuses broken limits (409 plan_not_ready with the reasons)',
 
 describe('approval with cautions needs a written reason, kept with the approval', () => {
   it('membrane flux above design: refused without a reason, approved with one, cleared on reopen', async () => {
-    const busy = await createCartridgeType(owner, { designFluxLhPer10in: 200 });
-    const body = trainBody(world);
+    const busy = await createCartridgeType(app.owner, { designFluxLhPer10in: 200 });
+    const body = trainBody(app.world);
     body.stages[1].cartridgeTypeId = busy.id;
     const { planId } = await chosenDraft(body);
-    const bare = await owner.post(`/api/plans/${planId}/approve`);
+    const bare = await app.owner.post(`/api/plans/${planId}/approve`);
     expect(bare.status).toBe(409);
     expect(bare.body.error.code).toBe('plan_needs_reason');
     expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/above the design 200 L\/h/);
-    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: '   ' })).status).toBe(409);
-    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: 7 })).status).toBe(400);
+    expect((await app.owner.post(`/api/plans/${planId}/approve`, { reason: '   ' })).status).toBe(409);
+    expect((await app.owner.post(`/api/plans/${planId}/approve`, { reason: 7 })).status).toBe(400);
 
-    const ok = await owner.post(`/api/plans/${planId}/approve`, { reason: 'Short lot; the set is changed after it anyway.' });
+    const ok = await app.owner.post(`/api/plans/${planId}/approve`, { reason: 'Short lot; the set is changed after it anyway.' });
     expect(ok.status).toBe(200);
     expect(ok.body.status).toBe('approved');
     expect(ok.body.approvalOverride.reason).toBe('Short lot; the set is changed after it anyway.');
     expect(ok.body.approvalOverride.cautions.join(' ')).toMatch(/above the design/);
 
-    const reopened = await owner.post(`/api/plans/${planId}/reopen`);
+    const reopened = await app.owner.post(`/api/plans/${planId}/reopen`);
     expect(reopened.body.approvalOverride).toBeNull();
   });
 
   it('a lot not ready (9.5 NTU) needs a reason; a plan without cautions approves without one', async () => {
-    const hazy = await createLot(owner, { volumeL: 5000, tempC: 12 });
-    await createLabResult(owner, hazy.id, { turbidityNtu: 9.5 });
-    const { planId } = await chosenDraft(trainBody(world), { lotId: hazy.id });
-    const bare = await owner.post(`/api/plans/${planId}/approve`);
+    const hazy = await createLot(app.owner, { volumeL: 5000, tempC: 12 });
+    await createLabResult(app.owner, hazy.id, { turbidityNtu: 9.5 });
+    const { planId } = await chosenDraft(trainBody(app.world), { lotId: hazy.id });
+    const bare = await app.owner.post(`/api/plans/${planId}/approve`);
     expect(bare.status).toBe(409);
     expect(bare.body.error.code).toBe('plan_needs_reason');
     expect(Object.values(bare.body.error.fields).join(' ')).toMatch(/not ready/);
-    expect((await owner.post(`/api/plans/${planId}/approve`, { reason: 'Lab re-test at 08:00 before the filler starts.' })).status).toBe(200);
+    expect((await app.owner.post(`/api/plans/${planId}/approve`, { reason: 'Lab re-test at 08:00 before the filler starts.' })).status).toBe(200);
 
-    const clean = await chosenDraft(trainBody(world));
-    const res = await owner.post(`/api/plans/${clean.planId}/approve`);
+    const clean = await chosenDraft(trainBody(app.world));
+    const res = await app.owner.post(`/api/plans/${clean.planId}/approve`);
     expect(res.status).toBe(200);
     expect(res.body.approvalOverride).toBeNull();
   });
@@ -150,19 +139,19 @@ describe('the day: needs with a set carried over, and every regeneration on the 
   it('two lots through the same train use one set; a small capacity puts each regeneration on the timeline', async () => {
     // Prefilter 3,000 L/m² × 0.45 m² × 9 = 12,150 L per load; membrane 2,000 × 0.7 × 9 = 12,600 L:
     // 6,000 L then 3,000 L fit one set of each (hand-calculated).
-    const plan = await createPlan(owner, world.lineId);
-    await addPlanLot(owner, plan.id, world.lotId, 6000);
-    const two = await addPlanLot(owner, plan.id, world.secondLotId, 3000);
+    const plan = await createPlan(app.owner, app.world.lineId);
+    await addPlanLot(app.owner, plan.id, app.world.lotId, 6000);
+    const two = await addPlanLot(app.owner, plan.id, app.world.secondLotId, 3000);
     const choose = async (planLotId: string, body: Record<string, unknown>) => {
-      const withTrain = await addTrain(owner, plan.id, planLotId, body);
+      const withTrain = await addTrain(app.owner, plan.id, planLotId, body);
       const trainId = withTrain.lots.find((l) => l.id === planLotId)!.trains.at(-1)!.id;
-      const res = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+      const res = await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
       expect(res.status).toBe(200);
       return res.body as PlanDto;
     };
     const [first, second] = two.lots;
-    await choose(first.id, trainBody(world));
-    const both = await choose(second.id, trainBody(world));
+    await choose(first.id, trainBody(app.world));
+    const both = await choose(second.id, trainBody(app.world));
     expect(both.needs.map((n) => [n.kind, n.cartridgesNeeded, n.lotCodes])).toEqual([
       ['prefilter', 3, [first.lot.code]],
       ['membrane', 3, [first.lot.code]],
@@ -170,7 +159,7 @@ describe('the day: needs with a set carried over, and every regeneration on the 
     expect(both.timeline!.blocks.filter((b) => b.kind === 'regeneration' || b.kind === 'change')).toEqual([]);
 
     // Prefilter at 500 L/m²: 2,025 L per load, so 6,000 L takes 3 loads: regenerated after 2,025 and 4,050 L.
-    const small = trainBody(world, { name: 'Small' });
+    const small = trainBody(app.world, { name: 'Small' });
     small.stages[0].capacityLPerM2 = 500;
     const withStops = await choose(first.id, small);
     const stops = withStops.timeline!.blocks.filter((b) => b.planLotId === first.id && b.kind !== 'run' && b.kind !== 'push-out');
@@ -186,9 +175,9 @@ describe('the day: needs with a set carried over, and every regeneration on the 
 
 describe('capacity from the lot’s Vmax disc test', () => {
   it('a membrane stage without a typed capacity takes it from the lot’s latest disc test, at its own clean ΔP', async () => {
-    const lot = await createLot(owner, { volumeL: 5000, tempC: 12 });
-    await createLabResult(owner, lot.id, { discDiameterMm: 47, discPressureBar: 2, discPoints: discPoints(2.4, 5000, 10) });
-    const body = trainBody(world);
+    const lot = await createLot(app.owner, { volumeL: 5000, tempC: 12 });
+    await createLabResult(app.owner, lot.id, { discDiameterMm: 47, discPressureBar: 2, discPoints: discPoints(2.4, 5000, 10) });
+    const body = trainBody(app.world);
     delete (body.stages[1] as { capacityLPerM2?: number }).capacityLPerM2;
     const { detail } = await chosenDraft(body, { lotId: lot.id });
     const vmax = detail.lots[0].lot.vmaxLPerM2!;

@@ -6,6 +6,7 @@ import { createPlansService, planCatalogue } from '../../server/modules/plans/pl
 import type { TenantContext } from '../../server/middleware/authorize';
 import { addPlanLotInputSchema, createPlanInputSchema, createTrainInputSchema, planListQuerySchema } from '../../shared/schemas/plans';
 import { createPlanWorld, planBody, stockPlanWorld, trainBody, type PlanWorld } from '../factories/plans';
+import { ownerTenant } from '../support/api-app';
 import { signUp, startTestApp, type TestApp } from '../support/test-app';
 
 let app: TestApp;
@@ -14,18 +15,11 @@ let tenant: TenantContext;
 let otherTenant: TenantContext;
 let service: ReturnType<typeof createPlansService>;
 
-const tenantOf = (me: Awaited<ReturnType<typeof signUp>>['me']): TenantContext => ({
-  wineryId: me.activeWineryId!,
-  role: 'owner',
-  userId: me.user.id,
-  userName: me.user.name,
-});
-
 beforeAll(async () => {
   app = await startTestApp();
   const a = await signUp(app.baseUrl, { wineryName: 'Plans Service Winery', name: 'Ines Okafor' });
-  tenant = tenantOf(a.me);
-  otherTenant = tenantOf((await signUp(app.baseUrl, { wineryName: 'Other Plans Service Winery' })).me);
+  tenant = ownerTenant(a.me);
+  otherTenant = ownerTenant((await signUp(app.baseUrl, { wineryName: 'Other Plans Service Winery' })).me);
   world = await createPlanWorld(a.client);
   await stockPlanWorld(a.client, world);
   service = createPlansService(app.db);

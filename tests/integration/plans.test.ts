@@ -1,44 +1,27 @@
 // @vitest-environment node
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { sizeTrain, type TrainSizingInput } from '../../shared/engine';
-import type { Role } from '../../shared/permissions';
 import type { PlanDto } from '../../shared/types/plans';
 import { cartridgesTable } from '../../server/db/schema';
 import { createLot } from '../factories/cellar';
 import { createCartridgeType, createHousing, createLine } from '../factories/equipment';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, planBody, trainBody, type PlanWorld } from '../factories/plans';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, planBody, trainBody } from '../factories/plans';
+import { setupApiApp } from '../support/api-app';
+import { signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-let owner: Client;
-let wineryId: string;
-let world: PlanWorld;
-const members = {} as Record<Exclude<Role, 'owner'>, Client>;
-
-beforeAll(async () => {
-  app = await startTestApp();
-  const signedUp = await signUp(app.baseUrl, { wineryName: 'Plans Test Winery' });
-  owner = signedUp.client;
-  wineryId = signedUp.me.activeWineryId!;
-  for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
-    members[role] = (await addMember(app, owner, role)).client;
-  }
-  world = await createPlanWorld(owner);
-});
-afterAll(async () => {
-  await app?.close();
-});
+const app = setupApiApp({ wineryName: 'Plans Test Winery', members: true, world: 'bare' });
 
 /** A draft with one lot and one train (not chosen yet). */
-async function draftWithTrain(client: Client = owner, counts: [number, number] = [1, 1]) {
-  const plan = await createPlan(client, world.lineId);
-  const withLot = await addPlanLot(client, plan.id, world.lotId);
+async function draftWithTrain(client: Client = app.owner, counts: [number, number] = [1, 1]) {
+  const plan = await createPlan(client, app.world.lineId);
+  const withLot = await addPlanLot(client, plan.id, app.world.lotId);
   const planLotId = withLot.lots[0].id;
-  const withTrain = await addTrain(client, plan.id, planLotId, trainBody(world, {}, counts));
+  const withTrain = await addTrain(client, plan.id, planLotId, trainBody(app.world, {}, counts));
   return { plan: withTrain, planLotId, trainId: withTrain.lots[0].trains[0].id };
 }
 
-async function insertCartridges(typeId: string, lengthIn: number, status: 'in-stock' | 'installed' | 'regenerating', howMany: number) {
+/** Cartridge rows straight into the database, in the owner's winery unless told. */
+async function insertCartridges(typeId: string, lengthIn: number, status: 'in-stock' | 'installed' | 'regenerating', howMany: number, wineryId = app.wineryId) {
   await app.db.insert(cartridgesTable).values(
     Array.from({ length: howMany }, (_, i) => ({
       wineryId,
@@ -52,32 +35,32 @@ async function insertCartridges(typeId: string, lengthIn: number, status: 'in-st
 
 describe('plans: create, read, edit, delete', () => {
   it('an owner creates a plan, adds lots, trains, reorders and deletes the draft', async () => {
-    const created = await owner.post('/api/plans', planBody(world.lineId, { name: 'June whites', startTime: '06:30', sanitationKind: 'steam' }));
+    const created = await app.owner.post('/api/plans', planBody(app.world.lineId, { name: 'June whites', startTime: '06:30', sanitationKind: 'steam' }));
     expect(created.status).toBe(201);
     const plan = created.body as PlanDto;
     expect(plan).toMatchObject({ name: 'June whites', status: 'draft', startTime: '06:30', sanitationKind: 'steam', lots: [], needs: [] });
-    expect(plan.line?.id).toBe(world.lineId);
+    expect(plan.line?.id).toBe(app.world.lineId);
     expect(plan.requiredFlowLh).toBeCloseTo(3000 * 0.75 * 1.1, 6);
     expect(plan.createdBy).toBe('Test Owner');
     expect(plan.approvalBlockers).toEqual(['Add at least one lot to bottle.']);
-    expect(plan.catalogue.cartridgeTypes.map((t) => t.id)).toEqual(expect.arrayContaining([world.prefilterTypeId, world.membraneTypeId]));
+    expect(plan.catalogue.cartridgeTypes.map((t) => t.id)).toEqual(expect.arrayContaining([app.world.prefilterTypeId, app.world.membraneTypeId]));
 
     // A lot defaults to its whole volume; a second one goes after it.
-    const one = await addPlanLot(owner, plan.id, world.lotId);
+    const one = await addPlanLot(app.owner, plan.id, app.world.lotId);
     expect(one.lots).toHaveLength(1);
-    expect(one.lots[0]).toMatchObject({ position: 1, volumeL: 6000, chosenTrainId: null, lot: { id: world.lotId, tempC: 12 } });
-    const two = await addPlanLot(owner, plan.id, world.secondLotId, 2500);
+    expect(one.lots[0]).toMatchObject({ position: 1, volumeL: 6000, chosenTrainId: null, lot: { id: app.world.lotId, tempC: 12 } });
+    const two = await addPlanLot(app.owner, plan.id, app.world.secondLotId, 2500);
     expect(two.lots.map((l) => [l.lot.id, l.position, l.volumeL])).toEqual([
-      [world.lotId, 1, 6000],
-      [world.secondLotId, 2, 2500],
+      [app.world.lotId, 1, 6000],
+      [app.world.secondLotId, 2, 2500],
     ]);
-    const dup = await owner.post(`/api/plans/${plan.id}/lots`, { lotId: world.lotId });
+    const dup = await app.owner.post(`/api/plans/${plan.id}/lots`, { lotId: app.world.lotId });
     expect(dup.status).toBe(409);
     expect(dup.body.error.fields.lotId).toMatch(/already in the plan/);
 
     // Move the second lot up; change the volume.
     const second = two.lots[1].id;
-    const moved = await owner.patch(`/api/plans/${plan.id}/lots/${second}`, { position: 1, volumeL: 2800 });
+    const moved = await app.owner.patch(`/api/plans/${plan.id}/lots/${second}`, { position: 1, volumeL: 2800 });
     expect(moved.status).toBe(200);
     expect(moved.body.lots.map((l: { id: string; position: number; volumeL: number }) => [l.id, l.position, l.volumeL])).toEqual([
       [second, 1, 2800],
@@ -85,42 +68,42 @@ describe('plans: create, read, edit, delete', () => {
     ]);
 
     // Two trains for one lot; choose one.
-    const a = await addTrain(owner, plan.id, second, trainBody(world));
-    const b = await addTrain(owner, plan.id, second, trainBody(world, { name: 'Option B' }, [1, 2]));
+    const a = await addTrain(app.owner, plan.id, second, trainBody(app.world));
+    const b = await addTrain(app.owner, plan.id, second, trainBody(app.world, { name: 'Option B' }, [1, 2]));
     const lot = b.lots[0];
     expect(lot.trains.map((t) => t.name)).toEqual(['Option A', 'Option B']);
     const [trainA, trainB] = lot.trains;
     expect(trainA.sizing).not.toBeNull();
     expect(trainB.sizing!.stages[1].fluxLhPer10in).toBeCloseTo(trainA.sizing!.stages[1].fluxLhPer10in / 2, 9);
     expect(a.lots[0].trains).toHaveLength(1);
-    const chosen = await owner.patch(`/api/plans/${plan.id}/lots/${second}`, { chosenTrainId: trainB.id });
+    const chosen = await app.owner.patch(`/api/plans/${plan.id}/lots/${second}`, { chosenTrainId: trainB.id });
     expect(chosen.body.lots[0].chosenTrainId).toBe(trainB.id);
 
     // Rename and restage a train; delete the chosen one and the lot has none chosen.
-    const renamed = await owner.patch(`/api/plans/${plan.id}/lots/${second}/trains/${trainA.id}`, { name: 'Option A (wide)', stages: trainBody(world, {}, [2, 2]).stages });
+    const renamed = await app.owner.patch(`/api/plans/${plan.id}/lots/${second}/trains/${trainA.id}`, { name: 'Option A (wide)', stages: trainBody(app.world, {}, [2, 2]).stages });
     expect(renamed.status).toBe(200);
     const renamedTrain = renamed.body.lots[0].trains.find((t: { id: string }) => t.id === trainA.id);
     expect(renamedTrain.name).toBe('Option A (wide)');
     expect(renamedTrain.stages.map((s: { housingCount: number }) => s.housingCount)).toEqual([2, 2]);
-    const afterDelete = await owner.delete(`/api/plans/${plan.id}/lots/${second}/trains/${trainB.id}`);
+    const afterDelete = await app.owner.delete(`/api/plans/${plan.id}/lots/${second}/trains/${trainB.id}`);
     expect(afterDelete.status).toBe(200);
     expect(afterDelete.body.lots[0].chosenTrainId).toBeNull();
 
     // Remove a lot: the rest close up.
-    const removed = await owner.delete(`/api/plans/${plan.id}/lots/${second}`);
-    expect(removed.body.lots.map((l: { position: number; lot: { id: string } }) => [l.lot.id, l.position])).toEqual([[world.lotId, 1]]);
+    const removed = await app.owner.delete(`/api/plans/${plan.id}/lots/${second}`);
+    expect(removed.body.lots.map((l: { position: number; lot: { id: string } }) => [l.lot.id, l.position])).toEqual([[app.world.lotId, 1]]);
 
-    const patched = await owner.patch(`/api/plans/${plan.id}`, { name: 'June whites, revised', notes: 'Bring spare gaskets.' });
+    const patched = await app.owner.patch(`/api/plans/${plan.id}`, { name: 'June whites, revised', notes: 'Bring spare gaskets.' });
     expect(patched.status).toBe(200);
     expect(patched.body).toMatchObject({ name: 'June whites, revised', notes: 'Bring spare gaskets.' });
 
-    expect((await owner.delete(`/api/plans/${plan.id}`)).status).toBe(204);
-    expect((await owner.get(`/api/plans/${plan.id}`)).status).toBe(404);
+    expect((await app.owner.delete(`/api/plans/${plan.id}`)).status).toBe(204);
+    expect((await app.owner.get(`/api/plans/${plan.id}`)).status).toBe(404);
   });
 
   it('cellar masters and winemakers draft and edit; technicians and auditors read only', async () => {
     for (const role of ['cellar-master', 'winemaker'] as const) {
-      const c = members[role];
+      const c = app.members[role];
       const { plan, planLotId, trainId } = await draftWithTrain(c);
       expect((await c.patch(`/api/plans/${plan.id}`, { notes: `by ${role}` })).status).toBe(200);
       expect((await c.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
@@ -129,19 +112,19 @@ describe('plans: create, read, edit, delete', () => {
     }
     const { plan, planLotId, trainId } = await draftWithTrain();
     for (const role of ['technician', 'auditor'] as const) {
-      const c = members[role];
+      const c = app.members[role];
       expect((await c.get('/api/plans')).status).toBe(200);
       const read = await c.get(`/api/plans/${plan.id}`);
       expect(read.status).toBe(200);
       expect(read.body.lots[0].trains[0].sizing).not.toBeNull();
       const writes = [
-        await c.post('/api/plans', planBody(world.lineId)),
+        await c.post('/api/plans', planBody(app.world.lineId)),
         await c.patch(`/api/plans/${plan.id}`, { notes: 'x' }),
         await c.delete(`/api/plans/${plan.id}`),
-        await c.post(`/api/plans/${plan.id}/lots`, { lotId: world.secondLotId }),
+        await c.post(`/api/plans/${plan.id}/lots`, { lotId: app.world.secondLotId }),
         await c.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { volumeL: 100 }),
         await c.delete(`/api/plans/${plan.id}/lots/${planLotId}`),
-        await c.post(`/api/plans/${plan.id}/lots/${planLotId}/trains`, trainBody(world)),
+        await c.post(`/api/plans/${plan.id}/lots/${planLotId}/trains`, trainBody(app.world)),
         await c.patch(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`, { name: 'x' }),
         await c.delete(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`),
         await c.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' }),
@@ -151,9 +134,9 @@ describe('plans: create, read, edit, delete', () => {
       expect(writes.map((w) => w.status)).toEqual(writes.map(() => 403));
     }
     // A winemaker drafts but does not approve.
-    await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
-    expect((await members.winemaker.post(`/api/plans/${plan.id}/approve`)).status).toBe(403);
-    expect((await members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
+    await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+    expect((await app.members.winemaker.post(`/api/plans/${plan.id}/approve`)).status).toBe(403);
+    expect((await app.members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
   });
 
   it('lists with search, status filter, sorting and pages', async () => {
@@ -189,33 +172,33 @@ describe('plans: create, read, edit, delete', () => {
 
 describe('plans: bad input and other wineries', () => {
   it('refuses bad input with a message per field', async () => {
-    const empty = await owner.post('/api/plans', {});
+    const empty = await app.owner.post('/api/plans', {});
     expect(empty.status).toBe(400);
     expect(Object.keys(empty.body.error.fields).sort()).toEqual(['lineId', 'name', 'plannedDate']);
-    const wrong = await owner.post('/api/plans', planBody(world.lineId, { plannedDate: '2025-02-30', startTime: '25:00', sanitationKind: 'bleach' }));
+    const wrong = await app.owner.post('/api/plans', planBody(app.world.lineId, { plannedDate: '2025-02-30', startTime: '25:00', sanitationKind: 'bleach' }));
     expect(wrong.status).toBe(400);
     expect(Object.keys(wrong.body.error.fields).sort()).toEqual(['plannedDate', 'sanitationKind', 'startTime']);
     expect(wrong.body.error.fields.startTime).toMatch(/HH:MM/);
 
     const { plan, planLotId, trainId } = await draftWithTrain();
-    const noChange = await owner.patch(`/api/plans/${plan.id}`, {});
+    const noChange = await app.owner.patch(`/api/plans/${plan.id}`, {});
     expect(noChange.status).toBe(400);
-    const badLot = await owner.post(`/api/plans/${plan.id}/lots`, { lotId: 'nope', volumeL: -4 });
+    const badLot = await app.owner.post(`/api/plans/${plan.id}/lots`, { lotId: 'nope', volumeL: -4 });
     expect(badLot.status).toBe(400);
     expect(Object.keys(badLot.body.error.fields).sort()).toEqual(['lotId', 'volumeL']);
-    const badPatch = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { volumeL: 0, position: 0 });
+    const badPatch = await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { volumeL: 0, position: 0 });
     expect(Object.keys(badPatch.body.error.fields).sort()).toEqual(['position', 'volumeL']);
-    const badTrain = await owner.post(`/api/plans/${plan.id}/lots/${planLotId}/trains`, {
+    const badTrain = await app.owner.post(`/api/plans/${plan.id}/lots/${planLotId}/trains`, {
       name: '',
-      stages: [{ cartridgeTypeId: world.membraneTypeId, housingId: world.membraneHousingId, housingCount: 0, capacityLPerM2: -1 }],
+      stages: [{ cartridgeTypeId: app.world.membraneTypeId, housingId: app.world.membraneHousingId, housingCount: 0, capacityLPerM2: -1 }],
     });
     expect(badTrain.status).toBe(400);
     expect(Object.keys(badTrain.body.error.fields).sort()).toEqual(['name', 'stages.0.capacityLPerM2', 'stages.0.housingCount']);
-    const noStages = await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`, { stages: [] });
+    const noStages = await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}/trains/${trainId}`, { stages: [] });
     expect(noStages.body.error.fields.stages).toBe('Add at least one stage.');
     // A train of another lot of the same plan cannot be chosen.
-    const other = await addPlanLot(owner, plan.id, world.secondLotId);
-    const wrongTrain = await owner.patch(`/api/plans/${plan.id}/lots/${other.lots[1].id}`, { chosenTrainId: trainId });
+    const other = await addPlanLot(app.owner, plan.id, app.world.secondLotId);
+    const wrongTrain = await app.owner.patch(`/api/plans/${plan.id}/lots/${other.lots[1].id}`, { chosenTrainId: trainId });
     expect(wrongTrain.status).toBe(400);
     expect(wrongTrain.body.error.fields.chosenTrainId).toMatch(/this lot/);
   });
@@ -230,10 +213,10 @@ describe('plans: bad input and other wineries', () => {
       await stranger.get(p),
       await stranger.patch(p, { notes: 'mine now' }),
       await stranger.delete(p),
-      await stranger.post(`${p}/lots`, { lotId: world.lotId }),
+      await stranger.post(`${p}/lots`, { lotId: app.world.lotId }),
       await stranger.patch(l, { volumeL: 10 }),
       await stranger.delete(l),
-      await stranger.post(`${l}/trains`, trainBody(world)),
+      await stranger.post(`${l}/trains`, trainBody(app.world)),
       await stranger.patch(t, { name: 'x' }),
       await stranger.delete(t),
       await stranger.post(`${p}/approve`),
@@ -242,22 +225,22 @@ describe('plans: bad input and other wineries', () => {
     ];
     expect(answers.map((a) => a.status)).toEqual(answers.map(() => 404));
     expect((await stranger.get('/api/plans')).body.items.map((x: { id: string }) => x.id)).not.toContain(plan.id);
-    expect((await owner.get(p)).body.notes).toBe('');
+    expect((await app.owner.get(p)).body.notes).toBe('');
     // Not a uuid: also 404.
-    expect((await owner.get('/api/plans/not-an-id')).status).toBe(404);
-    expect((await owner.patch(`${p}/lots/xyz`, { volumeL: 1 })).status).toBe(404);
+    expect((await app.owner.get('/api/plans/not-an-id')).status).toBe(404);
+    expect((await app.owner.patch(`${p}/lots/xyz`, { volumeL: 1 })).status).toBe(404);
 
     // The stranger's own plan may not point at this winery's line, lot, types or housings.
     const theirLine = await createLine(stranger);
-    expect((await stranger.post('/api/plans', planBody(world.lineId))).body.error.fields).toEqual({ lineId: expect.any(String) });
+    expect((await stranger.post('/api/plans', planBody(app.world.lineId))).body.error.fields).toEqual({ lineId: expect.any(String) });
     const theirs = await createPlan(stranger, theirLine.id);
-    expect((await stranger.patch(`/api/plans/${theirs.id}`, { lineId: world.lineId })).status).toBe(400);
-    const foreignLot = await stranger.post(`/api/plans/${theirs.id}/lots`, { lotId: world.lotId });
+    expect((await stranger.patch(`/api/plans/${theirs.id}`, { lineId: app.world.lineId })).status).toBe(400);
+    const foreignLot = await stranger.post(`/api/plans/${theirs.id}/lots`, { lotId: app.world.lotId });
     expect(foreignLot.status).toBe(400);
     expect(foreignLot.body.error.fields).toEqual({ lotId: expect.any(String) });
     const ownLot = await createLot(stranger);
     const withLot = await addPlanLot(stranger, theirs.id, ownLot.id);
-    const foreignTrain = await stranger.post(`/api/plans/${theirs.id}/lots/${withLot.lots[0].id}/trains`, trainBody(world));
+    const foreignTrain = await stranger.post(`/api/plans/${theirs.id}/lots/${withLot.lots[0].id}/trains`, trainBody(app.world));
     expect(foreignTrain.status).toBe(400);
     expect(Object.keys(foreignTrain.body.error.fields).sort()).toEqual([
       'stages.0.cartridgeTypeId',
@@ -274,28 +257,28 @@ describe('plans: approval and status', () => {
   it('refuses approval without chosen trains or with a broken rating, then approves, locks, reopens and marks done', async () => {
     const { plan, planLotId, trainId } = await draftWithTrain();
     const code = plan.lots[0].lot.code;
-    const refused = await owner.post(`/api/plans/${plan.id}/approve`);
+    const refused = await app.owner.post(`/api/plans/${plan.id}/approve`);
     expect(refused.status).toBe(409);
     expect(refused.body.error.code).toBe('plan_not_ready');
     expect(Object.values(refused.body.error.fields)).toEqual([`${code}: choose the train to use.`]);
 
     // A train through a housing rated 1 bar breaks its rating: refused with the reason.
-    const weak = await addTrain(owner, plan.id, planLotId, {
+    const weak = await addTrain(app.owner, plan.id, planLotId, {
       name: 'Weak',
       stages: [
-        { cartridgeTypeId: world.prefilterTypeId, housingId: world.prefilterHousingId, housingCount: 1 },
-        { cartridgeTypeId: world.membraneTypeId, housingId: world.weakHousingId, housingCount: 1 },
+        { cartridgeTypeId: app.world.prefilterTypeId, housingId: app.world.prefilterHousingId, housingCount: 1 },
+        { cartridgeTypeId: app.world.membraneTypeId, housingId: app.world.weakHousingId, housingCount: 1 },
       ],
     });
     const weakTrain = weak.lots[0].trains.find((t) => t.name === 'Weak')!;
     expect(weakTrain.blockingReasons[0]).toMatch(/above the housing's 1\.00 bar rating/);
-    await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: weakTrain.id });
-    const blocked = await owner.post(`/api/plans/${plan.id}/approve`);
+    await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: weakTrain.id });
+    const blocked = await app.owner.post(`/api/plans/${plan.id}/approve`);
     expect(blocked.status).toBe(409);
     expect(Object.values(blocked.body.error.fields).join(' ')).toMatch(/Weak.*housing's 1\.00 bar rating/);
 
-    await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
-    const approved = await members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' });
+    await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId });
+    const approved = await app.members['cellar-master'].post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' });
     expect(approved.status).toBe(200);
     expect(approved.body).toMatchObject({ status: 'approved', approvedBy: 'Test cellar-master', approvalBlockers: [] });
     expect(approved.body.approvedAt).toEqual(expect.any(String));
@@ -303,42 +286,42 @@ describe('plans: approval and status', () => {
     // Read-only now.
     const p = `/api/plans/${plan.id}`;
     const edits = [
-      await owner.patch(p, { notes: 'late change' }),
-      await owner.delete(p),
-      await owner.post(`${p}/lots`, { lotId: world.secondLotId }),
-      await owner.patch(`${p}/lots/${planLotId}`, { volumeL: 10 }),
-      await owner.delete(`${p}/lots/${planLotId}`),
-      await owner.post(`${p}/lots/${planLotId}/trains`, trainBody(world)),
-      await owner.patch(`${p}/lots/${planLotId}/trains/${trainId}`, { name: 'x' }),
-      await owner.delete(`${p}/lots/${planLotId}/trains/${trainId}`),
-      await owner.post(`${p}/approve`),
+      await app.owner.patch(p, { notes: 'late change' }),
+      await app.owner.delete(p),
+      await app.owner.post(`${p}/lots`, { lotId: app.world.secondLotId }),
+      await app.owner.patch(`${p}/lots/${planLotId}`, { volumeL: 10 }),
+      await app.owner.delete(`${p}/lots/${planLotId}`),
+      await app.owner.post(`${p}/lots/${planLotId}/trains`, trainBody(app.world)),
+      await app.owner.patch(`${p}/lots/${planLotId}/trains/${trainId}`, { name: 'x' }),
+      await app.owner.delete(`${p}/lots/${planLotId}/trains/${trainId}`),
+      await app.owner.post(`${p}/approve`),
     ];
     expect(edits.map((e) => e.status)).toEqual(edits.map(() => 409));
     expect(edits[0].body.error.message).toMatch(/reopen/);
 
     // Reopen → draft (approval cleared), approve again, mark done: final.
-    const reopened = await owner.post(`${p}/reopen`);
+    const reopened = await app.owner.post(`${p}/reopen`);
     expect(reopened.body).toMatchObject({ status: 'draft', approvedBy: null, approvedAt: null });
-    expect((await owner.post(`${p}/done`)).status).toBe(409);
-    expect((await owner.post(`${p}/reopen`)).status).toBe(409);
-    expect((await owner.post(`${p}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
-    const done = await owner.post(`${p}/done`);
+    expect((await app.owner.post(`${p}/done`)).status).toBe(409);
+    expect((await app.owner.post(`${p}/reopen`)).status).toBe(409);
+    expect((await app.owner.post(`${p}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
+    const done = await app.owner.post(`${p}/done`);
     expect(done.body.status).toBe('done');
-    expect((await owner.post(`${p}/reopen`)).status).toBe(409);
-    expect((await owner.post(`${p}/done`)).status).toBe(409);
-    expect((await owner.patch(p, { notes: 'x' })).status).toBe(409);
-    expect((await owner.delete(p)).status).toBe(409);
-    expect((await owner.get(`/api/plans?status=done`)).body.items.map((x: { id: string }) => x.id)).toContain(plan.id);
+    expect((await app.owner.post(`${p}/reopen`)).status).toBe(409);
+    expect((await app.owner.post(`${p}/done`)).status).toBe(409);
+    expect((await app.owner.patch(p, { notes: 'x' })).status).toBe(409);
+    expect((await app.owner.delete(p)).status).toBe(409);
+    expect((await app.owner.get(`/api/plans?status=done`)).body.items.map((x: { id: string }) => x.id)).toContain(plan.id);
   });
 });
 
 describe('plans: the engine’s figures', () => {
   it('each train’s sizing equals sizeTrain on the same input; the day follows the clock', async () => {
-    const { plan } = await draftWithTrain(owner, [1, 2]);
-    const dto = (await owner.get(`/api/plans/${plan.id}`)).body as PlanDto;
+    const { plan } = await draftWithTrain(app.owner, [1, 2]);
+    const dto = (await app.owner.get(`/api/plans/${plan.id}`)).body as PlanDto;
     const types = dto.catalogue.cartridgeTypes;
-    const pre = types.find((t) => t.id === world.prefilterTypeId)!;
-    const mem = types.find((t) => t.id === world.membraneTypeId)!;
+    const pre = types.find((t) => t.id === app.world.prefilterTypeId)!;
+    const mem = types.find((t) => t.id === app.world.membraneTypeId)!;
     const asEngine = (t: typeof pre, capacityLPerM2: number) => ({
       kind: t.kind,
       ratingUm: t.ratingUm,
@@ -361,8 +344,8 @@ describe('plans: the engine’s figures', () => {
       line: { bottlesPerHour: 3000, bottleMl: 750 },
       batchL: 6000,
       stages: [
-        { name: 'Prefilter', housingId: world.prefilterHousingId, cartridgeType: asEngine(pre, 3000), housing: { ...housing, maxPressureBar: 8 }, housingCount: 1 },
-        { name: 'Membrane', housingId: world.membraneHousingId, cartridgeType: asEngine(mem, 2000), housing: { ...housing, maxPressureBar: 10 }, housingCount: 2 },
+        { name: 'Prefilter', housingId: app.world.prefilterHousingId, cartridgeType: asEngine(pre, 3000), housing: { ...housing, maxPressureBar: 8 }, housingCount: 1 },
+        { name: 'Membrane', housingId: app.world.membraneHousingId, cartridgeType: asEngine(mem, 2000), housing: { ...housing, maxPressureBar: 10 }, housingCount: 2 },
       ],
       sanitation: { kind: 'hot-water' },
     };
@@ -385,7 +368,7 @@ describe('plans: the engine’s figures', () => {
     expect(run.planLotId).toBe(dto.lots[0].id);
 
     // Steam and a later start move every block.
-    const steam = await owner.patch(`/api/plans/${plan.id}`, { sanitationKind: 'steam', startTime: '22:30' });
+    const steam = await app.owner.patch(`/api/plans/${plan.id}`, { sanitationKind: 'steam', startTime: '22:30' });
     const blocks = steam.body.timeline.blocks;
     expect(blocks[0]).toMatchObject({ label: 'Steam sanitation', start: '22:30', end: '23:15', startDayOffset: 0 });
     expect(steam.body.timeline.endDayOffset).toBe(1);
@@ -404,15 +387,8 @@ describe('plans: the engine’s figures', () => {
     const sizing = t.lots[0].trains[0].sizing!;
     const me = (await client.get('/api/me')).body;
     const winery = me.activeWineryId as string;
-    const add = async (typeId: string, lengthIn: number, status: 'in-stock' | 'installed' | 'regenerating', howMany: number) => {
-      const saved = wineryId;
-      wineryId = winery;
-      try {
-        await insertCartridges(typeId, lengthIn, status, howMany);
-      } finally {
-        wineryId = saved;
-      }
-    };
+    const add = async (typeId: string, lengthIn: number, status: 'in-stock' | 'installed' | 'regenerating', howMany: number) =>
+      insertCartridges(typeId, lengthIn, status, howMany, winery);
     await add(w.membraneTypeId, 30, 'in-stock', 2);
     await add(w.membraneTypeId, 30, 'installed', 1);
     await add(w.membraneTypeId, 30, 'regenerating', 4); // not counted as available

@@ -1,46 +1,29 @@
 // @vitest-environment node
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { forecastRunFromReadings, requiredFlowLh, runAlarm } from '../../shared/engine';
-import type { Role } from '../../shared/permissions';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, installCartridges, trainBody, type PlanWorld } from '../factories/plans';
-import { addMember, signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { addPlanLot, addTrain, createPlan, createPlanWorld, installCartridges, trainBody, type PlanWorld } from '../factories/plans';
+import { setupApiApp } from '../support/api-app';
+import { signUp } from '../support/test-app';
 
-let app: TestApp;
-let owner: Client;
-let world: PlanWorld;
-const members = {} as Record<Exclude<Role, 'owner'>, Client>;
-
-beforeAll(async () => {
-  app = await startTestApp();
-  owner = (await signUp(app.baseUrl, { wineryName: 'Runs Test Winery' })).client;
-  for (const role of ['cellar-master', 'winemaker', 'technician', 'auditor'] as const) {
-    members[role] = (await addMember(app, owner, role)).client;
-  }
-  world = await createPlanWorld(owner);
-  // runs start only on housings filled with the planned cartridges
-  await fillTrainHousings(owner, world);
-});
-afterAll(async () => {
-  await app?.close();
-});
+const app = setupApiApp({ wineryName: 'Runs Test Winery', members: true, world: 'filled' });
 
 /** A plan with one lot (6,000 L) and a chosen two-stage train; approved unless told. */
 async function plannedLot(opts: { approve?: boolean; w?: PlanWorld } = {}) {
-  const w = opts.w ?? world;
-  const plan = await createPlan(owner, w.lineId);
-  const withLot = await addPlanLot(owner, plan.id, w.lotId, 6000);
+  const w = opts.w ?? app.world;
+  const plan = await createPlan(app.owner, w.lineId);
+  const withLot = await addPlanLot(app.owner, plan.id, w.lotId, 6000);
   const planLotId = withLot.lots[0].id;
-  const withTrain = await addTrain(owner, plan.id, planLotId, trainBody(w));
+  const withTrain = await addTrain(app.owner, plan.id, planLotId, trainBody(w));
   const trainId = withTrain.lots[0].trains[0].id;
-  expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  if (opts.approve !== false) expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
+  expect((await app.owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
+  if (opts.approve !== false) expect((await app.owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
   return { planId: plan.id, planLotId };
 }
 
 async function startedRun(w?: PlanWorld) {
   const { planLotId } = await plannedLot({ w });
-  const res = await members.technician.post('/api/runs', { planLotId });
+  const res = await app.members.technician.post('/api/runs', { planLotId });
   expect(res.status).toBe(201);
   return res.body as { id: string; stages: { index: number; terminalDpBar: number }[] };
 }
@@ -57,41 +40,41 @@ const reading = (over: Record<string, unknown> = {}) => ({
 describe('runs', () => {
   it('starts only from an approved plan’s lot with a chosen train, one running run per lot', async () => {
     const draft = await plannedLot({ approve: false });
-    const refused = await owner.post('/api/runs', { planLotId: draft.planLotId });
+    const refused = await app.owner.post('/api/runs', { planLotId: draft.planLotId });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toMatch(/approved/);
 
     const { planLotId } = await plannedLot();
-    const res = await members.technician.post('/api/runs', { planLotId });
+    const res = await app.members.technician.post('/api/runs', { planLotId });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ status: 'running', planLotId, volumeL: 6000, currentVolumeL: 0, readingCount: 0 });
     expect(res.body.stages.map((s: { name: string }) => s.name)).toEqual(['Prefilter', 'Membrane']);
     expect(res.body.stages[0].note).toMatch(/3 more readings/);
     expect(res.body.stages[0].fit).toBeNull();
 
-    const again = await owner.post('/api/runs', { planLotId });
+    const again = await app.owner.post('/api/runs', { planLotId });
     expect(again.status).toBe(409);
 
-    const options = await members.technician.get('/api/runs/start-options');
+    const options = await app.members.technician.get('/api/runs/start-options');
     expect(options.status).toBe(200);
     const mine = options.body.items.find((o: { planLotId: string }) => o.planLotId === planLotId);
     expect(mine.runningRunId).toBe(res.body.id);
     expect(options.body.items.some((o: { planLotId: string }) => o.planLotId === draft.planLotId)).toBe(false);
 
-    const list = await members.auditor.get('/api/runs');
+    const list = await app.members.auditor.get('/api/runs');
     expect(list.status).toBe(200);
     expect(list.body.items.some((r: { id: string }) => r.id === res.body.id)).toBe(true);
 
-    const bad = await owner.post('/api/runs', { planLotId: 'nope' });
+    const bad = await app.owner.post('/api/runs', { planLotId: 'nope' });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toHaveProperty('planLotId');
   });
 
   it('technicians log readings; auditors read only; another winery gets 404 everywhere', async () => {
     const run = await startedRun();
-    expect((await members.technician.post(`/api/runs/${run.id}/readings`, reading())).status).toBe(201);
-    expect((await members.winemaker.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 600 }))).status).toBe(201);
-    const auditor = members.auditor;
+    expect((await app.members.technician.post(`/api/runs/${run.id}/readings`, reading())).status).toBe(201);
+    expect((await app.members.winemaker.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 600 }))).status).toBe(201);
+    const auditor = app.members.auditor;
     expect((await auditor.get(`/api/runs/${run.id}`)).status).toBe(200);
     expect((await auditor.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 700 }))).status).toBe(403);
     expect((await auditor.post(`/api/runs/${run.id}/close`)).status).toBe(403);
@@ -104,12 +87,12 @@ describe('runs', () => {
     expect((await other.post(`/api/runs/${run.id}/close`)).status).toBe(404);
     expect((await other.post('/api/runs', { planLotId })).status).toBe(404);
     expect((await other.get('/api/runs')).body.items).toEqual([]);
-    expect((await owner.get(`/api/runs/${randomUUID()}`)).status).toBe(404);
+    expect((await app.owner.get(`/api/runs/${randomUUID()}`)).status).toBe(404);
   });
 
   it('stores a resent reading once and refuses falling litres, downstream above upstream, a closed run', async () => {
     const run = await startedRun();
-    const tech = members.technician;
+    const tech = app.members.technician;
     const body = reading({ volumeL: 1000 });
     const first = await tech.post(`/api/runs/${run.id}/readings`, body);
     const second = await tech.post(`/api/runs/${run.id}/readings`, body);
@@ -150,16 +133,16 @@ describe('runs', () => {
       { volumeL: 2000, dpBar: 0.45 },
     ];
     for (const p of points.slice(0, 2)) {
-      expect((await members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: p.volumeL, upstreamBar: 2 + p.dpBar, downstreamBar: 2 }))).status).toBe(201);
+      expect((await app.members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: p.volumeL, upstreamBar: 2 + p.dpBar, downstreamBar: 2 }))).status).toBe(201);
     }
-    const early = (await owner.get(`/api/runs/${run.id}`)).body;
+    const early = (await app.owner.get(`/api/runs/${run.id}`)).body;
     expect(early.stages[0].fit).toBeNull();
     expect(early.stages[0].note).toMatch(/1 more reading/);
 
     for (const p of points.slice(2)) {
-      await members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: p.volumeL, upstreamBar: 2 + p.dpBar, downstreamBar: 2 }));
+      await app.members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: p.volumeL, upstreamBar: 2 + p.dpBar, downstreamBar: 2 }));
     }
-    const detail = (await owner.get(`/api/runs/${run.id}`)).body;
+    const detail = (await app.owner.get(`/api/runs/${run.id}`)).body;
     const stage = detail.stages[0];
     expect(stage.readings).toHaveLength(4);
     expect(stage.fit).not.toBeNull();
@@ -182,26 +165,26 @@ describe('runs', () => {
 
   it('closing adds the run’s litres to each cartridge installed in the train’s housings, with a run event', async () => {
     // a world of its own, whose prefilter housing holds this test's cartridge
-    const own = await createPlanWorld(owner);
+    const own = await createPlanWorld(app.owner);
     const serial = `RUN${Date.now().toString(36).toUpperCase()}`;
-    const reg = await owner.post('/api/cartridges', { serial, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
+    const reg = await app.owner.post('/api/cartridges', { serial, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
     expect(reg.status).toBe(201);
-    expect((await members.technician.post(`/api/cartridges/${reg.body.id}/install`, { housingId: own.prefilterHousingId })).status).toBe(200);
-    await installCartridges(owner, own.prefilterTypeId, own.prefilterHousingId, 2);
-    await installCartridges(owner, own.membraneTypeId, own.membraneHousingId, 3);
+    expect((await app.members.technician.post(`/api/cartridges/${reg.body.id}/install`, { housingId: own.prefilterHousingId })).status).toBe(200);
+    await installCartridges(app.owner, own.prefilterTypeId, own.prefilterHousingId, 2);
+    await installCartridges(app.owner, own.membraneTypeId, own.membraneHousingId, 3);
     const run = await startedRun(own);
-    const spare = await owner.post('/api/cartridges', { serial: `${serial}S`, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
+    const spare = await app.owner.post('/api/cartridges', { serial: `${serial}S`, batch: 'B1', typeId: own.prefilterTypeId, lengthIn: 30, receivedAt: '2024-11-05' });
     expect(spare.status).toBe(201);
-    const before = (await owner.get(`/api/cartridges/${reg.body.id}`)).body.litresFiltered as number;
+    const before = (await app.owner.get(`/api/cartridges/${reg.body.id}`)).body.litresFiltered as number;
 
-    await members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 1200 }));
-    await members.technician.post(`/api/runs/${run.id}/readings`, reading({ stageIndex: 1, volumeL: 1800 }));
-    const closed = await members.technician.post(`/api/runs/${run.id}/close`, { notes: 'Done at noon.' });
+    await app.members.technician.post(`/api/runs/${run.id}/readings`, reading({ volumeL: 1200 }));
+    await app.members.technician.post(`/api/runs/${run.id}/readings`, reading({ stageIndex: 1, volumeL: 1800 }));
+    const closed = await app.members.technician.post(`/api/runs/${run.id}/close`, { notes: 'Done at noon.' });
     expect(closed.status).toBe(200);
     expect(closed.body).toMatchObject({ status: 'closed', notes: 'Done at noon.' });
     expect(closed.body.closedAt).not.toBeNull();
 
-    const after = (await owner.get(`/api/cartridges/${reg.body.id}`)).body;
+    const after = (await app.owner.get(`/api/cartridges/${reg.body.id}`)).body;
     expect(after.litresFiltered).toBeCloseTo(before + 1800, 9);
     const runEvents = (after.events as { kind: string; housingId: string | null; details: Record<string, unknown> }[]).filter((e) => e.kind === 'run');
     expect(runEvents).toHaveLength(1);
@@ -209,6 +192,6 @@ describe('runs', () => {
     expect(runEvents[0].details).toMatchObject({ litres: 1800, runId: run.id });
     expect(typeof runEvents[0].details.lotCode).toBe('string');
     // a cartridge in stock (not installed) is left alone
-    expect((await owner.get(`/api/cartridges/${spare.body.id}`)).body.litresFiltered).toBe(0);
+    expect((await app.owner.get(`/api/cartridges/${spare.body.id}`)).body.litresFiltered).toBe(0);
   });
 });

@@ -4,19 +4,14 @@
 // Today has been read, and check Today against a check worked out from nothing (the stored
 // rows removed), so a stale stored check would show as a difference.
 import { eq, inArray, sql } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { cartridgeEventsTable, cartridgeLifeFlagsTable, cartridgesTable, cartridgeTypesTable } from '../../server/db/schema';
 import type { TodayDto } from '../../shared/types/today';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
-import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import { signUp, type Client } from '../support/test-app';
 
-let app: TestApp;
-beforeAll(async () => {
-  app = await startTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const app = setupApiApp();
 
 const prefix = serialPrefix();
 let seq = 0;

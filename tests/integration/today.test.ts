@@ -1,21 +1,15 @@
 // @vitest-environment node
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { cartridgeEventsTable, cartridgesTable } from '../../server/db/schema';
 import type { PlanDto } from '../../shared/types/plans';
 import type { TodayDto } from '../../shared/types/today';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
 import { createLabResult, createLot, createTank } from '../factories/cellar';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, trainBody } from '../factories/plans';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import { addMember, Client, signUp } from '../support/test-app';
 
-let app: TestApp;
-
-beforeAll(async () => {
-  app = await startTestApp();
-});
-afterAll(async () => {
-  await app.close();
-});
+const app = setupApiApp();
 
 const prefix = serialPrefix();
 let seq = 0;

@@ -1,4 +1,8 @@
-/** Seeded normal deviates (mulberry32 uniform generator + Box–Muller) for repeatable, fictional test data. */
+/**
+ * Seeded normal deviates for repeatable, fictional test data: the mulberry32 uniform generator
+ * (common practice, no source) and Box–Muller normal deviates (Box & Muller, Ann. Math. Stat. 29
+ * (1958) 610).
+ */
 export function seededNormals(seed: number): () => number {
   let s = seed >>> 0;
   const uniform = () => {
