@@ -12,6 +12,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { useAuditEvents } from '../api/get-audit-events';
 import { useAuditPeople } from '../api/get-audit-people';
 import { auditCsvUrl, type AuditFilters } from '../api/keys';
@@ -206,18 +207,11 @@ function ChangeLogPhoneList({ events }: { events: AuditEventDto[] }) {
 
 function PhonePager({ page, total, onPageChange }: { page: number; total: number; onPageChange: (page: number) => void }) {
   const pages = Math.max(1, Math.ceil(total / CHANGE_LOG_PAGE_SIZE));
-  if (pages <= 1) return null;
   return (
-    <nav aria-label="Pages" className="flex items-center justify-between gap-2 sm:hidden">
-      <Button variant="secondary" size="md" disabled={page <= 1} onClick={() => onPageChange(page - 1)}>
-        Newer
-      </Button>
+    <Pager label="Pages" className="sm:hidden" page={page} pages={pages} onPageChange={onPageChange} previous="Newer" next="Older">
       <span className="text-sm text-ink-700">
         Page {page} of {pages}
       </span>
-      <Button variant="secondary" size="md" disabled={page >= pages} onClick={() => onPageChange(page + 1)}>
-        Older
-      </Button>
-    </nav>
+    </Pager>
   );
 }

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { auditActionLabels, auditKindLabels, type AuditKind } from '@shared/schemas/audit';
-import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { Card } from '@/components/ui/card';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { paths } from '@/config/paths';
@@ -63,19 +63,11 @@ export function HistoryPanel({ kind, recordId }: { kind: AuditKind; recordId: st
               </li>
             ))}
           </ol>
-          {pages > 1 ? (
-            <nav aria-label="History pages" className="mt-2 flex items-center justify-between gap-2">
-              <Button variant="secondary" size="sm" disabled={page <= 1} onClick={() => setPage(page - 1)}>
-                Newer
-              </Button>
-              <span className="text-sm text-ink-700">
-                {page} of {pages}
-              </span>
-              <Button variant="secondary" size="sm" disabled={page >= pages} onClick={() => setPage(page + 1)}>
-                Older
-              </Button>
-            </nav>
-          ) : null}
+          <Pager label="History pages" className="mt-2" size="sm" page={page} pages={pages} onPageChange={setPage} previous="Newer" next="Older">
+            <span className="text-sm text-ink-700">
+              {page} of {pages}
+            </span>
+          </Pager>
         </>
       )}
     </Card>
