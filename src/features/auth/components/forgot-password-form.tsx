@@ -8,7 +8,7 @@ import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useAppInfo } from '@/lib/session';
 import { useRequestPasswordReset } from '../api/request-password-reset';
 import { FormAlert } from './form-alert';
@@ -17,17 +17,14 @@ export function ForgotPasswordForm() {
   const request = useRequestPasswordReset();
   const appInfo = useAppInfo();
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(passwordResetRequestInputSchema), defaultValues: { email: '' } });
 
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: ['email'],
+    save: async (values) => {
       await request.mutateAsync(values);
       setSentTo(values.email);
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['email']));
-    }
+    },
   });
 
   if (sentTo) {

@@ -7,7 +7,7 @@ import { signUpInputSchema } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useAppInfo } from '@/lib/session';
 import { useSignUp } from '../api/sign-up';
 import { FormAlert } from './form-alert';
@@ -18,21 +18,18 @@ export function SignUpForm() {
   const signUp = useSignUp();
   const appInfo = useAppInfo();
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(signUpInputSchema),
     defaultValues: { name: '', email: '', password: '', wineryName: '' },
   });
   const { errors } = form.formState;
 
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields,
+    save: async (values) => {
       await signUp.mutateAsync(values);
       setSentTo(values.email);
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+    },
   });
 
   if (sentTo) {
