@@ -17,6 +17,7 @@ import { useAuditEvents } from '../api/get-audit-events';
 import { useAuditPeople } from '../api/get-audit-people';
 import { auditCsvUrl, type AuditFilters } from '../api/keys';
 import { EventChanges } from './event-changes';
+import { EventEntry } from './event-entry';
 import { formatDateTimeSeconds } from '@/lib/dates';
 
 export const CHANGE_LOG_PAGE_SIZE = 25;
@@ -187,19 +188,7 @@ function ChangeLogPhoneList({ events }: { events: AuditEventDto[] }) {
   return (
     <ol className="flex flex-col divide-y divide-ink-100 rounded border border-ink-200 bg-white sm:hidden" aria-label="Change log">
       {events.map((e) => (
-        <li key={e.id} className="flex flex-col gap-1 px-3 py-2.5">
-          <p className="text-sm text-ink-600">
-            <time dateTime={e.at} className="num">
-              {when(e.at)}
-            </time>{' '}
-            · {e.userName || '—'}
-          </p>
-          <p className="[overflow-wrap:anywhere]">
-            <span className="font-semibold text-ink-900">{auditActionLabels[e.action] ?? e.action}</span> {auditKindLabels[e.recordKind]?.toLowerCase()}{' '}
-            <span className="text-ink-800">{e.recordLabel}</span>
-          </p>
-          <EventChanges event={e} max={4} />
-        </li>
+        <EventEntry key={e.id} event={e} at={when(e.at)} showRecord max={4} className="flex flex-col gap-1 px-3 py-2.5" />
       ))}
     </ol>
   );
