@@ -1,11 +1,11 @@
-import { Archive, ArrowLeft, LogIn, LogOut, Pencil } from 'lucide-react';
+import { Archive, LogIn, LogOut, Pencil } from 'lucide-react';
 import { useState, type ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import type { CartridgeDetailDto } from '@shared/types/cartridges';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Dialog } from '@/components/ui/dialog';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
@@ -94,9 +94,9 @@ export function CartridgePage({ id }: { id: string }) {
     <div className="flex flex-col gap-6">
       <PageHeader
         context={
-          <Link to={paths.cartridges} className="inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Cartridges
-          </Link>
+          <BackLink to={paths.cartridges} className="min-h-11">
+            Cartridges
+          </BackLink>
         }
         title={c.serial}
         description={`${c.lengthIn}-inch ${c.typeName}${c.batch ? `, batch ${c.batch}` : ''}`}

@@ -1,6 +1,5 @@
-import { ArrowLeft, FileUp, Save, Upload } from 'lucide-react';
+import { FileUp, Save, Upload } from 'lucide-react';
 import { lazy, Suspense, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import {
   LOGGER_FILE_MAX_BYTES,
   LOGGER_MAX_ROWS,
@@ -20,6 +19,7 @@ import { Card } from '@/components/ui/card';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { formatNumber } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -241,9 +241,9 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
     <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
       <PageHeader
         context={
-          <Link to={backTo} className="inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Back to the run
-          </Link>
+          <BackLink to={backTo} className="min-h-11">
+            Back to the run
+          </BackLink>
         }
         title="Import logger file"
         description={
