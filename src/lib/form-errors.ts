@@ -1,4 +1,5 @@
-import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import { useState } from 'react';
+import type { FieldValues, Path, UseFormReturn, UseFormSetError } from 'react-hook-form';
 import { ApiError, errorMessage } from './api-client';
 
 /**
@@ -15,4 +16,36 @@ export function applyServerErrors<T extends FieldValues>(error: unknown, setErro
     }
   }
   return placed && error.code === 'invalid_input' ? null : error.message;
+}
+
+/**
+ * The form idiom's submit: clears the form's alert, runs `save` with the checked values and, when
+ * it fails, puts the server's field messages on `fields` and the rest in `alert`. `close` empties
+ * the form (unless `keepValues`) and its alert and calls `onClose` (a dialog's Cancel); `save`
+ * gets it too.
+ */
+export function useFormSubmit<TForm extends FieldValues, TOut>(
+  form: UseFormReturn<TForm, unknown, TOut>,
+  {
+    fields,
+    save,
+    onClose,
+    keepValues = false,
+  }: { fields: readonly string[]; save: (values: TOut, close: () => void) => Promise<unknown>; onClose?: () => void; keepValues?: boolean },
+) {
+  const [alert, setAlert] = useState<string | null>(null);
+  const close = () => {
+    if (!keepValues) form.reset();
+    setAlert(null);
+    onClose?.();
+  };
+  const submit = form.handleSubmit(async (values) => {
+    setAlert(null);
+    try {
+      await save(values, close);
+    } catch (error) {
+      setAlert(applyServerErrors(error, form.setError, fields));
+    }
+  });
+  return { alert, setAlert, submit, close };
 }

@@ -7,8 +7,8 @@ import { OfflineBar } from '@/components/offline/offline-bar';
 import { Select } from '@/components/ui/select';
 import { paths } from '@/config/paths';
 import { activeMembership, useAppInfo, useSetActiveWinery } from '@/lib/session';
-import { cn } from '@/utils/cn';
 import { BrandMark } from './brand-mark';
+import { NavList } from './nav-list';
 import { PhoneNav } from './phone-nav';
 import { SignOutButton } from './sign-out-button';
 
@@ -78,24 +78,13 @@ export function AppShell({ me, children, headerExtra }: { me: MeDto; children: R
           </div>
         </div>
         <nav ref={navRef} aria-label="Sections" className="mx-auto max-w-6xl overflow-x-auto px-2">
-          <ul className="flex gap-1">
-            {items.map((item) => (
-              <li key={item.to}>
-                <NavLink
-                  to={item.to}
-                  className={({ isActive }) =>
-                    cn(
-                      'flex min-h-11 items-center gap-2 border-b-2 px-3 text-sm font-semibold whitespace-nowrap',
-                      isActive ? 'border-primary-600 text-primary-800' : 'border-transparent text-ink-600 hover:text-ink-900',
-                    )
-                  }
-                >
-                  {item.icon}
-                  {item.label}
-                </NavLink>
-              </li>
-            ))}
-          </ul>
+          <NavList
+            items={items}
+            className="flex gap-1"
+            link="flex min-h-11 items-center gap-2 border-b-2 px-3 text-sm font-semibold whitespace-nowrap"
+            active="border-primary-600 text-primary-800"
+            idle="border-transparent text-ink-600 hover:text-ink-900"
+          />
         </nav>
       </header>
       <OfflineBar />

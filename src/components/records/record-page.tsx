@@ -6,11 +6,12 @@ import { Link } from 'react-router-dom';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ErrorState } from '@/components/ui/states';
 import { ApiError, errorMessage } from '@/lib/api-client';
+import { cn } from '@/utils/cn';
 
-/** "← Cellar": back to the list the record belongs to. */
-export function BackLink({ to, children }: { to: string; children: ReactNode }) {
+/** "← Cellar": back to the list the record belongs to (or the page this one came from). `className`: its height and extras. */
+export function BackLink({ to, children, className = 'min-h-9 underline-offset-2' }: { to: string; children: ReactNode; className?: string }) {
   return (
-    <Link to={to} className="inline-flex min-h-9 items-center gap-1 text-primary-700 underline-offset-2 hover:underline">
+    <Link to={to} className={cn('inline-flex items-center gap-1 text-primary-700 hover:underline', className)}>
       <ArrowLeft aria-hidden="true" className="size-4" />
       {children}
     </Link>

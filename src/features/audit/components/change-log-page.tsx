@@ -12,10 +12,12 @@ import { PageHeader } from '@/components/ui/page-header';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { useAuditEvents } from '../api/get-audit-events';
 import { useAuditPeople } from '../api/get-audit-people';
 import { auditCsvUrl, type AuditFilters } from '../api/keys';
 import { EventChanges } from './event-changes';
+import { EventEntry } from './event-entry';
 import { formatDateTimeSeconds } from '@/lib/dates';
 
 export const CHANGE_LOG_PAGE_SIZE = 25;
@@ -186,19 +188,7 @@ function ChangeLogPhoneList({ events }: { events: AuditEventDto[] }) {
   return (
     <ol className="flex flex-col divide-y divide-ink-100 rounded border border-ink-200 bg-white sm:hidden" aria-label="Change log">
       {events.map((e) => (
-        <li key={e.id} className="flex flex-col gap-1 px-3 py-2.5">
-          <p className="text-sm text-ink-600">
-            <time dateTime={e.at} className="num">
-              {when(e.at)}
-            </time>{' '}
-            · {e.userName || '—'}
-          </p>
-          <p className="[overflow-wrap:anywhere]">
-            <span className="font-semibold text-ink-900">{auditActionLabels[e.action] ?? e.action}</span> {auditKindLabels[e.recordKind]?.toLowerCase()}{' '}
-            <span className="text-ink-800">{e.recordLabel}</span>
-          </p>
-          <EventChanges event={e} max={4} />
-        </li>
+        <EventEntry key={e.id} event={e} at={when(e.at)} showRecord max={4} className="flex flex-col gap-1 px-3 py-2.5" />
       ))}
     </ol>
   );
@@ -206,18 +196,11 @@ function ChangeLogPhoneList({ events }: { events: AuditEventDto[] }) {
 
 function PhonePager({ page, total, onPageChange }: { page: number; total: number; onPageChange: (page: number) => void }) {
   const pages = Math.max(1, Math.ceil(total / CHANGE_LOG_PAGE_SIZE));
-  if (pages <= 1) return null;
   return (
-    <nav aria-label="Pages" className="flex items-center justify-between gap-2 sm:hidden">
-      <Button variant="secondary" size="md" disabled={page <= 1} onClick={() => onPageChange(page - 1)}>
-        Newer
-      </Button>
+    <Pager label="Pages" className="sm:hidden" page={page} pages={pages} onPageChange={onPageChange} previous="Newer" next="Older">
       <span className="text-sm text-ink-700">
         Page {page} of {pages}
       </span>
-      <Button variant="secondary" size="md" disabled={page >= pages} onClick={() => onPageChange(page + 1)}>
-        Older
-      </Button>
-    </nav>
+    </Pager>
   );
 }

@@ -1,13 +1,13 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
-import { auditActionLabels, auditKindLabels, type AuditKind } from '@shared/schemas/audit';
-import { Button } from '@/components/ui/button';
+import type { AuditKind } from '@shared/schemas/audit';
+import { Pager } from '@/components/ui/pager';
 import { Card } from '@/components/ui/card';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { paths } from '@/config/paths';
 import { useCan } from '@/lib/session';
 import { useAuditEvents } from '../api/get-audit-events';
-import { EventChanges } from './event-changes';
+import { EventEntry } from './event-entry';
 import { formatDateTime } from '@/lib/dates';
 
 const HISTORY_PAGE_SIZE = 8;
@@ -43,39 +43,14 @@ export function HistoryPanel({ kind, recordId }: { kind: AuditKind; recordId: st
         <>
           <ol className="flex flex-col divide-y divide-ink-100" aria-label="Changes to this record">
             {events.data.items.map((e) => (
-              <li key={e.id} className="flex flex-col gap-1 py-2">
-                <p className="text-sm text-ink-600">
-                  <time dateTime={e.at} className="num">
-                    {formatDateTime(e.at)}
-                  </time>{' '}
-                  · {e.userName || '—'}
-                </p>
-                <p className="[overflow-wrap:anywhere]">
-                  <span className="font-semibold text-ink-900">{auditActionLabels[e.action] ?? e.action}</span>
-                  {e.recordKind !== kind ? (
-                    <>
-                      {' '}
-                      {auditKindLabels[e.recordKind]?.toLowerCase()} <span className="text-ink-800">{e.recordLabel}</span>
-                    </>
-                  ) : null}
-                </p>
-                <EventChanges event={e} max={5} />
-              </li>
+              <EventEntry key={e.id} event={e} at={formatDateTime(e.at)} showRecord={e.recordKind !== kind} max={5} className="flex flex-col gap-1 py-2" />
             ))}
           </ol>
-          {pages > 1 ? (
-            <nav aria-label="History pages" className="mt-2 flex items-center justify-between gap-2">
-              <Button variant="secondary" size="sm" disabled={page <= 1} onClick={() => setPage(page - 1)}>
-                Newer
-              </Button>
-              <span className="text-sm text-ink-700">
-                {page} of {pages}
-              </span>
-              <Button variant="secondary" size="sm" disabled={page >= pages} onClick={() => setPage(page + 1)}>
-                Older
-              </Button>
-            </nav>
-          ) : null}
+          <Pager label="History pages" className="mt-2" size="sm" page={page} pages={pages} onPageChange={setPage} previous="Newer" next="Older">
+            <span className="text-sm text-ink-700">
+              {page} of {pages}
+            </span>
+          </Pager>
         </>
       )}
     </Card>

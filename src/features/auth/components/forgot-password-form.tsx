@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { MailCheck } from 'lucide-react';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
@@ -8,46 +7,41 @@ import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
-import { useAppInfo } from '@/lib/session';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useRequestPasswordReset } from '../api/request-password-reset';
 import { FormAlert } from './form-alert';
+import { MailSent } from './mail-sent';
 
 export function ForgotPasswordForm() {
   const request = useRequestPasswordReset();
-  const appInfo = useAppInfo();
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(passwordResetRequestInputSchema), defaultValues: { email: '' } });
 
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: ['email'],
+    save: async (values) => {
       await request.mutateAsync(values);
       setSentTo(values.email);
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['email']));
-    }
+    },
   });
 
   if (sentTo) {
     return (
-      <div className="flex flex-col gap-3 text-sm text-ink-700" role="status">
-        <p className="flex items-start gap-2 text-base text-ink-900">
-          <MailCheck aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-primary-600" />
-          <span>If an account exists for {sentTo}, a reset link is on its way. It works once, for one hour.</span>
-        </p>
-        {appInfo.data?.mailOutbox ? (
-          <p>
+      <MailSent
+        headline={<>If an account exists for {sentTo}, a reset link is on its way. It works once, for one hour.</>}
+        outboxNote={
+          <>
             This is a development server: mail is not sent anywhere, it stays in the mail outbox. Open the outbox
             link printed in the terminal where Porewise was started (<code>npm start</code>), next to the address of
             the app; an owner who is signed in finds it under Mail outbox.
-          </p>
-        ) : null}
-        <Link to={paths.signIn} className="text-primary-700 underline">
-          Back to sign-in
-        </Link>
-      </div>
+          </>
+        }
+        after={
+          <Link to={paths.signIn} className="text-primary-700 underline">
+            Back to sign-in
+          </Link>
+        }
+      />
     );
   }
 

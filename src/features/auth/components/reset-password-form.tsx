@@ -1,12 +1,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { passwordSchema, PASSWORD_MIN } from '@shared/schemas/common';
 import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useConfirmPasswordReset } from '../api/confirm-password-reset';
 import { FormAlert } from './form-alert';
 
@@ -16,18 +15,15 @@ const newPasswordFormSchema = z
 
 export function ResetPasswordForm({ token, onDone }: { token: string; onDone: () => void }) {
   const confirm = useConfirmPasswordReset();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(newPasswordFormSchema), defaultValues: { password: '', repeat: '' } });
   const { errors } = form.formState;
 
-  const submit = form.handleSubmit(async ({ password }) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: ['password'],
+    save: async ({ password }) => {
       await confirm.mutateAsync({ token, password });
       onDone();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['password']));
-    }
+    },
   });
 
   return (

@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { signInInputSchema } from '@shared/schemas/auth';
@@ -7,24 +6,21 @@ import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useSignIn } from '../api/sign-in';
 import { FormAlert } from './form-alert';
 
 export function SignInForm({ onSignedIn, defaultEmail = '' }: { onSignedIn: () => void; defaultEmail?: string }) {
   const signIn = useSignIn();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(signInInputSchema), defaultValues: { email: defaultEmail, password: '' } });
   const { errors } = form.formState;
 
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: ['email', 'password'],
+    save: async (values) => {
       await signIn.mutateAsync(values);
       onSignedIn();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['email', 'password']));
-    }
+    },
   });
 
   return (

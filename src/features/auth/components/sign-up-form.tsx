@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { MailCheck } from 'lucide-react';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { PASSWORD_MIN } from '@shared/schemas/common';
@@ -7,49 +6,42 @@ import { signUpInputSchema } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
-import { applyServerErrors } from '@/lib/form-errors';
-import { useAppInfo } from '@/lib/session';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useSignUp } from '../api/sign-up';
 import { FormAlert } from './form-alert';
+import { MailSent } from './mail-sent';
 
 const fields = ['name', 'email', 'password', 'wineryName'] as const;
 
 export function SignUpForm() {
   const signUp = useSignUp();
-  const appInfo = useAppInfo();
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(signUpInputSchema),
     defaultValues: { name: '', email: '', password: '', wineryName: '' },
   });
   const { errors } = form.formState;
 
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields,
+    save: async (values) => {
       await signUp.mutateAsync(values);
       setSentTo(values.email);
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+    },
   });
 
   if (sentTo) {
     return (
-      <div className="flex flex-col gap-3 text-sm text-ink-700" role="status">
-        <p className="flex items-start gap-2 text-base text-ink-900">
-          <MailCheck aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-primary-600" />
-          <span>Check your mail: we sent a link to {sentTo}. Open it within 24 hours to finish creating your account.</span>
-        </p>
-        <p>If this address already has an account, the mail says so instead; sign in or reset your password from there.</p>
-        {appInfo.data?.mailOutbox ? (
-          <p>
+      <MailSent
+        headline={<>Check your mail: we sent a link to {sentTo}. Open it within 24 hours to finish creating your account.</>}
+        note={<p>If this address already has an account, the mail says so instead; sign in or reset your password from there.</p>}
+        outboxNote={
+          <>
             This is a development server: mail is not sent anywhere, it stays in the mail outbox. Open the outbox link printed
             in the terminal where Porewise was started (<code>npm start</code>), next to the address of the app.
-          </p>
-        ) : null}
-      </div>
+          </>
+        }
+      />
     );
   }
 

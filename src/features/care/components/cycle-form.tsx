@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { careTemperatureHint } from '@shared/engine';
@@ -11,15 +11,13 @@ import { Input, NumberInput } from '@/components/ui/input';
 import { Quantity } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { KeptOnDevice } from '@/lib/offline/kept';
-import { applyServerErrors } from '@/lib/form-errors';
 import { getDecimalMark } from '@/lib/number-input';
 import { useUnits } from '@/lib/units';
 import { useLogCycle } from '../api/log-cycle';
 import { ChemicalCaution, HeatCaution } from './care-cautions';
 import { recoveryPreview } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
-import { SaveOutcome } from './save-outcome';
+import { SaveOutcome, useCareSubmit } from './save-outcome';
 
 const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'waterFlowBeforeLh', 'waterFlowAfterLh', 'waterTempC', 'flowDpBar', 'flowBasis', 'aboveRatingConfirmed', 'at'] as const;
 
@@ -27,8 +25,6 @@ const fields = ['kind', 'tempC', 'durationMin', 'agent', 'concentrationPct', 'wa
 export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: CycleResultDto) => void }) {
   const units = useUnits();
   const log = useLogCycle();
-  const [alert, setAlert] = useState<string | null>(null);
-  const [kept, setKept] = useState<string | null>(null);
 
   const schema = useMemo(
     () =>
@@ -104,22 +100,12 @@ export function CycleForm({ target, onSaved }: { target: CareTargetDto; onSaved:
   const cycleTempTyped = finite(parseTyped(cycleTemp));
   const aboveRating = cycleTempTyped !== undefined && units.fromInput('temperature', cycleTempTyped) > target.maxTempC;
 
-  const submit = form.handleSubmit(async (input) => {
-    setAlert(null);
-    setKept(null);
-    try {
-      const result = await log.mutateAsync({ cartridgeId: target.id, input, serial: target.serial });
-      form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', aboveRatingConfirmed: false, at: localDateTime(new Date()) });
-      onSaved(result);
-    } catch (error) {
-      if (error instanceof KeptOnDevice) {
-        // Kept in the outbox: clear the form so the same entry is not made twice.
-        form.reset({ ...form.getValues(), tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', at: localDateTime(new Date()) });
-        setKept(error.message);
-        return;
-      }
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+  const { alert, kept, submit } = useCareSubmit(form, {
+    fields,
+    save: (input) => log.mutateAsync({ cartridgeId: target.id, input, serial: target.serial }),
+    // Once stored the rating's confirmation is asked again; kept on the device, it stays.
+    cleared: (stored) => ({ tempC: '', durationMin: '', waterFlowBeforeLh: '', waterFlowAfterLh: '', ...(stored ? { aboveRatingConfirmed: false } : {}), at: localDateTime(new Date()) }),
+    onSaved,
   });
 
   return (

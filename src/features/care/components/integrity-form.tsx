@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { INTEGRITY_TESTS, integrityTestLabels, recordIntegrityInputSchema, WETTING_FLUIDS, wettingFluidLabels, type IntegrityTestKind, type WettingFluid } from '@shared/schemas/care';
@@ -9,14 +9,12 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { KeptOnDevice } from '@/lib/offline/kept';
-import { applyServerErrors } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useRecordIntegrityTest } from '../api/record-integrity-test';
 import { PressureCaution } from './care-cautions';
 import { integrityPreview, testedEquivalents } from './care-preview';
 import { decimalText, finite, isoOrNow, localDateTime, parseTyped, requestSchema, toMetricOrKeep } from './form-values';
-import { SaveOutcome } from './save-outcome';
+import { SaveOutcome, useCareSubmit } from './save-outcome';
 
 const fields = ['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMin', 'tempC', 'wettingFluid', 'ethanolPctVol', 'notes', 'at'] as const;
 
@@ -24,8 +22,6 @@ const fields = ['test', 'bubblePointBar', 'diffusionMlMin', 'decayMbar', 'testMi
 export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSaved: (r: IntegrityResultDto) => void }) {
   const units = useUnits();
   const record = useRecordIntegrityTest();
-  const [alert, setAlert] = useState<string | null>(null);
-  const [kept, setKept] = useState<string | null>(null);
   // Pressure decay is typed in mbar (metric) or psi (US customary).
   const decayUnit = units.system === 'us' ? units.symbol('dp') : 'mbar';
   const decayToMbar = (v: number | null) => (v === null || !Number.isFinite(v) || units.system !== 'us' ? v : units.fromInput('dp', v) * 1000);
@@ -89,22 +85,11 @@ export function IntegrityForm({ target, onSaved }: { target: CareTargetDto; onSa
     units.system,
   );
 
-  const submit = form.handleSubmit(async (input) => {
-    setAlert(null);
-    setKept(null);
-    try {
-      const result = await record.mutateAsync({ cartridgeId: target.id, input, serial: target.serial });
-      form.reset({ ...form.getValues(), bubblePointBar: '', diffusionMlMin: '', decayMbar: '', notes: '', at: localDateTime(new Date()) });
-      onSaved(result);
-    } catch (error) {
-      if (error instanceof KeptOnDevice) {
-        // Kept in the outbox: clear the form so the same entry is not made twice.
-        form.reset({ ...form.getValues(), bubblePointBar: '', diffusionMlMin: '', decayMbar: '', notes: '', at: localDateTime(new Date()) });
-        setKept(error.message);
-        return;
-      }
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+  const { alert, kept, submit } = useCareSubmit(form, {
+    fields,
+    save: (input) => record.mutateAsync({ cartridgeId: target.id, input, serial: target.serial }),
+    cleared: () => ({ bubblePointBar: '', diffusionMlMin: '', decayMbar: '', notes: '', at: localDateTime(new Date()) }),
+    onSaved,
   });
 
   const limitHint =

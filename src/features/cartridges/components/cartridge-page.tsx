@@ -1,11 +1,11 @@
-import { Archive, ArrowLeft, LogIn, LogOut, Pencil } from 'lucide-react';
+import { Archive, LogIn, LogOut, Pencil } from 'lucide-react';
 import { useState, type ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import type { CartridgeDetailDto } from '@shared/types/cartridges';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
-import { Dialog } from '@/components/ui/dialog';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { Quantity } from '@/components/ui/quantity';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
@@ -94,9 +94,9 @@ export function CartridgePage({ id }: { id: string }) {
     <div className="flex flex-col gap-6">
       <PageHeader
         context={
-          <Link to={paths.cartridges} className="inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Cartridges
-          </Link>
+          <BackLink to={paths.cartridges} className="min-h-11">
+            Cartridges
+          </BackLink>
         }
         title={c.serial}
         description={`${c.lengthIn}-inch ${c.typeName}${c.batch ? `, batch ${c.batch}` : ''}`}
@@ -133,40 +133,31 @@ export function CartridgePage({ id }: { id: string }) {
       <InstallDialog cartridge={c} open={dialog === 'install'} onClose={() => setDialog(null)} />
       <RetireDialog cartridge={c} open={dialog === 'retire'} onClose={() => setDialog(null)} />
       <EditDetailsDialog cartridge={c} open={dialog === 'details'} onClose={() => setDialog(null)} />
-      <Dialog
+      <ConfirmDialog
         open={dialog === 'remove'}
         onClose={() => setDialog(null)}
         title={`Remove ${c.serial}?`}
         description={c.housingName ? `From ${c.housingName}, round ${c.position}, back into stock.` : 'Back into stock.'}
-        size="sm"
-        footer={
-          <>
-            <Button variant="secondary" size="lg" onClick={() => setDialog(null)}>
-              Cancel
-            </Button>
-            <Button
-              size="lg"
-              loading={remove.isPending}
-              onClick={() =>
-                remove.mutate(c.id, {
-                  onSuccess: () => {
-                    toast.success('Removed', `${c.serial} is back in stock.`);
-                    setDialog(null);
-                  },
-                  onError: (e) => {
-                    toast.error('Not removed', errorMessage(e));
-                    setDialog(null);
-                  },
-                })
-              }
-            >
-              Remove to stock
-            </Button>
-          </>
+        cancelLabel="Cancel"
+        confirmLabel="Remove to stock"
+        variant="primary"
+        buttonSize="lg"
+        pending={remove.isPending}
+        onConfirm={() =>
+          remove.mutate(c.id, {
+            onSuccess: () => {
+              toast.success('Removed', `${c.serial} is back in stock.`);
+              setDialog(null);
+            },
+            onError: (e) => {
+              toast.error('Not removed', errorMessage(e));
+              setDialog(null);
+            },
+          })
         }
       >
         {c.housingName ? <HousingCaution /> : null}
-      </Dialog>
+      </ConfirmDialog>
     </div>
   );
 }

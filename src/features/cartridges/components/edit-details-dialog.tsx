@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { updateCartridgeInputSchema } from '@shared/schemas/cartridges';
 import type { CartridgeDto } from '@shared/types/cartridges';
@@ -9,31 +8,27 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUpdateCartridge } from '../api/update-cartridge';
 
 /** Corrects what the delivery note said: batch, received date, notes. Serial, type and length stay. */
 export function EditDetailsDialog({ cartridge, open, onClose }: { cartridge: CartridgeDto; open: boolean; onClose: () => void }) {
   const update = useUpdateCartridge();
   const toast = useToast();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(updateCartridgeInputSchema),
     values: { batch: cartridge.batch, receivedAt: cartridge.receivedAt ?? '', notes: cartridge.notes ?? '' },
   });
   const { errors } = form.formState;
-  const close = () => {
-    setAlert(null);
-    onClose();
-  };
-  const submit = form.handleSubmit(async (values) => {
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields: ['batch', 'receivedAt', 'notes'],
+    onClose,
+    keepValues: true,
+    save: async (values, close) => {
       await update.mutateAsync({ id: cartridge.id, ...values });
       toast.success('Details saved', cartridge.serial);
       close();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['batch', 'receivedAt', 'notes']));
-    }
+    },
   });
   return (
     <Dialog

@@ -1,7 +1,7 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { ArrowLeft, FileSpreadsheet, Upload } from 'lucide-react';
+import { FileSpreadsheet, Upload } from 'lucide-react';
 import { useMemo, useRef, useState } from 'react';
-import { Link, useNavigate } from 'react-router-dom';
+import { useNavigate } from 'react-router-dom';
 import { IMPORT_COLUMNS, IMPORT_MAX_BYTES, IMPORT_MAX_ROWS } from '@shared/schemas/cartridges';
 import type { ImportPreviewDto, ImportPreviewRowDto } from '@shared/types/cartridges';
 import { Button } from '@/components/ui/button';
@@ -10,6 +10,7 @@ import { DataTable } from '@/components/ui/data-table';
 import { FormField } from '@/components/ui/form-field';
 import { Textarea } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { formatNumber, Quantity } from '@/components/ui/quantity';
 import { ErrorState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -125,9 +126,9 @@ export function ImportPage() {
     <div className="flex flex-col gap-6">
       <PageHeader
         context={
-          <Link to={paths.cartridges} className="inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Cartridges
-          </Link>
+          <BackLink to={paths.cartridges} className="min-h-11">
+            Cartridges
+          </BackLink>
         }
         title="Import delivery"
         description={`Register a whole delivery from its CSV list. Every row is checked first; nothing is saved until all rows are right. Up to ${formatNumber(IMPORT_MAX_ROWS)} rows, ${IMPORT_MAX_BYTES / 1024 / 1024} MB.`}

@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { CARTRIDGE_LENGTHS_IN, createCartridgeInputSchema } from '@shared/schemas/cartridges';
@@ -11,7 +10,7 @@ import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useRegisterCartridge } from '../api/register-cartridge';
 import { toDayInput } from '@/lib/dates';
 
@@ -22,29 +21,21 @@ export function RegisterCartridgeDialog({ open, onClose, types }: { open: boolea
   const register = useRegisterCartridge();
   const toast = useToast();
   const navigate = useNavigate();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(createCartridgeInputSchema),
     defaultValues: { serial: '', batch: '', typeId: '', lengthIn: 30, receivedAt: toDayInput(), notes: '' },
   });
   const { errors } = form.formState;
 
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields: FIELDS,
+    onClose,
+    save: async (values, close) => {
       const c = await register.mutateAsync(values);
       toast.success('Cartridge registered', `${c.serial} is in stock.`);
       close();
       navigate(paths.cartridge(c.id));
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, FIELDS));
-    }
+    },
   });
 
   return (

@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { retireCartridgeInputSchema } from '@shared/schemas/cartridges';
 import type { CartridgeDto } from '@shared/types/cartridges';
@@ -9,28 +8,22 @@ import { FormField } from '@/components/ui/form-field';
 import { Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useRetireCartridge } from '../api/retire-cartridge';
 import { HousingCaution } from './housing-caution';
 
 export function RetireDialog({ cartridge, open, onClose }: { cartridge: CartridgeDto; open: boolean; onClose: () => void }) {
   const retire = useRetireCartridge();
   const toast = useToast();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(retireCartridgeInputSchema), defaultValues: { reason: '' } });
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-  const submit = form.handleSubmit(async (values) => {
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields: ['reason'],
+    onClose,
+    save: async (values, close) => {
       await retire.mutateAsync({ id: cartridge.id, ...values });
       toast.success('Retired', `${cartridge.serial} is out of service for good.`);
       close();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['reason']));
-    }
+    },
   });
   return (
     <Dialog

@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { cloggingIndex, cloggingIndexVerdict, defaultReadinessThresholds, type ReadinessThresholds } from '@shared/engine';
@@ -12,7 +12,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Quantity } from '@/components/ui/quantity';
 import { useToast } from '@/components/ui/toast';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateLabResult } from '../api/create-lab-result';
 import { useUpdateLabResult } from '../api/update-lab-result';
@@ -67,7 +67,6 @@ export function LabResultFormDialog({
   const create = useCreateLabResult();
   const update = useUpdateLabResult();
   const toast = useToast();
-  const [alert, setAlert] = useState<string | null>(null);
 
   const schema = useMemo(
     () =>
@@ -118,22 +117,15 @@ export function LabResultFormDialog({
   const { errors } = form.formState;
   const [t200, t400] = form.watch(['t200s', 't400s']);
 
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-
-  const submit = form.handleSubmit(async (input) => {
-    setAlert(null);
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields,
+    onClose,
+    save: async (input, close) => {
       const saved = result ? await update.mutateAsync({ lotId, id: result.id, input }) : await create.mutateAsync({ lotId, input });
       const disc = saved.disc && !saved.disc.computable ? ` Vmax not computable: ${saved.disc.reason}` : '';
       toast.success(result ? 'Lab result saved' : 'Lab result added', `Sampled ${formatDateTime(saved.sampledAt)}.${disc}`);
       close();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+    },
   });
 
   const pointError = (i: number, key: 'timeS' | 'volumeMl') => errors.discPoints?.[i]?.[key]?.message;

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { z } from 'zod';
@@ -13,7 +13,7 @@ import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateLot } from '../api/create-lot';
 import { useTanks } from '../api/get-tanks';
@@ -30,7 +30,6 @@ export function LotFormDialog({ open, onClose, lot }: { open: boolean; onClose: 
   const update = useUpdateLot();
   const toast = useToast();
   const navigate = useNavigate();
-  const [alert, setAlert] = useState<string | null>(null);
 
   const schema = useMemo(
     () =>
@@ -74,15 +73,10 @@ export function LotFormDialog({ open, onClose, lot }: { open: boolean; onClose: 
   });
   const { errors } = form.formState;
 
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-
-  const submit = form.handleSubmit(async (input) => {
-    setAlert(null);
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields,
+    onClose,
+    save: async (input, close) => {
       if (lot) {
         // A figure shown in the person's units and not touched keeps its stored value exactly
         // (a US-units round trip must never rewrite 3800 L as 3800.17 L).
@@ -97,9 +91,7 @@ export function LotFormDialog({ open, onClose, lot }: { open: boolean; onClose: 
         close();
         navigate(paths.lot(created.id));
       }
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+    },
   });
 
   const tankOptions = (tanks.data?.items ?? []).map((t) => ({ value: t.id, label: t.name }));

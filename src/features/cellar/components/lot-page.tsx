@@ -8,6 +8,7 @@ import { BackLink, RecordLoadFailed } from '@/components/records/record-page';
 import { ArchiveOffer, ArchiveToggleButton, isInRecord } from '@/components/records/archive-offer';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
@@ -216,35 +217,24 @@ export function LotPage({ lotId }: { lotId: string }) {
           </>
         }
       />
-      <Dialog
+      <ConfirmDialog
         open={deletingResult !== null}
         onClose={() => setDeletingResult(null)}
-        size="sm"
         title="Delete this lab result?"
         description={deletingResult ? `Sampled ${formatDateTime(deletingResult.sampledAt)}. The readiness is judged again on the latest remaining result.` : undefined}
-        footer={
-          <>
-            <Button variant="secondary" onClick={() => setDeletingResult(null)}>
-              Keep
-            </Button>
-            <Button
-              variant="danger"
-              loading={deleteResult.isPending}
-              onClick={() =>
-                deletingResult &&
-                deleteResult.mutate(
-                  { lotId: l.id, id: deletingResult.id },
-                  {
-                    onSuccess: () => toast.success('Lab result deleted'),
-                    onError: (error) => toast.error('Not deleted', errorMessage(error)),
-                    onSettled: () => setDeletingResult(null),
-                  },
-                )
-              }
-            >
-              Delete lab result
-            </Button>
-          </>
+        cancelLabel="Keep"
+        confirmLabel="Delete lab result"
+        pending={deleteResult.isPending}
+        onConfirm={() =>
+          deletingResult &&
+          deleteResult.mutate(
+            { lotId: l.id, id: deletingResult.id },
+            {
+              onSuccess: () => toast.success('Lab result deleted'),
+              onError: (error) => toast.error('Not deleted', errorMessage(error)),
+              onSettled: () => setDeletingResult(null),
+            },
+          )
         }
       />
     </div>

@@ -2,7 +2,7 @@ import { ChevronLeft, ChevronRight } from 'lucide-react';
 import { Link } from 'react-router-dom';
 import { wineStyleLabels } from '@shared/schemas/cellar';
 import type { LotListItemDto } from '@shared/types/cellar';
-import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
 import { ReadinessBadge } from '@/components/status/readiness-badge';
@@ -61,19 +61,21 @@ export function LotsPhoneList({
           </li>
         ))}
       </ul>
-      {pages > 1 ? (
-        <nav aria-label="Pages of lots" className="flex items-center justify-between gap-2">
-          <Button variant="secondary" className="min-h-11 min-w-11 px-2" aria-label="Previous page" disabled={page <= 1} onClick={() => onPageChange(page - 1)}>
-            <ChevronLeft aria-hidden="true" />
-          </Button>
-          <span className="num text-sm text-ink-700">
-            Page {page} of {pages}
-          </span>
-          <Button variant="secondary" className="min-h-11 min-w-11 px-2" aria-label="Next page" disabled={page >= pages} onClick={() => onPageChange(page + 1)}>
-            <ChevronRight aria-hidden="true" />
-          </Button>
-        </nav>
-      ) : null}
+      <Pager
+        label="Pages of lots"
+        page={page}
+        pages={pages}
+        onPageChange={onPageChange}
+        previous={<ChevronLeft aria-hidden="true" />}
+        previousLabel="Previous page"
+        next={<ChevronRight aria-hidden="true" />}
+        nextLabel="Next page"
+        buttonClassName="min-h-11 min-w-11 px-2"
+      >
+        <span className="num text-sm text-ink-700">
+          Page {page} of {pages}
+        </span>
+      </Pager>
     </div>
   );
 }

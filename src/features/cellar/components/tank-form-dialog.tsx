@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { tankInputSchema } from '@shared/schemas/cellar';
@@ -10,7 +10,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateTank } from '../api/create-tank';
 import { useUpdateTank } from '../api/update-tank';
@@ -24,7 +24,6 @@ export function TankFormDialog({ open, onClose, tank }: { open: boolean; onClose
   const create = useCreateTank();
   const update = useUpdateTank();
   const toast = useToast();
-  const [alert, setAlert] = useState<string | null>(null);
   const schema = useMemo(
     () =>
       z
@@ -40,23 +39,16 @@ export function TankFormDialog({ open, onClose, tank }: { open: boolean; onClose
   });
   const { errors } = form.formState;
 
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-
-  const submit = form.handleSubmit(async (input) => {
-    setAlert(null);
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields,
+    onClose,
+    save: async (input, close) => {
       // An untouched capacity keeps its stored value exactly (no unit round trip).
       if (tank) await update.mutateAsync({ id: tank.id, input: form.formState.dirtyFields.capacityL ? input : { ...input, capacityL: tank.capacityL } });
       else await create.mutateAsync(input);
       toast.success(tank ? 'Tank saved' : 'Tank added', input.name);
       close();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fields));
-    }
+    },
   });
 
   return (

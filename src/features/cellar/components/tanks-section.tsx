@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { GasCaution } from '@/components/ui/caution';
 import { DataTable } from '@/components/ui/data-table';
-import { Dialog } from '@/components/ui/dialog';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
@@ -114,32 +114,21 @@ export function TanksSection({ onAddTank }: { onAddTank: () => void }) {
         <GasCaution title="Tank work: CO₂ and nitrogen – no air to breathe" />
       </div>
       <TankFormDialog open={editing !== null} tank={editing} onClose={() => setEditing(null)} />
-      <Dialog
+      <ConfirmDialog
         open={deleting !== null}
         onClose={() => setDeleting(null)}
-        size="sm"
         title={`Delete ${deleting?.name ?? ''}?`}
         description="The tank is removed from the cellar. Lots that were in it keep their records."
-        footer={
-          <>
-            <Button variant="secondary" onClick={() => setDeleting(null)}>
-              Keep
-            </Button>
-            <Button
-              variant="danger"
-              loading={remove.isPending}
-              onClick={() =>
-                deleting &&
-                remove.mutate(deleting.id, {
-                  onSuccess: () => toast.success('Tank deleted', deleting.name),
-                  onError: (error) => toast.error('Not deleted', errorMessage(error)),
-                  onSettled: () => setDeleting(null),
-                })
-              }
-            >
-              Delete tank
-            </Button>
-          </>
+        cancelLabel="Keep"
+        confirmLabel="Delete tank"
+        pending={remove.isPending}
+        onConfirm={() =>
+          deleting &&
+          remove.mutate(deleting.id, {
+            onSuccess: () => toast.success('Tank deleted', deleting.name),
+            onError: (error) => toast.error('Not deleted', errorMessage(error)),
+            onSettled: () => setDeleting(null),
+          })
         }
       />
     </Card>

@@ -1,4 +1,4 @@
-import { useMemo, useState, type ReactNode } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { cartridgeTypeFigures } from '@shared/adapters/equipment';
 import {
@@ -18,7 +18,7 @@ import { Select } from '@/components/ui/select';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateCartridgeType } from '../api/create-cartridge-type';
 import { useUpdateCartridgeType } from '../api/update-cartridge-type';
@@ -103,7 +103,6 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
   const toast = useToast();
   const create = useCreateCartridgeType();
   const update = useUpdateCartridgeType();
-  const [alert, setAlert] = useState<string | null>(null);
   const { fromInput, toInput, symbol } = units;
   // The nominal capacity as first shown; left as shown, its stored value is sent back exactly
   // (no rounding back from gal/ft²).
@@ -178,16 +177,14 @@ function CartridgeTypeFormBody({ type, onClose }: { type: CartridgeTypeDto | nul
     diffusionMaxMlMinPer10in: live.diffusionMaxMlMinPer10in,
   });
 
-  const submit = form.handleSubmit(async (body) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: fieldNames,
+    save: async (body) => {
       if (type) await update.mutateAsync({ id: type.id, changes: body });
       else await create.mutateAsync(body);
       toast.success(type ? 'Cartridge type saved' : 'Cartridge type added', body.name);
       onClose();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fieldNames));
-    }
+    },
   });
 
   const field = (name: (typeof fieldNames)[number], label: string, unit: string, opts: { hint?: string; required?: boolean } = {}) => (

@@ -1,39 +1,32 @@
 import type { ColumnDef } from '@tanstack/react-table';
-import { Filter, Pencil, Plus, Trash2 } from 'lucide-react';
+import { Filter, Pencil, Trash2 } from 'lucide-react';
 import { useMemo, useState } from 'react';
 import type { CartridgeKind, CartridgeTypeSortKey } from '@shared/schemas/equipment';
 import type { CartridgeTypeDto } from '@shared/types/equipment';
 import { Button } from '@/components/ui/button';
-import { DataTable } from '@/components/ui/data-table';
-import { EmptyState } from '@/components/ui/empty-state';
 import { Quantity } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
-import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { ShowArchivedToggle } from '@/components/records/archive-offer';
-import { errorMessage } from '@/lib/api-client';
-import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
 import { useDeleteCartridgeType } from '../api/delete-cartridge-type';
 import { useCartridgeTypes } from '../api/get-cartridge-types';
 import { CartridgeTypeDetailsDialog } from './cartridge-type-details-dialog';
 import { CartridgeTypeFormDialog } from './cartridge-type-form-dialog';
-import { ConfirmDeleteDialog } from './confirm-delete-dialog';
+import { actionsColumn, CatalogueSection, useCatalogueEditing } from './catalogue-section';
 import { SearchBox, useListState } from './list-toolbar';
 import { Measured } from './measured';
 
 
 export function CartridgeTypesSection() {
-  const mayEdit = useCan('equipment:edit');
-  const mayDelete = useCan('records:delete');
   const units = useUnits();
   const list = useListState<CartridgeTypeSortKey>('name');
   const [kind, setKind] = useState<CartridgeKind | ''>('');
   const types = useCartridgeTypes({ ...list.params, kind: kind || undefined });
   const remove = useDeleteCartridgeType();
-  const [editing, setEditing] = useState<CartridgeTypeDto | 'new' | null>(null);
+  const editing = useCatalogueEditing<CartridgeTypeDto>();
+  const { mayEdit, mayDelete, setEditing, setDeleting } = editing;
   const [viewing, setViewing] = useState<string | null>(null);
-  const [deleting, setDeleting] = useState<CartridgeTypeDto | null>(null);
 
   const columns = useMemo<ColumnDef<CartridgeTypeDto>[]>(
     () => [
@@ -102,45 +95,32 @@ export function CartridgeTypesSection() {
         cell: ({ row }) => (row.original.pricePer10in === null ? <span className="text-ink-400">—</span> : <Quantity value={row.original.pricePer10in} unit={row.original.currency} digits={2} />),
       },
       { id: 'cartridgeCount', accessorFn: (r) => r.counts.total, header: 'Cartridges', meta: { numeric: true }, cell: ({ row }) => row.original.counts.total },
-      ...(mayEdit
-        ? [
-            {
-              id: 'actions',
-              enableSorting: false,
-              header: () => <span className="sr-only">Actions</span>,
-              cell: ({ row }: { row: { original: CartridgeTypeDto } }) => (
-                <div className="flex justify-end gap-1">
-                  <Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Edit ${row.original.name}`} title="Edit" onClick={() => setEditing(row.original)}>
-                    <Pencil aria-hidden="true" />
-                  </Button>
-                  {mayDelete ? (
-<Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Delete ${row.original.name}`} title="Delete" onClick={() => setDeleting(row.original)}>
-                    <Trash2 aria-hidden="true" />
-                  </Button>
-) : null}
-                </div>
-              ),
-            } satisfies ColumnDef<CartridgeTypeDto>,
-          ]
-        : []),
+      ...actionsColumn<CartridgeTypeDto>(mayEdit, (t) => (
+        <div className="flex justify-end gap-1">
+          <Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Edit ${t.name}`} title="Edit" onClick={() => setEditing(t)}>
+            <Pencil aria-hidden="true" />
+          </Button>
+          {mayDelete ? (
+            <Button variant="ghost" size="sm" className="min-w-8 px-1.5" aria-label={`Delete ${t.name}`} title="Delete" onClick={() => setDeleting(t)}>
+              <Trash2 aria-hidden="true" />
+            </Button>
+          ) : null}
+        </div>
+      )),
     ],
-    [mayEdit, units, mayDelete],
+    [mayEdit, units, mayDelete, setEditing, setDeleting],
   );
 
-  const addButton = mayEdit ? (
-    <Button icon={<Plus />} onClick={() => setEditing('new')}>
-      Add cartridge type
-    </Button>
-  ) : null;
-  const data = types.data;
-  const firstRun = data && data.total === 0 && !list.params.q && !kind;
-
   return (
-    <div className="flex flex-col gap-3">
-      <div className="flex flex-col gap-2 sm:flex-row sm:items-center sm:justify-between">
+    <CatalogueSection
+      editing={editing}
+      list={list}
+      query={types}
+      filtered={Boolean(kind)}
+      toolbar={
         <div className="flex flex-col gap-2 sm:flex-row">
           <SearchBox id="type-search" label="Search name or media" value={list.text} onChange={list.setText} />
-        <ShowArchivedToggle id="type-search-archived" checked={list.showArchived} onChange={list.setShowArchived} />
+          <ShowArchivedToggle id="type-search-archived" checked={list.showArchived} onChange={list.setShowArchived} />
           <Select
             aria-label="Kind"
             wrapperClassName="sm:w-44"
@@ -156,30 +136,24 @@ export function CartridgeTypesSection() {
             ]}
           />
         </div>
-        {firstRun ? null : addButton}
-      </div>
-      {types.isPending ? (
-        <LoadingState variant="skeleton" />
-      ) : types.isError ? (
-        <ErrorState message={errorMessage(types.error)} onRetry={() => types.refetch()} />
-      ) : firstRun ? (
-        <EmptyState icon={<Filter />} title="No cartridge types yet" action={addButton}>
+      }
+      addLabel="Add cartridge type"
+      emptyIcon={<Filter />}
+      emptyTitle="No cartridge types yet"
+      emptyText={
+        <>
           After the housings, add each cartridge type you buy — prefilters and membranes — with the maker&apos;s area, clean-water flow,
           ΔP limits and rated cycles per 10-inch module. Cartridges and plans are built on this catalogue.
           {mayEdit ? null : ' An owner or cellar master can add them.'}
-        </EmptyState>
-      ) : (
-        <DataTable
-          caption="Cartridge types"
-          columns={columns}
-          data={data!.items}
-          getRowId={(t) => t.id}
-          sorting={list.sorting}
-          onSortingChange={list.onSortingChange}
-          empty="No cartridge type matches."
-          pagination={{ page: list.params.page, pageSize: list.params.pageSize, total: data!.total, onPageChange: list.setPage }}
-        />
-      )}
+        </>
+      }
+      caption="Cartridge types"
+      columns={columns}
+      noMatch="No cartridge type matches."
+      what="cartridge type"
+      archiveKind="cartridge-types"
+      remove={remove}
+    >
       <CartridgeTypeDetailsDialog
         typeId={viewing}
         onClose={() => setViewing(null)}
@@ -188,16 +162,7 @@ export function CartridgeTypesSection() {
           setEditing(t);
         }}
       />
-      <CartridgeTypeFormDialog open={editing !== null} type={editing === 'new' ? null : editing} onClose={() => setEditing(null)} />
-      <ConfirmDeleteDialog
-        open={deleting !== null}
-        name={deleting?.name ?? ''}
-        what="cartridge type"
-        pending={remove.isPending}
-        onClose={() => setDeleting(null)}
-        onConfirm={() => remove.mutateAsync(deleting!.id)}
-        archive={deleting ? { kind: 'cartridge-types', id: deleting.id } : undefined}
-      />
-    </div>
+      <CartridgeTypeFormDialog open={editing.editing !== null} type={editing.editing === 'new' ? null : editing.editing} onClose={() => setEditing(null)} />
+    </CatalogueSection>
   );
 }

@@ -11,7 +11,7 @@ import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCartridgeTypes } from '../api/get-cartridge-types';
 import { useCreateHousing } from '../api/create-housing';
@@ -41,7 +41,6 @@ function HousingFormBody({ housing, onClose }: { housing: HousingDto | null; onC
   const toast = useToast();
   const create = useCreateHousing();
   const update = useUpdateHousing();
-  const [alert, setAlert] = useState<string | null>(null);
   const [areaTypeId, setAreaTypeId] = useState('');
   const types = useCartridgeTypes({ sort: 'name', order: 'asc', page: 1, pageSize: 100 });
 
@@ -80,20 +79,14 @@ function HousingFormBody({ housing, onClose }: { housing: HousingDto | null; onC
   const areaType = types.data?.items.find((t) => t.id === areaTypeId) ?? null;
   const area = equivalents !== null && areaType ? housingAreaM2(equivalents, areaType.areaM2Per10in) : null;
 
-  const submit = form.handleSubmit(async (body) => {
-    setAlert(null);
-    try {
-      if (housing) {
-        await update.mutateAsync({ id: housing.id, changes: body });
-        toast.success('Housing saved', body.name);
-      } else {
-        await create.mutateAsync(body);
-        toast.success('Housing added', body.name);
-      }
+  const { alert, submit } = useFormSubmit(form, {
+    fields: fieldNames,
+    save: async (body) => {
+      if (housing) await update.mutateAsync({ id: housing.id, changes: body });
+      else await create.mutateAsync(body);
+      toast.success(housing ? 'Housing saved' : 'Housing added', body.name);
       onClose();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fieldNames));
-    }
+    },
   });
 
   return (

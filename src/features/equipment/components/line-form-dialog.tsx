@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { lineFigures } from '@shared/adapters/equipment';
 import { createLineInputSchema } from '@shared/schemas/equipment';
@@ -9,7 +8,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, NumberInput, Textarea } from '@/components/ui/input';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useUnits } from '@/lib/units';
 import { useCreateLine } from '../api/create-line';
 import { useUpdateLine } from '../api/update-line';
@@ -32,7 +31,6 @@ function LineFormBody({ line, onClose }: { line: LineDto | null; onClose: () => 
   const toast = useToast();
   const create = useCreateLine();
   const update = useUpdateLine();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm<LineForm, unknown, ReturnType<typeof createLineInputSchema.parse>>({
     resolver,
     defaultValues: { name: line?.name ?? '', bottlesPerHour: inputText(line?.bottlesPerHour), bottleMl: inputText(line?.bottleMl ?? 750), notes: line?.notes ?? '' },
@@ -42,16 +40,14 @@ function LineFormBody({ line, onClose }: { line: LineDto | null; onClose: () => 
   const ml = typedNumber(form.watch('bottleMl'));
   const figures = bph !== undefined && ml !== undefined ? lineFigures({ bottlesPerHour: bph, bottleMl: ml }) : null;
 
-  const submit = form.handleSubmit(async (body) => {
-    setAlert(null);
-    try {
+  const { alert, submit } = useFormSubmit(form, {
+    fields: fieldNames,
+    save: async (body) => {
       if (line) await update.mutateAsync({ id: line.id, changes: body });
       else await create.mutateAsync(body);
       toast.success(line ? 'Bottling line saved' : 'Bottling line added', body.name);
       onClose();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, fieldNames));
-    }
+    },
   });
 
   return (

@@ -1,6 +1,5 @@
-import { ArrowLeft, FileUp, Save, Upload } from 'lucide-react';
+import { FileUp, Save, Upload } from 'lucide-react';
 import { lazy, Suspense, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import {
   LOGGER_FILE_MAX_BYTES,
   LOGGER_MAX_ROWS,
@@ -20,6 +19,7 @@ import { Card } from '@/components/ui/card';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { formatNumber } from '@/components/ui/quantity';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -227,11 +227,12 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
       />
     </FormField>
   );
-  const unitSelect = (key: keyof MappingDraft, label: string, list: readonly string[]) => (
+  const choiceSelect = (key: keyof MappingDraft, label: string, options: { value: string; label: string }[]) => (
     <FormField label={label} htmlFor={`map-${key}`}>
-      <Select id={`map-${key}`} value={String(draft?.[key] ?? '')} onChange={(e) => set(key, e.target.value as never)} options={unitOptions(list)} />
+      <Select id={`map-${key}`} value={String(draft?.[key] ?? '')} onChange={(e) => set(key, e.target.value as never)} options={options} />
     </FormField>
   );
+  const unitSelect = (key: keyof MappingDraft, label: string, list: readonly string[]) => choiceSelect(key, label, unitOptions(list));
 
   const ready = result && result.errorCount === 0 && !result.alreadyImported;
   const stageName = stages.find((s) => s.index === stageIndex)?.name ?? `Stage ${String(stageIndex + 1)}`;
@@ -240,9 +241,9 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
     <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
       <PageHeader
         context={
-          <Link to={backTo} className="inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Back to the run
-          </Link>
+          <BackLink to={backTo} className="min-h-11">
+            Back to the run
+          </BackLink>
         }
         title="Import logger file"
         description={
@@ -309,29 +310,15 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
         <Card title="2. Map the columns" description={`Columns found: ${sample.headers.join(', ') || 'none'}. Choose what each one is and its unit; save it as a profile so the next file from this logger needs no mapping.`}>
           <div className="flex flex-col gap-4">
             <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
-              <FormField label="Columns separated by" htmlFor="map-delimiter">
-                <Select
-                  id="map-delimiter"
-                  value={draft.delimiter}
-                  onChange={(e) => set('delimiter', e.target.value as MappingDraft['delimiter'])}
-                  options={[
-                    { value: ';', label: 'Semicolon ( ; )' },
-                    { value: ',', label: 'Comma ( , )' },
-                    { value: '\t', label: 'Tab' },
-                  ]}
-                />
-              </FormField>
-              <FormField label="Decimal mark" htmlFor="map-decimal">
-                <Select
-                  id="map-decimal"
-                  value={draft.decimal}
-                  onChange={(e) => set('decimal', e.target.value as MappingDraft['decimal'])}
-                  options={[
-                    { value: '.', label: 'Point (1234.5)' },
-                    { value: ',', label: 'Comma (1234,5)' },
-                  ]}
-                />
-              </FormField>
+              {choiceSelect('delimiter', 'Columns separated by', [
+                { value: ';', label: 'Semicolon ( ; )' },
+                { value: ',', label: 'Comma ( , )' },
+                { value: '\t', label: 'Tab' },
+              ])}
+              {choiceSelect('decimal', 'Decimal mark', [
+                { value: '.', label: 'Point (1234.5)' },
+                { value: ',', label: 'Comma (1234,5)' },
+              ])}
               {columnSelect('timeColumn', 'Date and time')}
               <FormField label="Date-time format" htmlFor="map-timeFormat" error={draftErrors.timeFormat}>
                 <Select id="map-timeFormat" value={draft.timeFormat} onChange={(e) => set('timeFormat', e.target.value)} options={formatOptions} />
@@ -376,17 +363,10 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
             </fieldset>
             <fieldset className="flex flex-col gap-4 border-t border-ink-200 pt-4">
               <legend className="text-base font-semibold text-ink-900">Pressures</legend>
-              <FormField label="The logger records" htmlFor="map-pressures">
-                <Select
-                  id="map-pressures"
-                  value={draft.pressures}
-                  onChange={(e) => set('pressures', e.target.value as MappingDraft['pressures'])}
-                  options={[
-                    { value: 'pair', label: 'Upstream and downstream pressure' },
-                    { value: 'dp', label: 'ΔP (differential pressure)' },
-                  ]}
-                />
-              </FormField>
+              {choiceSelect('pressures', 'The logger records', [
+                { value: 'pair', label: 'Upstream and downstream pressure' },
+                { value: 'dp', label: 'ΔP (differential pressure)' },
+              ])}
               <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
                 {draft.pressures === 'pair' ? (
                   <>

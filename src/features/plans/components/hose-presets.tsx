@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useEffect, useId, useState } from 'react';
+import { useEffect, useId } from 'react';
 import { useForm } from 'react-hook-form';
 import { convert } from '@shared/engine';
 import { createHosePresetInputSchema } from '@shared/schemas/hose-presets';
@@ -10,7 +10,7 @@ import { Dialog } from '@/components/ui/dialog';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useCan } from '@/lib/session';
 import type { useUnits } from '@/lib/units';
 import { useCreateHosePreset, useHosePresets } from '../api/hose-presets';
@@ -53,24 +53,21 @@ const nameSchema = createHosePresetInputSchema.pick({ name: true });
 export function SaveHosePresetDialog({ hose, onClose, units: u }: { hose: TrainHoseInput | null; onClose: () => void; units: Units }) {
   const id = useId();
   const create = useCreateHosePreset();
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(nameSchema), defaultValues: { name: '' } });
-  const { register, handleSubmit, reset, setError, formState } = form;
+  const { register, reset, formState } = form;
+  const { alert: formError, setAlert: setFormError, submit: onSubmit } = useFormSubmit(form, {
+    fields: ['name'],
+    save: async ({ name }) => {
+      if (!hose) return;
+      await create.mutateAsync({ name, diameterMm: hose.diameterMm, lengthM: hose.lengthM, roughnessMm: hose.roughnessMm ?? null, sumK: hose.sumK ?? null });
+      onClose();
+    },
+  });
   useEffect(() => {
     if (!hose) return;
     setFormError(null);
     reset({ name: hoseSummary(hose, u) });
   }, [hose, reset]);
-  const onSubmit = handleSubmit(async ({ name }) => {
-    if (!hose) return;
-    setFormError(null);
-    try {
-      await create.mutateAsync({ name, diameterMm: hose.diameterMm, lengthM: hose.lengthM, roughnessMm: hose.roughnessMm ?? null, sumK: hose.sumK ?? null });
-      onClose();
-    } catch (error) {
-      setFormError(applyServerErrors(error, setError, ['name']));
-    }
-  });
   return (
     <Dialog
       open={hose !== null}

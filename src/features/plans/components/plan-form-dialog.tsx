@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useEffect, useId, useState } from 'react';
+import { useEffect, useId } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import { createPlanInputSchema, sanitationKindLabels, sanitationKinds } from '@shared/schemas/plans';
@@ -10,7 +10,7 @@ import { FormField } from '@/components/ui/form-field';
 import { Input, Textarea } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { paths } from '@/config/paths';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useCreatePlan } from '../api/create-plan';
 import { useLineOptions } from '../api/get-line-options';
 import { useUpdatePlan } from '../api/update-plan';
@@ -24,12 +24,24 @@ export function PlanFormDialog({ open, plan, onClose, defaultDate }: { open: boo
   const lines = useLineOptions(open);
   const create = useCreatePlan();
   const update = useUpdatePlan();
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(createPlanInputSchema),
     defaultValues: { name: '', plannedDate: defaultDate ?? '', lineId: '', startTime: '07:00', sanitationKind: 'hot-water' as const, notes: '' },
   });
-  const { register, handleSubmit, reset, setError, setValue, formState } = form;
+  const { register, reset, setValue, formState } = form;
+  const { alert: formError, setAlert: setFormError, submit: onSubmit } = useFormSubmit(form, {
+    fields: fieldNames,
+    save: async (values) => {
+      if (plan) {
+        await update.mutateAsync({ id: plan.id, changes: values });
+        onClose();
+      } else {
+        const created = await create.mutateAsync(values);
+        onClose();
+        navigate(paths.plan(created.id));
+      }
+    },
+  });
 
   useEffect(() => {
     if (!open) return;
@@ -48,21 +60,6 @@ export function PlanFormDialog({ open, plan, onClose, defaultDate }: { open: boo
   }, [open, plan, only, setValue]);
 
   const pending = create.isPending || update.isPending;
-  const onSubmit = handleSubmit(async (values) => {
-    setFormError(null);
-    try {
-      if (plan) {
-        await update.mutateAsync({ id: plan.id, changes: values });
-        onClose();
-      } else {
-        const created = await create.mutateAsync(values);
-        onClose();
-        navigate(paths.plan(created.id));
-      }
-    } catch (error) {
-      setFormError(applyServerErrors(error, setError, fieldNames));
-    }
-  });
   const e = formState.errors;
   const noLines = lines.data && lines.data.items.length === 0;
 

@@ -8,6 +8,7 @@ import { Button, buttonClasses } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { ArchiveToggleButton } from '@/components/records/archive-offer';
 import { BackLink, RecordLoadFailed } from '@/components/records/record-page';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Dialog } from '@/components/ui/dialog';
 import { EmptyState } from '@/components/ui/empty-state';
 import { FormField } from '@/components/ui/form-field';
@@ -227,30 +228,19 @@ export function PlanPage({ planId }: { planId: string }) {
       </Dialog>
       <AddLotDialog plan={p} open={addingLot} onClose={() => setAddingLot(false)} />
       <PlanFormDialog open={editing} plan={p} onClose={() => setEditing(false)} />
-      <Dialog
+      <ConfirmDialog
         open={deleting}
         onClose={() => setDeleting(false)}
         title={`Delete ${p.name}?`}
         description="The draft, its lots and trains go. The lots stay in the cellar."
-        size="sm"
-        footer={
-          <>
-            <Button variant="secondary" onClick={() => setDeleting(false)}>
-              Cancel
-            </Button>
-            <Button
-              variant="danger"
-              loading={remove.isPending}
-              onClick={() =>
-                remove.mutate(p.id, {
-                  onSuccess: () => navigate(paths.plans),
-                  onError: (e) => toast.error('Not deleted', errorMessage(e)),
-                })
-              }
-            >
-              Delete plan
-            </Button>
-          </>
+        cancelLabel="Cancel"
+        confirmLabel="Delete plan"
+        pending={remove.isPending}
+        onConfirm={() =>
+          remove.mutate(p.id, {
+            onSuccess: () => navigate(paths.plans),
+            onError: (e) => toast.error('Not deleted', errorMessage(e)),
+          })
         }
       />
     </div>

@@ -1,6 +1,5 @@
-import { ArrowLeft, Download, Printer, ShieldCheck } from 'lucide-react';
+import { Download, Printer, ShieldCheck } from 'lucide-react';
 import { useState, type FormEvent, type ReactNode } from 'react';
-import { Link } from 'react-router-dom';
 import { cycleKindLabels, integrityTestLabels } from '@shared/schemas/care';
 import type { RecordIntegrityTestDto, RecordRunDto, RecordStageDto } from '@shared/types/records';
 import { Button, buttonClasses } from '@/components/ui/button';
@@ -8,6 +7,7 @@ import { Card } from '@/components/ui/card';
 import { FormField } from '@/components/ui/form-field';
 import { Input } from '@/components/ui/input';
 import { PageHeader } from '@/components/ui/page-header';
+import { BackLink } from '@/components/records/record-page';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { paths } from '@/config/paths';
@@ -339,9 +339,9 @@ export function RecordPage({ lotId }: { lotId: string }) {
     <div className="record-sheet flex flex-col gap-6">
       <PageHeader
         context={
-          <Link to={paths.records} className="record-no-print inline-flex min-h-11 items-center gap-1 text-primary-700 hover:underline">
-            <ArrowLeft aria-hidden="true" className="size-4" /> Records
-          </Link>
+          <BackLink to={paths.records} className="record-no-print min-h-11">
+            Records
+          </BackLink>
         }
         title={
           <>

@@ -3,6 +3,7 @@ import { useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { WINE_STYLES } from '@shared/engine';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { Card } from '@/components/ui/card';
 import { EmptyState } from '@/components/ui/empty-state';
 import { FormField } from '@/components/ui/form-field';
@@ -134,19 +135,11 @@ export function RecordsPage() {
                 </li>
               ))}
             </ul>
-            {lots.data.total > PAGE_SIZE ? (
-              <nav aria-label="Pages" className="mt-4 flex items-center gap-2">
-                <Button variant="secondary" disabled={page <= 1} onClick={() => goTo(page - 1)}>
-                  Previous
-                </Button>
-                <span className="text-sm text-ink-700">
-                  Page {page} of {Math.ceil(lots.data.total / PAGE_SIZE)}
-                </span>
-                <Button variant="secondary" disabled={page * PAGE_SIZE >= lots.data.total} onClick={() => goTo(page + 1)}>
-                  Next
-                </Button>
-              </nav>
-            ) : null}
+            <Pager label="Pages" align="start" className="mt-4" page={page} pages={Math.ceil(lots.data.total / PAGE_SIZE)} onPageChange={goTo} previous="Previous" next="Next">
+              <span className="text-sm text-ink-700">
+                Page {page} of {Math.ceil(lots.data.total / PAGE_SIZE)}
+              </span>
+            </Pager>
           </>
         )}
       </Card>

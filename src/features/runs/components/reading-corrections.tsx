@@ -11,9 +11,10 @@ import { useToast } from '@/components/ui/toast';
 import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
-import { useRunReadings } from '../api/get-run-readings';
+import { useRunReadingPages } from '../api/get-run-readings';
 import { useCorrectReading, useVoidReading } from '../api/run-changes';
 import { formatDateTime } from '@/lib/dates';
+import { ReadingsPager } from './readings-pager';
 
 const parse = (s: string): number | null => {
   const t = s.trim().replace(',', '.');
@@ -172,12 +173,9 @@ const PAGE = 20;
 export function ReadingCorrections({ run }: { run: RunDetailDto }) {
   const mayLog = useCan('runs:log');
   const [acting, setActing] = useState<{ reading: RunReadingDto; mode: 'correct' | 'void' } | null>(null);
-  const [pageNo, setPageNo] = useState(1);
-  const stored = useRunReadings(run.id, 'all', pageNo, PAGE);
+  const { stored, page: pageNo, setPage: setPageNo, pages } = useRunReadingPages(run.id, 'all', PAGE);
   const nameOf = new Map(run.stages.map((s) => [s.index, s.name]));
   const all = (stored.data?.items ?? []).map((r) => ({ r, stageName: nameOf.get(r.stageIndex) ?? `Stage ${String(r.stageIndex + 1)}` }));
-  const total = stored.data?.total ?? 0;
-  const pages = Math.max(1, Math.ceil(total / PAGE));
   if (all.length === 0 && pageNo === 1) return null;
   return (
     <Card title="Readings and corrections" description="A reading typed wrong is corrected or voided with a reason; the original stays, struck through.">
@@ -186,19 +184,7 @@ export function ReadingCorrections({ run }: { run: RunDetailDto }) {
           <ReadingLine key={r.id} reading={r} stageName={stageName} mayLog={mayLog} onAct={(mode) => setActing({ reading: r, mode })} />
         ))}
       </ul>
-      {pages > 1 ? (
-        <nav aria-label="Pages of the readings and corrections" className="mt-2 flex flex-wrap items-center justify-between gap-2">
-          <Button variant="ghost" size="md" disabled={pageNo <= 1} onClick={() => setPageNo((n) => Math.max(1, n - 1))}>
-            Newer
-          </Button>
-          <span className="num text-sm text-ink-600">
-            Page {pageNo.toLocaleString('en')} of {pages.toLocaleString('en')}
-          </span>
-          <Button variant="ghost" size="md" disabled={pageNo >= pages} onClick={() => setPageNo((n) => Math.min(pages, n + 1))}>
-            Older
-          </Button>
-        </nav>
-      ) : null}
+      <ReadingsPager label="Pages of the readings and corrections" className="mt-2" page={pageNo} pages={pages} onPageChange={setPageNo} />
       {acting ? <CorrectDialog runId={run.id} reading={acting.reading} mode={acting.mode} onClose={() => setActing(null)} /> : null}
     </Card>
   );

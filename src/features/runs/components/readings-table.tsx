@@ -1,12 +1,12 @@
 import { CloudOff, OctagonX } from 'lucide-react';
-import { useState, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
 import type { LogReadingInput } from '@shared/schemas/runs';
 import type { RunReadingDto, RunStageDto } from '@shared/types/runs';
-import { Button } from '@/components/ui/button';
 import type { OutboxEntry } from '@/lib/offline/outbox-runtime';
 import { useUnits } from '@/lib/units';
 import { formatDayMonthTime } from '@/lib/dates';
-import { useRunReadings } from '../api/get-run-readings';
+import { useRunReadingPages } from '../api/get-run-readings';
+import { ReadingsPager } from './readings-pager';
 
 const PAGE = 10;
 
@@ -52,10 +52,7 @@ function KeptBadge({ entry }: { entry: OutboxEntry }) {
  */
 export function ReadingsTable({ runId, stage, kept, rowActions }: ReadingsTableProps) {
   const units = useUnits();
-  const [pageNo, setPageNo] = useState(1);
-  const stored = useRunReadings(runId, stage.index, pageNo, PAGE);
-  const total = stored.data?.total ?? 0;
-  const pages = Math.max(1, Math.ceil(total / PAGE));
+  const { stored, page: pageNo, setPage: setPageNo, total, pages } = useRunReadingPages(runId, stage.index, PAGE);
   const rows: ReadingRow[] = [
     ...(pageNo === 1 ? kept.map((entry) => ({ kind: 'kept' as const, entry, input: entry.body as LogReadingInput })).reverse() : []),
     ...(stored.data?.items ?? []).map((reading) => ({ kind: 'stored' as const, reading })),
@@ -144,19 +141,7 @@ export function ReadingsTable({ runId, stage, kept, rowActions }: ReadingsTableP
           </tbody>
         </table>
       </div>
-      {pages > 1 ? (
-        <nav aria-label={`Pages of ${stage.name}'s readings`} className="flex flex-wrap items-center justify-between gap-2">
-          <Button variant="ghost" size="md" disabled={pageNo <= 1} onClick={() => setPageNo((n) => Math.max(1, n - 1))}>
-            Newer
-          </Button>
-          <span className="num text-sm text-ink-600">
-            Page {pageNo.toLocaleString('en')} of {pages.toLocaleString('en')} · {total.toLocaleString('en')} stored
-          </span>
-          <Button variant="ghost" size="md" disabled={pageNo >= pages} onClick={() => setPageNo((n) => Math.min(pages, n + 1))}>
-            Older
-          </Button>
-        </nav>
-      ) : null}
+      <ReadingsPager label={`Pages of ${stage.name}'s readings`} page={pageNo} pages={pages} onPageChange={setPageNo} extra={` · ${total.toLocaleString('en')} stored`} />
     </div>
   );
 }

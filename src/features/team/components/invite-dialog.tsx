@@ -1,5 +1,4 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { roleDescriptions, roleLabels, roles } from '@shared/permissions';
 import { createInvitationInputSchema, INVITATION_DAYS } from '@shared/schemas/team';
@@ -10,32 +9,24 @@ import { Input } from '@/components/ui/input';
 import { Select } from '@/components/ui/select';
 import { useToast } from '@/components/ui/toast';
 import { FormMessage } from '@/components/ui/form-message';
-import { applyServerErrors } from '@/lib/form-errors';
+import { useFormSubmit } from '@/lib/form-errors';
 import { useCreateInvitation } from '../api/create-invitation';
 
 export function InviteDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
   const create = useCreateInvitation();
   const toast = useToast();
-  const [alert, setAlert] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(createInvitationInputSchema), defaultValues: { email: '', role: 'technician' as const } });
   const role = form.watch('role');
   const { errors } = form.formState;
 
-  const close = () => {
-    form.reset();
-    setAlert(null);
-    onClose();
-  };
-
-  const submit = form.handleSubmit(async (values) => {
-    setAlert(null);
-    try {
+  const { alert, submit, close } = useFormSubmit(form, {
+    fields: ['email', 'role'],
+    onClose,
+    save: async (values, close) => {
       await create.mutateAsync(values);
       toast.success('Invitation sent', `${values.email} can join for the next ${INVITATION_DAYS} days.`);
       close();
-    } catch (error) {
-      setAlert(applyServerErrors(error, form.setError, ['email', 'role']));
-    }
+    },
   });
 
   return (

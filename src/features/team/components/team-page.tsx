@@ -6,7 +6,7 @@ import type { InvitationDto, MeDto, MemberDto } from '@shared/types/api';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { DataTable } from '@/components/ui/data-table';
-import { Dialog } from '@/components/ui/dialog';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { PageHeader } from '@/components/ui/page-header';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
@@ -165,37 +165,26 @@ export function TeamPage({ me }: { me: MeDto }) {
         </dl>
       </Card>
       <InviteDialog open={inviting} onClose={() => setInviting(false)} />
-      <Dialog
+      <ConfirmDialog
         open={removing !== null}
         onClose={() => setRemoving(null)}
         title={`Remove ${removing?.name ?? ''}?`}
         description="They lose access to this winery at once. Their past records stay, with their name."
-        size="sm"
-        footer={
-          <>
-            <Button variant="secondary" onClick={() => setRemoving(null)}>
-              Keep
-            </Button>
-            <Button
-              variant="danger"
-              loading={removeMember.isPending}
-              onClick={() =>
-                removing &&
-                removeMember.mutate(removing.userId, {
-                  onSuccess: () => {
-                    toast.success('Removed', `${removing.name} is no longer a member.`);
-                    setRemoving(null);
-                  },
-                  onError: (error) => {
-                    toast.error('Not removed', errorMessage(error));
-                    setRemoving(null);
-                  },
-                })
-              }
-            >
-              Remove from winery
-            </Button>
-          </>
+        cancelLabel="Keep"
+        confirmLabel="Remove from winery"
+        pending={removeMember.isPending}
+        onConfirm={() =>
+          removing &&
+          removeMember.mutate(removing.userId, {
+            onSuccess: () => {
+              toast.success('Removed', `${removing.name} is no longer a member.`);
+              setRemoving(null);
+            },
+            onError: (error) => {
+              toast.error('Not removed', errorMessage(error));
+              setRemoving(null);
+            },
+          })
         }
       />
     </div>

@@ -1,4 +1,3 @@
-import { CircleCheck } from 'lucide-react';
 import { Link } from 'react-router-dom';
 import type { TodayCartridgeFigure, TodayDto } from '@shared/types/today';
 import { statusWord } from '@/components/status/cartridge-status-badge';
@@ -6,6 +5,7 @@ import { Card } from '@/components/ui/card';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { paths } from '@/config/paths';
 import { CartridgeFigure, urgencyOf } from './cartridge-figure';
+import { AllClear, LookAtList, LookAtRow } from './look-at-list';
 
 
 /** Figures that already say the reason in full ("Integrity test failed on 20 Nov"), so it is not repeated. */
@@ -47,59 +47,48 @@ export function CartridgesToLookAt({ cartridges, counts }: { cartridges: TodayDt
           )}
         </p>
       ) : cartridges.attention.length === 0 ? (
-        <p className="flex items-start gap-2 px-4 py-4 text-ink-700">
-          <CircleCheck aria-hidden="true" className="mt-0.5 size-5 shrink-0 text-ok-600" />
+        <AllClear>
           <span>No cartridge needs a look: integrity tests, cycles and flow recovery are within their limits.</span>
-        </p>
+        </AllClear>
       ) : (
-        <>
-          <ul className="divide-y divide-ink-200" aria-label="Cartridges to look at">
-            {cartridges.attention.map((c) => {
-              const urgency = urgencyOf(c.figure);
-              return (
-                <li key={c.id}>
-                  <Link to={paths.cartridge(c.id)} className="block min-h-11 px-4 py-2.5 hover:bg-ink-50 active:bg-ink-100">
-                    <span className="flex items-start justify-between gap-3">
-                      <span className="min-w-0">
-                        <span className="font-semibold text-primary-700">{c.serial}</span> <span className="text-ink-900">{c.typeName}</span>
-                      </span>
-                      <StatusBadge tone={urgency.tone} size="sm">
-                        {urgency.word}
-                      </StatusBadge>
-                    </span>
-                    <span className="mt-0.5 block text-sm text-ink-600">
-                      {statusWord(c.status)}
-                      {c.housing ? (
+        <LookAtList label="Cartridges to look at" shown={cartridges.attention.length} total={cartridges.attentionTotal} moreTo={paths.cartridges} moreLabel="See the inventory">
+          {cartridges.attention.map((c) => {
+            const urgency = urgencyOf(c.figure);
+            return (
+              <LookAtRow
+                key={c.id}
+                to={paths.cartridge(c.id)}
+                code={c.serial}
+                name={c.typeName}
+                badge={
+                  <StatusBadge tone={urgency.tone} size="sm">
+                    {urgency.word}
+                  </StatusBadge>
+                }
+              >
+                <span className="mt-0.5 block text-sm text-ink-600">
+                  {statusWord(c.status)}
+                  {c.housing ? (
+                    <>
+                      {' '}
+                      in {c.housing.name}
+                      {c.position !== null ? (
                         <>
-                          {' '}
-                          in {c.housing.name}
-                          {c.position !== null ? (
-                            <>
-                              , round <span className="num">{c.position}</span>
-                            </>
-                          ) : null}
+                          , round <span className="num">{c.position}</span>
                         </>
                       ) : null}
-                    </span>
-                    <span className="mt-1 block text-sm text-ink-800">
-                      {restatesReason[c.figure.kind] ? null : <span className="font-semibold">{c.reason}{c.figure.kind === 'life-ended' ? '. ' : ': '}</span>}
-                      <CartridgeFigure figure={c.figure} />
-                    </span>
-                    {c.alsoNoted.length ? <span className="mt-0.5 block text-sm text-ink-600">Also: {c.alsoNoted.join(' ')}</span> : null}
-                  </Link>
-                </li>
-              );
-            })}
-          </ul>
-          {cartridges.attentionTotal > cartridges.attention.length ? (
-            <p className="border-t border-ink-200 px-4 py-2 text-sm text-ink-700">
-              Showing <span className="num">{cartridges.attention.length}</span> of <span className="num">{cartridges.attentionTotal}</span>.{' '}
-              <Link to={paths.cartridges} className="inline-flex min-h-11 items-center font-semibold text-primary-700 underline underline-offset-2">
-                See the inventory
-              </Link>
-            </p>
-          ) : null}
-        </>
+                    </>
+                  ) : null}
+                </span>
+                <span className="mt-1 block text-sm text-ink-800">
+                  {restatesReason[c.figure.kind] ? null : <span className="font-semibold">{c.reason}{c.figure.kind === 'life-ended' ? '. ' : ': '}</span>}
+                  <CartridgeFigure figure={c.figure} />
+                </span>
+                {c.alsoNoted.length ? <span className="mt-0.5 block text-sm text-ink-600">Also: {c.alsoNoted.join(' ')}</span> : null}
+              </LookAtRow>
+            );
+          })}
+        </LookAtList>
       )}
     </Card>
   );
