@@ -1,4 +1,5 @@
 import type { ApiErrorBody } from '@shared/types/api';
+import { noteReachable, noteUnreachable } from './offline/reachability';
 
 /** An error answer from the API, with the server's code, message and field messages. */
 export class ApiError extends Error {
@@ -41,6 +42,7 @@ async function request<T>(method: string, path: string, body?: unknown, opts: Re
       });
     } catch {
       if (attempt >= NETWORK_RETRIES || method === 'PATCH' || method === 'DELETE') {
+        noteUnreachable();
         throw new ApiError(0, 'offline', 'Porewise cannot be reached. Check the connection and try again.');
       }
       await new Promise((r) => setTimeout(r, 400 * (attempt + 1)));
@@ -52,6 +54,7 @@ async function request<T>(method: string, path: string, body?: unknown, opts: Re
       await new Promise((r) => setTimeout(r, 500));
     }
   }
+  noteReachable();
   if (res.status === 204) return undefined as T;
   const data = (await res.json().catch(() => null)) as unknown;
   if (!res.ok) {
