@@ -1,6 +1,6 @@
 import type { ColumnDef, SortingState } from '@tanstack/react-table';
 import { Search } from 'lucide-react';
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { WINE_STYLES, type WineStyle } from '@shared/engine';
 import { lotSortKeys, wineStyleLabels, type LotSortKey } from '@shared/schemas/cellar';
@@ -8,6 +8,7 @@ import type { LotListItemDto } from '@shared/types/cellar';
 import { DataTable } from '@/components/ui/data-table';
 import { ShowArchivedToggle } from '@/components/records/archive-offer';
 import { Input } from '@/components/ui/input';
+import { useSearchText } from '@/lib/use-search-text';
 import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { paths } from '@/config/paths';
@@ -57,21 +58,13 @@ const columns: ColumnDef<LotListItemDto>[] = [
 
 /** The winery's lots, searched, sorted and paged on the server. */
 export function LotsTable() {
-  const [search, setSearch] = useState('');
-  const [q, setQ] = useState('');
   const [style, setStyle] = useState<WineStyle | ''>('');
   const [sorting, setSorting] = useState<SortingState>([{ id: 'code', desc: false }]);
   const [page, setPage] = useState(1);
   const [showArchived, setShowArchived] = useState(false);
 
   // Search as the person types, once they pause.
-  useEffect(() => {
-    const t = setTimeout(() => {
-      setQ(search.trim());
-      setPage(1);
-    }, 250);
-    return () => clearTimeout(t);
-  }, [search]);
+  const { text: search, setText: setSearch, q } = useSearchText(() => setPage(1));
 
   const sort = (sorting[0]?.id ?? 'code') as LotSortKey;
   const filters = useMemo(

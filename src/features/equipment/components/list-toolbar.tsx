@@ -1,13 +1,12 @@
 import { Search } from 'lucide-react';
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import type { SortingState } from '@/components/ui/data-table';
 import { Input } from '@/components/ui/input';
+import { useSearchText } from '@/lib/use-search-text';
 import { PAGE_SIZE_DEFAULT } from '@shared/schemas/list';
 
 /** Search, sort and page state of one server-side list (the search waits for a pause in typing). */
 export function useListState<S extends string>(defaultSort: S) {
-  const [text, setText] = useState('');
-  const [q, setQ] = useState('');
   const [sort, setSort] = useState<S>(defaultSort);
   const [order, setOrder] = useState<'asc' | 'desc'>('asc');
   const [page, setPage] = useState(1);
@@ -17,13 +16,7 @@ export function useListState<S extends string>(defaultSort: S) {
     setPage(1);
   };
 
-  useEffect(() => {
-    const timer = setTimeout(() => {
-      setQ(text.trim());
-      setPage(1);
-    }, 250);
-    return () => clearTimeout(timer);
-  }, [text]);
+  const { text, setText, q } = useSearchText(() => setPage(1));
 
   const sorting: SortingState = [{ id: sort, desc: order === 'desc' }];
   const onSortingChange = (next: SortingState) => {
