@@ -9,32 +9,20 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runReadingsTable } from '../../server/db/schema';
 import { databaseUrl } from '../../scripts/lib/postgres';
-import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { startedRunOn } from '../factories/plans';
+import { setupApiApp } from '../support/api-app';
+import { Client } from '../support/test-app';
 import { exited, freePort, spawnTs, waitUntil } from './support';
 
-let app: TestApp;
-let owner: Client;
+const app = setupApiApp({ wineryName: 'Fault Test Cellars', world: 'filled' });
 let runId: string;
 let dir: string;
 
 beforeAll(async () => {
-  app = await startTestApp();
-  owner = (await signUp(app.baseUrl, { wineryName: 'Fault Test Cellars' })).client;
-  const world = await createPlanWorld(owner);
-  await fillTrainHousings(owner, world);
-  const plan = await createPlan(owner, world.lineId);
-  const planLotId = (await addPlanLot(owner, plan.id, world.lotId, 6000)).lots[0].id;
-  const trainId = (await addTrain(owner, plan.id, planLotId, trainBody(world))).lots[0].trains[0].id;
-  expect((await owner.patch(`/api/plans/${plan.id}/lots/${planLotId}`, { chosenTrainId: trainId })).status).toBe(200);
-  expect((await owner.post(`/api/plans/${plan.id}/approve`, { reason: 'Cartridges arrive the day before.' })).status).toBe(200);
-  const run = await owner.post('/api/runs', { planLotId });
-  expect(run.status).toBe(201);
-  runId = run.body.id;
+  runId = (await startedRunOn(app.owner, app.world)).id;
   dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-fault-'));
 });
 afterAll(async () => {
-  await app?.close();
   if (dir) rmSync(dir, { recursive: true, force: true });
 });
 
@@ -58,7 +46,7 @@ describe('SIGKILL while readings are posted', () => {
     await waitUntil(healthy, 60_000, 'the server to start');
 
     const phone = new Client(url);
-    phone.cookies = new Map(owner.cookies);
+    phone.cookies = new Map(app.owner.cookies);
     const readings = Array.from({ length: 40 }, (_, i) => ({
       clientKey: randomUUID(),
       stageIndex: 0,

@@ -1,19 +1,11 @@
 // Helpers for tests that run Porewise as a separate process.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
-import type { AddressInfo } from 'node:net';
 import { resolve } from 'node:path';
 
 export const root = resolve(import.meta.dirname, '../..');
 
-/** A TCP port that was free a moment ago. */
-export async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
-  const { port } = server.address() as AddressInfo;
-  await new Promise<void>((r) => server.close(() => r()));
-  return port;
-}
+/** A TCP port that was free a moment ago (one copy, with the API tests' server processes). */
+export { freePort } from '../support/server-process';
 
 /** `node --import tsx <script>`: one process (no tsx wrapper), so a signal reaches the server itself. */
 export function spawnTs(script: string, args: string[], env: NodeJS.ProcessEnv, opts: { detached?: boolean } = {}) {

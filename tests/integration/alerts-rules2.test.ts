@@ -3,16 +3,17 @@
 // approved day that uses its housing, a care cycle above the housing's temperature rating, and
 // the stock rule checked on approval and then once a day (not by the 10-minute sweep).
 import { and, eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { alertsTable, cartridgesTable, cartridgeTypesTable, housingsTable } from '../../server/db/schema';
 import { registerSchedules, STOCK_CRON, SWEEP_CRON } from '../../server/jobs/workers';
 import { ALERTS_STOCK_QUEUE } from '../../server/lib/queue';
 import { STOCK_CHECK_HOUR } from '../../server/modules/alerts/alerts.service';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import type { Client } from '../support/test-app';
 import { until } from '../support/until';
 
-let app: TestApp;
+const app = setupApiApp({ wineryName: 'Forecast Ridge Winery', members: ['technician', 'cellar-master'] });
 let owner: Client;
 let ownerEmail: string;
 let wineryId: string;
@@ -40,17 +41,10 @@ async function approvedPlan(w: PlanWorld, date: string, volumeL = 6000) {
   return { plan, planLotId, approved: approved.body };
 }
 
-beforeAll(async () => {
-  app = await startTestApp();
-  const a = await signUp(app.baseUrl, { wineryName: 'Forecast Ridge Winery' });
-  owner = a.client;
-  ownerEmail = a.email;
-  wineryId = a.me.activeWineryId!;
-  technician = await addMember(app, owner, 'technician');
-  cellarMaster = await addMember(app, owner, 'cellar-master');
-});
-afterAll(async () => {
-  await app?.close();
+beforeAll(() => {
+  ({ owner, ownerEmail, wineryId } = app);
+  technician = { client: app.members.technician, email: app.memberEmails.technician };
+  cellarMaster = { client: app.members['cellar-master'], email: app.memberEmails['cellar-master'] };
 });
 
 describe('a life forecast spent before the next day that needs the cartridge', () => {

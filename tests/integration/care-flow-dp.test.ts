@@ -4,12 +4,13 @@
 // Source: Darcy's law for laminar flow through a porous medium, Q = k·A·ΔP/(μ·L) — at one
 // temperature the flow is proportional to ΔP, so a flow Q measured at ΔP₁ is Q·ΔP_ref/ΔP₁ at ΔP_ref.
 import { and, eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { cartridgeEventsTable } from '../../server/db/schema';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
-import { Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import type { Client } from '../support/test-app';
 
-let app: TestApp;
+const app = setupApiApp({ wineryName: 'Reference Pressure Winery', otherWineryName: 'Other Pressure Winery' });
 let owner: Client;
 let other: Client;
 let typeId: string;
@@ -23,15 +24,9 @@ async function registered(client: Client) {
 }
 
 beforeAll(async () => {
-  app = await startTestApp();
-  const a = await signUp(app.baseUrl, { wineryName: 'Reference Pressure Winery' });
-  owner = a.client;
-  other = (await signUp(app.baseUrl, { wineryName: 'Other Pressure Winery' })).client;
+  ({ owner, other } = app);
   // 1,200 L/h per 10-inch at 0.1 bar and 20 °C: a 30-inch cartridge passes 3,600 L/h when clean.
-  typeId = (await insertCartridgeType(app.db, a.me.activeWineryId!, { name: `PES dp ${prefix}`, waterFlowLhPer10in: 1200, waterDpBar: 0.1, flowRecoveryMinPct: 70 })).id;
-});
-afterAll(async () => {
-  await app?.close();
+  typeId = (await insertCartridgeType(app.db, app.wineryId, { name: `PES dp ${prefix}`, waterFlowLhPer10in: 1200, waterDpBar: 0.1, flowRecoveryMinPct: 70 })).id;
 });
 
 describe('a flow-recovery measurement at its own ΔP', () => {

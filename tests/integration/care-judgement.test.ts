@@ -1,9 +1,10 @@
 // @vitest-environment node
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import type { Client } from '../support/test-app';
 
-let app: TestApp;
+const app = setupApiApp({ wineryName: 'Care Judgement Winery', members: ['technician'] });
 let owner: Client;
 let technician: Client;
 let membrane: { id: string; name: string };
@@ -19,15 +20,9 @@ async function registered(typeId: string, lengthIn = 30) {
 }
 
 beforeAll(async () => {
-  app = await startTestApp();
-  const a = await signUp(app.baseUrl, { wineryName: 'Care Judgement Winery' });
-  owner = a.client;
-  wineryId = a.me.activeWineryId!;
-  technician = (await addMember(app, owner, 'technician')).client;
+  ({ owner, wineryId } = app);
+  technician = app.members.technician;
   membrane = await insertCartridgeType(app.db, wineryId, { name: 'PES 0.45 judged', maxTempC: 80, bubblePointMinBar: 2.5, diffusionMaxMlMinPer10in: 12 });
-});
-afterAll(async () => {
-  await app.close();
 });
 
 describe('a pressure hold covers the whole housing (PDA Technical Report No. 26)', () => {

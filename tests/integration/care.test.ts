@@ -1,11 +1,12 @@
 // @vitest-environment node
 import { and, eq } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { cartridgeEventsTable } from '../../server/db/schema';
 import { insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import type { Client } from '../support/test-app';
 
-let app: TestApp;
+const app = setupApiApp({ wineryName: 'Care Test Winery', otherWineryName: 'Other Care Winery', members: ['technician', 'winemaker', 'auditor'] });
 let owner: Client;
 let technician: Client;
 let winemaker: Client;
@@ -15,6 +16,7 @@ let membrane: { id: string; name: string };
 let noLimits: { id: string; name: string };
 let housing: { id: string; name: string };
 let otherCartridge: { id: string };
+let wineryId: string;
 
 const prefix = serialPrefix();
 let seq = 0;
@@ -26,23 +28,13 @@ async function registered(client: Client, typeId: string, lengthIn = 30) {
 }
 
 beforeAll(async () => {
-  app = await startTestApp();
-  const a = await signUp(app.baseUrl, { wineryName: 'Care Test Winery' });
-  owner = a.client;
-  const wineryId = a.me.activeWineryId!;
-  technician = (await addMember(app, owner, 'technician')).client;
-  winemaker = (await addMember(app, owner, 'winemaker')).client;
-  auditor = (await addMember(app, owner, 'auditor')).client;
-  const b = await signUp(app.baseUrl, { wineryName: 'Other Care Winery' });
-  other = b.client;
+  ({ owner, other, wineryId } = app);
+  ({ technician, winemaker, auditor } = app.members);
   membrane = await insertCartridgeType(app.db, wineryId, { name: 'PES 0.45 care', maxTempC: 85, bubblePointMinBar: 3.2, diffusionMaxMlMinPer10in: 15 });
   noLimits = await insertCartridgeType(app.db, wineryId, { name: 'PP 1.0 care', kind: 'prefilter', media: 'polypropylene', ratingUm: 1, bubblePointMinBar: null, diffusionMaxMlMinPer10in: null });
   housing = await insertHousing(app.db, wineryId, { name: 'Care membrane housing', rounds: 3, lengthIn: 30, maxTempC: 135, upstreamGasVolumeL: 5 });
-  const otherType = await insertCartridgeType(app.db, b.me.activeWineryId!, { name: 'Other PES' });
+  const otherType = await insertCartridgeType(app.db, app.otherWineryId, { name: 'Other PES' });
   otherCartridge = await registered(other, otherType.id);
-});
-afterAll(async () => {
-  await app.close();
 });
 
 describe('POST /api/cartridges/:id/cycles', () => {

@@ -1,13 +1,14 @@
 // @vitest-environment node
 import { and, eq, sql } from 'drizzle-orm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { cartridgeEventsTable, cartridgesTable } from '../../server/db/schema';
 import { createCartridgesRepository } from '../../server/modules/cartridges/cartridges.repository';
 import { cartridgeListQuerySchema } from '../../shared/schemas/cartridges';
 import { deliveryCsv, insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { setupApiApp } from '../support/api-app';
+import { Client, signUp } from '../support/test-app';
 
-let app: TestApp;
+const app = setupApiApp({ wineryName: 'Cartridge Test Winery', otherWineryName: 'Other Cartridge Winery', members: ['cellar-master', 'technician', 'auditor'] });
 let owner: Client;
 let cellarMaster: Client;
 let technician: Client;
@@ -22,24 +23,13 @@ let housing30: { id: string; name: string };
 let otherHousing: { id: string; name: string };
 
 beforeAll(async () => {
-  app = await startTestApp();
-  const a = await signUp(app.baseUrl, { wineryName: 'Cartridge Test Winery' });
-  owner = a.client;
-  wineryId = a.me.activeWineryId!;
-  cellarMaster = (await addMember(app, owner, 'cellar-master')).client;
-  technician = (await addMember(app, owner, 'technician')).client;
-  auditor = (await addMember(app, owner, 'auditor')).client;
-  const b = await signUp(app.baseUrl, { wineryName: 'Other Cartridge Winery' });
-  other = b.client;
-  otherWineryId = b.me.activeWineryId!;
+  ({ owner, other, wineryId, otherWineryId } = app);
+  ({ 'cellar-master': cellarMaster, technician, auditor } = app.members);
   membrane = await insertCartridgeType(app.db, wineryId, { name: 'PES 0.45 test' });
   prefilter = await insertCartridgeType(app.db, wineryId, { name: 'PP 1.0 test', kind: 'prefilter', media: 'polypropylene', ratingUm: 1 });
   otherType = await insertCartridgeType(app.db, otherWineryId, { name: 'PES 0.45 test' });
   housing30 = await insertHousing(app.db, wineryId, { name: 'Membrane housing 3x30', rounds: 3, lengthIn: 30 });
   otherHousing = await insertHousing(app.db, otherWineryId, { name: 'Other housing', rounds: 3, lengthIn: 30 });
-});
-afterAll(async () => {
-  await app.close();
 });
 
 const prefix = serialPrefix();

@@ -2,14 +2,14 @@
 // Porewise as several identical server instances on one database (behind any load balancer):
 // nothing that must be shared lives in a process's memory. Two apps, each with its own
 // connection pool, on the one test database; and two real server processes for the limits.
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer, type AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { databaseUrl } from '../../scripts/lib/postgres';
+import { freePort, spawnServer } from '../support/server-process';
 import { addMember, Client, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
 
 let a: TestApp;
@@ -32,14 +32,6 @@ afterAll(async () => {
   for (const d of dirs) rmSync(d, { recursive: true, force: true });
 });
 
-async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
-  const { port } = server.address() as AddressInfo;
-  await new Promise<void>((r) => server.close(() => r()));
-  return port;
-}
-
 /** `server/index.ts` in its own process, as production runs it (rate limits at scale 1, no namespace). */
 async function startServerProcess(extraEnv: NodeJS.ProcessEnv = {}): Promise<{ url: string; child: ChildProcess }> {
   const port = await freePort();
@@ -47,34 +39,9 @@ async function startServerProcess(extraEnv: NodeJS.ProcessEnv = {}): Promise<{ u
   const schema = `pgboss_inst_${randomBytes(5).toString('hex')}`;
   dirs.push(dir);
   queueSchemas.push(schema);
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    env: {
-      ...process.env,
-      NODE_ENV: 'test',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      DATABASE_URL: databaseUrl('porewise_test'),
-      QUEUE_SCHEMA: schema,
-      QUEUE_POLL_SECONDS: '0.5',
-      RATE_LIMIT_SCALE: '1',
-      FAKE_SERVICES_DIR: dir,
-      CLIENT_DIR: join(dir, 'no-client'),
-      ...extraEnv,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  processes.push(child);
-  let output = '';
-  child.stdout!.on('data', (d) => (output += d));
-  child.stderr!.on('data', (d) => (output += d));
-  const url = `http://127.0.0.1:${String(port)}`;
-  const deadline = Date.now() + 90_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
-    if (await fetch(`${url}/api/health`).then((r) => r.ok, () => false)) return { url, child };
-    if (Date.now() > deadline) throw new Error(`server did not start: ${output}`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
+  const started = await spawnServer({ port, dir, startMs: 90_000, env: { QUEUE_SCHEMA: schema, RATE_LIMIT_SCALE: '1', ...extraEnv } });
+  processes.push(started.child);
+  return started;
 }
 
 /** The same browser, its requests now reaching the other instance. */

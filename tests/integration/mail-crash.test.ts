@@ -1,65 +1,40 @@
 // @vitest-environment node
 // Fault: the real server process is killed (SIGKILL) after it answered a password reset and
 // before the mail was delivered; started again, it delivers the mail, once.
-import { spawn, type ChildProcess } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { join } from 'node:path';
 import pg from 'pg';
 import { afterAll, describe, expect, it } from 'vitest';
 import { databaseUrl } from '../../scripts/lib/postgres';
 import { startFakeSmtp } from '../../server/lib/fake-services';
+import { freePort, spawnServer } from '../support/server-process';
 import { Client, signUp, startTestApp } from '../support/test-app';
 
 const schema = `pgboss_crash_${randomBytes(5).toString('hex')}`;
 const dir = mkdtempSync(join(process.env.TMPDIR ?? '/tmp', 'porewise-crash-'));
 const children: ChildProcess[] = [];
 
-async function freePort(): Promise<number> {
-  const server = createServer();
-  await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
-  const { port } = server.address() as { port: number };
-  await new Promise((r) => server.close(r));
-  return port;
-}
-
 /** Starts `server/index.ts` as its own process; resolves once it answers /api/health. */
 async function startServerProcess(port: number, smtpPort: number) {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const started = await spawnServer({
+    port,
+    dir,
+    startMs: 60_000,
     env: {
-      ...process.env,
-      NODE_ENV: 'test',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      DATABASE_URL: databaseUrl('porewise_test'),
       SMTP_HOST: '127.0.0.1',
       SMTP_PORT: String(smtpPort),
       QUEUE_SCHEMA: schema,
       MAIL_RETRY_DELAY_SECONDS: '1',
-      QUEUE_POLL_SECONDS: '0.5',
       // The first process may have taken the job before it was killed: it comes back after this.
       MAIL_EXPIRE_SECONDS: '5',
       QUEUE_MAINTENANCE_SECONDS: '1',
       RATE_LIMIT_SCALE: '100',
-      FAKE_SERVICES_DIR: dir,
-      CLIENT_DIR: join(dir, 'no-client'),
     },
-    stdio: ['ignore', 'pipe', 'pipe'],
   });
-  children.push(child);
-  let output = '';
-  child.stdout!.on('data', (d) => (output += d));
-  child.stderr!.on('data', (d) => (output += d));
-  const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 60_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
-    const ok = await fetch(`${url}/api/health`).then((r) => r.ok, () => false);
-    if (ok) return { child, url };
-    if (Date.now() > deadline) throw new Error(`server did not start: ${output}`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
+  children.push(started.child);
+  return started;
 }
 
 afterAll(async () => {

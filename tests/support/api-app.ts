@@ -54,6 +54,8 @@ export type ApiApp = TestApp & {
   readonly other: Client;
   readonly otherWineryId: string;
   readonly members: Members;
+  /** The e-mail address of each invited member (for mail checks). */
+  readonly memberEmails: Record<MemberRole, string>;
   readonly world: PlanWorld;
 };
 
@@ -62,6 +64,7 @@ type SetUp = {
   owner?: SignedUp;
   other?: SignedUp;
   members: Partial<Members>;
+  memberEmails: Partial<Record<MemberRole, string>>;
   world?: PlanWorld;
 };
 
@@ -73,12 +76,16 @@ export function setupApiApp(opts: ApiAppOptions = {}): ApiApp {
   let done: SetUp | undefined;
   beforeAll(async () => {
     const app = await startTestApp({ withStorage: opts.withStorage });
-    const setUp: SetUp = { app, members: {} };
+    const setUp: SetUp = { app, members: {}, memberEmails: {} };
     done = setUp;
     if (opts.wineryName !== undefined) setUp.owner = await signUp(app.baseUrl, { wineryName: opts.wineryName });
     if (opts.otherWineryName !== undefined) setUp.other = await signUp(app.baseUrl, { wineryName: opts.otherWineryName });
     const roles = opts.members === true ? MEMBER_ROLES : (opts.members ?? []);
-    for (const role of roles) setUp.members[role] = (await addMember(app, need(setUp.owner, 'wineryName').client, role)).client;
+    for (const role of roles) {
+      const member = await addMember(app, need(setUp.owner, 'wineryName').client, role);
+      setUp.members[role] = member.client;
+      setUp.memberEmails[role] = member.email;
+    }
     if (opts.world) {
       const owner = need(setUp.owner, 'wineryName').client;
       setUp.world = await createPlanWorld(owner);
@@ -95,6 +102,9 @@ export function setupApiApp(opts: ApiAppOptions = {}): ApiApp {
   };
   const members = new Proxy({} as Members, {
     get: (_, role) => need(started().members[role as MemberRole], `members including ${String(role)}`),
+  });
+  const memberEmails = new Proxy({} as Record<MemberRole, string>, {
+    get: (_, role) => need(started().memberEmails[role as MemberRole], `members including ${String(role)}`),
   });
   const answer = {
     get owner() {
@@ -116,6 +126,7 @@ export function setupApiApp(opts: ApiAppOptions = {}): ApiApp {
       return need(started().other, 'otherWineryName').me.activeWineryId!;
     },
     members,
+    memberEmails,
     get world() {
       return need(started().world, 'world');
     },
