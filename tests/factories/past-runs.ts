@@ -47,3 +47,24 @@ export async function createClosedRunReaching(
   await ok(await owner.post(`/api/runs/${runId}/close`, { notes: 'Past run for capacity.' }), 200, 'closing the run');
   return { runId, lotId: lot.id };
 }
+
+/**
+ * Corrects the volume of a closed run's reading on `stageIndex` logged at `fromL` to `toL`
+ * (pressures kept; flow and temperature when given), through the API: 201 or it throws.
+ */
+export async function correctReadingVolume(owner: Client, runId: string, stageIndex: number, fromL: number, toL: number, extra: { flowLh?: number; tempC?: number } = {}) {
+  const run = (await owner.get(`/api/runs/${runId}`)).body as { stages: { readings: { id: string; volumeL: number; upstreamBar: number; downstreamBar: number }[] }[] };
+  const reading = run.stages[stageIndex].readings.find((r) => r.volumeL === fromL);
+  if (!reading) throw new Error(`no reading at ${String(fromL)} L on stage ${String(stageIndex)}`);
+  await ok(
+    await owner.post(`/api/runs/${runId}/readings/${reading.id}/correct`, {
+      volumeL: toL,
+      upstreamBar: reading.upstreamBar,
+      downstreamBar: reading.downstreamBar,
+      ...extra,
+      reason: 'Meter read from the wrong tank.',
+    }),
+    201,
+    'correcting a reading',
+  );
+}

@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
 import { createLabResult, createLot, discPoints } from '../factories/cellar';
-import { createClosedRunReaching } from '../factories/past-runs';
+import { correctReadingVolume, createClosedRunReaching } from '../factories/past-runs';
 import { addPlanLot, addTrain, createPlan, trainBody } from '../factories/plans';
 import { createRecordWorld, type BottledWorld } from '../factories/records';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -109,17 +109,7 @@ describe('capacity from the winery’s closed runs of similar wines', () => {
 
   it('reads a run as corrected: a corrected reading moves the learned capacity (the original is kept in the run)', async () => {
     // The third white run's membrane reached terminal at 5,040 L (800 L/m²); corrected to 8,190 L (1,300 L/m²).
-    const run = (await owner.get(`/api/runs/${runIds[2]}`)).body as { stages: { readings: { id: string; volumeL: number; upstreamBar: number; downstreamBar: number }[] }[] };
-    const last = run.stages[1].readings.find((r) => r.volumeL === 5040)!;
-    const fixed = await owner.post(`/api/runs/${runIds[2]}/readings/${last.id}/correct`, {
-      volumeL: 8190,
-      upstreamBar: last.upstreamBar,
-      downstreamBar: last.downstreamBar,
-      flowLh: 2500,
-      tempC: 12,
-      reason: 'Meter read from the wrong tank.',
-    });
-    expect(fixed.status, fixed.text).toBe(201);
+    await correctReadingVolume(owner, runIds[2], 1, 5040, 8190, { flowLh: 2500, tempC: 12 });
     const lot = await createLot(owner, { style: 'white', volumeL: 6000 });
     await createLabResult(owner, lot.id, { t200s: 30, t400s: 72 });
     const mem = (await planFor(lot.id)).lots[0].trains[0].sizing!.stages[1];

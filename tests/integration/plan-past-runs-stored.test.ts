@@ -8,7 +8,7 @@ import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlanDto } from '../../shared/types/plans';
 import { createLabResult, createLot } from '../factories/cellar';
-import { createClosedRunReaching } from '../factories/past-runs';
+import { correctReadingVolume, createClosedRunReaching } from '../factories/past-runs';
 import { addPlanLot, addTrain, createPlan, trainBody } from '../factories/plans';
 import { createRecordWorld, type BottledWorld } from '../factories/records';
 import { signUp, startTestApp, type Client, type TestApp } from '../support/test-app';
@@ -88,15 +88,7 @@ describe('stored learnings of closed runs (plan capacity from past runs)', () =>
 
   it('a reading of a closed run corrected: its learning is worked out again (same as from nothing)', async () => {
     const before = await plan();
-    const run = (await owner.get(`/api/runs/${runIds[2]}`)).body as { stages: { readings: { id: string; volumeL: number; upstreamBar: number; downstreamBar: number }[] }[] };
-    const last = run.stages[1].readings.find((r) => r.volumeL === 5040)!;
-    const fixed = await owner.post(`/api/runs/${runIds[2]}/readings/${last.id}/correct`, {
-      volumeL: 8190,
-      upstreamBar: last.upstreamBar,
-      downstreamBar: last.downstreamBar,
-      reason: 'Meter read from the wrong tank.',
-    });
-    expect(fixed.status, fixed.text).toBe(201);
+    await correctReadingVolume(owner, runIds[2], 1, 5040, 8190);
     const after = await plan();
     expect(after.lots[0].trains[0].sizing!.stages[1].capacityPastRuns).not.toEqual(before.lots[0].trains[0].sizing!.stages[1].capacityPastRuns);
     expect(await expectStoredEqualsFresh()).toEqual(after);
