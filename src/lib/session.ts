@@ -3,7 +3,9 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { can, type Action } from '@shared/permissions';
 import type { MeDto } from '@shared/types/api';
+import { paths } from '@/config/paths';
 import { api, ApiError } from './api-client';
+import { forgetKeptAnswers } from './offline/query-persister';
 import { queryRoots } from './query-keys';
 
 export const sessionKeys = {
@@ -50,9 +52,13 @@ export function useSignOut() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: () => api.post<void>('/auth/sign-out'),
-    onSuccess: () => {
+    // Nothing of the winery stays in memory or kept on the device, then a fresh load of the
+    // sign-in page (plain: no "next" back to where the person was).
+    onSuccess: async () => {
       qc.clear();
       qc.setQueryData(sessionKeys.me(), null);
+      await forgetKeptAnswers();
+      window.location.replace(paths.signIn);
     },
   });
 }

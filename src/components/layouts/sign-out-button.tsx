@@ -1,19 +1,16 @@
 import { LogOut } from 'lucide-react';
 import { useState } from 'react';
-import { useNavigate } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
-import { paths } from '@/config/paths';
 import { useOutbox } from '@/lib/offline/outbox-runtime';
 import { useSignOut } from '@/lib/session';
 
 /** Sign out; with entries still kept on this device it warns first. */
 export function SignOutButton() {
-  const navigate = useNavigate();
   const signOut = useSignOut();
   const kept = useOutbox();
   const [asking, setAsking] = useState(false);
-  const go = () => signOut.mutate(undefined, { onSuccess: () => navigate(paths.signIn) });
+  const go = () => signOut.mutate();
   const n = kept.length;
   const refused = kept.filter((e) => e.status === 'refused').length;
   const who = refused === n ? (n === 1 ? 'It was' : 'All were') : `${String(refused)} of them ${refused === 1 ? 'was' : 'were'}`;

@@ -5,8 +5,17 @@ import { createStore, del, get, set } from 'idb-keyval';
 /** Kept data older than this is not shown (a week: a bottling campaign's pause). */
 export const CACHE_MAX_AGE_MS = 7 * 24 * 60 * 60 * 1000;
 
+const CACHE_KEY = 'porewise-query-cache';
+const keptStore = () => (typeof indexedDB === 'undefined' ? undefined : createStore('porewise-cache', 'queries'));
+
+/** Sign-out: no answer of the winery stays on the device (entries waiting to send are kept apart). */
+export async function forgetKeptAnswers() {
+  const store = keptStore();
+  if (store) await del(CACHE_KEY, store);
+}
+
 export function createCachePersister() {
-  const store = typeof indexedDB === 'undefined' ? undefined : createStore('porewise-cache', 'queries');
+  const store = keptStore();
   return createAsyncStoragePersister({
     storage: store
       ? {
@@ -15,7 +24,7 @@ export function createCachePersister() {
           removeItem: (key: string) => del(key, store),
         }
       : undefined,
-    key: 'porewise-query-cache',
+    key: CACHE_KEY,
     throttleTime: 1000,
   });
 }
