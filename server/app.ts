@@ -31,6 +31,7 @@ import { healthRoutes } from './modules/health/health.routes';
 import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { invitationRoutes, teamRoutes } from './modules/team/team.routes';
 import { auditRoutes } from './modules/audit/audit.routes';
+import { createAnswerCache } from './middleware/answer-cache';
 import { exportRoutes } from './modules/export/export.routes';
 import { attachmentsRoutes } from './modules/attachments/attachments.routes';
 import { cartridgesRoutes } from './modules/cartridges/cartridges.routes';
@@ -61,6 +62,8 @@ export type AppConfig = {
    * instance counts together); test apps on one database take their own unless they share on purpose.
    */
   rateLimitNamespace?: string;
+  /** Memory for read answers kept in this process (default 32 MB; 0 keeps none). */
+  answerCacheBytes?: number;
   /** Express "trust proxy" (behind a reverse proxy the client address comes from X-Forwarded-For). */
   trustProxy?: string;
   /** Folder with the built client to serve, if any. */
@@ -152,7 +155,9 @@ export function createApp(deps: AppDeps): Express {
   api.use('/calc', calcRoutes({ db }));
   if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox, db, key: deps.outboxKey }));
   // Domain modules declare their own paths (/tanks, /lots, /housings, …) and guard each one.
-  const moduleDeps: ModuleDeps = { db, storage: deps.storage, mailer, appUrl: config.appUrl };
+  const answers = createAnswerCache({ maxBytes: config.answerCacheBytes ?? 32 * 1024 * 1024 });
+  app.locals.answers = answers;
+  const moduleDeps: ModuleDeps = { db, storage: deps.storage, mailer, appUrl: config.appUrl, answers };
   api.use(cellarRoutes(moduleDeps));
   api.use(equipmentRoutes(moduleDeps));
   api.use(cartridgesRoutes(moduleDeps));

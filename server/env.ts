@@ -14,6 +14,8 @@ const envSchema = z.object({
   ALLOWED_ORIGINS: z.string().optional(),
   SECURE_COOKIES: bool,
   RATE_LIMIT_SCALE: z.coerce.number().positive().default(1),
+  /** Memory for read answers kept in this process (server/middleware/answer-cache.ts); 0 keeps none. */
+  ANSWER_CACHE_MB: z.coerce.number().min(0).max(4096).default(32),
   /** Express "trust proxy" setting when behind a reverse proxy (e.g. 1, or loopback). */
   TRUST_PROXY: z.string().optional(),
   /** Allow the development mail outbox on a non-loopback address (never in production). */

@@ -6,6 +6,7 @@ import { createDatabase } from './db/client';
 import type { Env } from './env';
 import { startFakeS3, startFakeSmtp, type FakeS3, type FakeSmtp } from './lib/fake-services';
 import { logger } from './lib/logger';
+import { FOLD_EVERY_MS, foldWineryChanges } from './db/winery-changes';
 import { startWorkers } from './jobs/workers';
 import { createSmtpMailer, smtpSettingsFrom } from './lib/mail';
 import { createQueue, queueOptionsFrom, queuedMailer } from './lib/queue';
@@ -65,6 +66,7 @@ export async function startServer(env: Env) {
       allowedOrigins: env.allowedOrigins,
       secureCookies: env.secureCookies,
       rateLimitScale: env.RATE_LIMIT_SCALE,
+      answerCacheBytes: env.ANSWER_CACHE_MB * 1024 * 1024,
       trustProxy: env.TRUST_PROXY,
       clientDir: resolve(env.CLIENT_DIR),
       logRequests: env.NODE_ENV !== 'test',
@@ -85,7 +87,14 @@ export async function startServer(env: Env) {
    * keep-alive connections are dropped, requests in flight get SHUTDOWN_GRACE_MS to finish,
    * and whatever is left is cut. Then the workers, the queue and the pool stop.
    */
+  // The data versions' rows folded into their counts now and then (server/db/winery-changes.ts).
+  const folding = setInterval(() => {
+    foldWineryChanges(db).catch((error: unknown) => logger.warn({ err: error }, 'folding the winery data versions failed; tried again later'));
+  }, FOLD_EVERY_MS);
+  folding.unref();
+
   async function close() {
+    clearInterval(folding);
     lifecycle.draining = true;
     if (env.SHUTDOWN_DRAIN_MS > 0) await new Promise((r) => setTimeout(r, env.SHUTDOWN_DRAIN_MS));
     await new Promise<void>((r) => {

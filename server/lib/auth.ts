@@ -23,6 +23,10 @@ function sessionAdapter(db: Database): Adapter {
       units: usersTable.units,
       activeWineryId: usersTable.activeWineryId,
       activeRole: membershipsTable.role,
+      // The active winery's data version (migrations 0024–0025), read in this same round trip: it
+      // keys the stored answers (server/middleware/answer-cache.ts).
+      dataVersion: sql<string | null>`(select (coalesce((select c.n from winery_change_counts c where c.winery_id = ${usersTable.activeWineryId}), 0)
+        + (select count(*) from winery_changes w where w.winery_id = ${usersTable.activeWineryId}))::text)`,
     })
     .from(sessionsTable)
     .innerJoin(usersTable, eq(usersTable.id, sessionsTable.userId))
@@ -43,7 +47,7 @@ function sessionAdapter(db: Database): Adapter {
         { id: row.id, userId: row.userId, expiresAt: row.expiresAt, attributes: {} },
         {
           id: row.userId,
-          attributes: { email: row.email, name: row.name, units: row.units, activeWineryId: row.activeWineryId, activeRole: row.activeRole },
+          attributes: { email: row.email, name: row.name, units: row.units, activeWineryId: row.activeWineryId, activeRole: row.activeRole, dataVersion: row.dataVersion },
         },
       ];
     },
@@ -65,6 +69,7 @@ export function createAuth(db: Database, opts: { secureCookies: boolean }) {
       units: row.units,
       activeWineryId: row.activeWineryId,
       activeRole: row.activeRole,
+      dataVersion: row.dataVersion,
     }),
   });
 }
@@ -81,6 +86,8 @@ declare module 'lucia' {
       activeWineryId: string | null;
       /** The person's role in their active winery, read with the session (null if not a member). */
       activeRole: Role | null;
+      /** The active winery's data version, read with the session (null without an active winery). */
+      dataVersion: string | null;
     };
   }
 }

@@ -31,10 +31,12 @@ describe('change log', () => {
     // Only what the cellar master did.
     await page.getByLabel('Record kind', { exact: true }).selectOption('');
     await page.getByLabel('Person', { exact: true }).selectOption({ label: 'Test cellar-master' });
+    await page.waitForURL(/[?&]userId=/);
     await page.getByText(/^\d+ changes? match(es)? the filters$/).waitFor();
     // The filtered page replaces the previous one once its answer arrives.
     await expect.poll(() => table.getByText('T3 north').count(), { timeout: 10_000 }).toBe(0);
     await page.getByLabel('Action', { exact: true }).selectOption('update');
+    await page.waitForURL((url) => url.searchParams.get('action') === 'update' && url.searchParams.has('userId'));
     await page.getByText('1 change matches the filters').waitFor();
     await table.getByText('4100').waitFor();
     const today = new Date().toISOString().slice(0, 10);

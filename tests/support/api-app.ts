@@ -8,6 +8,7 @@
 // up: `app.owner`, `app.wineryId`, `app.other`, `app.members.technician`, `app.world`. A file
 // that needs more rows registers its own beforeAll after this call (hooks run in order).
 import { afterAll, beforeAll } from 'vitest';
+import type { AppConfig } from '../../server/app';
 import type { Role } from '../../shared/permissions';
 import type { TenantContext } from '../../server/middleware/authorize';
 import { createPlanWorld, fillTrainHousings, stockPlanWorld, type PlanWorld } from '../factories/plans';
@@ -43,6 +44,8 @@ export type ApiAppOptions = {
   world?: 'bare' | 'stocked' | 'filled';
   /** Also start a fake S3 server. */
   withStorage?: boolean;
+  /** App settings for this file (e.g. `{ answerCacheBytes: 0 }` to test what lies under the kept answers). */
+  config?: Partial<AppConfig>;
 };
 
 export type ApiApp = TestApp & {
@@ -75,7 +78,7 @@ type SetUp = {
 export function setupApiApp(opts: ApiAppOptions = {}): ApiApp {
   let done: SetUp | undefined;
   beforeAll(async () => {
-    const app = await startTestApp({ withStorage: opts.withStorage });
+    const app = await startTestApp({ withStorage: opts.withStorage, config: opts.config });
     const setUp: SetUp = { app, members: {}, memberEmails: {} };
     done = setUp;
     if (opts.wineryName !== undefined) setUp.owner = await signUp(app.baseUrl, { wineryName: opts.wineryName });
@@ -132,7 +135,7 @@ export function setupApiApp(opts: ApiAppOptions = {}): ApiApp {
     },
   };
   // The running TestApp's own fields, read through once the app has started.
-  for (const key of ['baseUrl', 'mail', 'db', 'pool', 'queue', 'alerts', 'close'] as const) {
+  for (const key of ['baseUrl', 'mail', 'db', 'pool', 'queue', 'alerts', 'answers', 'close'] as const) {
     Object.defineProperty(answer, key, { enumerable: true, get: () => started().app[key] });
   }
   return answer as ApiApp;

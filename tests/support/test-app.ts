@@ -1,4 +1,5 @@
 // Starts the real app over HTTP against the real test database, with the fake SMTP server.
+import type { AnswerCache } from '../../server/middleware/answer-cache';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import { createApp, type AppConfig } from '../../server/app';
@@ -22,6 +23,8 @@ export type TestApp = {
   /** The app's own job queue (its own pg-boss schema, so parallel test files never share jobs). */
   queue: Queue;
   alerts: AlertsService;
+  /** The app's kept read answers (server/middleware/answer-cache.ts): its counters tell a reuse. */
+  answers: AnswerCache;
   close(): Promise<void>;
 };
 
@@ -105,6 +108,7 @@ export async function startTestApp(
     pool,
     queue,
     alerts: alerts!,
+    answers: handler.locals.answers as AnswerCache,
     async close() {
       await new Promise<void>((r) => {
         server.close(() => r());

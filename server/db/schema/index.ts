@@ -11,3 +11,4 @@ export * from './alerts';
 export * from './audit';
 export * from './logger';
 export * from './learnings';
+export * from './changes';

@@ -64,14 +64,14 @@ const readCsv: RequestHandler = (req, res, next) => {
  * (also technicians, who do the physical work). Retiring is a decision about the record,
  * not a move of the day, so it sits with registering.
  */
-export function cartridgesRoutes({ db }: ModuleDeps) {
+export function cartridgesRoutes({ db, answers }: ModuleDeps) {
   const router = Router();
   const service = createCartridgesService(db);
   const read = [requireSignedIn, authorize(db, 'cartridges:read')];
   const register = [requireSignedIn, authorize(db, 'cartridges:register')];
   const moveGuard = [requireSignedIn, authorize(db, 'cartridges:move')];
 
-  router.get('/cartridges', ...read, withQuery(cartridgeListQuerySchema, async (_req, res, query) => {
+  router.get('/cartridges', ...read, answers.reuse, withQuery(cartridgeListQuerySchema, async (_req, res, query) => {
     res.json(await service.list(tenantOf(res), query));
   }));
 
@@ -100,7 +100,7 @@ export function cartridgesRoutes({ db }: ModuleDeps) {
     res.status(201).json(await service.register(tenantOf(res), body));
   }));
 
-  router.get('/cartridges/:id', ...read, async (req, res) => {
+  router.get('/cartridges/:id', ...read, answers.reuse, async (req, res) => {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Cartridge')));
   });
 

@@ -22,7 +22,7 @@ import { createPlansService } from './plans.service';
  * draft and edit ('plans:draft'); owners and cellar masters approve, reopen and mark done
  * ('plans:approve').
  */
-export function plansRoutes({ db }: ModuleDeps) {
+export function plansRoutes({ db, answers }: ModuleDeps) {
   const router = Router();
   const service = createPlansService(db);
   const read = [requireSignedIn, authorize(db, 'plans:read')];
@@ -32,13 +32,13 @@ export function plansRoutes({ db }: ModuleDeps) {
   const planLotId = (req: Request) => idParam(req, 'planLotId', 'Lot of this plan');
   const trainId = (req: Request) => idParam(req, 'trainId', 'Train');
 
-  router.get('/plans', ...read, withQuery(planListQuerySchema, async (_req, res, query) => {
+  router.get('/plans', ...read, answers.reuse, withQuery(planListQuerySchema, async (_req, res, query) => {
     res.json(await service.list(tenantOf(res), query));
   }));
   router.post('/plans', ...draft, idempotent(db), withBody(createPlanInputSchema, async (_req, res, body) => {
     res.status(201).json(await service.create(tenantOf(res), body));
   }));
-  router.get('/plans/:id', ...read, async (req, res) => {
+  router.get('/plans/:id', ...read, answers.reuse, async (req, res) => {
     res.json(await service.get(tenantOf(res), planId(req)));
   });
   router.patch('/plans/:id', ...draft, withBody(updatePlanInputSchema, async (req, res, body) => {

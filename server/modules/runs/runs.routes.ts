@@ -24,13 +24,13 @@ import { createRunsService } from './runs.service';
  * ('runs:read'); owners, cellar masters, winemakers and technicians start runs, log
  * readings and close runs ('runs:log').
  */
-export function runsRoutes({ db }: ModuleDeps) {
+export function runsRoutes({ db, answers }: ModuleDeps) {
   const router = Router();
   const service = createRunsService(db);
   const read = [requireSignedIn, authorize(db, 'runs:read')];
   const log = [requireSignedIn, authorize(db, 'runs:log')];
 
-  router.get('/runs', ...read, async (_req, res) => {
+  router.get('/runs', ...read, answers.reuse, async (_req, res) => {
     res.json(await service.list(tenantOf(res)));
   });
   router.get('/runs/start-options', ...read, async (_req, res) => {
@@ -51,11 +51,11 @@ export function runsRoutes({ db }: ModuleDeps) {
   router.post('/runs', ...log, idempotent(db), withBody(startRunInputSchema, async (_req, res, body) => {
     res.status(201).json(await service.start(tenantOf(res), body));
   }));
-  router.get('/runs/:id', ...read, async (req, res) => {
+  router.get('/runs/:id', ...read, answers.reuse, async (req, res) => {
     res.json(await service.detail(tenantOf(res), idParam(req, 'id', 'Run')));
   });
   // The run's stored readings, newest first, a page at a time (the run detail carries only the chart's points).
-  router.get('/runs/:id/readings', ...read, withQuery(runReadingsQuerySchema, async (req, res, query) => {
+  router.get('/runs/:id/readings', ...read, answers.reuse, withQuery(runReadingsQuerySchema, async (req, res, query) => {
     res.json(await service.readings(tenantOf(res), idParam(req, 'id', 'Run'), query));
   }));
   // Idempotent by the reading's clientKey: a resent reading answers the stored one.
