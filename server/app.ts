@@ -32,6 +32,7 @@ import { outboxRoutes } from './modules/outbox/outbox.routes';
 import { invitationRoutes, teamRoutes } from './modules/team/team.routes';
 import { auditRoutes } from './modules/audit/audit.routes';
 import { createAnswerCache } from './middleware/answer-cache';
+import { routeBySegment } from './lib/route-by-segment';
 import { exportRoutes } from './modules/export/export.routes';
 import { attachmentsRoutes } from './modules/attachments/attachments.routes';
 import { cartridgesRoutes } from './modules/cartridges/cartridges.routes';
@@ -154,26 +155,31 @@ export function createApp(deps: AppDeps): Express {
   api.use('/invitations', invitationRoutes({ auth, service: teamService }));
   api.use('/calc', calcRoutes({ db }));
   if (deps.outbox) api.use('/dev/outbox', outboxRoutes({ outbox: deps.outbox, db, key: deps.outboxKey }));
-  // Domain modules declare their own paths (/tanks, /lots, /housings, …) and guard each one.
+  // Domain modules declare their own paths (/tanks, /lots, /housings, …) and guard each one; each
+  // request goes only to the modules with routes under its first path segment.
   const answers = createAnswerCache({ maxBytes: config.answerCacheBytes ?? 32 * 1024 * 1024 });
   app.locals.answers = answers;
   const moduleDeps: ModuleDeps = { db, storage: deps.storage, mailer, appUrl: config.appUrl, answers };
-  api.use(cellarRoutes(moduleDeps));
-  api.use(equipmentRoutes(moduleDeps));
-  api.use(cartridgesRoutes(moduleDeps));
-  api.use(attachmentsRoutes(moduleDeps));
-  api.use(winerySettingsRoutes(moduleDeps));
-  api.use(todayRoutes(moduleDeps));
-  api.use(plansRoutes(moduleDeps));
-  api.use(hosePresetsRoutes(moduleDeps));
-  api.use(careRoutes(moduleDeps));
-  api.use(runsRoutes(moduleDeps));
-  api.use(loggerRoutes(moduleDeps));
-  api.use(recordsRoutes(moduleDeps));
-  api.use(alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }));
-  api.use(auditRoutes(moduleDeps));
-  api.use(exportRoutes(moduleDeps));
-  api.use(archiveRoutes(moduleDeps));
+  api.use(
+    routeBySegment([
+      cellarRoutes(moduleDeps),
+      equipmentRoutes(moduleDeps),
+      cartridgesRoutes(moduleDeps),
+      attachmentsRoutes(moduleDeps),
+      winerySettingsRoutes(moduleDeps),
+      todayRoutes(moduleDeps),
+      plansRoutes(moduleDeps),
+      hosePresetsRoutes(moduleDeps),
+      careRoutes(moduleDeps),
+      runsRoutes(moduleDeps),
+      loggerRoutes(moduleDeps),
+      recordsRoutes(moduleDeps),
+      alertsRoutes({ db, service: alerts, calendar: createCalendarService({ db, appUrl: config.appUrl }) }),
+      auditRoutes(moduleDeps),
+      exportRoutes(moduleDeps),
+      archiveRoutes(moduleDeps),
+    ]),
+  );
   api.use(notFoundHandler);
   app.use('/api', api);
 
