@@ -26,7 +26,7 @@ const originalUse = routerProto.use;
 /** Every (method, full path) of the app, from Express's own router. */
 function enumerateRoutes(app: Express): RouteInfo[] {
   const out: RouteInfo[] = [];
-  type Layer = { route?: { path: unknown; methods: Record<string, boolean> }; handle: { stack?: Layer[] } };
+  type Layer = { route?: { path: unknown; methods: Record<string, boolean> }; handle: { stack?: Layer[]; routers?: { stack: Layer[] }[] } };
   const walk = (stack: Layer[], prefix: string) => {
     for (const layer of stack) {
       if (layer.route) {
@@ -36,6 +36,9 @@ function enumerateRoutes(app: Express): RouteInfo[] {
         }
       } else if (Array.isArray(layer.handle.stack)) {
         walk(layer.handle.stack, prefix + (mountPaths.get(layer.handle) ?? ''));
+      } else if (Array.isArray(layer.handle.routers)) {
+        // routeBySegment (server/lib/route-by-segment.ts): its routers, where it is mounted
+        for (const router of layer.handle.routers) walk(router.stack, prefix);
       }
     }
   };
