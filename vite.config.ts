@@ -58,6 +58,9 @@ export default defineConfig({
   },
   test: {
     reporters: ['default'],
+    // Two workers even on a 2-core machine (the default would be one): the server tests and the
+    // browser tests then run side by side, each project still one file at a time.
+    maxWorkers: 2,
     projects: [
       {
         resolve: { alias },
@@ -108,6 +111,9 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/setup/global-db.ts'],
           fileParallelism: false,
+          // A browser test that times out while the whole suite loads both cores runs once more
+          // (each test sets up its own winery); a failure that repeats still fails the run.
+          retry: 1,
           testTimeout: 60_000,
           hookTimeout: 120_000,
         },
