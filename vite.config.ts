@@ -58,9 +58,6 @@ export default defineConfig({
   },
   test: {
     reporters: ['default'],
-    // Two workers even on a 2-core machine (the default would be one): the server tests and the
-    // browser tests then run side by side, each project still one file at a time.
-    maxWorkers: 2,
     projects: [
       {
         resolve: { alias },
