@@ -2,8 +2,14 @@
 // (winery, transaction) that wrote its data; the session lookup (server/lib/auth.ts) reads the
 // version as the folded count plus those rows. Folding keeps the rows few; it moves them into
 // the count in one statement, so the version a reader sees never changes by being folded.
-import { sql } from 'drizzle-orm';
+import { sql, type SQL, type SQLWrapper } from 'drizzle-orm';
 import type { DbOrTx } from './client';
+
+/** The version of the winery `wineryId` names (a column or a value), as text: the count plus the rows. */
+export function dataVersionOf(wineryId: SQLWrapper | string): SQL<string | null> {
+  return sql<string | null>`(select (coalesce((select c.n from winery_change_counts c where c.winery_id = ${wineryId}), 0)
+    + (select count(*) from winery_changes w where w.winery_id = ${wineryId}))::text)`;
+}
 
 /** How often each server process folds (any number may fold at once: a row is folded once). */
 export const FOLD_EVERY_MS = 30_000;
@@ -16,7 +22,6 @@ export async function foldWineryChanges(db: DbOrTx): Promise<number> {
 
 /** The winery's data version now (what the session lookup reads), as text: it only grows. */
 export async function wineryDataVersion(db: DbOrTx, wineryId: string): Promise<string> {
-  const { rows } = await db.execute<{ v: string }>(sql`select (coalesce((select c.n from winery_change_counts c where c.winery_id = ${wineryId}), 0)
-    + (select count(*) from winery_changes w where w.winery_id = ${wineryId}))::text as v`);
+  const { rows } = await db.execute<{ v: string }>(sql`select ${dataVersionOf(wineryId)} as v`);
   return rows[0].v;
 }

@@ -3,6 +3,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import type { Role } from '../../shared/permissions';
 import type { Database } from '../db/client';
+import { dataVersionOf } from '../db/winery-changes';
 import { membershipsTable, sessionsTable, usersTable } from '../db/schema';
 
 export const SESSION_COOKIE = 'porewise_session';
@@ -25,8 +26,7 @@ function sessionAdapter(db: Database): Adapter {
       activeRole: membershipsTable.role,
       // The active winery's data version (migrations 0024–0025), read in this same round trip: it
       // keys the stored answers (server/middleware/answer-cache.ts).
-      dataVersion: sql<string | null>`(select (coalesce((select c.n from winery_change_counts c where c.winery_id = ${usersTable.activeWineryId}), 0)
-        + (select count(*) from winery_changes w where w.winery_id = ${usersTable.activeWineryId}))::text)`,
+      dataVersion: dataVersionOf(usersTable.activeWineryId),
     })
     .from(sessionsTable)
     .innerJoin(usersTable, eq(usersTable.id, sessionsTable.userId))
