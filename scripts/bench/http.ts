@@ -25,6 +25,7 @@ const DB = 'porewise_bench';
 const SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 3);
 const CONNECTIONS = 10;
 const WIDE = 50;
+const INGEST_CLIENTS = 100;
 const BIG_WINERY = '7a2e0c1d-0000-4000-8000-00000000a10c';
 const BIG_OWNER = 'benchowner10k001';
 
@@ -38,8 +39,11 @@ function quantile(sorted: number[], q: number) {
   return sorted[Math.min(sorted.length - 1, Math.floor((sorted.length - 1) * q))];
 }
 
-/** `connections` keep-alive loops, each sending one GET after the other for `seconds`. */
-async function slice(port: number, urlPath: string, headers: Record<string, string>, connections: number, seconds: number): Promise<Slice> {
+/**
+ * `connections` keep-alive loops, each sending one request after the other for `seconds`: a GET,
+ * or a POST of `body()` (a new body each time) when given. Any 2xx counts as answered.
+ */
+async function slice(port: number, urlPath: string, headers: Record<string, string>, connections: number, seconds: number, body?: () => string): Promise<Slice> {
   const agent = new http.Agent({ keepAlive: true, maxSockets: connections });
   const latencies: number[] = [];
   let errors = 0;
@@ -47,10 +51,13 @@ async function slice(port: number, urlPath: string, headers: Record<string, stri
   const one = () =>
     new Promise<void>((resolve) => {
       const t0 = performance.now();
-      const req = http.get({ host: '127.0.0.1', port, path: urlPath, agent, headers }, (res) => {
+      const payload = body?.();
+      const method = payload === undefined ? 'GET' : 'POST';
+      const sent = payload === undefined ? headers : { ...headers, 'content-type': 'application/json' };
+      const req = http.request({ host: '127.0.0.1', port, path: urlPath, agent, method, headers: sent }, (res) => {
         res.on('data', () => {});
         res.on('end', () => {
-          if (res.statusCode !== 200) errors += 1;
+          if (!res.statusCode || res.statusCode < 200 || res.statusCode > 299) errors += 1;
           else latencies.push(performance.now() - t0);
           resolve();
         });
@@ -59,6 +66,7 @@ async function slice(port: number, urlPath: string, headers: Record<string, stri
         errors += 1;
         resolve();
       });
+      req.end(payload);
     });
   const start = performance.now();
   await Promise.all(
@@ -81,10 +89,10 @@ function summarise(slices: Slice[]): Load {
  * The app and its peer in alternating half-second slices, so both see the same load from
  * anything else on the machine; `seconds` of each in all.
  */
-async function compare(targets: { port: number; path: string; headers: Record<string, string> }[], connections: number, seconds: number): Promise<Load[]> {
+async function compare(targets: { port: number; path: string; headers: Record<string, string>; body?: () => string }[], connections: number, seconds: number): Promise<Load[]> {
   const slices: Slice[][] = targets.map(() => []);
   for (let round = 0; round < seconds * 2; round++) {
-    for (const [i, t] of targets.entries()) slices[i].push(await slice(t.port, t.path, t.headers, connections, 0.5));
+    for (const [i, t] of targets.entries()) slices[i].push(await slice(t.port, t.path, t.headers, connections, 0.5, t.body));
   }
   return slices.map(summarise);
 }
@@ -296,6 +304,37 @@ export async function report() {
     console.log(`  run detail, 5,000 readings, cold (no stored figures) ${fmt(run5kCold)} ms, once   (the first read after a change)`);
     console.log(`  Today with that run at 5,000 readings ${fmt(today5k)} ms (demo before it grew ${fmt(demoToday)} ms); cold ${fmt(today5kCold)} ms, once`);
     console.log(`  readings table page (10 of 2,500) ${fmt(page5k)} ms; a reading's POST with its stage ${(posted.text.length / 1024).toFixed(1)} KB`);
+
+    // Reading ingest on one run: 100 clients posting readings (each with its own key; one volume
+    // for all, so none is refused for litres going down whatever order they arrive in), against
+    // the bare app's single INSERT … ON CONFLICT into the same table for the same run (the
+    // table's triggers fire for both); then /api/health and the cartridge list, one request at a
+    // time, idle and while the 100 clients post.
+    let key = 0;
+    const reading = (extra: Record<string, unknown>) => () =>
+      JSON.stringify({ clientKey: `ingest-${String((key += 1))}`, stageIndex: key % 2, volumeL: 400_000, upstreamBar: 2.5, downstreamBar: 0.1, ...extra });
+    const appPost = { port: appPort, path: `${runPath}/readings`, headers: { cookie, origin: `http://127.0.0.1:${String(appPort)}` }, body: reading({}) };
+    const barePost = { port: barePort, path: `${runPath}/readings`, headers: {}, body: reading({ wineryId: demoWineries.quillwater.id }) };
+    await compare([appPost, barePost], INGEST_CLIENTS, 0.5); // warm-up
+    const [ingestApp, ingestBare] = await compare([appPost, barePost], INGEST_CLIENTS, SECONDS);
+    console.log(`  Reading ingest, ${String(INGEST_CLIENTS)} clients on one run, app and bare in alternating half-second slices`);
+    console.log(
+      `  app ${fmt(ingestApp.rps).padStart(6)} readings/s (p50 ${fmt(ingestApp.p50)} ms)   bare INSERT … ON CONFLICT ${fmt(ingestBare.rps).padStart(6)}/s (p50 ${fmt(ingestBare.p50)} ms)   → app at ${((ingestApp.rps / ingestBare.rps) * 100).toFixed(0)} % of bare (goal ≥ 50 %)${ingestApp.errors ? `   ${String(ingestApp.errors)} errors` : ''}`,
+    );
+    const probes: [string, string, Record<string, string>][] = [
+      ['/api/health', '/api/health', {}],
+      ['cartridge list', '/api/cartridges?page=1&pageSize=50&probe=1', { cookie }],
+    ];
+    for (const [name, p, h] of probes) {
+      const idle = summarise([await slice(appPort, p, h, 1, SECONDS)]);
+      const [busy] = await Promise.all([
+        slice(appPort, p, h, 1, SECONDS).then((x) => summarise([x])),
+        slice(appPort, appPost.path, appPost.headers, INGEST_CLIENTS, SECONDS, appPost.body),
+      ]);
+      console.log(
+        `  ${name.padEnd(15)} p50 idle ${fmt(idle.p50)} ms, while ${String(INGEST_CLIENTS)} clients post readings ${fmt(busy.p50)} ms → ${(busy.p50 / idle.p50).toFixed(1)}× idle (goal ≤ 3×)`,
+      );
+    }
     const plan10k = async (sql: string, params: unknown[]) => {
       const res = await client.query(`explain ${sql}`, params);
       return (res.rows as { 'QUERY PLAN': string }[])

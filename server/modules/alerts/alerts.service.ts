@@ -96,9 +96,23 @@ function presentNotification(n: { notification: { id: string; readAt: Date | nul
   };
 }
 
-type Deps = { db: Database; mailer: Mailer; appUrl: string };
+type Deps = {
+  db: Database;
+  mailer: Mailer;
+  appUrl: string;
+  /** Least time between the starts of two evaluations of one winery after writes (default EVALUATE_GAP_MS). */
+  evaluateGapMs?: number;
+};
 
-export function createAlertsService({ db, mailer, appUrl }: Deps) {
+/**
+ * After a quiet spell the first write is evaluated at once; while writes keep coming (a run's
+ * readings every second, a logger pushing hundreds), the winery is evaluated at most once in this
+ * long, after the last of them. An evaluation reads every running run's figures, which a steady
+ * stream of readings keeps changing; evaluated after each write, it would take a core.
+ */
+export const EVALUATE_GAP_MS = 2_000;
+
+export function createAlertsService({ db, mailer, appUrl, evaluateGapMs = EVALUATE_GAP_MS }: Deps) {
   const repo = createAlertsRepository(db);
   const plans = createPlansService(db);
   const cellar = createCellarService(db);
@@ -289,10 +303,12 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
     return db.transaction((tx) => openAndClear(tx, wineryId, found, now, { clearKinds: stock ? WITH_STOCK : SWEPT }));
   }
 
-  // Evaluations after requests: one at a time per winery; a request during one asks for another
-  // (with the stock check when any of the requests asked for it).
+  // Evaluations after requests: one at a time per winery, starts at least `evaluateGapMs` apart;
+  // a request during one (or during the wait) asks for another, with the stock check when any of
+  // the requests asked for it.
   const running = new Map<string, Promise<void>>();
   const again = new Map<string, boolean>();
+  const lastStart = new Map<string, number>();
   function evaluateSoon(wineryId: string, opts: { stock?: boolean } = {}) {
     if (running.has(wineryId)) {
       again.set(wineryId, (again.get(wineryId) ?? false) || opts.stock === true);
@@ -301,6 +317,9 @@ export function createAlertsService({ db, mailer, appUrl }: Deps) {
     again.set(wineryId, opts.stock === true);
     const run = (async () => {
       do {
+        const wait = (lastStart.get(wineryId) ?? -Infinity) + evaluateGapMs - Date.now();
+        if (wait > 0) await new Promise((r) => setTimeout(r, wait));
+        lastStart.set(wineryId, Date.now());
         const stock = again.get(wineryId) ?? false;
         again.delete(wineryId);
         try {

@@ -44,6 +44,7 @@ import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 import { reallocateClosedRun, runEndLitres, stintLitres } from './runs.reallocate';
 import { readinessAtStart } from '../records/readiness-at-start';
+import { createKeyedQueue } from '../../lib/keyed-queue';
 
 /** Roles that may start a run despite overridable start checks, with a written reason. */
 const OVERRIDE_ROLES = ['owner', 'cellar-master'] as const;
@@ -324,6 +325,8 @@ export function runForBulkReadings(tx: DbOrTx, wineryId: string, runId: string) 
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
+  /** Readings of one run are stored one statement after the other in this process (see keyed-queue). */
+  const readingTurns = createKeyedQueue();
 
   /**
    * The run's summary, plan context and the figures of its stages (all, or just one). The
@@ -720,7 +723,8 @@ export function createRunsService(db: Database) {
         throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
       }
       const stored =
-        (await repo.insertReadingIfOpen(t.wineryId, runId, t.userId, toNew(input))) ?? (await repo.readingByKey(t.wineryId, runId, input.clientKey));
+        (await readingTurns.run(runId, () => repo.insertReadingIfOpen(t.wineryId, runId, t.userId, toNew(input)))) ??
+        (await repo.readingByKey(t.wineryId, runId, input.clientKey));
       if (!stored) throw await refusal(t.wineryId, runId, input);
       const reading = presentReading(stored);
       if (!opts.withStage) return reading;
@@ -738,7 +742,7 @@ export function createRunsService(db: Database) {
      * again, so a resent batch stores nothing twice, even after the run was closed.
      */
     async logReadingsBatch(t: TenantContext, runId: string, input: LogReadingsBatchInput): Promise<ReadingsBatchResultDto> {
-      return db.transaction(async (tx) => {
+      return readingTurns.run(runId, () => db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
         const keys = input.readings.map((x) => x.clientKey);
         const ctx = await r.batchContext(t.wineryId, runId, keys);
@@ -775,7 +779,7 @@ export function createRunsService(db: Database) {
           fresh.map(({ x }) => ({ ...toNew(x), at: x.at ? new Date(x.at) : now, wineryId: t.wineryId, runId, createdBy: t.userId, createdByName: t.userName ?? null })),
         );
         return { stored, duplicates: input.readings.length - stored };
-      });
+      }));
     },
 
     /**
