@@ -50,3 +50,20 @@ export async function writeCacheWithoutWaiting(db: DbOrTx, write: (tx: DbOrTx) =
     throw error;
   }
 }
+
+type DriverClient = { query(config: { text: string; values?: unknown[]; name?: string }): Promise<{ rows: unknown[] }> };
+
+/** The node-postgres client under a handle: the pool, or the client of the open transaction (so SQL sent here joins it). */
+export function driverClientOf(db: DbOrTx): DriverClient {
+  return (db as unknown as { session: { client: DriverClient } }).session.client;
+}
+
+/**
+ * Raw SQL as a named prepared statement on the handle's connection: PostgreSQL plans it once per
+ * connection instead of on every call (for the hottest writes, whose CTEs Drizzle's builder cannot
+ * prepare). `name` must be unique to `text`. Parameters are positional ($1, $2, …).
+ */
+export async function executeNamed(db: DbOrTx, name: string, text: string, values: unknown[]): Promise<Record<string, unknown>[]> {
+  const result = await driverClientOf(db).query({ name, text, values });
+  return result.rows as Record<string, unknown>[];
+}

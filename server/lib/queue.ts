@@ -1,7 +1,7 @@
 // The durable job queue: pg-boss in the same PostgreSQL (its own schema). Mail is a job enqueued
 // in the transaction of the change that causes it, so a crash loses neither the change nor the mail.
 import PgBoss from 'pg-boss';
-import type { DbOrTx } from '../db/client';
+import { driverClientOf, type DbOrTx } from '../db/client';
 import type { Env } from '../env';
 import { logger } from './logger';
 import type { MailMessage, Mailer } from './mail';
@@ -53,8 +53,8 @@ export function queueOptionsFrom(env: Env, workers?: boolean): QueueOptions {
 
 /** pg-boss's "db" option: its SQL run on the caller's connection, so it joins the caller's transaction. */
 function executorOf(db: DbOrTx) {
-  const client = (db as unknown as { session: { client: { query(text: string, values?: unknown[]): Promise<{ rows: unknown[] }> } } }).session.client;
-  return { executeSql: (text: string, values?: unknown[]) => client.query(text, values) };
+  const client = driverClientOf(db);
+  return { executeSql: (text: string, values?: unknown[]) => client.query({ text, values }) };
 }
 
 export type Queue = Awaited<ReturnType<typeof createQueue>>;

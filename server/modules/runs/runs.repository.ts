@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { writeCacheWithoutWaiting, type DbOrTx } from '../../db/client';
+import { executeNamed, writeCacheWithoutWaiting, type DbOrTx } from '../../db/client';
 import { findOwnRow, lockedOwnRow, lockOwnRow } from '../../db/list';
 import {
   usersTable,
@@ -90,6 +90,35 @@ export type RunSummaryRow = {
   currentVolumeL: number;
   readingCount: number;
 };
+
+/**
+ * One reading in a single statement (see `insertReadingIfOpen`), prepared once per connection:
+ * readings of one run are stored one after the other, so each statement's planning time would
+ * add to every reading's wait. $1 stage, $2 at or null, $3 litres, $4 upstream, $5 downstream,
+ * $6 flow, $7 temperature, $8 client key, $9 user, $10 winery, $11 run.
+ */
+const INSERT_READING_IF_OPEN = `
+  with ins as (
+    insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
+    select r.winery_id, r.id, $1::int, coalesce($2::timestamptz, now()),
+           $3::double precision, $4::double precision, $5::double precision,
+           $6::double precision, $7::double precision, $8::text, $9::text,
+           (select u.name from users u where u.id = $9::text)
+    from runs r
+    join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
+    join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
+    where r.winery_id = $10::uuid and r.id = $11::uuid and r.status = 'running'
+      and jsonb_array_length(t.stages) > $1::int
+      and $3::double precision >= coalesce(
+        (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = $1::int), 0)
+    for no key update of r
+    on conflict (run_id, client_key) do nothing
+    returning *
+  ), bump as (
+    update runs set reading_count = runs.reading_count + 1, current_volume_l = greatest(runs.current_volume_l, ins.volume_l)
+    from ins where runs.id = ins.run_id
+  )
+  select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`;
 
 export function createRunsRepository(db: DbOrTx) {
   function summaries(wineryId: string) {
@@ -297,30 +326,20 @@ export function createRunsRepository(db: DbOrTx) {
      * a resend of a stored key, or a check failed (the caller finds out which).
      */
     async insertReadingIfOpen(wineryId: string, runId: string, userId: string, r: NewReading): Promise<RunReadingRow | null> {
-      const result = await db.execute(sql`
-        with ins as (
-          insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
-          select r.winery_id, r.id, ${r.stageIndex}::int, coalesce(${r.at ? r.at.toISOString() : null}::timestamptz, now()),
-                 ${r.volumeL}::double precision, ${r.upstreamBar}::double precision, ${r.downstreamBar}::double precision,
-                 ${r.flowLh}::double precision, ${r.tempC}::double precision, ${r.clientKey}::text, ${userId}::text,
-                 (select u.name from users u where u.id = ${userId}::text)
-          from runs r
-          join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
-          join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
-          where r.winery_id = ${wineryId}::uuid and r.id = ${runId}::uuid and r.status = 'running'
-            and jsonb_array_length(t.stages) > ${r.stageIndex}::int
-            and ${r.volumeL}::double precision >= coalesce(
-              (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = ${r.stageIndex}::int), 0)
-          for no key update of r
-          on conflict (run_id, client_key) do nothing
-          returning *
-        ), bump as (
-          update runs set reading_count = runs.reading_count + 1, current_volume_l = greatest(runs.current_volume_l, ins.volume_l)
-          from ins where runs.id = ins.run_id
-        )
-        select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`);
-      const row = result.rows[0] as Record<string, unknown> | undefined;
-      return row ? readingFromRaw(row) : null;
+      const rows = await executeNamed(db, 'runs_insert_reading_if_open', INSERT_READING_IF_OPEN, [
+        r.stageIndex,
+        r.at ? r.at.toISOString() : null,
+        r.volumeL,
+        r.upstreamBar,
+        r.downstreamBar,
+        r.flowLh,
+        r.tempC,
+        r.clientKey,
+        userId,
+        wineryId,
+        runId,
+      ]);
+      return rows[0] ? readingFromRaw(rows[0]) : null;
     },
 
     /**
