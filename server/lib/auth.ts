@@ -1,4 +1,5 @@
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
+import DataLoader from 'dataloader';
 import { and, eq, sql } from 'drizzle-orm';
 import { Lucia, TimeSpan, type Adapter, type DatabaseSession, type DatabaseUser } from 'lucia';
 import type { Role } from '../../shared/permissions';
@@ -10,11 +11,17 @@ export const SESSION_COOKIE = 'porewise_session';
 
 /**
  * The Drizzle adapter, with the per-request lookup replaced by one prepared query: the
- * session, the person (never the password hash) and their role in their active winery.
+ * session, the person (never the password hash), their role in their active winery and its
+ * data version.
  */
 function sessionAdapter(db: Database): Adapter {
   const base = new DrizzlePostgreSQLAdapter(db, sessionsTable, usersTable);
-  const lookup = db
+  // The sessions asked for while the process reads one round of incoming requests are looked up
+  // together, in one query (`= any($1)`), when that round is done (setImmediate): under load, a
+  // few round trips carry many requests' sessions; alone, a request waits no longer than one
+  // turn of the event loop. Nothing is cached: each request still reads its session, role and
+  // data version after it arrived.
+  const lookupMany = db
     .select({
       id: sessionsTable.id,
       userId: sessionsTable.userId,
@@ -31,8 +38,17 @@ function sessionAdapter(db: Database): Adapter {
     .from(sessionsTable)
     .innerJoin(usersTable, eq(usersTable.id, sessionsTable.userId))
     .leftJoin(membershipsTable, and(eq(membershipsTable.userId, usersTable.id), eq(membershipsTable.wineryId, usersTable.activeWineryId)))
-    .where(eq(sessionsTable.id, sql.placeholder('id')))
-    .prepare('porewise_session_lookup');
+    .where(sql`${sessionsTable.id} = any(${sql.placeholder('ids')}::text[])`)
+    .prepare('porewise_session_lookup_many');
+  type Row = Awaited<ReturnType<typeof lookupMany.execute>>[number];
+  const sessions = new DataLoader<string, Row | null>(
+    async (ids) => {
+      const rows = await lookupMany.execute({ ids: [...ids] });
+      const byId = new Map(rows.map((r) => [r.id, r]));
+      return ids.map((id) => byId.get(id) ?? null);
+    },
+    { cache: false, maxBatchSize: 200, batchScheduleFn: (dispatch) => setImmediate(dispatch) },
+  );
   return {
     getUserSessions: (userId) => base.getUserSessions(userId),
     setSession: (session) => base.setSession(session),
@@ -41,7 +57,7 @@ function sessionAdapter(db: Database): Adapter {
     deleteUserSessions: (userId) => base.deleteUserSessions(userId),
     deleteExpiredSessions: () => base.deleteExpiredSessions(),
     async getSessionAndUser(id): Promise<[DatabaseSession | null, DatabaseUser | null]> {
-      const [row] = await lookup.execute({ id });
+      const row = await sessions.load(id);
       if (!row) return [null, null];
       return [
         { id: row.id, userId: row.userId, expiresAt: row.expiresAt, attributes: {} },

@@ -92,31 +92,46 @@ export type RunSummaryRow = {
 };
 
 /**
- * One reading in a single statement (see `insertReadingIfOpen`), prepared once per connection:
- * readings of one run are stored one after the other, so each statement's planning time would
- * add to every reading's wait. $1 stage, $2 at or null, $3 litres, $4 upstream, $5 downstream,
- * $6 flow, $7 temperature, $8 client key, $9 user, $10 winery, $11 run.
+ * Readings of one run in a single statement (see `insertReadingsIfOpen`), prepared once per
+ * connection. $1–$9 are arrays, one element per reading in arrival order (stage, at or null,
+ * litres, upstream, downstream, flow, temperature, client key, user); $10 winery, $11 run.
+ * A reading is stored only while the run is running and has the stage, and when its litres are
+ * not below the stage's highest so far, counting the readings before it in the same statement
+ * (the running maximum): the same outcome as storing them one after the other in that order.
+ * A key already stored, or twice in the statement, is stored once (the first). A reading sent
+ * without its time is stamped with the statement's time, a microsecond apart in arrival order.
  */
-const INSERT_READING_IF_OPEN = `
-  with ins as (
-    insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
-    select r.winery_id, r.id, $1::int, coalesce($2::timestamptz, now()),
-           $3::double precision, $4::double precision, $5::double precision,
-           $6::double precision, $7::double precision, $8::text, $9::text,
-           (select u.name from users u where u.id = $9::text)
+const INSERT_READINGS_IF_OPEN = `
+  with input as (
+    select * from unnest($1::int[], $2::timestamptz[], $3::double precision[], $4::double precision[], $5::double precision[],
+                         $6::double precision[], $7::double precision[], $8::text[], $9::text[])
+      with ordinality as x(stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, ord)
+  ), run as (
+    select r.winery_id, r.id, jsonb_array_length(t.stages) as stage_count
     from runs r
     join plan_lots pl on pl.id = r.plan_lot_id and pl.winery_id = r.winery_id
     join plan_trains t on t.id = pl.chosen_train_id and t.winery_id = r.winery_id
     where r.winery_id = $10::uuid and r.id = $11::uuid and r.status = 'running'
-      and jsonb_array_length(t.stages) > $1::int
-      and $3::double precision >= coalesce(
-        (select max(x.volume_l) from run_readings x where x.run_id = r.id and x.stage_index = $1::int), 0)
     for no key update of r
+  ), checked as (
+    select i.*, run.winery_id, run.id as run_id,
+           max(i.volume_l) over (partition by i.stage_index order by i.ord rows between unbounded preceding and 1 preceding) as before_in_statement
+    from input i cross join run
+    where i.stage_index < run.stage_count
+  ), ins as (
+    insert into run_readings (winery_id, run_id, stage_index, at, volume_l, upstream_bar, downstream_bar, flow_lh, temp_c, client_key, created_by, created_by_name)
+    select c.winery_id, c.run_id, c.stage_index, coalesce(c.at, now() + (c.ord - 1) * interval '1 microsecond'), c.volume_l, c.upstream_bar, c.downstream_bar,
+           c.flow_lh, c.temp_c, c.client_key, c.created_by, (select u.name from users u where u.id = c.created_by)
+    from checked c
+    where c.volume_l >= greatest(coalesce(c.before_in_statement, 0),
+            coalesce((select max(x.volume_l) from run_readings x where x.run_id = c.run_id and x.stage_index = c.stage_index), 0))
+    order by c.ord
     on conflict (run_id, client_key) do nothing
     returning *
   ), bump as (
-    update runs set reading_count = runs.reading_count + 1, current_volume_l = greatest(runs.current_volume_l, ins.volume_l)
-    from ins where runs.id = ins.run_id
+    update runs set reading_count = runs.reading_count + n.stored, current_volume_l = greatest(runs.current_volume_l, n.top)
+    from (select count(*)::int as stored, max(volume_l) as top from ins) n
+    where runs.id = $11::uuid and n.stored > 0
   )
   select ins.*, u.name as by_name from ins left join users u on u.id = ins.created_by`;
 
@@ -318,28 +333,29 @@ export function createRunsRepository(db: DbOrTx) {
     },
 
     /**
-     * Stores one reading in a single statement, only while the run is running and has the stage
-     * and the litres do not go down, and counts it on the run (reading_count, current_volume_l).
-     * The run row is locked for this statement alone (readings of one run take turns for the
-     * length of one insert), and a close (which takes the row for update) either comes first,
-     * and then this stores nothing, or waits for it. Null when nothing was stored:
-     * a resend of a stored key, or a check failed (the caller finds out which).
+     * Stores readings of one run (sent by one or several people, in arrival order) in a single
+     * statement, each only while the run is running and has its stage and its litres do not go
+     * down, and counts them on the run (reading_count, current_volume_l). The run row is locked
+     * for this statement alone, and a close (which takes the row for update) either comes first,
+     * and then this stores nothing, or waits for it. Answers the rows stored; a reading missing
+     * from them was a resend of a stored key or failed a check (the caller finds out which).
      */
-    async insertReadingIfOpen(wineryId: string, runId: string, userId: string, r: NewReading): Promise<RunReadingRow | null> {
-      const rows = await executeNamed(db, 'runs_insert_reading_if_open', INSERT_READING_IF_OPEN, [
-        r.stageIndex,
-        r.at ? r.at.toISOString() : null,
-        r.volumeL,
-        r.upstreamBar,
-        r.downstreamBar,
-        r.flowLh,
-        r.tempC,
-        r.clientKey,
-        userId,
+    async insertReadingsIfOpen(wineryId: string, runId: string, items: { reading: NewReading; userId: string }[]): Promise<RunReadingRow[]> {
+      const col = <T>(f: (x: { reading: NewReading; userId: string }) => T) => items.map(f);
+      const rows = await executeNamed(db, 'runs_insert_readings_if_open', INSERT_READINGS_IF_OPEN, [
+        col((x) => x.reading.stageIndex),
+        col((x) => (x.reading.at ? x.reading.at.toISOString() : null)),
+        col((x) => x.reading.volumeL),
+        col((x) => x.reading.upstreamBar),
+        col((x) => x.reading.downstreamBar),
+        col((x) => x.reading.flowLh),
+        col((x) => x.reading.tempC),
+        col((x) => x.reading.clientKey),
+        col((x) => x.userId),
         wineryId,
         runId,
       ]);
-      return rows[0] ? readingFromRaw(rows[0]) : null;
+      return rows.map(readingFromRaw);
     },
 
     /**

@@ -39,7 +39,7 @@ import type { TenantContext } from '../../middleware/authorize';
 import { cartridgeMovesIn } from '../cartridges/cartridges.service';
 import { cyclesOf, isOverridable, litresText, startChecks } from './runs.checks';
 import { effectiveReadings, presentChange, presentReading, presentRunSummary, presentStageCartridge, type EffectiveReading } from './runs.presenter';
-import { createRunsRepository, type CorrectionInsert, type NewReading, type NewReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
+import { createRunsRepository, type CorrectionInsert, type NewReading, type NewReadingRow, type RunReadingRow, type RunsRepository, type RunStageCartridgeRow } from './runs.repository';
 import { auditSnapshot, recordChange } from '../audit/audit.service';
 import { gaugeResolutionFor } from '../winery-settings/winery-settings.service';
 import { reallocateClosedRun, runEndLitres, stintLitres } from './runs.reallocate';
@@ -322,11 +322,63 @@ export function runForBulkReadings(tx: DbOrTx, wineryId: string, runId: string) 
   return createRunsRepository(tx).batchContext(wineryId, runId, []);
 }
 
+/** At most this many single readings of one run go into one statement (the rest take the next turn). */
+const READINGS_PER_STATEMENT = 200;
+
 /** Runs: one planned lot filtered through its chosen train, followed by pressure readings per stage. */
 export function createRunsService(db: Database) {
   const repo = createRunsRepository(db);
-  /** Readings of one run are stored one statement after the other in this process (see keyed-queue). */
+  /**
+   * Readings of one run are written one statement after the other in this process (see
+   * keyed-queue), so they wait in memory, not on a pooled connection. The single readings that
+   * arrive while a statement runs go together in the next one: one commit for all of them
+   * (PostgreSQL's own group commit cannot help writers that take turns on the run's row).
+   */
   const readingTurns = createKeyedQueue();
+  type WaitingReading = { userId: string; reading: NewReading; resolve: (row: RunReadingRow | null) => void; reject: (error: unknown) => void };
+  const waitingReadings = new Map<string, WaitingReading[]>();
+  const turnKey = (wineryId: string, runId: string) => `${wineryId}:${runId}`;
+
+  /** Stores one reading in the run's next turn, with the others waiting then; null when it was not stored (resent key, or a check failed). */
+  function storeReadingInTurn(wineryId: string, runId: string, userId: string, reading: NewReading): Promise<RunReadingRow | null> {
+    return new Promise((resolve, reject) => {
+      const key = turnKey(wineryId, runId);
+      const waiting = waitingReadings.get(key);
+      const item = { userId, reading, resolve, reject };
+      // A list in the map always has a turn queued that will take it.
+      if (waiting) {
+        waiting.push(item);
+        return;
+      }
+      waitingReadings.set(key, [item]);
+      void readingTurns.run(key, () => storeWaiting(wineryId, runId));
+    });
+  }
+
+  async function storeWaiting(wineryId: string, runId: string) {
+    const key = turnKey(wineryId, runId);
+    const waiting = waitingReadings.get(key) ?? [];
+    const items = waiting.splice(0, READINGS_PER_STATEMENT);
+    if (waiting.length === 0) waitingReadings.delete(key);
+    else void readingTurns.run(key, () => storeWaiting(wineryId, runId));
+    const settle = (group: WaitingReading[], rows: RunReadingRow[]) => {
+      const byKey = new Map(rows.map((r) => [r.clientKey, r]));
+      for (const x of group) x.resolve(byKey.get(x.reading.clientKey) ?? null);
+    };
+    try {
+      settle(items, await repo.insertReadingsIfOpen(wineryId, runId, items));
+    } catch (error) {
+      if (items.length === 1) return items[0].reject(error);
+      // One reading's failure is its own: store them one by one, so only that one fails.
+      for (const x of items) {
+        try {
+          settle([x], await repo.insertReadingsIfOpen(wineryId, runId, [x]));
+        } catch (own) {
+          x.reject(own);
+        }
+      }
+    }
+  }
 
   /**
    * The run's summary, plan context and the figures of its stages (all, or just one). The
@@ -723,8 +775,7 @@ export function createRunsService(db: Database) {
         throw badRequest('Check the reading.', { downstreamBar: 'Downstream pressure cannot be above upstream; check the gauges.' });
       }
       const stored =
-        (await readingTurns.run(runId, () => repo.insertReadingIfOpen(t.wineryId, runId, t.userId, toNew(input)))) ??
-        (await repo.readingByKey(t.wineryId, runId, input.clientKey));
+        (await storeReadingInTurn(t.wineryId, runId, t.userId, toNew(input))) ?? (await repo.readingByKey(t.wineryId, runId, input.clientKey));
       if (!stored) throw await refusal(t.wineryId, runId, input);
       const reading = presentReading(stored);
       if (!opts.withStage) return reading;
@@ -742,7 +793,7 @@ export function createRunsService(db: Database) {
      * again, so a resent batch stores nothing twice, even after the run was closed.
      */
     async logReadingsBatch(t: TenantContext, runId: string, input: LogReadingsBatchInput): Promise<ReadingsBatchResultDto> {
-      return readingTurns.run(runId, () => db.transaction(async (tx) => {
+      return readingTurns.run(turnKey(t.wineryId, runId), () => db.transaction(async (tx) => {
         const r = createRunsRepository(tx);
         const keys = input.readings.map((x) => x.clientKey);
         const ctx = await r.batchContext(t.wineryId, runId, keys);
