@@ -26,6 +26,8 @@ const SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 3);
 const CONNECTIONS = 10;
 const WIDE = 50;
 const INGEST_CLIENTS = 100;
+/** BENCH_HTTP_PARTS=ingest,wide (of load, wide, today, runpage, ingest) runs only those parts; all by default. */
+const PARTS = new Set((process.env.BENCH_HTTP_PARTS ?? 'load,wide,today,runpage,ingest').split(',').map((x) => x.trim()));
 const BIG_WINERY = '7a2e0c1d-0000-4000-8000-00000000a10c';
 const BIG_OWNER = 'benchowner10k001';
 
@@ -219,34 +221,6 @@ export async function report() {
     const bare = await startProcess(['bare', String(barePort), file], env);
     children.push(bare);
 
-    console.log(`  ${String(CONNECTIONS)} connections, ${String(SECONDS)} s each, app and bare in alternating half-second slices`);
-    const headers = { cookie };
-    for (const [name, p] of endpoints) {
-      await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, 0.5); // warm-up
-      const [a, b] = await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, SECONDS);
-      const kb = (JSON.stringify(bodies[p]).length / 1024).toFixed(1);
-      console.log(
-        `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s (p50 ${fmt(a.p50)} ms, p95 ${fmt(a.p95)} ms)   bare ${fmt(b.rps).padStart(6)} req/s   → app at ${((a.rps / b.rps) * 100).toFixed(0)} % of bare   (${kb} KB${a.errors ? `, ${String(a.errors)} errors` : ''})`,
-      );
-    }
-
-    console.log(`  ${String(WIDE)} connections, ${String(SECONDS)} s each: the app, the bare app serving the same JSON, and the app's /api/health, in turns (goal: app p95 ≤ 50 ms)`);
-    for (const [name, p] of endpoints) {
-      const [a, b, h] = await compare(
-        [
-          { port: appPort, path: p, headers },
-          { port: barePort, path: p, headers: {} },
-          { port: appPort, path: '/api/health', headers: {} },
-        ],
-        WIDE,
-        SECONDS,
-      );
-      console.log(
-        `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s   p50 ${fmt(a.p50)} ms   p95 ${fmt(a.p95)} ms   (bare p95 ${fmt(b.p95)} ms at ${fmt(b.rps)} req/s; health p95 ${fmt(h.p95)} ms)${a.errors ? `   ${String(a.errors)} errors` : ''}`,
-      );
-    }
-
-    // Today at 10,000 cartridges: one request at a time, against Today on the demo.
     const bigCookie = await signIn(appPort, 'owner@bench10k.test');
     const once = async (c: string, p: string) => {
       const t0 = performance.now();
@@ -260,89 +234,139 @@ export async function report() {
       for (let i = 0; i < n; i++) for (const [j, [c, p]] of targets.entries()) times[j].push(await once(c, p));
       return times.map((t) => quantile(t.sort((x, y) => x - y), 0.5));
     };
-    await alternating(4, [cookie, '/api/today'], [bigCookie, '/api/today']);
-    const [demoToday, bigToday] = await alternating(20, [cookie, '/api/today'], [bigCookie, '/api/today']);
-    const bigBody = (await request(appPort, 'GET', '/api/today', undefined, bigCookie)).json;
-    console.log('  Today, one request at a time, demo and 10k taking turns (median)');
-    console.log(`  demo data        ${fmt(demoToday)} ms`);
-    console.log(
-      `  10,000 cartridges ${fmt(bigToday)} ms   → ${(bigToday / demoToday).toFixed(1)}× the demo   (${String(bigBody.cartridges.attentionTotal)} cartridges to look at)`,
-    );
-    // Cold: every stored life check removed, so this one request works out all of them again.
-    await client.query(`delete from cartridge_life_flags f using cartridges c where c.id = f.cartridge_id and c.winery_id = $1`, [BIG_WINERY]);
-    const cold = await once(bigCookie, '/api/today');
-    console.log(`  10,000 cartridges, cold (no stored life check) ${fmt(cold)} ms, once   (the first visit after a change checks only the cartridges it touched)`);
-    const [demoList, bySort, search] = await alternating(
-      15,
-      [cookie, '/api/cartridges?page=1&pageSize=50'],
-      [bigCookie, '/api/cartridges?sort=receivedAt&order=desc&page=3&pageSize=50'],
-      [bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50'],
-    );
-    console.log(`  cartridge list, demo ${fmt(demoList)} ms; at 10k sorted by received date ${fmt(bySort)} ms (${(bySort / demoList).toFixed(1)}×), searched ${fmt(search)} ms (${(search / demoList).toFixed(1)}×)`);
-    // The run page at 5,000 readings against the same run at 100 (one request at a time, median;
-    // the run is measured at 100, then grown to 5,000 through the batch endpoint).
     const runPath = `/api/runs/${run.id as string}`;
-    await alternating(4, [cookie, runPath]);
-    const [run100] = await alternating(20, [cookie, runPath]);
-    const kb100 = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
-    for (let from = 100; from < 5000; from += 1000) {
-      const readings = Array.from({ length: Math.min(1000, 5000 - from) }, (_x, k) => {
-        const i = from + k;
-        return { clientKey: `bench-${String(i)}`, stageIndex: i % 2, volumeL: 60 * (i + 1), upstreamBar: 1.4 + (i - 100) * 0.0002, downstreamBar: 0.1 };
-      });
-      const res = await request(appPort, 'POST', `${runPath}/readings/batch`, { readings }, cookie);
-      if (res.status !== 200) throw new Error(`readings batch: ${String(res.status)}`);
+    const headers = { cookie };
+    if (PARTS.has('load')) {
+      console.log(`  ${String(CONNECTIONS)} connections, ${String(SECONDS)} s each, app and bare in alternating half-second slices`);
+      for (const [name, p] of endpoints) {
+        await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, 0.5); // warm-up
+        const [a, b] = await compare([{ port: appPort, path: p, headers }, { port: barePort, path: p, headers: {} }], CONNECTIONS, SECONDS);
+        const kb = (JSON.stringify(bodies[p]).length / 1024).toFixed(1);
+        console.log(
+          `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s (p50 ${fmt(a.p50)} ms, p95 ${fmt(a.p95)} ms)   bare ${fmt(b.rps).padStart(6)} req/s   → app at ${((a.rps / b.rps) * 100).toFixed(0)} % of bare   (${kb} KB${a.errors ? `, ${String(a.errors)} errors` : ''})`,
+        );
+      }
     }
-    await alternating(4, [cookie, runPath]);
-    const [run5k, page5k] = await alternating(20, [cookie, runPath], [cookie, `${runPath}/readings?stage=0&page=1&pageSize=10`]);
-    const kb5k = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
-    // Today with that run in progress at 5,000 readings (its stored figures current), against Today before it grew.
-    const [today5k] = await alternating(20, [cookie, '/api/today']);
-    // Cold: the run's stored figures removed, so the next request works them out from every reading again.
-    await client.query(`delete from run_figures where run_id = $1`, [run.id]);
-    const run5kCold = await once(cookie, runPath);
-    await client.query(`delete from run_figures where run_id = $1`, [run.id]);
-    const today5kCold = await once(cookie, '/api/today');
-    const posted = await request(appPort, 'POST', `${runPath}/readings?with=stage`, { clientKey: 'bench-5000', stageIndex: 0, volumeL: 60 * 5001, upstreamBar: 2.4, downstreamBar: 0.1 }, cookie);
-    console.log('  Run page, one request at a time (median), the same run at 100 and then 5,000 readings');
-    console.log(`  run detail, 100 readings   ${fmt(run100)} ms   ${kb100.toFixed(1)} KB`);
-    console.log(
-      `  run detail, 5,000 readings ${fmt(run5k)} ms   ${kb5k.toFixed(1)} KB   → ${(run5k / run100).toFixed(1)}× the time, ${(kb5k / kb100).toFixed(1)}× the bytes (goal ≤ 2×, ≤ 150 KB)`,
-    );
-    console.log(`  run detail, 5,000 readings, cold (no stored figures) ${fmt(run5kCold)} ms, once   (the first read after a change)`);
-    console.log(`  Today with that run at 5,000 readings ${fmt(today5k)} ms (demo before it grew ${fmt(demoToday)} ms); cold ${fmt(today5kCold)} ms, once`);
-    console.log(`  readings table page (10 of 2,500) ${fmt(page5k)} ms; a reading's POST with its stage ${(posted.text.length / 1024).toFixed(1)} KB`);
 
-    // Reading ingest on one run: 100 clients posting readings (each with its own key; one volume
-    // for all, so none is refused for litres going down whatever order they arrive in), against
-    // the bare app's single INSERT … ON CONFLICT into the same table for the same run (the
-    // table's triggers fire for both); then /api/health and the cartridge list, one request at a
-    // time, idle and while the 100 clients post.
-    let key = 0;
-    const reading = (extra: Record<string, unknown>) => () =>
-      JSON.stringify({ clientKey: `ingest-${String((key += 1))}`, stageIndex: key % 2, volumeL: 400_000, upstreamBar: 2.5, downstreamBar: 0.1, ...extra });
-    const appPost = { port: appPort, path: `${runPath}/readings`, headers: { cookie, origin: `http://127.0.0.1:${String(appPort)}` }, body: reading({}) };
-    const barePost = { port: barePort, path: `${runPath}/readings`, headers: {}, body: reading({ wineryId: demoWineries.quillwater.id }) };
-    await compare([appPost, barePost], INGEST_CLIENTS, 0.5); // warm-up
-    const [ingestApp, ingestBare] = await compare([appPost, barePost], INGEST_CLIENTS, SECONDS);
-    console.log(`  Reading ingest, ${String(INGEST_CLIENTS)} clients on one run, app and bare in alternating half-second slices`);
-    console.log(
-      `  app ${fmt(ingestApp.rps).padStart(6)} readings/s (p50 ${fmt(ingestApp.p50)} ms)   bare INSERT … ON CONFLICT ${fmt(ingestBare.rps).padStart(6)}/s (p50 ${fmt(ingestBare.p50)} ms)   → app at ${((ingestApp.rps / ingestBare.rps) * 100).toFixed(0)} % of bare (goal ≥ 50 %)${ingestApp.errors ? `   ${String(ingestApp.errors)} errors` : ''}`,
-    );
-    const probes: [string, string, Record<string, string>][] = [
-      ['/api/health', '/api/health', {}],
-      ['cartridge list', '/api/cartridges?page=1&pageSize=50&probe=1', { cookie }],
-    ];
-    for (const [name, p, h] of probes) {
-      const idle = summarise([await slice(appPort, p, h, 1, SECONDS)]);
-      const [busy] = await Promise.all([
-        slice(appPort, p, h, 1, SECONDS).then((x) => summarise([x])),
-        slice(appPort, appPost.path, appPost.headers, INGEST_CLIENTS, SECONDS, appPost.body),
-      ]);
-      console.log(
-        `  ${name.padEnd(15)} p50 idle ${fmt(idle.p50)} ms, while ${String(INGEST_CLIENTS)} clients post readings ${fmt(busy.p50)} ms → ${(busy.p50 / idle.p50).toFixed(1)}× idle (goal ≤ 3×)`,
-      );
+    if (PARTS.has('wide')) {
+      console.log(`  ${String(WIDE)} connections, ${String(SECONDS)} s each: the app, the bare app serving the same JSON, and the app's /api/health, in turns (goal: app p95 ≤ 50 ms)`);
+      for (const [name, p] of endpoints) {
+        const [a, b, h] = await compare(
+          [
+            { port: appPort, path: p, headers },
+            { port: barePort, path: p, headers: {} },
+            { port: appPort, path: '/api/health', headers: {} },
+          ],
+          WIDE,
+          SECONDS,
+        );
+        console.log(
+          `  ${name.padEnd(15)} app ${fmt(a.rps).padStart(6)} req/s   p50 ${fmt(a.p50)} ms   p95 ${fmt(a.p95)} ms   (bare p95 ${fmt(b.p95)} ms at ${fmt(b.rps)} req/s; health p95 ${fmt(h.p95)} ms)${a.errors ? `   ${String(a.errors)} errors` : ''}`,
+        );
+      }
     }
+
+    let demoToday = NaN;
+    let bigToday = NaN;
+    if (PARTS.has('today')) {
+      // Today at 10,000 cartridges: one request at a time, against Today on the demo.
+      await alternating(4, [cookie, '/api/today'], [bigCookie, '/api/today']);
+      [demoToday, bigToday] = await alternating(20, [cookie, '/api/today'], [bigCookie, '/api/today']);
+      const bigBody = (await request(appPort, 'GET', '/api/today', undefined, bigCookie)).json;
+      console.log('  Today, one request at a time, demo and 10k taking turns (median)');
+      console.log(`  demo data        ${fmt(demoToday)} ms`);
+      console.log(
+        `  10,000 cartridges ${fmt(bigToday)} ms   → ${(bigToday / demoToday).toFixed(1)}× the demo   (${String(bigBody.cartridges.attentionTotal)} cartridges to look at)`,
+      );
+      // Cold: every stored life check removed, so this one request works out all of them again.
+      await client.query(`delete from cartridge_life_flags f using cartridges c where c.id = f.cartridge_id and c.winery_id = $1`, [BIG_WINERY]);
+      const cold = await once(bigCookie, '/api/today');
+      console.log(`  10,000 cartridges, cold (no stored life check) ${fmt(cold)} ms, once   (the first visit after a change checks only the cartridges it touched)`);
+      const [demoList, bySort, search] = await alternating(
+        15,
+        [cookie, '/api/cartridges?page=1&pageSize=50'],
+        [bigCookie, '/api/cartridges?sort=receivedAt&order=desc&page=3&pageSize=50'],
+        [bigCookie, '/api/cartridges?q=BX-0042&page=1&pageSize=50'],
+      );
+      console.log(`  cartridge list, demo ${fmt(demoList)} ms; at 10k sorted by received date ${fmt(bySort)} ms (${(bySort / demoList).toFixed(1)}×), searched ${fmt(search)} ms (${(search / demoList).toFixed(1)}×)`);
+    }
+
+    if (PARTS.has('runpage')) {
+      // The run page at 5,000 readings against the same run at 100 (one request at a time, median;
+      // the run is measured at 100, then grown to 5,000 through the batch endpoint).
+      await alternating(4, [cookie, runPath]);
+      const [run100] = await alternating(20, [cookie, runPath]);
+      const kb100 = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
+      for (let from = 100; from < 5000; from += 1000) {
+        const readings = Array.from({ length: Math.min(1000, 5000 - from) }, (_x, k) => {
+          const i = from + k;
+          return { clientKey: `bench-${String(i)}`, stageIndex: i % 2, volumeL: 60 * (i + 1), upstreamBar: 1.4 + (i - 100) * 0.0002, downstreamBar: 0.1 };
+        });
+        const res = await request(appPort, 'POST', `${runPath}/readings/batch`, { readings }, cookie);
+        if (res.status !== 200) throw new Error(`readings batch: ${String(res.status)}`);
+      }
+      await alternating(4, [cookie, runPath]);
+      const [run5k, page5k] = await alternating(20, [cookie, runPath], [cookie, `${runPath}/readings?stage=0&page=1&pageSize=10`]);
+      const kb5k = (await request(appPort, 'GET', runPath, undefined, cookie)).text.length / 1024;
+      // Today with that run in progress at 5,000 readings (its stored figures current), against Today before it grew.
+      const [today5k] = await alternating(20, [cookie, '/api/today']);
+      // Cold: the run's stored figures removed, so the next request works them out from every reading again.
+      await client.query(`delete from run_figures where run_id = $1`, [run.id]);
+      const run5kCold = await once(cookie, runPath);
+      await client.query(`delete from run_figures where run_id = $1`, [run.id]);
+      const today5kCold = await once(cookie, '/api/today');
+      const posted = await request(appPort, 'POST', `${runPath}/readings?with=stage`, { clientKey: 'bench-5000', stageIndex: 0, volumeL: 60 * 5001, upstreamBar: 2.4, downstreamBar: 0.1 }, cookie);
+      console.log('  Run page, one request at a time (median), the same run at 100 and then 5,000 readings');
+      console.log(`  run detail, 100 readings   ${fmt(run100)} ms   ${kb100.toFixed(1)} KB`);
+      console.log(
+        `  run detail, 5,000 readings ${fmt(run5k)} ms   ${kb5k.toFixed(1)} KB   → ${(run5k / run100).toFixed(1)}× the time, ${(kb5k / kb100).toFixed(1)}× the bytes (goal ≤ 2×, ≤ 150 KB)`,
+      );
+      console.log(`  run detail, 5,000 readings, cold (no stored figures) ${fmt(run5kCold)} ms, once   (the first read after a change)`);
+      console.log(`  Today with that run at 5,000 readings ${fmt(today5k)} ms (demo before it grew ${fmt(demoToday)} ms); cold ${fmt(today5kCold)} ms, once`);
+      console.log(`  readings table page (10 of 2,500) ${fmt(page5k)} ms; a reading's POST with its stage ${(posted.text.length / 1024).toFixed(1)} KB`);
+    }
+
+    if (PARTS.has('ingest')) {
+      // Reading ingest on one run: 100 clients posting readings (each with its own key; one volume
+      // for all, so none is refused for litres going down whatever order they arrive in), against
+      // the bare app's single INSERT … ON CONFLICT into the same table for the same run (the
+      // table's triggers fire for both); then /api/health and the cartridge list, one request at a
+      // time, idle and while the 100 clients post.
+      let key = 0;
+      const reading = (extra: Record<string, unknown>) => () =>
+        JSON.stringify({ clientKey: `ingest-${String((key += 1))}`, stageIndex: key % 2, volumeL: 400_000, upstreamBar: 2.5, downstreamBar: 0.1, ...extra });
+      const appPost = { port: appPort, path: `${runPath}/readings`, headers: { cookie, origin: `http://127.0.0.1:${String(appPort)}` }, body: reading({}) };
+      const barePost = { port: barePort, path: `${runPath}/readings`, headers: {}, body: reading({ wineryId: demoWineries.quillwater.id }) };
+      await compare([appPost, barePost], INGEST_CLIENTS, 0.5); // warm-up
+      const [ingestApp, ingestBare] = await compare([appPost, barePost], INGEST_CLIENTS, SECONDS);
+      console.log(`  Reading ingest, ${String(INGEST_CLIENTS)} clients on one run, app and bare in alternating half-second slices`);
+      console.log(
+        `  app ${fmt(ingestApp.rps).padStart(6)} readings/s (p50 ${fmt(ingestApp.p50)} ms)   bare INSERT … ON CONFLICT ${fmt(ingestBare.rps).padStart(6)}/s (p50 ${fmt(ingestBare.p50)} ms)   → app at ${((ingestApp.rps / ingestBare.rps) * 100).toFixed(0)} % of bare (goal ≥ 50 %)${ingestApp.errors ? `   ${String(ingestApp.errors)} errors` : ''}`,
+      );
+      const probes: [string, string, Record<string, string>][] = [
+        ['/api/health', '/api/health', {}],
+        ['cartridge list', '/api/cartridges?page=1&pageSize=50&probe=1', { cookie }],
+      ];
+      for (const [name, p, h] of probes) {
+        const idle = summarise([await slice(appPort, p, h, 1, SECONDS)]);
+        // The crowd in its own process: the probe's answers must not wait behind its callbacks here.
+        const crowd = await startProcess(['post', String(appPort), appPost.path, String(INGEST_CLIENTS), String(SECONDS + 1), cookie, '{}'], env);
+        await new Promise((r) => setTimeout(r, 500));
+        const busy = summarise([await slice(appPort, p, h, 1, SECONDS)]);
+        const done = await new Promise<{ n: number }>((resolve) => {
+          let out = '';
+          crowd.stdout!.on('data', (d: Buffer) => {
+            out += d.toString();
+            const line = out.split('\n').find((l) => l.startsWith('{'));
+            if (line) resolve(JSON.parse(line) as { n: number });
+          });
+        });
+        console.log(
+          `  ${name.padEnd(15)} p50 idle ${fmt(idle.p50)} ms, while ${String(INGEST_CLIENTS)} clients post readings (${fmt(done.n / (SECONDS + 1))}/s) ${fmt(busy.p50)} ms → ${(busy.p50 / idle.p50).toFixed(1)}× idle (goal ≤ 3×)`,
+        );
+      }
+    }
+
     const plan10k = async (sql: string, params: unknown[]) => {
       const res = await client.query(`explain ${sql}`, params);
       return (res.rows as { 'QUERY PLAN': string }[])
