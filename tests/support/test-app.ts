@@ -14,6 +14,7 @@ import { createAlertsService, type AlertsService } from '../../server/modules/al
 import { randomBytes } from 'node:crypto';
 import { createS3Storage, type Storage } from '../../server/lib/storage';
 import { databaseUrl } from '../../scripts/lib/postgres';
+import { duringSchemaChange } from './schema-lock';
 
 export type TestApp = {
   baseUrl: string;
@@ -64,13 +65,15 @@ export async function startTestApp(
     };
   }
   const smtp = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
-  const queue = await createQueue({
-    connectionString: databaseUrl('porewise_test'),
-    schema: `pgboss_t_${randomBytes(6).toString('hex')}`,
-    mailRetryDelaySeconds: opts.mailRetryDelaySeconds ?? 1,
-    mailRetryLimit: opts.mailRetryLimit ?? 3,
-    pollingIntervalSeconds: 0.5,
-  });
+  const queue = await duringSchemaChange(pool, () =>
+    createQueue({
+      connectionString: databaseUrl('porewise_test'),
+      schema: `pgboss_t_${randomBytes(6).toString('hex')}`,
+      mailRetryDelaySeconds: opts.mailRetryDelaySeconds ?? 1,
+      mailRetryLimit: opts.mailRetryLimit ?? 3,
+      pollingIntervalSeconds: 0.5,
+    }),
+  );
   const mailer = queuedMailer(queue);
   let alerts: AlertsService | null = null;
   const app = (baseUrl: string) =>
@@ -117,7 +120,7 @@ export async function startTestApp(
       mailOf.delete(baseUrl);
       await alerts!.idle();
       await queue.stop();
-      await pool.query(`drop schema if exists ${queue.schema} cascade`).catch(() => {});
+      await duringSchemaChange(pool, () => pool.query(`drop schema if exists ${queue.schema} cascade`)).catch(() => {});
       await mail.close();
       await closeStorage();
       await pool.end();
