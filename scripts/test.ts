@@ -1,7 +1,7 @@
 // `npm test`: the same set-up as `npm start` (own database), then the whole suite —
 // unit, integration over HTTP against PostgreSQL, and end-to-end in headless Chromium.
 import { execFileSync, spawn } from 'node:child_process';
-import { createWriteStream, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, mkdirSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { runAudit } from './lib/audit';
 import { buildClientIfChanged } from './lib/build';
@@ -31,24 +31,49 @@ function ensureDebianPackage(program: string, pkg: string, name: string, neededF
 async function main() {
   const startedCluster = startCluster();
   let status = 1;
+  let lanes: Lane[] = [];
   try {
     await prepareTestDatabase({ fresh: true });
     ensureDebianPackage('/usr/bin/chromium', 'chromium', 'Chromium', 'for the browser tests');
     ensureDebianPackage('/usr/bin/pdftotext', 'poppler-utils', 'poppler-utils', 'to check the record PDFs');
     ensureDebianPackage('/usr/bin/unzip', 'unzip', 'unzip', 'for the export tests');
     buildClientIfChanged();
-    console.log('[porewise] type-checking and linting …');
-    execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });
-    execFileSync(join(root, 'node_modules/.bin/eslint'), ['.', '--max-warnings=0'], { cwd: root, stdio: 'inherit' });
-    const auditOk = runAudit(root);
 
     const tmp = join(root, '.data', 'tmp');
     rmSync(tmp, { recursive: true, force: true });
     mkdirSync(tmp, { recursive: true });
     const env = { ...process.env, NODE_ENV: 'test', TMPDIR: tmp, POREWISE_TEST_DB_READY: '1' };
     const extra = process.argv.slice(2);
-    // Arguments after `npm test --` (a file, a project) go to one plain vitest run.
-    const results = extra.length ? [await runVitest('all', extra, env)] : await runLanes(env);
+
+    // Two lanes start as soon as the client is built, beside the type check, lint and audit:
+    // the browser tests, and the unit and API tests (much of either is waiting on a browser, the
+    // database or the job queue, so two cores keep up). They share the test database: every test
+    // file signs up its own wineries, and each test app has its own job-queue schema, mail server
+    // and rate-limit counters, so neither lane sees the other's data.
+    const e2eLog = join(root, '.data', 'vitest-e2e.log');
+    if (!extra.length) {
+      console.log(`[porewise] the browser tests run beside the others; their output follows at the end (as it happens: ${e2eLog})`);
+      lanes.push(startVitest('e2e', ['--project', 'e2e'], { ...env, FORCE_COLOR: process.stdout.isTTY ? '1' : '0' }, e2eLog));
+      lanes.push(startVitest('main', ['--project', 'shared', '--project', 'client', '--project', 'server'], env));
+    }
+    console.log('[porewise] type-checking and linting …');
+    execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });
+    execFileSync(join(root, 'node_modules/.bin/eslint'), ['.', '--max-warnings=0'], { cwd: root, stdio: 'inherit' });
+    const auditOk = runAudit(root);
+
+    let results: LaneResult[];
+    if (extra.length) {
+      // Arguments after `npm test --` (a file, a project) go to one plain vitest run.
+      results = [await startVitest('all', extra, env).done];
+    } else {
+      const [e2e, others] = await Promise.all(lanes.map((lane) => lane.done));
+      lanes = [];
+      console.log('\n[porewise] browser tests (e2e):');
+      process.stdout.write(readFileSync(e2eLog, 'utf8'));
+      // The faults last and alone: they restart the database cluster and stop servers.
+      const faults = await startVitest('faults', ['--project', 'faults'], env).done;
+      results = [others, e2e, faults];
+    }
     status = results.every((r) => r.status === 0) ? 0 : 1;
     writeMergedReport(results);
     if (!auditOk && status === 0) {
@@ -61,6 +86,8 @@ async function main() {
     if (missing.length) console.log(`\n[porewise] no test report from: ${missing.join(', ')} (the test runner stopped early)`);
     console.log(`\n${passed} passed, ${failed + missing.length} failed`);
   } finally {
+    // A failed type check or lint ends the run: the test lanes stop with it.
+    await Promise.all(lanes.map((lane) => lane.stop()));
     if (startedCluster) stopCluster();
   }
   process.exit(status);
@@ -68,53 +95,35 @@ async function main() {
 
 type VitestReport = { numPassedTests: number; numFailedTests: number; numTotalTests: number; success: boolean; startTime: number; testResults: unknown[] } & Record<string, unknown>;
 type LaneResult = { name: string; status: number; report: VitestReport | null };
+type Lane = { done: Promise<LaneResult>; stop(): Promise<LaneResult> };
 
 /**
- * One `vitest run` with its own JSON report (.data/vitest-<name>.json). With `logFile`, its
- * output goes to that file instead of the terminal (printed by the caller when it is done).
+ * Starts one `vitest run` with its own JSON report (.data/vitest-<name>.json). With `logFile`,
+ * its output goes straight to that file (the caller prints it when the run is done).
  */
-function runVitest(name: string, args: string[], env: NodeJS.ProcessEnv, logFile?: string): Promise<LaneResult> {
+function startVitest(name: string, args: string[], env: NodeJS.ProcessEnv, logFile?: string): Lane {
   const report = join(root, '.data', `vitest-${name}.json`);
   rmSync(report, { force: true });
+  const log = logFile ? openSync(logFile, 'w') : null;
   const child = spawn(join(root, 'node_modules/.bin/vitest'), ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...args], {
     cwd: root,
     env,
-    stdio: logFile ? ['ignore', 'pipe', 'pipe'] : 'inherit',
+    stdio: log === null ? 'inherit' : ['ignore', log, log],
   });
-  const out = logFile ? createWriteStream(logFile) : null;
-  if (out) {
-    child.stdout!.pipe(out, { end: false });
-    child.stderr!.pipe(out, { end: false });
-  }
-  return new Promise((resolvePromise) => {
+  if (log !== null) closeSync(log);
+  const done = new Promise<LaneResult>((resolvePromise) => {
     child.on('close', (code) => {
       const parsed = existsSync(report) ? (JSON.parse(readFileSync(report, 'utf8')) as VitestReport) : null;
-      const result = { name, status: code ?? 1, report: parsed };
-      // 'close' comes after the child's output ended; the log file is whole once its stream finishes.
-      if (out) out.end(() => resolvePromise(result));
-      else resolvePromise(result);
+      resolvePromise({ name, status: code ?? 1, report: parsed });
     });
   });
-}
-
-/**
- * The suite in lanes. The browser tests (mostly waiting on Chromium and the app) and the rest
- * (unit tests, then the API tests, one file at a time) run side by side in two vitest processes:
- * on two cores that takes little more than the browser tests alone. They share the test database;
- * every test file signs up its own wineries and its app gets its own job-queue schema, mail
- * server and rate-limit counters, so neither lane sees the other's data. The faults come last
- * and alone: they restart the database cluster and stop servers.
- */
-async function runLanes(env: NodeJS.ProcessEnv): Promise<LaneResult[]> {
-  const e2eLog = join(root, '.data', 'vitest-e2e.log');
-  console.log(`[porewise] the browser tests run alongside the others; their output follows theirs (as it happens: ${e2eLog})`);
-  const browser = runVitest('e2e', ['--project', 'e2e'], { ...env, FORCE_COLOR: process.stdout.isTTY ? '1' : '0' }, e2eLog);
-  const others = await runVitest('main', ['--project', 'shared', '--project', 'client', '--project', 'server'], env);
-  const e2e = await browser;
-  console.log('\n[porewise] browser tests (e2e):');
-  process.stdout.write(readFileSync(e2eLog, 'utf8'));
-  const faults = await runVitest('faults', ['--project', 'faults'], env);
-  return [others, e2e, faults];
+  return {
+    done,
+    stop() {
+      if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+      return done;
+    },
+  };
 }
 
 /** .data/vitest.json: the lanes' JSON reports as one (counts summed, test files listed together). */
