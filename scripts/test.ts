@@ -30,6 +30,9 @@ function ensureDebianPackage(program: string, pkg: string, name: string, neededF
 
 async function main() {
   const startedCluster = startCluster();
+  stopLanesOnSignal(() => {
+    if (startedCluster) stopCluster();
+  });
   let status = 1;
   let lanes: Lane[] = [];
   try {
@@ -57,9 +60,9 @@ async function main() {
       lanes.push(startVitest('main', ['--project', 'shared', '--project', 'client', '--project', 'server'], env));
     }
     console.log('[porewise] type-checking and linting …');
-    execFileSync(join(root, 'node_modules/.bin/tsc'), ['--noEmit'], { cwd: root, stdio: 'inherit' });
-    execFileSync(join(root, 'node_modules/.bin/eslint'), ['.', '--max-warnings=0'], { cwd: root, stdio: 'inherit' });
-    const auditOk = runAudit(root);
+    // Not execFileSync: while the lanes run, this process must stay free to pass on a Ctrl-C.
+    await runTool('tsc', ['--noEmit']);
+    await runTool('eslint', ['.', '--max-warnings=0']);
 
     let results: LaneResult[];
     if (extra.length) {
@@ -76,6 +79,8 @@ async function main() {
     }
     status = results.every((r) => r.status === 0) ? 0 : 1;
     writeMergedReport(results);
+    // After the tests: the audit waits for the registry without holding anything up.
+    const auditOk = runAudit(root);
     if (!auditOk && status === 0) {
       console.log('[porewise] the suite passed, but npm audit found high or critical advisories with a fix (see above)');
       status = 1;
@@ -93,9 +98,18 @@ async function main() {
   process.exit(status);
 }
 
+/** Runs a tool from node_modules/.bin with the terminal as its output; rejects when it fails. */
+function runTool(tool: string, args: string[]): Promise<void> {
+  const child = spawn(join(root, 'node_modules/.bin', tool), args, { cwd: root, stdio: ['ignore', 'inherit', 'inherit'] });
+  return new Promise((resolvePromise, reject) => {
+    child.on('error', reject);
+    child.on('close', (code, signal) => (code === 0 ? resolvePromise() : reject(new Error(`${tool} ${args.join(' ')} failed (${signal ?? `exit code ${code}`})`))));
+  });
+}
+
 type VitestReport = { numPassedTests: number; numFailedTests: number; numTotalTests: number; success: boolean; startTime: number; testResults: unknown[] } & Record<string, unknown>;
 type LaneResult = { name: string; status: number; report: VitestReport | null };
-type Lane = { done: Promise<LaneResult>; stop(): Promise<LaneResult> };
+type Lane = { done: Promise<LaneResult>; stop(signal?: NodeJS.Signals): Promise<LaneResult> };
 
 /**
  * Starts one `vitest run` with its own JSON report (.data/vitest-<name>.json). With `logFile`,
@@ -105,10 +119,13 @@ function startVitest(name: string, args: string[], env: NodeJS.ProcessEnv, logFi
   const report = join(root, '.data', `vitest-${name}.json`);
   rmSync(report, { force: true });
   const log = logFile ? openSync(logFile, 'w') : null;
+  // Its own process group, so stopping the run ends its workers too (a worker left behind would
+  // go on testing, Chromium with it); Ctrl-C reaches the group through stopLanesOnSignal.
   const child = spawn(join(root, 'node_modules/.bin/vitest'), ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...args], {
     cwd: root,
     env,
-    stdio: log === null ? 'inherit' : ['ignore', log, log],
+    stdio: log === null ? ['ignore', 'inherit', 'inherit'] : ['ignore', log, log],
+    detached: true,
   });
   if (log !== null) closeSync(log);
   const done = new Promise<LaneResult>((resolvePromise) => {
@@ -117,13 +134,37 @@ function startVitest(name: string, args: string[], env: NodeJS.ProcessEnv, logFi
       resolvePromise({ name, status: code ?? 1, report: parsed });
     });
   });
-  return {
+  const lane: Lane = {
     done,
-    stop() {
-      if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+    stop(signal = 'SIGTERM') {
+      if (child.exitCode === null && child.signalCode === null) {
+        try {
+          process.kill(-child.pid!, signal);
+        } catch {
+          // the group has already gone
+        }
+      }
       return done;
     },
   };
+  running.add(lane);
+  void done.then(() => running.delete(lane));
+  return lane;
+}
+
+/** The vitest runs under way, for a signal to stop. */
+const running = new Set<Lane>();
+
+/** Ctrl-C (or a SIGTERM) to `npm test` stops every vitest run, then the cluster it started. */
+function stopLanesOnSignal(onStopped: () => void) {
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.once(signal, () => {
+      void Promise.all([...running].map((lane) => lane.stop(signal))).then(() => {
+        onStopped();
+        process.exit(130);
+      });
+    });
+  }
 }
 
 /** .data/vitest.json: the lanes' JSON reports as one (counts summed, test files listed together). */
