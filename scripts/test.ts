@@ -48,7 +48,7 @@ async function main() {
     const env = { ...process.env, NODE_ENV: 'test', TMPDIR: tmp, POREWISE_TEST_DB_READY: '1' };
     const extra = process.argv.slice(2);
 
-    // Two lanes start as soon as the client is built, beside the type check, lint and audit:
+    // Two lanes start as soon as the client is built, beside the type check and lint:
     // the browser tests, and the unit and API tests (much of either is waiting on a browser, the
     // database or the job queue, so two cores keep up). They share the test database: every test
     // file signs up its own wineries, and each test app has its own job-queue schema, mail server
