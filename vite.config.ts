@@ -81,13 +81,20 @@ export default defineConfig({
           include: ['server/**/*.test.ts', 'tests/integration/**/*.test.ts'],
           globalSetup: ['tests/setup/global-db.ts'],
           fileParallelism: false,
+          // One worker keeps its imported modules from file to file: the app (Express, the S3
+          // client, the job queue …) is loaded once instead of once per file (about 5 s each).
+          // Each file still starts its own app, winery and queue schema; no test mocks modules.
+          isolate: false,
+          // Own groups (vitest wants one per worker count): after the unit tests, before e2e.
+          sequence: { groupOrder: 1 },
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
       },
       {
         // Faults (database restart, SIGKILL, stopping npm start) run after everything else, so a
-        // restarted cluster never disturbs another test.
+        // restarted cluster never disturbs another test (`npm test` runs them in a vitest run of
+        // their own, after the others).
         resolve: { alias },
         test: {
           name: 'faults',
@@ -95,7 +102,7 @@ export default defineConfig({
           include: ['tests/faults/**/*.test.ts'],
           globalSetup: ['tests/setup/global-db.ts'],
           fileParallelism: false,
-          sequence: { groupOrder: 1 },
+          sequence: { groupOrder: 3 },
           testTimeout: 120_000,
           hookTimeout: 120_000,
         },
@@ -108,6 +115,9 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/setup/global-db.ts'],
           fileParallelism: false,
+          // As the server project: modules (playwright-core, the app) imported once per run.
+          isolate: false,
+          sequence: { groupOrder: 2 },
           // A browser test that times out while the whole suite loads both cores runs once more
           // (each test sets up its own winery); a failure that repeats still fails the run.
           retry: 1,

@@ -10,7 +10,7 @@ import { ALERTS_STOCK_QUEUE } from '../../server/lib/queue';
 import { STOCK_CHECK_HOUR } from '../../server/modules/alerts/alerts.service';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody, type PlanWorld } from '../factories/plans';
 import { setupApiApp } from '../support/api-app';
-import type { Client } from '../support/test-app';
+import { jobsSettled, type Client } from '../support/test-app';
 import { until } from '../support/until';
 
 const app = setupApiApp({ wineryName: 'Forecast Ridge Winery', members: ['technician', 'cellar-master'] });
@@ -25,7 +25,7 @@ const alertsOf = (kind: string, recordId: string) =>
   app.db.select().from(alertsTable).where(and(eq(alertsTable.wineryId, wineryId), eq(alertsTable.kind, kind), eq(alertsTable.recordId, recordId)));
 const settle = async () => {
   await app.alerts.idle();
-  await new Promise((r) => setTimeout(r, 1200)); // time for any (wrong) second mail to be delivered
+  await jobsSettled(app); // any (wrong) second mail is in the outbox by now
 };
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * 86_400_000).toISOString().slice(0, 10);
 

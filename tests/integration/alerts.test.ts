@@ -9,7 +9,7 @@ import { alertsTable, cartridgeTypesTable } from '../../server/db/schema';
 import { ALERTS_DIGEST_QUEUE } from '../../server/lib/queue';
 import { insertCartridgeType, serialPrefix } from '../factories/cartridges';
 import { addPlanLot, addTrain, createPlan, createPlanWorld, fillTrainHousings, trainBody } from '../factories/plans';
-import { addMember, Client, signUp, startTestApp, type TestApp } from '../support/test-app';
+import { addMember, Client, jobsSettled, signUp, startTestApp, type TestApp } from '../support/test-app';
 import { until } from '../support/until';
 
 let app: TestApp;
@@ -80,7 +80,7 @@ describe('a failed integrity test', () => {
     await people.technician.client.post(`/api/cartridges/${cartridge.id}/integrity-tests`, { test: 'bubble-point', bubblePointBar: 2.4, wettingFluid: 'water' });
     await app.alerts.idle();
     await app.alerts.evaluate(wineryId);
-    await new Promise((r) => setTimeout(r, 1500)); // time for any (wrong) second mail to be delivered
+    await jobsSettled(app); // any (wrong) second mail is in the outbox by now
     expect(await openAlerts('integrity-failed', cartridge.id)).toHaveLength(1);
     expect(mailsTo(ownerEmail, new RegExp(`Integrity test failed on ${cartridge.serial}`))).toHaveLength(1);
   });
@@ -280,7 +280,8 @@ describe('preferences', () => {
     await people.technician.client.post(`/api/cartridges/${c.id}/integrity-tests`, { test: 'bubble-point', bubblePointBar: 2.1, wettingFluid: 'water' });
     const subject = new RegExp(`Integrity test failed on ${c.serial}`);
     await app.mail.waitFor(people.technician.email, { subject, timeoutMs: 10_000 });
-    await new Promise((r) => setTimeout(r, 1000));
+    await app.alerts.idle();
+    await jobsSettled(app);
     expect(mailsTo(ownerEmail, subject)).toHaveLength(0); // collected for the digest
     expect((await notificationsOf(owner)).items.some((i) => i.record.id === c.id)).toBe(true);
 
@@ -313,7 +314,7 @@ describe('mail delivery', () => {
     // The very job of this mail was retried twice, then completed.
     const { rows } = await app.pool.query(`select retry_count, state from ${app.queue.schema}.job where name = 'mail' and data->>'to' = $1`, [email]);
     expect(rows).toEqual([{ retry_count: 2, state: 'completed' }]);
-    await new Promise((r) => setTimeout(r, 500));
+    await jobsSettled(app);
     expect(mailsTo(email, /invited you/)).toHaveLength(1);
   });
 

@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDatabase } from '../../server/db/client';
+import { withoutSchemaChanges } from '../support/schema-lock';
 import { backupDatabase, clusterSetting, databaseUrl, restoreDatabase } from '../../scripts/lib/postgres';
 import { JSON_MAX_DEPTH, JSON_MAX_ELEMENTS } from '../../shared/schemas/text';
 import { createTank } from '../factories/cellar';
@@ -165,7 +166,8 @@ describe('finding 5: durable storage', () => {
   it('db:backup writes a custom-format dump; db:restore brings it back into a fresh database', async () => {
     const { client } = await signUp(app.baseUrl, { wineryName: 'Backup Test Cellars' });
     const tank = await createTank(client, { name: `Backup tank ${randomUUID().slice(0, 8)}` });
-    const file = backupDatabase('porewise_test', join(process.env.TMPDIR ?? '/tmp', `porewise-backup-${process.pid}.dump`));
+    // Test apps of other files (the browser tests, in `npm test`) may be starting meanwhile.
+    const file = await withoutSchemaChanges(app.pool, () => backupDatabase('porewise_test', join(process.env.TMPDIR ?? '/tmp', `porewise-backup-${process.pid}.dump`)));
     const target = `porewise_restore_${process.pid}`;
     try {
       expect(existsSync(file)).toBe(true);

@@ -14,6 +14,7 @@ import { createAlertsService, type AlertsService } from '../../server/modules/al
 import { randomBytes } from 'node:crypto';
 import { createS3Storage, type Storage } from '../../server/lib/storage';
 import { databaseUrl } from '../../scripts/lib/postgres';
+import { duringSchemaChange } from './schema-lock';
 
 export type TestApp = {
   baseUrl: string;
@@ -51,6 +52,11 @@ export async function startTestApp(
 ): Promise<TestApp> {
   const { db, pool } = createDatabase(opts.databaseUrl ?? databaseUrl('porewise_test'), { max: 5 });
   const mail = await startFakeSmtp();
+  // Mail goes through the job queue (polled every 0.5 s); with both test lanes of `npm test` on
+  // two cores, one can take longer than the fake server's 5 s default. A test that means a
+  // shorter wait says so.
+  const waitForMail = mail.waitFor;
+  mail.waitFor = (address, opts = {}) => waitForMail(address, { timeoutMs: 20_000, ...opts });
   let storage = unusedStorage;
   let closeStorage = async () => {};
   if (opts.withStorage) {
@@ -64,13 +70,15 @@ export async function startTestApp(
     };
   }
   const smtp = createSmtpMailer({ host: '127.0.0.1', port: mail.port, from: 'Porewise <no-reply@porewise.test>' });
-  const queue = await createQueue({
-    connectionString: databaseUrl('porewise_test'),
-    schema: `pgboss_t_${randomBytes(6).toString('hex')}`,
-    mailRetryDelaySeconds: opts.mailRetryDelaySeconds ?? 1,
-    mailRetryLimit: opts.mailRetryLimit ?? 3,
-    pollingIntervalSeconds: 0.5,
-  });
+  const queue = await duringSchemaChange(pool, () =>
+    createQueue({
+      connectionString: databaseUrl('porewise_test'),
+      schema: `pgboss_t_${randomBytes(6).toString('hex')}`,
+      mailRetryDelaySeconds: opts.mailRetryDelaySeconds ?? 1,
+      mailRetryLimit: opts.mailRetryLimit ?? 3,
+      pollingIntervalSeconds: 0.5,
+    }),
+  );
   const mailer = queuedMailer(queue);
   let alerts: AlertsService | null = null;
   const app = (baseUrl: string) =>
@@ -117,7 +125,7 @@ export async function startTestApp(
       mailOf.delete(baseUrl);
       await alerts!.idle();
       await queue.stop();
-      await pool.query(`drop schema if exists ${queue.schema} cascade`).catch(() => {});
+      await duringSchemaChange(pool, () => pool.query(`drop schema if exists ${queue.schema} cascade`)).catch(() => {});
       await mail.close();
       await closeStorage();
       await pool.end();
@@ -220,4 +228,19 @@ export async function addMember(app: TestApp, owner: Client, role: import('../..
   if (acc.status !== 200) throw new Error(`accept failed: ${acc.status} ${acc.text}`);
   const me = await client.get('/api/me');
   return { client, email, userId: me.body.user.id as string };
+}
+
+/**
+ * Waits until the app's job queue has no job waiting, retrying or running: every mail enqueued
+ * so far has reached the fake mail server (or failed for good). A test that checks that no
+ * second mail went out calls this after `app.alerts.idle()` instead of sleeping a while.
+ */
+export async function jobsSettled(app: Pick<TestApp, 'pool' | 'queue'>, timeoutMs = 25_000) {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const { rows } = await app.pool.query(`select count(*)::int as n from ${app.queue.schema}.job where state in ('created', 'retry', 'active')`);
+    if (rows[0].n === 0) return;
+    if (Date.now() > deadline) throw new Error(`timed out waiting for the job queue to settle (${rows[0].n} jobs left)`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
 }
