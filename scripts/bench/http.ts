@@ -343,16 +343,18 @@ export async function report() {
       console.log(
         `  app ${fmt(ingestApp.rps).padStart(6)} readings/s (p50 ${fmt(ingestApp.p50)} ms)   bare INSERT … ON CONFLICT ${fmt(ingestBare.rps).padStart(6)}/s (p50 ${fmt(ingestBare.p50)} ms)   → app at ${((ingestApp.rps / ingestBare.rps) * 100).toFixed(0)} % of bare (goal ≥ 50 %)${ingestApp.errors ? `   ${String(ingestApp.errors)} errors` : ''}`,
       );
-      const probes: [string, string, Record<string, string>][] = [
-        ['/api/health', '/api/health', {}],
-        ['cartridge list', '/api/cartridges?page=1&pageSize=50&probe=1', { cookie }],
+      const probes: [string, number, string, Record<string, string>, string, string][] = [
+        ['/api/health', appPort, '/api/health', {}, cookie, '{}'],
+        ['cartridge list', appPort, '/api/cartridges?page=1&pageSize=50&probe=1', { cookie }, cookie, '{}'],
+        // The peer: the bare app's own `select 1` health check while 100 clients post to its INSERT.
+        ['bare health', barePort, '/api/health', {}, '', JSON.stringify({ wineryId: demoWineries.quillwater.id })],
       ];
-      for (const [name, p, h] of probes) {
-        const idle = summarise([await slice(appPort, p, h, 1, SECONDS)]);
+      for (const [name, port, p, h, crowdCookie, extra] of probes) {
+        const idle = summarise([await slice(port, p, h, 1, SECONDS)]);
         // The crowd in its own process: the probe's answers must not wait behind its callbacks here.
-        const crowd = await startProcess(['post', String(appPort), appPost.path, String(INGEST_CLIENTS), String(SECONDS + 1), cookie, '{}'], env);
+        const crowd = await startProcess(['post', String(port), appPost.path, String(INGEST_CLIENTS), String(SECONDS + 1), crowdCookie, extra], env);
         await new Promise((r) => setTimeout(r, 500));
-        const busy = summarise([await slice(appPort, p, h, 1, SECONDS)]);
+        const busy = summarise([await slice(port, p, h, 1, SECONDS)]);
         const done = await new Promise<{ n: number }>((resolve) => {
           let out = '';
           crowd.stdout!.on('data', (d: Buffer) => {
@@ -362,7 +364,7 @@ export async function report() {
           });
         });
         console.log(
-          `  ${name.padEnd(15)} p50 idle ${fmt(idle.p50)} ms, while ${String(INGEST_CLIENTS)} clients post readings (${fmt(done.n / (SECONDS + 1))}/s) ${fmt(busy.p50)} ms → ${(busy.p50 / idle.p50).toFixed(1)}× idle (goal ≤ 3×)`,
+          `  ${name.padEnd(15)} p50 idle ${fmt(idle.p50)} ms, while ${String(INGEST_CLIENTS)} clients post readings (${fmt(done.n / (SECONDS + 1))}/s) ${fmt(busy.p50)} ms → ${(busy.p50 / idle.p50).toFixed(1)}× idle${port === barePort ? ' (the peer, for comparison)' : ' (goal ≤ 3×)'}`,
         );
       }
     }

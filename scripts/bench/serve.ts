@@ -66,6 +66,11 @@ async function main() {
     }
     // The reading ingest peer: the same table, the same row, no session, checks or counters.
     const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 10, options: '-c jit=off' });
+    // Its health check: one `select 1`, like the app's.
+    app.get('/api/health', async (_req, res) => {
+      await pool.query('select 1');
+      res.json({ ok: true, db: true });
+    });
     app.post('/api/runs/:id/readings', express.json(), async (req, res) => {
       const b = req.body as { wineryId: string; stageIndex: number; volumeL: number; upstreamBar: number; downstreamBar: number; clientKey: string };
       const r = await pool.query(

@@ -10,7 +10,7 @@
  */
 export type KeyedQueue = {
   run<T>(key: string, fn: () => Promise<T>): Promise<T>;
-  /** Keys with a call running or waiting (for tests). */
+  /** Keys with a call running or waiting: none once every call has settled (idle keys are forgotten). */
   readonly size: number;
 };
 

@@ -10,6 +10,7 @@ import { databaseUrl } from '../../scripts/lib/postgres';
 import { startedRunOn } from '../factories/plans';
 import { setupApiApp } from '../support/api-app';
 import { createRunsRepository, type NewReading } from '../../server/modules/runs/runs.repository';
+import { READINGS_PER_TURN } from '../../server/modules/runs/runs.service';
 
 const app = setupApiApp({ wineryName: 'Reading Turns Winery', otherWineryName: 'Reading Turns Neighbour', members: true, world: 'filled' });
 
@@ -21,9 +22,11 @@ describe('readings of one run take turns', () => {
     try {
       await holder.query('begin');
       await holder.query('select 1 from runs where id = $1 for update', [run.id]);
-      // More readings than the test app's pool has connections (5). They may reach the server in
-      // any order, so each stage's readings carry the same litres (never "going down").
-      const posts = Array.from({ length: 12 }, (_x, i) =>
+      // More readings than the test app's pool has connections (5), and than two turns take (so
+      // the later turns keep their distance). They may reach the server in any order, so each
+      // stage's readings carry the same litres (never "going down").
+      const count = READINGS_PER_TURN * 2 + 8;
+      const posts = Array.from({ length: count }, (_x, i) =>
         app.members.technician.post(`/api/runs/${run.id}/readings`, { clientKey: randomUUID(), stageIndex: i % 2, volumeL: 100, upstreamBar: 1.2, downstreamBar: 1 }),
       );
       // Wait until the first reading is blocked on the run's row.
@@ -41,9 +44,9 @@ describe('readings of one run take turns', () => {
       // Stored together or not, each answer is that request's own reading.
       const sent = posts.length;
       expect(new Set(answers.map((a) => a.body.id)).size).toBe(sent);
-      expect(answers.map((a) => [a.status, a.status === 201 ? null : JSON.stringify(a.body)])).toEqual(Array(12).fill([201, null]));
+      expect(answers.map((a) => [a.status, a.status === 201 ? null : JSON.stringify(a.body)])).toEqual(Array(count).fill([201, null]));
       const detail = await app.owner.get(`/api/runs/${run.id}`);
-      expect(detail.body.readingCount).toBe(12);
+      expect(detail.body.readingCount).toBe(count);
     } finally {
       await holder.query('rollback').catch(() => {});
       await holder.end();

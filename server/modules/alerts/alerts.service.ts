@@ -100,8 +100,6 @@ type Deps = {
   db: Database;
   mailer: Mailer;
   appUrl: string;
-  /** Least time between the starts of two evaluations of one winery after writes (default EVALUATE_GAP_MS). */
-  evaluateGapMs?: number;
 };
 
 /**
@@ -112,7 +110,7 @@ type Deps = {
  */
 export const EVALUATE_GAP_MS = 2_000;
 
-export function createAlertsService({ db, mailer, appUrl, evaluateGapMs = EVALUATE_GAP_MS }: Deps) {
+export function createAlertsService({ db, mailer, appUrl }: Deps) {
   const repo = createAlertsRepository(db);
   const plans = createPlansService(db);
   const cellar = createCellarService(db);
@@ -303,7 +301,7 @@ export function createAlertsService({ db, mailer, appUrl, evaluateGapMs = EVALUA
     return db.transaction((tx) => openAndClear(tx, wineryId, found, now, { clearKinds: stock ? WITH_STOCK : SWEPT }));
   }
 
-  // Evaluations after requests: one at a time per winery, starts at least `evaluateGapMs` apart;
+  // Evaluations after requests: one at a time per winery, starts at least EVALUATE_GAP_MS apart;
   // a request during one (or during the wait) asks for another, with the stock check when any of
   // the requests asked for it.
   const running = new Map<string, Promise<void>>();
@@ -317,7 +315,7 @@ export function createAlertsService({ db, mailer, appUrl, evaluateGapMs = EVALUA
     again.set(wineryId, opts.stock === true);
     const run = (async () => {
       do {
-        const wait = (lastStart.get(wineryId) ?? -Infinity) + evaluateGapMs - Date.now();
+        const wait = (lastStart.get(wineryId) ?? -Infinity) + EVALUATE_GAP_MS - Date.now();
         if (wait > 0) await new Promise((r) => setTimeout(r, wait));
         lastStart.set(wineryId, Date.now());
         const stock = again.get(wineryId) ?? false;
