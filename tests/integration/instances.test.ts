@@ -92,7 +92,7 @@ describe('two server instances on one database', () => {
 });
 
 describe('two server processes on one database', () => {
-  it('the sign-in limit counts across both: 10 failures shared between them, then 429 on either', async () => {
+  it('the sign-in limit counts across both, a session and an Idempotency-Key made on one hold on the other, and a drained one stops cleanly', async () => {
     const [first, second] = await Promise.all([startServerProcess(), startServerProcess({ SHUTDOWN_DRAIN_MS: '1500' })]);
     const [one, two] = [first.url, second.url];
     // The account is made through an in-process test app on the same database.
@@ -116,6 +116,16 @@ describe('two server processes on one database', () => {
     const there = new Client(two);
     for (const [k, v] of signedIn.cookies) there.cookies.set(k, v);
     expect((await there.get('/api/me')).status).toBe(200);
+    // an Idempotency-Key replayed on the other process returns the first answer, and no second tank
+    const key = `processes-${Date.now()}-${Math.random().toString(36).slice(2)}`;
+    const tank = { name: 'Tank on two processes', capacityL: 4000, notes: '' };
+    const made = await signedIn.request('POST', '/api/tanks', tank, { 'idempotency-key': key });
+    const replayed = await there.request('POST', '/api/tanks', tank, { 'idempotency-key': key });
+    expect(made.status).toBe(201);
+    expect(replayed.status).toBe(201);
+    expect(replayed.headers.get('idempotent-replay')).toBe('true');
+    expect(replayed.body.id).toBe(made.body.id);
+    expect((await there.get('/api/tanks')).body.total).toBe(1);
 
     // Graceful shutdown behind a load balancer: on SIGTERM, readiness turns 503 at once while
     // the instance still answers (the drain time); then it exits cleanly. The other serves on.
