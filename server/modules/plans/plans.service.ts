@@ -85,17 +85,14 @@ async function buildPlan(
       ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
       : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
   const styles = [...new Set(planLots.map((p) => p.lot.style))];
-  const [trains, discTests, closedRuns] = await Promise.all([
-    repo.trains(
-      wineryId,
-      planLots.map((p) => p.planLot.id),
-    ),
-    repo.latestDiscTests(
-      wineryId,
-      planLots.map((p) => p.lot.id),
-    ),
-    opts.closedRuns ?? learnedClosedRuns(repo, wineryId, styles, types),
-  ]);
+  const more = [
+    () => repo.trains(wineryId, planLots.map((p) => p.planLot.id)),
+    () => repo.latestDiscTests(wineryId, planLots.map((p) => p.lot.id)),
+    () => opts.closedRuns ?? learnedClosedRuns(repo, wineryId, styles, types),
+  ] as const;
+  const [trains, discTests, closedRuns] = opts.inTransaction
+    ? [await more[0](), await more[1](), await more[2]()]
+    : await Promise.all([more[0](), more[1](), more[2]()]);
   // What the winery's closed runs of these styles tell about each cartridge type's L/m² (learned by the engine).
   const pastRuns = pastRunOutcomes(closedRuns, types, housings);
   // Capacity of membrane stages from each lot's latest Vmax disc test (when it has one).

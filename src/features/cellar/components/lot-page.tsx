@@ -14,6 +14,7 @@ import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { useToast } from '@/components/ui/toast';
+import { lazyChart } from '@/components/ui/lazy-chart';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
@@ -22,8 +23,13 @@ import { useDeleteLot } from '../api/delete-lot';
 import { useLabResults } from '../api/get-lab-results';
 import { useLot } from '../api/get-lot';
 import { LabResultFormDialog } from './lab-result-form-dialog';
-import { LabResultsChart } from './lab-results-chart';
 import { LabResultsTable } from './lab-results-table';
+
+/** The lab results chart (`./lab-results-chart`), loaded after the page paints. */
+const LabResultsChart = lazyChart(
+  () => import('./lab-results-chart').then((m) => m.LabResultsChart),
+  () => 'h-72',
+);
 import { LotFormDialog } from './lot-form-dialog';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
 import { ReadinessBadge } from '@/components/status/readiness-badge';

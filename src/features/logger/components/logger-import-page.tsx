@@ -1,5 +1,5 @@
 import { FileUp, Save, Upload } from 'lucide-react';
-import { lazy, Suspense, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import {
   LOGGER_FILE_MAX_BYTES,
   LOGGER_MAX_ROWS,
@@ -25,6 +25,7 @@ import { Select } from '@/components/ui/select';
 import { ErrorState, LoadingState } from '@/components/ui/states';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useToast } from '@/components/ui/toast';
+import { lazyChart } from '@/components/ui/lazy-chart';
 import { ApiError, errorMessage } from '@/lib/api-client';
 import { useCan } from '@/lib/session';
 import { useUnits } from '@/lib/units';
@@ -33,7 +34,10 @@ import { useLoggerProfiles } from '../api/get-logger-profiles';
 import { useCreateLoggerProfile } from '../api/save-logger-profile';
 import { decodeSample, draftFieldOf, draftToMapping, guessDraft, mappingToDraft, sampleFile, type FileSample, type MappingDraft } from './mapping-draft';
 
-const LoggerChart = lazy(() => import('./logger-chart').then((m) => ({ default: m.LoggerChart })));
+const LoggerChart = lazyChart(
+  () => import('./logger-chart').then((m) => m.LoggerChart),
+  () => 'h-56',
+);
 
 const LAST_PROFILE = 'porewise.logger.lastProfile';
 const NEW = 'new';
@@ -426,9 +430,7 @@ export function LoggerImportPage({ runId, runTitle, running, stages, initialStag
               </section>
             ) : null}
             {result.chart.length > 0 ? (
-              <Suspense fallback={<div className="h-56 w-full" aria-hidden="true" />}>
-                <LoggerChart points={result.chart} />
-              </Suspense>
+              <LoggerChart points={result.chart} />
             ) : null}
             {result.rows.length > 0 ? (
               <div className="flex flex-col gap-2">

@@ -1,5 +1,5 @@
 import { AlertTriangle, CircleCheck, Eye, FileUp } from 'lucide-react';
-import { lazy, Suspense, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LogReadingInput } from '@shared/schemas/runs';
 import type { RunReadingDto, RunStageDto, RunStageFinalDto } from '@shared/types/runs';
@@ -20,11 +20,11 @@ import { forecastView } from './forecast-text';
 import { ReadingCorrections } from './reading-corrections';
 import { ReadingForm } from './reading-form';
 import { ReadingsTable } from './readings-table';
+import { StageChart } from './stage-chart-lazy';
 import { RunCartridges } from './run-cartridges';
 import { formatDateTime } from '@/lib/dates';
 
 // The chart library is large: it loads after the page (and its reading form) has painted.
-const StageChart = lazy(() => import('./stage-chart').then((m) => ({ default: m.StageChart })));
 
 function AlarmBadge({ stage }: { stage: RunStageDto }) {
   if (!stage.alarm) return null;
@@ -128,9 +128,7 @@ function StageCard({ runId, stage, kept, rowActions, importTo }: { runId: string
           </p>
         )}
         {stage.readings.length + kept.length > 0 ? (
-          <Suspense fallback={<div className="h-56 w-full" aria-hidden="true" />}>
-            <StageChart stage={stage} waiting={waitingPoints} />
-          </Suspense>
+          <StageChart stage={stage} waiting={waitingPoints} />
         ) : null}
         <p className="text-sm text-ink-600">
           {stage.readingCount.toLocaleString('en')} reading{stage.readingCount === 1 ? '' : 's'}

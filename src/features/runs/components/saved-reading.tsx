@@ -1,7 +1,7 @@
 import type { RunStageDto } from '@shared/types/runs';
 import { useUnits } from '@/lib/units';
 import { formatDuration } from '@/utils/duration';
-import { StageChart } from './stage-chart';
+import { StageChart } from './stage-chart-lazy';
 
 /** Under the Save button after a reading: its stage's ΔP, what is left, and a small chart. */
 export function SavedReading({ stage }: { stage: RunStageDto }) {
