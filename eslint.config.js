@@ -36,6 +36,17 @@ const typedInputOnly = [
   },
 ];
 
+/** Dates are shown through src/lib/dates.ts only. */
+const dateFnsFormats = {
+  name: 'date-fns',
+  importNames: ['format', 'formatDistance', 'formatDistanceStrict', 'formatDistanceToNow', 'formatDistanceToNowStrict', 'formatRelative', 'intlFormat', 'lightFormat'],
+  message: 'Show dates with src/lib/dates.ts (date-fns in the person’s locale).',
+};
+/** Charts load after the page paints: the charting library only in `*-chart.tsx` files, and those only through lazyChart. */
+const chartLibrary = { name: 'recharts', message: 'Draw charts in a *-chart.tsx file and show it through lazyChart (src/components/ui/lazy-chart.tsx).' };
+// record-chart draws plain SVG for the printed record (no charting library), so it loads with its page.
+const chartFiles = { group: ['**/*-chart', '!**/lazy-chart', '!**/record-chart'], message: 'Load chart components with lazyChart (src/components/ui/lazy-chart.tsx), so the page paints first.' };
+
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', '.data/**', 'test-output/**', 'drizzle/**'] },
   js.configs.recommended,
@@ -128,18 +139,13 @@ export default tseslint.config(
         },
         { selector: "CallExpression[callee.property.name='slice'][callee.object.callee.property.name='toISOString']", message: 'Use toDayInput() from src/lib/dates.ts: toISOString is the UTC day, not the person’s.' },
       ],
-      'no-restricted-imports': [
-        'error',
-        {
-          paths: [
-            {
-              name: 'date-fns',
-              importNames: ['format', 'formatDistance', 'formatDistanceStrict', 'formatDistanceToNow', 'formatDistanceToNowStrict', 'formatRelative', 'intlFormat', 'lightFormat'],
-              message: 'Show dates with src/lib/dates.ts (date-fns in the person’s locale).',
-            },
-          ],
-        },
-      ],
+      'no-restricted-imports': ['error', { paths: [dateFnsFormats, chartLibrary], patterns: [chartFiles] }],
     },
+  },
+  {
+    // The chart files themselves draw with the charting library (and are loaded with lazyChart).
+    files: ['src/**/*-chart.tsx'],
+    ignores: ['src/**/*.test.{ts,tsx}'],
+    rules: { 'no-restricted-imports': ['error', { paths: [dateFnsFormats], patterns: [chartFiles] }] },
   },
 );
