@@ -4,12 +4,13 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createHash } from 'node:crypto';
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq, getTableName, sql } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditEventsTable } from '../../server/db/schema';
 import { neutraliseCell, toCsv } from '../../server/lib/csv';
 import { fieldChanges } from '../../server/modules/audit/audit-diff';
+import { exportTables, notExported } from '../../server/modules/export/export.repository';
 import type { Role } from '../../shared/permissions';
 import { deliveryCsv, serialPrefix } from '../factories/cartridges';
 import { createLot, createTank, labResultBody, lotBody, tankBody } from '../factories/cellar';
@@ -395,7 +396,8 @@ describe('GET /api/export/winery', () => {
       const listing = execFileSync('unzip', ['-l', zip], { encoding: 'utf8' });
       const expected = [
         'tanks.csv', 'lots.csv', 'lab-results.csv', 'housings.csv', 'lines.csv', 'cartridge-types.csv', 'cartridges.csv', 'cartridge-events.csv',
-        'care-cycles.csv', 'integrity-tests.csv', 'plans.csv', 'plan-lots.csv', 'plan-trains.csv', 'runs.csv', 'readings.csv', 'attachments.csv',
+        'care-cycles.csv', 'integrity-tests.csv', 'plans.csv', 'plan-lots.csv', 'plan-trains.csv', 'hose-presets.csv', 'runs.csv', 'run-cartridges.csv',
+        'run-changes.csv', 'readings.csv', 'reading-corrections.csv', 'logger-imports.csv', 'logger-profiles.csv', 'attachments.csv',
         'audit-events.csv', 'members.csv', 'manifest.json',
       ];
       for (const file of expected) expect(listing, file).toMatch(new RegExp(`\\s${file.replace('.', '\\.')}\\n`));
@@ -427,6 +429,16 @@ describe('GET /api/export/winery', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
+  });
+
+  it('holds every table with a winery_id column, or names why it leaves one out', async () => {
+    const { rows } = await app.db.execute(
+      sql`select table_name from information_schema.columns where column_name = 'winery_id' and table_schema = current_schema() order by 1`,
+    );
+    const tables = rows.map((r) => (r as { table_name: string }).table_name);
+    expect(tables).toEqual(expect.arrayContaining(['runs', 'run_readings', 'run_reading_corrections', 'hose_presets']));
+    const exported = new Set(exportTables.map((t) => getTableName(t.table)));
+    expect(tables.filter((t) => !exported.has(t) && !(t in notExported))).toEqual([]);
   });
 
   it('is the owner’s alone (403 for every other role); another winery exports only its own', async () => {
