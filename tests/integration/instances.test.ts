@@ -51,6 +51,19 @@ function onOther(client: Client, other: TestApp): Client {
   return moved;
 }
 
+/** A tank made with an Idempotency-Key through `first`, the same request replayed through `second`: the first answer, one tank. */
+async function expectOneTankFromReplay(first: Client, second: Client) {
+  const key = `instances-${Date.now()}-${Math.random().toString(36).slice(2)}`;
+  const body = { name: 'Tank on two servers', capacityL: 4000, notes: '' };
+  const made = await first.request('POST', '/api/tanks', body, { 'idempotency-key': key });
+  const replay = await second.request('POST', '/api/tanks', body, { 'idempotency-key': key });
+  expect(made.status).toBe(201);
+  expect(replay.status).toBe(201);
+  expect(replay.headers.get('idempotent-replay')).toBe('true');
+  expect(replay.body.id).toBe(made.body.id);
+  expect((await second.get('/api/tanks')).body.total).toBe(1);
+}
+
 describe('two server instances on one database', () => {
   it('a session made on one works on the other, and signing out on one ends it on both', async () => {
     const { client } = await signUp(a.baseUrl, { name: 'Two Places' });
@@ -66,16 +79,7 @@ describe('two server instances on one database', () => {
 
   it('an Idempotency-Key replayed on the other instance returns the first answer and makes no second record', async () => {
     const { client } = await signUp(a.baseUrl);
-    const there = onOther(client, b);
-    const key = `instances-${Date.now()}-${Math.random().toString(36).slice(2)}`;
-    const body = { name: 'Tank on two servers', capacityL: 4000, notes: '' };
-    const first = await client.request('POST', '/api/tanks', body, { 'idempotency-key': key });
-    const replay = await there.request('POST', '/api/tanks', body, { 'idempotency-key': key });
-    expect(first.status).toBe(201);
-    expect(replay.status).toBe(201);
-    expect(replay.headers.get('idempotent-replay')).toBe('true');
-    expect(replay.body.id).toBe(first.body.id);
-    expect((await there.get('/api/tanks')).body.total).toBe(1);
+    await expectOneTankFromReplay(client, onOther(client, b));
   });
 
   it('a role changed on one instance governs the next request on the other', async () => {
@@ -117,15 +121,7 @@ describe('two server processes on one database', () => {
     for (const [k, v] of signedIn.cookies) there.cookies.set(k, v);
     expect((await there.get('/api/me')).status).toBe(200);
     // an Idempotency-Key replayed on the other process returns the first answer, and no second tank
-    const key = `processes-${Date.now()}-${Math.random().toString(36).slice(2)}`;
-    const tank = { name: 'Tank on two processes', capacityL: 4000, notes: '' };
-    const made = await signedIn.request('POST', '/api/tanks', tank, { 'idempotency-key': key });
-    const replayed = await there.request('POST', '/api/tanks', tank, { 'idempotency-key': key });
-    expect(made.status).toBe(201);
-    expect(replayed.status).toBe(201);
-    expect(replayed.headers.get('idempotent-replay')).toBe('true');
-    expect(replayed.body.id).toBe(made.body.id);
-    expect((await there.get('/api/tanks')).body.total).toBe(1);
+    await expectOneTankFromReplay(signedIn, there);
 
     // Graceful shutdown behind a load balancer: on SIGTERM, readiness turns 503 at once while
     // the instance still answers (the drain time); then it exits cleanly. The other serves on.
