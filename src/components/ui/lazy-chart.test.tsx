@@ -20,16 +20,19 @@ describe('lazyChart', () => {
     render(
       <div>
         <button type="button">Save reading</button>
-        <Chart label="ΔP against litres" />
+        <Chart label="ΔP against litres, stage 1" />
+        <Chart label="ΔP against litres, stage 2" />
       </div>,
     );
-    expect(await screen.findByText(/The chart loads when the connection is back/)).toBeTruthy();
+    expect(await screen.findAllByText(/The chart loads when the connection is back/)).toHaveLength(2);
     expect(screen.getByRole('button', { name: 'Save reading' })).toBeTruthy();
     online = true;
     await act(async () => {
       window.dispatchEvent(new Event('online'));
     });
-    expect(await screen.findByRole('img', { name: 'ΔP against litres' })).toBeTruthy();
+    // both charts of the page come back, not only the first to hear the browser is online
+    expect(await screen.findByRole('img', { name: 'ΔP against litres, stage 1' })).toBeTruthy();
+    expect(await screen.findByRole('img', { name: 'ΔP against litres, stage 2' })).toBeTruthy();
     expect(screen.queryByText(/The chart loads when the connection is back/)).toBeNull();
   });
 });

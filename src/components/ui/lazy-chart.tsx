@@ -31,10 +31,12 @@ export function lazyChart<P extends object>(load: () => Promise<ComponentType<P>
   function LazyChart(props: P) {
     const [, setAttempt] = useState(0);
     useEffect(() => {
+      // The first chart to hear it fetches again; every chart on the page re-renders with it.
       const again = () => {
-        if (!failed) return;
-        failed = false;
-        Loaded = loadOnce();
+        if (failed) {
+          failed = false;
+          Loaded = loadOnce();
+        }
         setAttempt((n) => n + 1);
       };
       window.addEventListener('online', again);
