@@ -24,18 +24,17 @@ import { useLabResults } from '../api/get-lab-results';
 import { useLot } from '../api/get-lot';
 import { LabResultFormDialog } from './lab-result-form-dialog';
 import { LabResultsTable } from './lab-results-table';
-
-/** The lab results chart (`./lab-results-chart`), loaded after the page paints. */
-const LabResultsChart = lazyChart(
-  () => import('./lab-results-chart').then((m) => m.LabResultsChart),
-  () => 'h-72',
-);
 import { LotFormDialog } from './lot-form-dialog';
 import { FixedQuantity, MetricQuantity } from './metric-quantity';
 import { ReadinessBadge } from '@/components/status/readiness-badge';
 import { ReadinessPanel } from './readiness-panel';
 import { formatDate, formatDateTime } from '@/lib/dates';
 
+/** The lab results chart (`./lab-results-chart`), loaded after the page paints. */
+const LabResultsChart = lazyChart(
+  () => import('./lab-results-chart').then((m) => m.LabResultsChart),
+  () => 'h-72',
+);
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (

@@ -24,8 +24,6 @@ import { StageChart } from './stage-chart-lazy';
 import { RunCartridges } from './run-cartridges';
 import { formatDateTime } from '@/lib/dates';
 
-// The chart library is large: it loads after the page (and its reading form) has painted.
-
 function AlarmBadge({ stage }: { stage: RunStageDto }) {
   if (!stage.alarm) return null;
   if (stage.alarm.level === 'alarm')
