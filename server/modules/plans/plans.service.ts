@@ -61,6 +61,17 @@ type Catalogue = readonly [
 ];
 
 /**
+ * The reads' answers, in order. A transaction is one connection: its queries go one after the
+ * other (node-postgres deprecates a second query on a busy client); from the pool they run side by side.
+ */
+async function readAll<T extends readonly (() => Promise<unknown>)[]>(oneConnection: boolean, reads: T): Promise<{ -readonly [K in keyof T]: Awaited<ReturnType<T[K]>> }> {
+  if (!oneConnection) return (await Promise.all(reads.map((read) => read()))) as never;
+  const answers: unknown[] = [];
+  for (const read of reads) answers.push(await read());
+  return answers as never;
+}
+
+/**
  * Builds the plan's detail with every figure computed by the engine: each train's sizing, the
  * day's timeline, the cartridges the chosen trains need against stock, and what stops approval.
  */
@@ -72,27 +83,21 @@ async function buildPlan(
 ): Promise<PlanDto | null> {
   const row = await repo.plan(wineryId, id);
   if (!row) return null;
-  const reads = [
-    () => repo.planLots(wineryId, id),
-    () => repo.catalogueTypes(wineryId),
-    () => repo.catalogueHousings(wineryId),
-    () => repo.stock(wineryId),
-  ] as const;
-  // A transaction is one connection: its queries go one after the other; from the pool they run side by side.
+  const oneConnection = opts.inTransaction === true;
   const [planLots, types, housings, stock] = opts.catalogue
-    ? await Promise.all([reads[0](), ...(await opts.catalogue)] as const)
-    : opts.inTransaction
-      ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
-      : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
+    ? await Promise.all([repo.planLots(wineryId, id), ...(await opts.catalogue)] as const)
+    : await readAll(oneConnection, [
+        () => repo.planLots(wineryId, id),
+        () => repo.catalogueTypes(wineryId),
+        () => repo.catalogueHousings(wineryId),
+        () => repo.stock(wineryId),
+      ] as const);
   const styles = [...new Set(planLots.map((p) => p.lot.style))];
-  const more = [
+  const [trains, discTests, closedRuns] = await readAll(oneConnection, [
     () => repo.trains(wineryId, planLots.map((p) => p.planLot.id)),
     () => repo.latestDiscTests(wineryId, planLots.map((p) => p.lot.id)),
     () => opts.closedRuns ?? learnedClosedRuns(repo, wineryId, styles, types),
-  ] as const;
-  const [trains, discTests, closedRuns] = opts.inTransaction
-    ? [await more[0](), await more[1](), await more[2]()]
-    : await Promise.all([more[0](), more[1](), more[2]()]);
+  ] as const);
   // What the winery's closed runs of these styles tell about each cartridge type's L/m² (learned by the engine).
   const pastRuns = pastRunOutcomes(closedRuns, types, housings);
   // Capacity of membrane stages from each lot's latest Vmax disc test (when it has one).
