@@ -7,6 +7,7 @@ import { cartridgeListQuerySchema } from '../../shared/schemas/cartridges';
 import { deliveryCsv, insertCartridgeType, insertHousing, serialPrefix } from '../factories/cartridges';
 import { setupApiApp } from '../support/api-app';
 import { Client, signUp } from '../support/test-app';
+import { expectReplayedCreate } from '../support/idempotency';
 
 const app = setupApiApp({ wineryName: 'Cartridge Test Winery', otherWineryName: 'Other Cartridge Winery', members: ['cellar-master', 'technician', 'auditor'] });
 let owner: Client;
@@ -411,12 +412,7 @@ describe('Idempotency-Key on register', () => {
     const serial = nextSerial();
     const key = `reg-${serial}`;
     const body = { serial, typeId: membrane.id, lengthIn: 30 };
-    const first = await owner.request('POST', '/api/cartridges', body, { 'idempotency-key': key });
-    const retry = await owner.request('POST', '/api/cartridges', body, { 'idempotency-key': key });
-    expect(first.status).toBe(201);
-    expect(retry.status).toBe(201);
-    expect(retry.headers.get('idempotent-replay')).toBe('true');
-    expect(retry.body.id).toBe(first.body.id);
+    await expectReplayedCreate(owner, owner, '/api/cartridges', body, key);
     const rows = await app.db.select().from(cartridgesTable).where(and(eq(cartridgesTable.wineryId, wineryId), eq(cartridgesTable.serial, serial)));
     expect(rows).toHaveLength(1);
   });

@@ -6,6 +6,7 @@ import { seedCellar } from '../../server/db/seeds/cellar';
 import { createLabResult, createLot, createTank, discPoints, labResultBody, lotBody, tankBody } from '../factories/cellar';
 import { setupApiApp } from '../support/api-app';
 import { Client, signUp } from '../support/test-app';
+import { expectReplayedCreate } from '../support/idempotency';
 
 const app = setupApiApp({ wineryName: 'Cellar Test Winery', otherWineryName: 'Other Cellar Winery', members: true });
 
@@ -198,12 +199,7 @@ describe('lots', () => {
   it('makes one lot for a create retried with the same Idempotency-Key', async () => {
     const body = lotBody();
     const key = `lot-create-${Date.now()}`;
-    const first = await app.owner.request('POST', '/api/lots', body, { 'idempotency-key': key });
-    const retry = await app.owner.request('POST', '/api/lots', body, { 'idempotency-key': key });
-    expect(first.status).toBe(201);
-    expect(retry.status).toBe(201);
-    expect(retry.body.id).toBe(first.body.id);
-    expect(retry.headers.get('idempotent-replay')).toBe('true');
+    await expectReplayedCreate(app.owner, app.owner, '/api/lots', body, key);
     const list = await app.owner.get(`/api/lots?q=${encodeURIComponent(body.code)}`);
     expect(list.body.total).toBe(1);
   });

@@ -5,6 +5,7 @@ import { cartridgesTable } from '../../server/db/schema';
 import { cartridgeTypeInput, createCartridgeType, createHousing, createLine, housingInput, lineInput } from '../factories/equipment';
 import { setupApiApp } from '../support/api-app';
 import { signUp } from '../support/test-app';
+import { expectReplayedCreate } from '../support/idempotency';
 
 const app = setupApiApp({ wineryName: 'Equipment Test Winery', members: true });
 
@@ -124,12 +125,7 @@ describe('housings', () => {
   it('carries out a retried create once (Idempotency-Key)', async () => {
     const body = housingInput();
     const key = `housing-${Date.now()}-retry`;
-    const first = await app.owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
-    const again = await app.owner.request('POST', '/api/housings', body, { 'idempotency-key': key });
-    expect(first.status).toBe(201);
-    expect(again.status).toBe(201);
-    expect(again.body.id).toBe(first.body.id);
-    expect(again.headers.get('idempotent-replay')).toBe('true');
+    await expectReplayedCreate(app.owner, app.owner, '/api/housings', body, key);
   });
 });
 

@@ -1,6 +1,7 @@
 // @vitest-environment node
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { signUp, startTestApp, type TestApp } from '../support/test-app';
+import { expectReplayedCreate } from '../support/idempotency';
 
 let app: TestApp;
 beforeAll(async () => {
@@ -16,12 +17,7 @@ describe('Idempotency-Key', () => {
   it('a retry gets the first answer and makes no second record', async () => {
     const { client } = await signUp(app.baseUrl);
     const k = key();
-    const first = await client.request('POST', '/api/tanks', { name: 'Retry tank', capacityL: 5000, notes: '' }, { 'idempotency-key': k });
-    const again = await client.request('POST', '/api/tanks', { name: 'Retry tank', capacityL: 5000, notes: '' }, { 'idempotency-key': k });
-    expect(first.status).toBe(201);
-    expect(again.status).toBe(201);
-    expect(again.headers.get('idempotent-replay')).toBe('true');
-    expect(again.body.id).toBe(first.body.id);
+    await expectReplayedCreate(client, client, '/api/tanks', { name: 'Retry tank', capacityL: 5000, notes: '' }, k);
     expect((await client.get('/api/tanks')).body.total).toBe(1);
   });
 

@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { databaseUrl } from '../../scripts/lib/postgres';
 import { freePort, spawnServer } from '../support/server-process';
 import { addMember, Client, signUp, startTestApp, TEST_PASSWORD, type TestApp } from '../support/test-app';
+import { expectReplayedCreate } from '../support/idempotency';
 
 let a: TestApp;
 let b: TestApp;
@@ -54,13 +55,7 @@ function onOther(client: Client, other: TestApp): Client {
 /** A tank made with an Idempotency-Key through `first`, the same request replayed through `second`: the first answer, one tank. */
 async function expectOneTankFromReplay(first: Client, second: Client) {
   const key = `instances-${Date.now()}-${Math.random().toString(36).slice(2)}`;
-  const body = { name: 'Tank on two servers', capacityL: 4000, notes: '' };
-  const made = await first.request('POST', '/api/tanks', body, { 'idempotency-key': key });
-  const replay = await second.request('POST', '/api/tanks', body, { 'idempotency-key': key });
-  expect(made.status).toBe(201);
-  expect(replay.status).toBe(201);
-  expect(replay.headers.get('idempotent-replay')).toBe('true');
-  expect(replay.body.id).toBe(made.body.id);
+  await expectReplayedCreate(first, second, '/api/tanks', { name: 'Tank on two servers', capacityL: 4000, notes: '' }, key);
   expect((await second.get('/api/tanks')).body.total).toBe(1);
 }
 
